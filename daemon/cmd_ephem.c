@@ -1,0 +1,208 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cmd_ephem.c: "moonrange ephem", the geometry of one instant. */
+#include <ctype.h>
+#include <getopt.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <erfam.h>
+
+#include "cli.h"
+#include "geom.h"
+#include "render.h"
+
+#define EPHEM_MAX_TARGETS 64
+
+/* The built-in demonstration station (invented): a ridge in a desert
+   range, used when neither --station nor a database is given. */
+#define DEMO_NAME "Kestrel Ridge (demo)"
+#define DEMO_LAT 38.9712
+#define DEMO_LON -114.3098
+#define DEMO_HEIGHT 2950.0
+#define DEMO_TZ "America/Los_Angeles"
+
+static void
+usage(FILE *f)
+{
+	fprintf(f,
+	    "usage: moonrange ephem [--station LAT,LON,HEIGHT_M]\n"
+	    "                       [--target ID=LAT,LON[,HEIGHT_M]]...\n"
+	    "                       [--at UTC] [--dut1 SECONDS] [--json]\n"
+	    "\n"
+	    "Topocentric position of the Moon and the Sun, the lunar phase and\n"
+	    "librations, and for each target its pointing, range, round-trip\n"
+	    "time and the Sun's elevation at the reflector.\n"
+	    "\n"
+	    "  --station LAT,LON,H  geodetic latitude, east longitude (deg) and\n"
+	    "                       WGS84 height (m); default: a demo station\n"
+	    "  --target ID=LAT,LON[,H]  selenographic latitude, east longitude\n"
+	    "                       (deg) and height above 1737.4 km (m);\n"
+	    "                       repeat for several targets (at most %d)\n"
+	    "  --at UTC             instant, ISO 8601 with Z (default: now)\n"
+	    "  --dut1 SECONDS       UT1-UTC (default 0), |DUT1| <= 0.9\n"
+	    "  --json               machine-readable output (see README)\n"
+	    "  --help               this text\n", EPHEM_MAX_TARGETS);
+}
+
+static int
+valid_id(const char *s, size_t n)
+{
+	if (n == 0 || n > 32)
+		return 0;
+	for (size_t i = 0; i < n; i++)
+		if (!isalnum((unsigned char)s[i]) && s[i] != '_' &&
+		    s[i] != '-' && s[i] != '.')
+			return 0;
+	return 1;
+}
+
+/* Parse "ID=LAT,LON[,H]" into an id (copied into idbuf) and a target. */
+static int
+parse_target(const char *arg, char *idbuf, size_t idlen,
+    struct geom_target *t)
+{
+	const char *eq = strchr(arg, '=');
+	char tmp[128], *f[4], *save = NULL, *p;
+	double lat, lon, h = 0.0;
+	int n = 0;
+
+	if (eq == NULL || !valid_id(arg, (size_t)(eq - arg)) ||
+	    (size_t)(eq - arg) >= idlen)
+		return cli_usage_error("--target '%s': expected ID=LAT,LON"
+		    "[,HEIGHT_M] with an ID of 1-32 letters, digits, '_', "
+		    "'-' or '.'", arg);
+	memcpy(idbuf, arg, (size_t)(eq - arg));
+	idbuf[eq - arg] = '\0';
+	if (strlen(eq + 1) >= sizeof tmp)
+		return cli_usage_error("--target '%s': too long", arg);
+	strcpy(tmp, eq + 1);
+	for (p = strtok_r(tmp, ",", &save); p && n < 4;
+	    p = strtok_r(NULL, ",", &save))
+		f[n++] = p;
+	if (n < 2 || n > 3)
+		return cli_usage_error("--target '%s': expected LAT,LON[,HEIGHT_M]"
+		    " after '='", arg);
+	if (cli_parse_double(f[0], -90, 90, &lat))
+		return cli_usage_error("--target %s: latitude '%s' is not a "
+		    "number in -90..90", idbuf, f[0]);
+	if (cli_parse_double(f[1], -180, 360, &lon))
+		return cli_usage_error("--target %s: longitude '%s' is not a "
+		    "number in -180..360", idbuf, f[1]);
+	if (n == 3 && cli_parse_double(f[2], -20000, 20000, &h))
+		return cli_usage_error("--target %s: height '%s' is not a "
+		    "number of metres in -20000..20000", idbuf, f[2]);
+	if (geom_target_from_selen(lat * ERFA_DD2R, lon * ERFA_DD2R, h, t))
+		return cli_usage_error("--target %s: position out of range",
+		    idbuf);
+	return CLI_EXIT_OK;
+}
+
+int
+cmd_ephem(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		{"station", required_argument, NULL, 's'},
+		{"target", required_argument, NULL, 't'},
+		{"at", required_argument, NULL, 'a'},
+		{"dut1", required_argument, NULL, 'd'},
+		{"json", no_argument, NULL, 'j'},
+		{"help", no_argument, NULL, 'h'},
+		{NULL, 0, NULL, 0}
+	};
+	static char ids[EPHEM_MAX_TARGETS][33];
+	struct geom_target targets[EPHEM_MAX_TARGETS];
+	struct render_target_row rows[EPHEM_MAX_TARGETS];
+	size_t ntargets = 0;
+	double lat = DEMO_LAT, lon = DEMO_LON, h = DEMO_HEIGHT;
+	double utc1 = 0, utc2 = 0, dut1 = 0.0;
+	int have_at = 0, json = 0, demo = 1, c, st;
+	const char *dut1_source = "none";
+	char err[200];
+	struct geom_site site;
+	struct geom_eop eop = {0.0, 0.0, 0.0};
+	struct geom_instant g;
+	struct render_ephem rep;
+	struct mbuf out;
+	enum errcode rc;
+
+	optind = 1;
+	opterr = 0;
+	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		switch (c) {
+		case 's':
+			if (cli_parse_station(optarg, &lat, &lon, &h, err,
+			    sizeof err))
+				return cli_usage_error("%s", err);
+			demo = 0;
+			break;
+		case 't':
+			if (ntargets == EPHEM_MAX_TARGETS)
+				return cli_usage_error("--target: at most %d "
+				    "targets", EPHEM_MAX_TARGETS);
+			st = parse_target(optarg, ids[ntargets],
+			    sizeof ids[ntargets], &targets[ntargets]);
+			if (st != CLI_EXIT_OK)
+				return st;
+			for (size_t i = 0; i < ntargets; i++)
+				if (strcmp(ids[i], ids[ntargets]) == 0)
+					return cli_usage_error("--target: id "
+					    "'%s' given twice", ids[i]);
+			ntargets++;
+			break;
+		case 'a':
+			if (cli_parse_time("--at", optarg, &utc1, &utc2))
+				return CLI_EXIT_USAGE;
+			have_at = 1;
+			break;
+		case 'd':
+			if (cli_parse_double(optarg, -0.9, 0.9, &dut1))
+				return cli_usage_error("--dut1: '%s' is not a "
+				    "number of seconds in -0.9..0.9", optarg);
+			dut1_source = "option";
+			break;
+		case 'j':
+			json = 1;
+			break;
+		case 'h':
+			usage(stdout);
+			return CLI_EXIT_OK;
+		default:
+			return cli_usage_error("ephem: unknown or incomplete "
+			    "option '%s' (see 'moonrange ephem --help')",
+			    argv[optind - 1]);
+		}
+	}
+	if (optind < argc)
+		return cli_usage_error("ephem: unexpected argument '%s'",
+		    argv[optind]);
+	if (!have_at)
+		cli_now(&utc1, &utc2);
+
+	if (geom_site_init(&site, lat * ERFA_DD2R, lon * ERFA_DD2R, h, NULL))
+		return cli_usage_error("--station: position out of range");
+	eop.dut1 = dut1;
+	rc = geom_instant_at(&site, &eop, utc1, utc2, GEOM_PREC_FULL, &g);
+	if (rc != ERRCODE_OK)
+		return cli_usage_error("--at: %s", errcode_str(rc));
+	for (size_t i = 0; i < ntargets; i++) {
+		rows[i].id = ids[i];
+		geom_target_view(&g, &targets[i], &rows[i].view);
+	}
+	memset(&rep, 0, sizeof rep);
+	rep.g = &g;
+	rep.targets = rows;
+	rep.ntargets = ntargets;
+	rep.dut1_source = dut1_source;
+	rep.station_name = demo ? DEMO_NAME : NULL;
+	rep.time_zone = demo ? DEMO_TZ : NULL;
+	mbuf_init(&out);
+	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep, &out);
+	if (rc != ERRCODE_OK) {
+		mbuf_free(&out);
+		return cli_fail("%s", errcode_str(rc));
+	}
+	st = cli_emit(&out);
+	mbuf_free(&out);
+	return st;
+}

@@ -1,0 +1,68 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cli.h: the subcommand table and helpers shared by the cmd_*.c files. */
+#ifndef MOONRANGE_CLI_H
+#define MOONRANGE_CLI_H
+
+#include <stddef.h>
+
+#include "errcode.h"
+#include "mem.h"
+
+/* Exit statuses of the program. */
+#define CLI_EXIT_OK	0
+#define CLI_EXIT_FAIL	1	/* runtime failure: database, file, network */
+#define CLI_EXIT_USAGE	2	/* bad input: option, value, time, file row */
+
+struct cli_command {
+	const char *name;
+	const char *summary;
+	int (*run)(int argc, char **argv);	/* argv[0] is the name */
+};
+
+/* The table, ended by a NULL name (cli.c). */
+extern const struct cli_command cli_commands[];
+
+/* Dispatch argv (argv[0] the program) to a command; returns exit status. */
+int cli_main(int argc, char **argv);
+
+/* --- helpers --- */
+
+/* Print "moonrange: error: ..." to stderr; return CLI_EXIT_USAGE. */
+int cli_usage_error(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
+
+/* Print "moonrange: error: ..." to stderr; return CLI_EXIT_FAIL. */
+int cli_fail(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
+
+/* Print "moonrange: warning: ..." to stderr. */
+void cli_warn(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
+
+/* Exit status for an error code: input errors give CLI_EXIT_USAGE. */
+int cli_status_of(enum errcode rc);
+
+/* A whole number or decimal in [min, max]; ERRCODE_BAD_ARG otherwise. */
+enum errcode cli_parse_double(const char *s, double min, double max,
+    double *out);
+enum errcode cli_parse_long(const char *s, long min, long max, long *out);
+
+/*
+ * "LAT,LON,HEIGHT_M" in degrees (east positive) and metres.  Fills
+ * lat/lon in degrees.  errbuf gets a sentence on failure.
+ */
+enum errcode cli_parse_station(const char *s, double *lat_deg,
+    double *lon_deg, double *height_m, char *errbuf, size_t errlen);
+
+/* The current UTC as a quasi-JD (the one place the CLI reads the clock). */
+void cli_now(double *utc1, double *utc2);
+
+/* A UTC time option: "now" or ISO 8601. */
+enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
+    double *utc2);
+
+/* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
+int cli_emit(struct mbuf *b);
+
+/* --- commands (one file each: cmd_<name>.c) --- */
+int cmd_ephem(int argc, char **argv);
+int cmd_phases(int argc, char **argv);
+
+#endif

@@ -1,0 +1,44 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_errcode.c: every status code has its own message and name. */
+#include <string.h>
+
+#include "check.h"
+#include "errcode.h"
+
+static void
+test_errcode_every_code_has_own_text(void **state)
+{
+	(void)state;
+	for (int i = 0; i < ERRCODE__LAST; i++) {
+		const char *s = errcode_str((enum errcode)i);
+		const char *n = errcode_name((enum errcode)i);
+
+		assert_non_null(s);
+		assert_non_null(n);
+		assert_string_not_equal(s, "unknown error");
+		assert_string_not_equal(n, "unknown");
+		for (int j = 0; j < i; j++) {
+			assert_string_not_equal(s, errcode_str((enum errcode)j));
+			assert_string_not_equal(n, errcode_name((enum errcode)j));
+		}
+	}
+}
+
+static void
+test_errcode_ok_is_zero(void **state)
+{
+	(void)state;
+	assert_int_equal(ERRCODE_OK, 0);
+	assert_string_equal(errcode_name(ERRCODE_OK), "ok");
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_errcode_every_code_has_own_text),
+		cmocka_unit_test(test_errcode_ok_is_zero),
+	};
+
+	return cmocka_run_group_tests_name("errcode", tests, NULL, NULL);
+}
