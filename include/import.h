@@ -1,0 +1,96 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* import.h: parsers for the station file, CSV logs, CRD normal points and
+   IERS Earth-orientation files, all from memory buffers. */
+#ifndef MOONRANGE_IMPORT_H
+#define MOONRANGE_IMPORT_H
+
+#include <stddef.h>
+
+#include "errcode.h"
+#include "site.h"
+
+/*
+ * Every parser reads a complete buffer (not a file: the caller reads it, so
+ * the parsers can be fuzzed) and hands each good record to a callback.
+ * Bad records are collected in the report with their line number and the
+ * field at fault; parsing continues so that every bad line is reported at
+ * once.  A callback returning non-OK stops the parse and that code is
+ * returned.  The parsers never allocate beyond what they state and never
+ * keep pointers into the buffer after returning.
+ *
+ * Return value: ERRCODE_OK when every record was good; ERRCODE_BAD_ARG
+ * when at least one record was bad (see the report); ERRCODE_IO for a
+ * buffer that is not text (NUL bytes, invalid UTF-8) or is truncated in
+ * a way that makes it unreadable; a callback's code if it stopped.
+ */
+
+#define IMPORT_MAX_ERRORS 50	/* errors kept in a report (all counted) */
+
+struct import_error {
+	size_t line;			/* 1-based; 0 for the whole file */
+	char field[32];			/* column or key at fault, "" if none */
+	char message[160];		/* a sentence, no trailing period */
+};
+
+struct import_report {
+	size_t records;			/* good records handed to the callback */
+	size_t bad;			/* bad records (all, not only kept) */
+	size_t skipped;			/* records of types not used (CRD) */
+	size_t nerrors;			/* errors kept, <= IMPORT_MAX_ERRORS */
+	struct import_error errors[IMPORT_MAX_ERRORS];
+};
+
+void import_report_init(struct import_report *rep);
+
+/* Format error i as "FILE:LINE: field 'F': message" into buf. */
+void import_error_format(const struct import_report *rep, size_t i,
+    const char *file, char *buf, size_t len);
+
+/* --- station file (INI) --- */
+
+/* Parse the station INI into *st (all keys validated, unknown keys are
+   errors naming the key, missing required keys too). */
+enum errcode import_station_ini(const char *buf, size_t len,
+    struct site_station *st, struct import_report *rep);
+
+/* --- CSV (RFC 4180, header row required) --- */
+
+typedef enum errcode (*import_target_fn)(void *ctx,
+    const struct site_target *t, size_t line);
+typedef enum errcode (*import_attempt_fn)(void *ctx,
+    const struct site_attempt *a, size_t line);
+
+enum errcode import_targets_csv(const char *buf, size_t len,
+    import_target_fn fn, void *ctx, struct import_report *rep);
+enum errcode import_attempts_csv(const char *buf, size_t len,
+    import_attempt_fn fn, void *ctx, struct import_report *rep);
+
+/* --- CRD normal points --- */
+
+/*
+ * One normal point with the header context it appeared under.  target_name
+ * is the CRD target name (H3), to be mapped through the targets' alias;
+ * station_code the station of the session (H2).  np->target is left "".
+ */
+struct import_crd_np {
+	char target_name[SITE_NAME_LEN];
+	struct site_normal_point np;
+};
+
+typedef enum errcode (*import_np_fn)(void *ctx, const struct import_crd_np *np,
+    size_t line);
+
+enum errcode import_crd(const char *buf, size_t len, import_np_fn fn,
+    void *ctx, struct import_report *rep);
+
+/* --- IERS Earth orientation (finals / Bulletin A columns, and C04) --- */
+
+typedef enum errcode (*import_eop_fn)(void *ctx, const struct site_eop_row *r,
+    size_t line);
+
+enum errcode import_eop_finals(const char *buf, size_t len, import_eop_fn fn,
+    void *ctx, struct import_report *rep);
+enum errcode import_eop_c04(const char *buf, size_t len, import_eop_fn fn,
+    void *ctx, struct import_report *rep);
+
+#endif
