@@ -16,6 +16,10 @@ const struct cli_command cli_commands[] = {
 	    cmd_ephem},
 	{"phases", "new moon, quarters and full moon in a time span",
 	    cmd_phases},
+	{"windows", "observing windows in a span, ranked by yield and phase "
+	    "coverage", cmd_windows},
+	{"tonight", "the coming night: ranked windows, best target now",
+	    cmd_tonight},
 	{NULL, NULL, NULL}
 };
 
