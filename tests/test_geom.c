@@ -75,6 +75,9 @@ test_geom_meeus_47a_moon_position(void **state)
 		p[i] = b.moon_p[i] - tau * b.moon_v[i];
 	eraRxp(e.rbpn, p, tod);
 	eraC2s(tod, &ra, &dec);
+	print_message("47.a: RA %.6f deg, Dec %.6f deg, distance %.3f km, "
+	    "parallax %.6f deg\n", eraAnp(ra) * R2D, dec * R2D, r / 1e3,
+	    asin(6378.14e3 / r) * R2D);
 	/* Meeus 47.a (quoted from memory) */
 	check_near(eraAnp(ra) * R2D * cos(dec), 134.688470 * cos(dec), 2.0 / 3600,
 	    "deg", "47.a apparent RA (times cos dec)");
@@ -108,6 +111,7 @@ test_geom_meeus_48a_illuminated_fraction(void **state)
 	}
 	i = eraSepp(sm, em);
 	k = (1.0 + cos(i)) / 2.0;
+	print_message("48.a: phase angle %.4f deg, k %.5f\n", i * R2D, k);
 	check_near(i * R2D, 69.0756, 0.002, "deg", "48.a phase angle");
 	check_near(k, 0.6786, 0.00006, "", "48.a illuminated fraction");
 }
@@ -132,6 +136,8 @@ test_geom_meeus_49a_new_moon(void **state)
 		if (ev[j].kind != GEOM_PHASE_NEW)
 			continue;
 		found++;
+		print_message("49.a: new moon JDE %.5f\n",
+		    ev[j].tt1 + ev[j].tt2);
 		check_near((ev[j].tt1 - 2443192.0) + ev[j].tt2, 0.65118,
 		    20.0 / 86400.0, "d", "49.a new moon JDE - 2443192");
 	}
@@ -158,6 +164,10 @@ test_geom_meeus_53a_libration(void **state)
 	(void)state;
 	test_site(&site);
 	instant_at_tt(&site, MEEUS_JDE, 0.0, &g);
+	print_message("53.a: l %.3f b %.3f, sun l0 %.3f b0 %.3f, colongitude "
+	    "%.3f deg\n", g.lib.geo_lon * R2D, g.lib.geo_lat * R2D,
+	    g.lib.subsolar_lon * R2D, g.lib.subsolar_lat * R2D,
+	    g.lib.colongitude * R2D);
 	check_near(g.lib.geo_lon * R2D, -1.23, 0.05, "deg",
 	    "53.a libration in longitude");
 	check_near(g.lib.geo_lat * R2D, 4.20, 0.05, "deg",
