@@ -304,9 +304,76 @@ test_geom_identity_subsolar_and_substation_targets(void **state)
 		geom_target_view(&g, &t, &v);
 		check_near(v.earth_elevation * R2D, 90.0, 0.001, "deg",
 		    "station elevation at the sub-station point");
+		/* it lies on the line of sight to the centre, one lunar
+		   radius nearer, with no offset from the centre */
+		check_near(v.range, g.moon.range - GEOM_MOON_RADIUS, 1.0, "m",
+		    "range of the sub-station point");
+		check_near(hypot(v.offset_ra, v.offset_dec) / AS, 0.0, 0.05,
+		    "arcsec", "offset of the sub-station point");
+		check_near(v.round_trip, 2.0 * v.range / GEOM_C, 1e-12, "s",
+		    "round trip = 2 range / c");
 		/* colongitude = 90 deg - sub-solar longitude (Meeus ch. 53) */
 		check_near(check_wrap180((g.lib.colongitude + g.lib.subsolar_lon) *
 		    R2D - 90.0), 0.0, 1e-9, "deg", "colongitude identity");
+	}
+}
+
+/* Unit vector of an azimuth and elevation (east, north, up). */
+static void
+azel_vec(double az, double el, double v[3])
+{
+	v[0] = cos(el) * sin(az);
+	v[1] = cos(el) * cos(az);
+	v[2] = sin(el);
+}
+
+/*
+ * Offsets from the Moon's centre (geometric identities): for targets
+ * spread over the near side, the offset (dRA cos Dec, dDec) has the
+ * length of the angle between target and centre seen from the station
+ * (tangent-plane approximation: relative error < theta tan(Dec) ~ 0.3 %
+ * at 0.26 deg), and never exceeds the Moon's apparent radius
+ * asin(1737.4 km / range); a target whose horizon has the station above
+ * it is nearer than the centre.
+ */
+static void
+test_geom_identity_target_offsets(void **state)
+{
+	struct geom_site site;
+	unsigned long seed = 91;
+
+	(void)state;
+	test_site(&site);
+	for (int i = 0; i < 100; i++) {
+		struct geom_instant g;
+		double tt = 2455197.5 + lcg01(&seed) * 7305.0;
+
+		instant_at_tt(&site, tt, 0.0, &g);
+		for (int j = 0; j < 10; j++) {
+			struct geom_target t;
+			struct geom_target_view v;
+			double lat = asin(2.0 * lcg01(&seed) - 1.0);
+			double lon = (lcg01(&seed) * 360.0 - 180.0) * D2R;
+			double a[3], c[3], sep, off, rad;
+
+			assert_int_equal(geom_target_from_selen(lat, lon, 0.0,
+			    &t), ERRCODE_OK);
+			geom_target_view(&g, &t, &v);
+			azel_vec(v.az, v.el, a);
+			azel_vec(g.moon.az, g.moon.el, c);
+			sep = eraSepp(a, c);
+			off = hypot(v.offset_ra, v.offset_dec);
+			rad = asin(GEOM_MOON_RADIUS / g.moon.range);
+			check_near(off / AS, sep / AS, 0.005 * sep / AS + 0.1,
+			    "arcsec", "offset length = angle from the centre");
+			assert_true(sep <= rad * 1.001);
+			/* the station above the target's horizon means the
+			   target faces it, so it is nearer than the centre
+			   (cos theta > R / D implies range < D) */
+			if (v.earth_elevation > 0.0)
+				assert_true(v.range < g.moon.range);
+			assert_int_equal(v.sunlit, v.sun_elevation > 0.0);
+		}
 	}
 }
 
@@ -564,6 +631,7 @@ main(void)
 		cmocka_unit_test(test_geom_fact_mean_synodic_month),
 		cmocka_unit_test(test_geom_fact_horizontal_parallax),
 		cmocka_unit_test(test_geom_identity_subsolar_and_substation_targets),
+		cmocka_unit_test(test_geom_identity_target_offsets),
 		cmocka_unit_test(test_geom_identity_illuminated_fraction),
 		cmocka_unit_test(test_geom_fact_libration_bounds),
 		cmocka_unit_test(test_geom_site_init_rejects_out_of_range),

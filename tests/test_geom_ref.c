@@ -283,7 +283,7 @@ static const struct {
 static void
 test_geom_ref_topocentric_az_el(void **state)
 {
-	struct stat del = {0}, daz = {0}, dra = {0}, ddec = {0};
+	struct stat del = {0}, daz = {0}, dra = {0}, ddec = {0}, dha = {0};
 	unsigned long seed = 2020;
 	const double utc0 = 2458849.5, span = 3653.0;	/* 2020-01-01 + 10 y */
 
@@ -335,17 +335,23 @@ test_geom_ref_topocentric_az_el(void **state)
 			stat_add(&dra, eraAnpm(g.moon.ra - ra) * cos(dec) /
 			    AS2R);
 			stat_add(&ddec, (g.moon.dec - dec) / AS2R);
+			/* local hour angle, west positive: GAST + lon - RA */
+			stat_add(&dha, eraAnpm(g.moon.ha - (gast +
+			    stations[s].lon * D2R - ra)) * cos(dec) / AS2R);
 		}
 	}
 	print_message("topocentric Moon vs libnova, %zu stations x 200 epochs"
 	    " 2020-2030: el RMS %.2f\" worst %.2f\"; az*cos(el) RMS %.2f\" "
 	    "worst %.2f\"; RA*cos(Dec) RMS %.2f\" worst %.2f\"; Dec RMS "
-	    "%.2f\" worst %.2f\"\n", sizeof stations / sizeof stations[0],
+	    "%.2f\" worst %.2f\"; HA*cos(Dec) RMS %.2f\" worst %.2f\"\n",
+	    sizeof stations / sizeof stations[0],
 	    stat_rms(&del), del.worst, stat_rms(&daz), daz.worst,
-	    stat_rms(&dra), dra.worst, stat_rms(&ddec), ddec.worst);
+	    stat_rms(&dra), dra.worst, stat_rms(&ddec), ddec.worst,
+	    stat_rms(&dha), dha.worst);
 	assert_true(del.worst <= 20.0);
 	assert_true(daz.worst <= 20.0);
 	assert_true(dra.worst <= 20.0 && ddec.worst <= 20.0);
+	assert_true(dha.worst <= 20.0);
 }
 
 /* --- 3. phase instants, 2024-2030 --------------------------------------- */
