@@ -122,7 +122,16 @@ expect_bad --station ephem --station 10,20 $AT
 expect_bad --station ephem --station 10,abc,0 $AT
 expect_bad --station ephem --station 10,20,20000 $AT
 expect_bad --station ephem --station "" $AT
+expect_bad --station ephem --station 10,,20,30 $AT
+expect_bad --station ephem --station 10,20,30, $AT
+expect_bad --station ephem --station 10,20,30,40 $AT
+expect_bad --station ephem --station "10,20, 30" $AT
+expect_bad --station ephem --station 10,20,0x1e $AT
+expect_bad --station ephem --station 10,20,nan $AT
 expect_bad --target ephem --target T1=95,0 $AT
+expect_bad --target ephem --target T1=1,,2 $AT
+expect_bad --target ephem --target T1=1,2, $AT
+expect_bad --target ephem --target T1=0x10,2 $AT
 expect_bad --target ephem --target T1=0,400 $AT
 expect_bad --target ephem --target T1 $AT
 expect_bad --target ephem --target =1,2 $AT
@@ -136,6 +145,8 @@ expect_bad --at ephem --at 2017-06-30T23:59:60Z
 expect_bad --at ephem --at yesterday
 expect_bad --dut1 ephem --dut1 1.5 $AT
 expect_bad --dut1 ephem --dut1 abc $AT
+expect_bad --dut1 ephem --dut1 1e-1 $AT
+expect_bad --dut1 ephem --dut1 "" $AT
 expect_bad --bogus ephem --bogus $AT
 expect_bad "unexpected argument" ephem $AT extra
 expect_bad --from phases --from 2027-02-30T00:00:00Z --to 2027-04-01T00:00:00Z
