@@ -599,6 +599,42 @@ test_geom_instant_at_matches_parts(void **state)
 	    GEOM_PREC_FULL, &b), ERRCODE_BAD_TIME);
 }
 
+/* Splitting a span at any instant neither loses nor repeats an event,
+   and each event is found to well under 1 s (item 7 of the contract):
+   the synodic angle grows 11-14 deg/day, i.e. > 1.2e-4 deg/s, so 1 s of
+   time is > 0.45" of angle; the event's angle must be within 0.05". */
+static void
+test_geom_phases_split_spans(void **state)
+{
+	static const double splits[] = {3.0, 7.3821, 14.76532, 22.5, 29.0};
+	struct geom_phase_event all[16], a[16], b[16];
+	size_t n, na, nb;
+	const double t0 = 2461041.5;
+
+	(void)state;
+	assert_int_equal(geom_phases_find(t0, 0.0, t0, 30.0, all, 16, &n),
+	    ERRCODE_OK);
+	for (size_t i = 0; i < n; i++)
+		check_near(check_wrap180(geom_synodic_at(all[i].tt1,
+		    all[i].tt2) * R2D - 90.0 * (double)all[i].kind) * 3600.0,
+		    0.0, 0.05, "arcsec", "synodic angle at the event");
+	for (size_t s = 0; s < sizeof splits / sizeof splits[0]; s++) {
+		assert_int_equal(geom_phases_find(t0, 0.0, t0, splits[s], a, 16,
+		    &na), ERRCODE_OK);
+		assert_int_equal(geom_phases_find(t0, splits[s], t0, 30.0, b,
+		    16, &nb), ERRCODE_OK);
+		assert_int_equal(na + nb, n);
+		for (size_t i = 0; i < na; i++)
+			check_near((a[i].tt1 - all[i].tt1) + (a[i].tt2 -
+			    all[i].tt2), 0.0, 0.01 / 86400, "d",
+			    "same event before the split");
+		for (size_t i = 0; i < nb; i++)
+			check_near((b[i].tt1 - all[na + i].tt1) + (b[i].tt2 -
+			    all[na + i].tt2), 0.0, 0.01 / 86400, "d",
+			    "same event after the split");
+	}
+}
+
 static void
 test_geom_phases_api_limits(void **state)
 {
@@ -638,6 +674,7 @@ main(void)
 		cmocka_unit_test(test_geom_targets_reject_out_of_range),
 		cmocka_unit_test(test_geom_refraction_at_45_deg),
 		cmocka_unit_test(test_geom_instant_at_matches_parts),
+		cmocka_unit_test(test_geom_phases_split_spans),
 		cmocka_unit_test(test_geom_phases_api_limits),
 	};
 
