@@ -595,6 +595,42 @@ test_geom_ref_meeus_formulas_reproduce_53a(void **state)
 }
 
 /*
+ * Meeus ch. 53 on libnova at TT: the geocentric libration (l, b) and the
+ * selenographic position of the Sun (l0, b0), deg.  The Moon is taken at
+ * TT - 1.28 s (light time), the Sun's selenocentric direction by Meeus's
+ * heliocentric approximation lambda_H = lambda0 + 180 + (Delta/R) 57.296
+ * cos(beta) sin(lambda0 - lambda), beta_H = (Delta/R) beta.
+ */
+static void
+ref_librations(double tt, double *l, double *b, double *l0, double *b0)
+{
+	struct meeus_args a;
+	struct ln_helio_posn sp;
+	double m[3], q[3], p[3], ec[3], lam, bet, ls, bs, dist, rs, lh, bh;
+
+	ref_moon_ecl2000(tt - 1.28 / 86400.0, m);
+	dist = vlen(m);
+	ecl2000_to_equ2000(m, q);
+	precess(q, tt, p);
+	equ_to_ecl_of_date(p, tt, ec);
+	to_lonlat(ec, &lam, &bet);
+	meeus_args(tt, &a);
+	meeus_libration(lam * R2D, bet * R2D, &a, l, b);
+
+	ln_get_solar_geom_coords(tt, &sp);
+	rs = sp.R * KM_PER_AU;
+	from_lonlat(sp.L * D2R, sp.B * D2R, sp.R, ec);
+	ecl2000_to_equ2000(ec, q);
+	precess(q, tt, p);
+	equ_to_ecl_of_date(p, tt, ec);
+	to_lonlat(ec, &ls, &bs);
+	ls = ls * R2D - 20.4898 / sp.R / 3600.0;
+	lh = ls + 180.0 + dist / rs * 57.296 * cos(bet) * sin(ls * D2R - lam);
+	bh = dist / rs * bet * R2D;
+	meeus_libration(lh, bh, &a, l0, b0);
+}
+
+/*
  * 400 epochs over 1990-2050.  Reference: Meeus ch. 53 on libnova's Moon
  * (at TT - tau) and Sun, the Sun's selenocentric direction by Meeus's
  * heliocentric approximation (lambda_H, beta_H of ch. 53).  Tolerance
@@ -619,10 +655,7 @@ test_geom_ref_librations(void **state)
 		struct geom_bodies b;
 		struct geom_earth e;
 		struct geom_instant g;
-		struct meeus_args a;
-		struct ln_helio_posn sp;
-		double m[3], q[3], p[3], ec[3], lam, bet, ls, bs, dist, rs;
-		double lh, bh, l, bb;
+		double l, bb, l0, b0;
 
 		assert_int_equal(tscale_from_tt(tt, 0.0, 0.0, &t), ERRCODE_OK);
 		assert_int_equal(geom_bodies_at(t.tt1, t.tt2, &b), ERRCODE_OK);
@@ -630,32 +663,11 @@ test_geom_ref_librations(void **state)
 		    GEOM_PREC_FULL, &e);
 		geom_instant_make(&site, &t, &b, &e, &g);
 
-		ref_moon_ecl2000(tt - 1.28 / 86400.0, m);	/* light time */
-		dist = vlen(m);
-		ecl2000_to_equ2000(m, q);
-		precess(q, tt, p);
-		equ_to_ecl_of_date(p, tt, ec);
-		to_lonlat(ec, &lam, &bet);
-		meeus_args(tt, &a);
-		meeus_libration(lam * R2D, bet * R2D, &a, &l, &bb);
+		ref_librations(tt, &l, &bb, &l0, &b0);
 		stat_add(&gl, check_wrap180(g.lib.geo_lon * R2D - l));
 		stat_add(&gb, g.lib.geo_lat * R2D - bb);
-
-		ln_get_solar_geom_coords(tt, &sp);
-		rs = sp.R * KM_PER_AU;
-		from_lonlat(sp.L * D2R, sp.B * D2R, sp.R, ec);
-		ecl2000_to_equ2000(ec, q);
-		precess(q, tt, p);
-		equ_to_ecl_of_date(p, tt, ec);
-		to_lonlat(ec, &ls, &bs);
-		ls = ls * R2D - 20.4898 / sp.R / 3600.0;
-		/* Meeus ch. 53: heliocentric longitude and latitude of the
-		   Moon, lambda_H = lambda0 + 180 + (Delta/R) 57.296 cos(beta)
-		   sin(lambda0 - lambda), beta_H = (Delta/R) beta */
-		lh = ls + 180.0 + dist / rs * 57.296 * cos(bet) *
-		    sin(ls * D2R - lam);
-		bh = dist / rs * bet * R2D;
-		meeus_libration(lh, bh, &a, &l, &bb);
+		l = l0;
+		bb = b0;
 		stat_add(&sl, check_wrap180(g.lib.subsolar_lon * R2D - l));
 		stat_add(&sb, g.lib.subsolar_lat * R2D - bb);
 		stat_add(&co, check_wrap180(g.lib.colongitude * R2D -
@@ -675,10 +687,12 @@ test_geom_ref_librations(void **state)
 /* --- 5. the Meeus examples of test_geom.c, cross-checked ---------------- */
 
 /*
- * test_geom.c quotes Meeus 47.a, 48.a and 49.a from memory; here the
- * same quantities from libnova confirm them: 47.a distance 368409.7 km
- * and RA/Dec 134.688470/13.768368 deg (apparent, of date), 48.a phase
- * angle 69.0756 deg, 49.a new moon JDE 2443192.65118.  Tolerances: the
+ * test_geom.c quotes Meeus 47.a, 48.a, 49.a and 53.a from memory; here
+ * the same quantities from libnova confirm them: 47.a distance
+ * 368409.7 km and RA/Dec 134.688470/13.768368 deg (apparent, of date),
+ * 48.a phase angle 69.0756 deg, 49.a new moon JDE 2443192.65118, 53.a
+ * l -1.23, b +4.20, l0 67.89, b0 +1.46 deg (Meeus prints 0.01 deg, so
+ * 0.01 deg allowed for the same formulas on libnova).  Tolerances: the
  * full ELP 2000-82B differs from Meeus's truncated series by up to ~10"
  * and ~10 km (Meeus ch. 47 states his series is good to ~10" in
  * longitude); for the new moon 10" is ~20 s, so 30 s.
@@ -688,6 +702,7 @@ test_geom_ref_meeus_examples_confirmed(void **state)
 {
 	const double jde = 2448724.5;
 	double m[3], q[3], p[3], t[3], ra, dec, sm[3], em[3], s[3], r;
+	double l, b, l0, b0;
 	struct ln_helio_posn sp;
 
 	(void)state;
@@ -706,14 +721,24 @@ test_geom_ref_meeus_examples_confirmed(void **state)
 	    "47.a Dec (libnova)");
 
 	ln_get_solar_geom_coords(jde, &sp);
-	from_lonlat(sp.L * D2R, sp.B * D2R, sp.R * KM_PER_AU, s);
+	/* apparent Sun, as Meeus uses: aberration -20.4898" / R */
+	from_lonlat(sp.L * D2R - 20.4898 / sp.R * AS2R, sp.B * D2R,
+	    sp.R * KM_PER_AU, s);
 	for (int k = 0; k < 3; k++) {
 		sm[k] = s[k] - m[k];
 		em[k] = -m[k];
 	}
 	r = eraSepp(sm, em) * R2D;
 	print_message("libnova at 48.a: phase angle %.4f deg\n", r);
-	check_near(r, 69.0756, 0.01, "deg", "48.a phase angle (libnova)");
+	check_near(r, 69.0756, 0.003, "deg", "48.a phase angle (libnova)");
+
+	ref_librations(jde, &l, &b, &l0, &b0);
+	print_message("Meeus ch. 53 on libnova at 53.a: l %.3f b %.3f l0 %.3f "
+	    "b0 %.3f deg\n", l, b, l0, b0);
+	check_near(l, -1.23, 0.01, "deg", "53.a l (libnova + Meeus 53)");
+	check_near(b, 4.20, 0.01, "deg", "53.a b (libnova + Meeus 53)");
+	check_near(l0, 67.89, 0.01, "deg", "53.a l0 (libnova + Meeus 53)");
+	check_near(b0, 1.46, 0.01, "deg", "53.a b0 (libnova + Meeus 53)");
 
 	r = ref_phase_root(2443192.0, 2443193.0, 0.0);
 	print_message("libnova at 49.a: new moon JDE %.5f\n", r);
