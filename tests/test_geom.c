@@ -392,7 +392,9 @@ test_geom_identity_illuminated_fraction(void **state)
 	test_site(&site);
 	assert_int_equal(geom_phases_find(2460000.5, 0.0, 2460365.5, 0.0, ev,
 	    64, &n), ERRCODE_OK);
-	assert_true(n >= 48 && n <= 50);	/* 12.37 lunations x 4 */
+	/* 365 d / 29.53 d (mean synodic month, Meeus ch. 49) = 12.36
+	   lunations x 4 phases */
+	assert_true(n >= 48 && n <= 50);
 	for (size_t j = 0; j < n; j++) {
 		struct geom_instant g;
 		double i, k;
@@ -648,7 +650,8 @@ test_geom_phases_api_limits(void **state)
 	/* more events than room: the first cap written, count reported */
 	assert_int_equal(geom_phases_find(2460000.5, 0, 2460060.5, 0, ev, 2,
 	    &n), ERRCODE_TOO_LARGE);
-	assert_true(n >= 8);
+	/* 60 d hold 8 or 9 phases (29.53 d / 4 apart, Meeus ch. 49) */
+	assert_true(n >= 8 && n <= 9);
 	assert_true(ev[0].tt1 + ev[0].tt2 < ev[1].tt1 + ev[1].tt2);
 	assert_string_equal(geom_phase_name(GEOM_PHASE_FIRST_QUARTER),
 	    "first_quarter");
