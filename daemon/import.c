@@ -484,6 +484,49 @@ key_real(struct site_station *st, size_t k)
 	return NULL;
 }
 
+static const char *
+key_type_name(enum import_key_type t)
+{
+	switch (t) {
+	case IMPORT_KEY_TEXT:
+		return "text";
+	case IMPORT_KEY_CODE:
+		return "code";
+	case IMPORT_KEY_TZ:
+		return "time zone";
+	case IMPORT_KEY_REAL:
+		return "number";
+	}
+	return "text";
+}
+
+void
+import_station_keys_doc(struct mbuf *out)
+{
+	mbuf_puts(out, "| Key | Type and range | Default | Meaning |\n"
+	    "|---|---|---|---|\n");
+	for (size_t k = 0; k < NKEYS; k++) {
+		const struct import_key *key = &station_keys[k];
+
+		mbuf_printf(out, "| `[%s] %s` | %s", key->section, key->name,
+		    key_type_name(key->type));
+		if (key->type == IMPORT_KEY_REAL)
+			mbuf_printf(out, ", %g to %g", key->min, key->max);
+		else if (key->type == IMPORT_KEY_CODE)
+			mbuf_printf(out, ", 1-%.0f of A-Z a-z 0-9 _ -",
+			    key->max);
+		else
+			mbuf_printf(out, ", at most %.0f bytes", key->max);
+		if (key->required)
+			mbuf_puts(out, " | required");
+		else if (isnan(key->def))
+			mbuf_puts(out, " | derived");
+		else
+			mbuf_printf(out, " | %g", key->def);
+		mbuf_printf(out, " | %s |\n", key->help);
+	}
+}
+
 void
 import_station_defaults(struct site_station *st)
 {
@@ -496,9 +539,8 @@ import_station_defaults(struct site_station *st)
 	}
 }
 
-/* Derived defaults: weather from the height when not given. */
-static void
-station_finish(struct site_station *st)
+void
+import_station_finish(struct site_station *st)
 {
 	struct geom_weather wx;
 
@@ -782,7 +824,7 @@ import_station_ini(const char *buf, size_t len, struct site_station *st,
 		    station_keys[k].section);
 		rep->bad++;
 	}
-	station_finish(st);
+	import_station_finish(st);
 	return rep_status(rep);
 }
 
@@ -2154,4 +2196,65 @@ import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 		rep->bad++;
 	}
 	return rep_status(rep);
+}
+
+enum import_eop_format
+import_eop_detect(const char *buf, size_t len)
+{
+	struct lines it;
+	const char *ln;
+	size_t n;
+	int term;
+
+	if (buf == NULL)
+		return IMPORT_EOP_UNKNOWN;
+	it.p = buf + bom_len(buf, len);
+	it.end = buf + len;
+	it.line = 0;
+	while (lines_next(&it, &ln, &n, &term)) {
+		size_t i = 0, d = 0;
+
+		if (blank(ln, n) || ln[0] == '#')
+			continue;
+		/* C04 opens with a text header; finals with data rows */
+		while (i < n && ln[i] == ' ')
+			i++;
+		if (i < n && !isdigit((unsigned char)ln[i]))
+			return IMPORT_EOP_C04;
+		/* a finals row: YYMMDD, a blank, the MJD as F8.2 in columns
+		   8-15; a C04 row: a four-digit year, the MJD as I7 in
+		   columns 13-19 */
+		if (n >= 15 && ln[6] == ' ' && ln[12] == '.')
+			return IMPORT_EOP_FINALS;
+		for (i = 0; i < n && i < 4 && isdigit((unsigned char)ln[i]);
+		    i++)
+			d++;
+		if (d == 4 && n >= 19 && isdigit((unsigned char)ln[18]))
+			return IMPORT_EOP_C04;
+		return IMPORT_EOP_UNKNOWN;
+	}
+	return IMPORT_EOP_UNKNOWN;
+}
+
+enum errcode
+import_eop(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	enum errcode rc;
+
+	import_report_init(rep);
+	if ((rc = check_text(buf, len, rep)) != ERRCODE_OK)
+		return rc;
+	switch (import_eop_detect(buf, len)) {
+	case IMPORT_EOP_FINALS:
+		return import_eop_finals(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_C04:
+		return import_eop_c04(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_UNKNOWN:
+		break;
+	}
+	rep_error(rep, 0, "", "neither the IERS finals2000A nor the EOP 14 "
+	    "C04 format");
+	rep->bad++;
+	return ERRCODE_UNSUPPORTED;
 }

@@ -1294,6 +1294,77 @@ test_import_c04_bad(void **state)
 	}
 }
 
+static void
+test_import_eop_detect(void **state)
+{
+	static const char finals[] = "# demo\n"
+	    "2412 1 60645.00 I  0.196498 0.000090  0.492936 0.000090  I "
+	    "0.0907574 0.0000120 -0.1848 0.0100\n";
+	static const char c04_row[] = "1962   1   1  37665  -0.012700   "
+	    "0.213000   0.0326338\n";
+	static const char c04_head[] = "  EOP (IERS) 14 C04 TIME SERIES\n";
+	static const char other[] = "mjd,dut1\n";
+	struct site_eop_row rows[2];
+	struct eop_seen es = { 0, 2, rows };
+	struct import_report rep;
+
+	(void)state;
+	assert_int_equal(import_eop_detect(finals, strlen(finals)),
+	    IMPORT_EOP_FINALS);
+	assert_int_equal(import_eop_detect(c04_row, strlen(c04_row)),
+	    IMPORT_EOP_C04);
+	assert_int_equal(import_eop_detect(c04_head, strlen(c04_head)),
+	    IMPORT_EOP_C04);
+	assert_int_equal(import_eop_detect("123\n", 4), IMPORT_EOP_UNKNOWN);
+	assert_int_equal(import_eop_detect("", 0), IMPORT_EOP_UNKNOWN);
+	assert_int_equal(import_eop(finals, strlen(finals), on_eop, &es,
+	    &rep), ERRCODE_OK);
+	assert_int_equal(es.n, 1);
+	assert_int_equal(import_eop(c04_row, strlen(c04_row), on_eop, &es,
+	    &rep), ERRCODE_OK);
+	assert_int_equal(es.n, 2);
+	assert_int_equal(import_eop(other, strlen(other), on_eop, &es, &rep),
+	    ERRCODE_BAD_ARG);	/* starts with a letter: read as C04 */
+	assert_int_equal(import_eop("12345\n", 6, on_eop, &es, &rep),
+	    ERRCODE_UNSUPPORTED);
+	expect_error(&rep, 0, "", "neither", "eop unknown");
+}
+
+/* The README's table of station keys is the key table's own text. */
+static void
+test_import_keys_in_readme(void **state)
+{
+	const char *src = getenv("MOONRANGE_SOURCE_DIR");
+	char path[1024];
+	struct mbuf doc;
+	size_t len, n;
+	char *readme;
+	const struct import_key *keys = import_station_keys(&n);
+
+	(void)state;
+	snprintf(path, sizeof path, "%s/README.md", src ? src : ".");
+	readme = slurp(path, &len);
+	assert_non_null(readme);
+	mbuf_init(&doc);
+	import_station_keys_doc(&doc);
+	assert_int_equal(mbuf_status(&doc), ERRCODE_OK);
+	if (strstr(readme, doc.data) == NULL) {
+		print_error("README.md lacks the station key table; paste the "
+		    "output of 'gen_sample_site keys .':\n%s", doc.data);
+		fail();
+	}
+	/* one row per key */
+	for (size_t k = 0; k < n; k++) {
+		char row[96];
+
+		snprintf(row, sizeof row, "| `[%s] %s` |", keys[k].section,
+		    keys[k].name);
+		assert_non_null(strstr(doc.data, row));
+	}
+	mbuf_free(&doc);
+	free(readme);
+}
+
 int
 main(void)
 {
@@ -1323,6 +1394,8 @@ main(void)
 		cmocka_unit_test(test_import_finals_sample),
 		cmocka_unit_test(test_import_c04_real),
 		cmocka_unit_test(test_import_c04_bad),
+		cmocka_unit_test(test_import_eop_detect),
+		cmocka_unit_test(test_import_keys_in_readme),
 	};
 
 	return cmocka_run_group_tests_name("import", tests, NULL, NULL);
