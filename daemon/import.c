@@ -589,6 +589,11 @@ key_set(struct site_station *st, size_t k, const char *raw, char *err,
 	size_t cap;
 	char *dst;
 
+	if (strlen(raw) >= sizeof v) {
+		snprintf(err, errlen, "value longer than %zu bytes",
+		    sizeof v - 1);
+		return ERRCODE_BAD_ARG;
+	}
 	trim(raw, v, sizeof v);
 	switch (key->type) {
 	case IMPORT_KEY_TEXT:

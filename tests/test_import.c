@@ -386,6 +386,169 @@ test_import_not_text(void **state)
 	}
 }
 
+/* Every parser behind one signature, for the tables below. */
+static enum errcode
+run_ini(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_station st;
+
+	return import_station_ini(b, n, &st, rep);
+}
+
+static enum errcode
+run_targets(const char *b, size_t n, struct import_report *rep)
+{
+	struct targets_seen ts = { 0 };
+
+	return import_targets_csv(b, n, on_target, &ts, rep);
+}
+
+static enum errcode
+run_attempts(const char *b, size_t n, struct import_report *rep)
+{
+	static struct site_attempt store[MAXREC];
+	struct attempts_seen s;
+
+	memset(&s, 0, sizeof s);
+	s.a = store;
+	return import_attempts_csv(b, n, on_attempt, &s, rep);
+}
+
+static enum errcode
+run_crd(const char *b, size_t n, struct import_report *rep)
+{
+	static struct nps_seen ns;
+
+	memset(&ns, 0, sizeof ns);
+	return import_crd(b, n, on_np, &ns, rep);
+}
+
+static enum errcode
+run_finals(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_eop_row rows[4];
+	struct eop_seen es = { 0, 4, rows };
+
+	return import_eop_finals(b, n, on_eop, &es, rep);
+}
+
+static enum errcode
+run_c04(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_eop_row rows[4];
+	struct eop_seen es = { 0, 4, rows };
+
+	return import_eop_c04(b, n, on_eop, &es, rep);
+}
+
+static const struct {
+	const char *name;
+	enum errcode (*run)(const char *, size_t, struct import_report *);
+	const char *good;	/* a small good file */
+} parsers[] = {
+	{ "ini", run_ini, INI_REQUIRED },
+	{ "targets", run_targets, "id,name,lat_deg,lon_deg\nA,Alpha,1,2\n" },
+	{ "attempts", run_attempts, IMPORT_ATTEMPTS_COLUMNS "\n"
+	    "A,2026-03-01T04:00:00Z,2026-03-01T04:10:00Z,1,1,0,ranged,,,\n" },
+	{ "crd", run_crd, "H1 CRD 1 2026 3 2 1\nH2 TSTP 9998 1 1 7\n"
+	    "H3 x na na na 0 2\nH4 1 2026 3 1 4 0 0 2026 3 1 5 0 0 0 1 0 0 1 "
+	    "0 2 0\n11 14500.0 2.5 std1 2 120.0 25 51.0 na na na 1.0 0\n"
+	    "H8\nH9\n" },
+	{ "finals", run_finals, "2412 1 60645.00 I  0.196498 0.000090  "
+	    "0.492936 0.000090  I 0.0907574 0.0000120 -0.1848 0.0100\n" },
+	{ "c04", run_c04, "2016  12  31  57753   0.081284   0.263013  "
+	    "-0.4077492   0.0009173\n" },
+};
+
+/* Each parser: its good file passes; with a NUL byte or a byte that is
+   not UTF-8 put into its second line, ERRCODE_IO names that line; with
+   CRLF line ends and a byte-order mark it passes too. */
+static void
+test_import_text_rules(void **state)
+{
+	(void)state;
+	for (size_t i = 0; i < sizeof parsers / sizeof parsers[0]; i++) {
+		char buf[1024], crlf[1200];
+		struct import_report rep;
+		const char *nl;
+		size_t n = strlen(parsers[i].good), at, m = 0;
+
+		assert_true(n < sizeof buf);
+		if (parsers[i].run(parsers[i].good, n, &rep) != ERRCODE_OK) {
+			dump(&rep, parsers[i].name);
+			fail_msg("%s: good file refused", parsers[i].name);
+		}
+		/* second line, or the first when there is one */
+		nl = strchr(parsers[i].good, '\n');
+		at = (nl != NULL && (size_t)(nl - parsers[i].good) + 3 < n) ?
+		    (size_t)(nl - parsers[i].good) + 2 : 1;
+		memcpy(buf, parsers[i].good, n);
+		buf[at] = '\0';
+		assert_int_equal(parsers[i].run(buf, n, &rep), ERRCODE_IO);
+		expect_error(&rep, at == 1 ? 1 : 2, "", "NUL byte",
+		    parsers[i].name);
+		buf[at] = '\xff';
+		assert_int_equal(parsers[i].run(buf, n, &rep), ERRCODE_IO);
+		expect_error(&rep, at == 1 ? 1 : 2, "", "invalid UTF-8 byte "
+		    "0xFF", parsers[i].name);
+		/* BOM + CRLF */
+		memcpy(crlf, "\xef\xbb\xbf", 3);
+		m = 3;
+		for (size_t j = 0; j < n; j++) {
+			if (parsers[i].good[j] == '\n')
+				crlf[m++] = '\r';
+			crlf[m++] = parsers[i].good[j];
+		}
+		if (parsers[i].run(crlf, m, &rep) != ERRCODE_OK) {
+			dump(&rep, parsers[i].name);
+			fail_msg("%s: CRLF file refused", parsers[i].name);
+		}
+		/* an empty buffer is never good */
+		assert_int_not_equal(parsers[i].run("", 0, &rep), ERRCODE_OK);
+		assert_true(rep.nerrors >= 1);
+	}
+}
+
+/* A file cut short inside its last line: a per-line error for each. */
+static void
+test_import_truncated(void **state)
+{
+	static const struct {
+		size_t parser;		/* index in parsers[] */
+		const char *text;
+		size_t line;
+		const char *field, *part;
+	} cases[] = {
+		{ 0, INI_REQUIRED "[laser]\nfire_ra", 9, "", "not a [section]" },
+		{ 0, "[station]\nname = X\ncode = T\nlat_deg = 1\n"
+		    "lon_deg = 2\nheight_m = 3\ntime_zo", 7, "", "not a" },
+		{ 1, "id,name,lat_deg,lon_deg\nA,Alpha,1,2\nB,Be", 3, "",
+		    "row has 2 fields" },
+		{ 2, IMPORT_ATTEMPTS_COLUMNS "\nA,2026-03-01T04:00:00Z,20", 2,
+		    "", "row has 3 fields" },
+		{ 3, "H1 CRD 1 2026 3 2 1\nH2 TSTP 9998 1 1 7\nH3 x na na "
+		    "na 0 2\nH4 1 2026 3 1 4 0 0 2026 3 1 5 0 0 0 1 0 0 1 0 2 0"
+		    "\n11 14500.0 2.5 std1 2 120", 5, "11", "6 fields" },
+		{ 4, "2412 1 60645.00 I  0.196498 0.000090  0.492936 0.000090  "
+		    "I 0.09075", 1, "UT1-UTC", "truncated?" },
+		{ 5, "2016  12  31  57753   0.081284   0.263013  -0.40775", 1,
+		    "UT1-UTC", "truncated?" },
+	};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+		struct import_report rep;
+		char what[40];
+
+		snprintf(what, sizeof what, "truncated %s",
+		    parsers[cases[i].parser].name);
+		assert_int_equal(parsers[cases[i].parser].run(cases[i].text,
+		    strlen(cases[i].text), &rep), ERRCODE_BAD_ARG);
+		expect_error(&rep, cases[i].line, cases[i].field,
+		    cases[i].part, what);
+	}
+}
+
 /* ------------------------------------------------------------------ */
 /* CSV                                                                 */
 /* ------------------------------------------------------------------ */
@@ -1374,6 +1537,8 @@ main(void)
 		cmocka_unit_test(test_import_station_set),
 		cmocka_unit_test(test_import_station_bad),
 		cmocka_unit_test(test_import_not_text),
+		cmocka_unit_test(test_import_text_rules),
+		cmocka_unit_test(test_import_truncated),
 		cmocka_unit_test(test_import_targets_sample),
 		cmocka_unit_test(test_import_targets_columns),
 		cmocka_unit_test(test_import_targets_bad),
