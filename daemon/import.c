@@ -845,7 +845,6 @@ struct csv {
 	size_t line;			/* current physical line */
 	size_t rec_line;		/* first line of the last record */
 	size_t nf;
-	size_t flen[IMPORT_CSV_MAX_FIELDS];
 	char *f[IMPORT_CSV_MAX_FIELDS];
 	char store[IMPORT_CSV_MAX_RECORD + IMPORT_CSV_MAX_FIELDS];
 	size_t used;
@@ -895,14 +894,12 @@ csv_begin_field(struct csv *c)
 	return 0;
 }
 
+/* Fields hold no NUL (check_text), so the terminator ends each one. */
 static int
 csv_end_field(struct csv *c)
 {
-	size_t start = (size_t)(c->f[c->nf] - c->store);
-
 	if (c->used >= sizeof c->store)
 		return -1;
-	c->flen[c->nf] = c->used - start;
 	c->store[c->used++] = '\0';
 	c->nf++;
 	return 0;
@@ -1170,14 +1167,12 @@ row_real(const struct csv *c, const struct csv_table *t, size_t j,
 
 	trim(raw, v, sizeof v);
 	if (v[0] == '\0') {
-		if (t->cols[j].required || isnan(dflt)) {
-			if (t->cols[j].required) {
-				rep_error(rep, c->rec_line, t->cols[j].name,
-				    "empty; a number is required");
-				return -1;
-			}
+		if (t->cols[j].required) {
+			rep_error(rep, c->rec_line, t->cols[j].name,
+			    "empty; a number is required");
+			return -1;
 		}
-		*out = dflt;
+		*out = dflt;	/* NaN for "not given" */
 		return 0;
 	}
 	if (strlen(raw) >= sizeof v || parse_real(v, out) != 0) {
@@ -1540,8 +1535,30 @@ crd_known_type(const char *t)
 	return 0;
 }
 
-/* UTC MJD of a calendar date and seconds of that day (a leap-second day
-   has 86401).  Returns -1 if ERFA refuses it. */
+/*
+ * UTC quasi-MJD of a CRD epoch.
+ *
+ * Given:
+ *   y,m,d   int     UTC calendar date (Gregorian)
+ *   sod     double  seconds of that UTC day, 0 <= sod < 86400, or up to
+ *                   86401 on a day that ends with a leap second
+ * Returned:
+ *   mjd     double  UTC quasi-JD - 2400000.5 (ERFA's convention: on a
+ *                   leap-second day the fraction runs over 86401 s)
+ * Returned (function value):
+ *   0, or -1 when the date or time does not exist (including 86400.x on
+ *   a day without a leap second)
+ * Notes:
+ *   CRD epochs are UTC seconds of day (the H2 record's time-scale field
+ *   names the UTC source; all are taken as UTC).  Precision: a double
+ *   MJD resolves ~1 us, far below what the planner and audit use,
+ *   though coarser than the CRD picosecond fields.
+ * References:
+ *   ILRS, Consolidated Laser Ranging Data Format (CRD) version 2,
+ *   record 11; ERFA eraDtf2d.
+ * Called:
+ *   eraDtf2d
+ */
 static int
 crd_mjd(int y, int m, int d, double sod, double *mjd)
 {

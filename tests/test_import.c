@@ -834,6 +834,35 @@ test_import_error_format(void **state)
 	assert_string_equal(line, "log.csv: no such error");
 }
 
+/* Records beyond the reader's bounds are refused, and the rows after
+   them still read with their own line numbers. */
+static void
+test_import_csv_limits(void **state)
+{
+	static char text[20000];
+	struct attempts_seen s;
+	struct import_report rep;
+	size_t n;
+
+	(void)state;
+	n = (size_t)snprintf(text, sizeof text, "%s", AH);
+	for (int i = 0; i < 40; i++)
+		n += (size_t)snprintf(text + n, sizeof text - n, "x,");
+	n += (size_t)snprintf(text + n, sizeof text - n, "x\n");
+	n += (size_t)snprintf(text + n, sizeof text - n, "HERON,2026-03-01T04:"
+	    "00:00Z,2026-03-01T04:10:00Z,5,1,0,ranged,op,,");
+	memset(text + n, 'n', 9000);
+	n += 9000;
+	n += (size_t)snprintf(text + n, sizeof text - n, "\n%s", AROW);
+	assert_int_equal(parse_attempts(text, &s, &rep), ERRCODE_BAD_ARG);
+	expect_error(&rep, 2, "", "record longer than 8192 bytes or 32 "
+	    "fields", "41 fields");
+	expect_error(&rep, 3, "notes", "record longer than 8192", "9000 bytes");
+	assert_int_equal(rep.bad, 2);
+	assert_int_equal(s.n, 1);
+	assert_int_equal(s.line[0], 4);
+}
+
 /* The many-error case keeps IMPORT_MAX_ERRORS and counts them all. */
 static void
 test_import_error_cap(void **state)
@@ -1548,6 +1577,7 @@ main(void)
 		cmocka_unit_test(test_import_attempts_callback_stops),
 		cmocka_unit_test(test_import_error_format),
 		cmocka_unit_test(test_import_error_cap),
+		cmocka_unit_test(test_import_csv_limits),
 		cmocka_unit_test(test_import_attempts_sample),
 		cmocka_unit_test(test_import_no_allocation),
 		cmocka_unit_test(test_import_crd_sample),
