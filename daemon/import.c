@@ -1923,7 +1923,7 @@ import_crd(const char *buf, size_t len, import_np_fn fn, void *ctx,
 	if (s.version == 0) {
 		rep_error(rep, 0, "", "not a CRD file: no H1 record");
 		rep->bad++;
-	} else if (!s.done) {
+	} else if (s.version > 0 && !s.done) {
 		rep_error(rep, it.line, "H9", "the file ends without the H9 "
 		    "end-of-file record (truncated?)");
 		rep->bad++;
