@@ -897,9 +897,14 @@ test_import_attempts_sample(void **state)
 	double first = 1e9, last = -1e9;
 	char *buf = sample("attempts.csv", &len);
 	char *sbuf = sample("station.ini", &slen);
+	size_t tlen;
+	char *tbuf = sample("targets.csv", &tlen);
+	struct targets_seen ts = { 0 };
 	static struct site_attempt store[MAXREC];
 
 	(void)state;
+	assert_int_equal(import_targets_csv(tbuf, tlen, on_target, &ts, &rep),
+	    ERRCODE_OK);
 	assert_int_equal(import_station_ini(sbuf, slen, &st, &rep),
 	    ERRCODE_OK);
 	assert_int_equal(geom_site_init(&gs, st.lat_deg * ERFA_DD2R,
@@ -916,7 +921,13 @@ test_import_attempts_sample(void **state)
 		const struct site_attempt *a = &s.a[i];
 		struct geom_instant g;
 		double syn;
+		size_t k;
 
+		/* every attempt names a target of targets.csv */
+		for (k = 0; k < ts.n; k++)
+			if (strcmp(ts.t[k].id, a->target) == 0)
+				break;
+		assert_true(k < ts.n);
 		if (a->start_mjd < first)
 			first = a->start_mjd;
 		if (a->end_mjd > last)
@@ -950,6 +961,7 @@ test_import_attempts_sample(void **state)
 	assert_true(quarter > 3 * syzygy);
 	free(buf);
 	free(sbuf);
+	free(tbuf);
 }
 
 /* The parsers allocate nothing: a failing allocator changes nothing. */
