@@ -11,6 +11,7 @@
 #include <erfam.h>
 
 #include "derive.h"
+#include "import.h"
 #include "mem.h"
 #include "plan.h"
 #include "window.h"
@@ -21,11 +22,12 @@
  *
  *   cmake --build build --target bench_windows && ./build/tests/bench_windows
  *
- * An optional argument sets the span in days (default 365).
+ * An optional argument sets the span in days (default 365).  The site is
+ * read from sample-site/ under MOONRANGE_SOURCE_DIR (default: the source
+ * tree it was built from).
  */
 
 #define MJD0 2400000.5
-#define NT 4
 
 static double
 now_s(void)
@@ -36,45 +38,92 @@ now_s(void)
 	return (double)ts.tv_sec + (double)ts.tv_nsec * 1e-9;
 }
 
-/* The invented demo station and targets (cf. cmd_ephem.c's demo). */
-static void
-site_make(struct site_station *st, struct site_target *tg)
+/* A whole file into a new buffer (caller frees), or NULL. */
+static char *
+slurp(const char *dir, const char *name, size_t *len)
 {
-	static const struct {
-		const char *id;
-		double lat, lon, strength;
-		int dark;
-	} t[NT] = {
-		{"NORTH", 12.5, -8.25, 1.0, 0},
-		{"SOUTH", -21.75, 14.5, 0.7, 0},
-		{"EAST", 4.2, 33.9, 0.4, 1},
-		{"WEST", -2.8, -37.1, 0.5, 0},
-	};
+	char path[1024];
+	FILE *f;
+	char *buf;
+	long n;
 
-	memset(st, 0, sizeof *st);
-	snprintf(st->name, sizeof st->name, "Kestrel Ridge (demo)");
-	st->lat_deg = 38.9712;
-	st->lon_deg = -114.3098;
-	st->height_m = 2950.0;
-	snprintf(st->time_zone, sizeof st->time_zone, "America/Los_Angeles");
-	st->min_el_deg = 20.0;
-	st->max_sun_el_deg = -12.0;
-	st->min_sun_sep_deg = 20.0;
-	st->pressure_hpa = 710.0;
-	st->temperature_c = 5.0;
-	st->humidity = 0.3;
-	st->wavelength_nm = 532.0;
-	st->zenith_tau = 0.12;
-	st->fire_rate_hz = 20.0;
-	memset(tg, 0, NT * sizeof tg[0]);
-	for (int j = 0; j < NT; j++) {
-		snprintf(tg[j].id, sizeof tg[j].id, "%s", t[j].id);
-		tg[j].lat_deg = t[j].lat;
-		tg[j].lon_deg = t[j].lon;
-		tg[j].strength = t[j].strength;
-		tg[j].dark_only = t[j].dark;
-		tg[j].active = 1;
+	snprintf(path, sizeof path, "%s/sample-site/%s", dir, name);
+	if ((f = fopen(path, "rb")) == NULL)
+		return NULL;
+	fseek(f, 0, SEEK_END);
+	n = ftell(f);
+	fseek(f, 0, SEEK_SET);
+	buf = malloc((size_t)n + 1);
+	if (buf != NULL && fread(buf, 1, (size_t)n, f) != (size_t)n) {
+		free(buf);
+		buf = NULL;
 	}
+	fclose(f);
+	if (buf != NULL)
+		buf[n] = '\0';
+	*len = (size_t)n;
+	return buf;
+}
+
+struct load {
+	struct site_station st;
+	struct site_target tg[WINDOW_MAX_TARGETS];
+	size_t nt;
+	struct site_attempt *at;
+	size_t na, cap;
+};
+
+static enum errcode
+on_target(void *ctx, const struct site_target *t, size_t line)
+{
+	struct load *l = ctx;
+
+	(void)line;
+	if (l->nt < WINDOW_MAX_TARGETS && t->active)
+		l->tg[l->nt++] = *t;
+	return ERRCODE_OK;
+}
+
+static enum errcode
+on_attempt(void *ctx, const struct site_attempt *a, size_t line)
+{
+	struct load *l = ctx;
+
+	(void)line;
+	for (size_t j = 0; j < l->nt; j++)
+		if (strcmp(l->tg[j].id, a->target) == 0 && l->na < l->cap) {
+			l->at[l->na] = *a;
+			if (derive_attempt(&l->st, &l->tg[j], NULL,
+			    &l->at[l->na]) == ERRCODE_OK)
+				l->na++;
+		}
+	return ERRCODE_OK;
+}
+
+/* Station, targets and log of sample-site/ (invented demo data). */
+static int
+site_load(const char *dir, struct load *l)
+{
+	struct import_report rep;
+	size_t n;
+	char *b;
+
+	memset(&rep, 0, sizeof rep);
+	if ((b = slurp(dir, "station.ini", &n)) == NULL ||
+	    import_station_ini(b, n, &l->st, &rep) != ERRCODE_OK)
+		return -1;
+	free(b);
+	if ((b = slurp(dir, "targets.csv", &n)) == NULL ||
+	    import_targets_csv(b, n, on_target, l, &rep) != ERRCODE_OK)
+		return -1;
+	free(b);
+	l->cap = 4096;
+	l->at = calloc(l->cap, sizeof l->at[0]);
+	if (l->at == NULL || (b = slurp(dir, "attempts.csv", &n)) == NULL ||
+	    import_attempts_csv(b, n, on_attempt, l, &rep) != ERRCODE_OK)
+		return -1;
+	free(b);
+	return 0;
 }
 
 struct naive_window {
@@ -92,11 +141,11 @@ naive(const struct plan_query *q, const struct plan_result *r,
     struct naive_window *out, size_t cap)
 {
 	struct geom_site site;
-	struct geom_target body[NT];
-	struct window_target wt[NT];
+	struct geom_target body[WINDOW_MAX_TARGETS];
+	struct window_target wt[WINDOW_MAX_TARGETS];
 	struct window_limits lim;
-	double open[NT];
-	size_t slot[NT];
+	double open[WINDOW_MAX_TARGETS];
+	size_t slot[WINDOW_MAX_TARGETS];
 	size_t n = 0;
 	int nb = q->settings.nbins;
 	double mean = score_bin_mean(r->pooled, nb);
@@ -105,9 +154,10 @@ naive(const struct plan_query *q, const struct plan_result *r,
 	lim.min_el = q->station.min_el_deg * ERFA_DD2R;
 	lim.max_sun_el = q->station.max_sun_el_deg * ERFA_DD2R;
 	lim.min_sun_sep = q->station.min_sun_sep_deg * ERFA_DD2R;
-	for (int j = 0; j < NT; j++) {
+	for (int j = 0; j < (int)q->ntargets; j++) {
 		(void)geom_target_from_selen(q->targets[j].lat_deg * ERFA_DD2R,
-		    q->targets[j].lon_deg * ERFA_DD2R, 0.0, &body[j]);
+		    q->targets[j].lon_deg * ERFA_DD2R,
+		    q->targets[j].height_m, &body[j]);
 		wt[j].body = &body[j];
 		wt[j].dark_only = q->targets[j].dark_only;
 		open[j] = -1;
@@ -117,7 +167,7 @@ naive(const struct plan_query *q, const struct plan_result *r,
 
 		if (geom_instant_at(&site, NULL, MJD0, t, GEOM_PREC_FULL, &g))
 			continue;
-		for (int j = 0; j < NT; j++) {
+		for (int j = 0; j < (int)q->ntargets; j++) {
 			int ok = window_constraints_hold(&g, &lim, &wt[j]);
 
 			if (ok) {
@@ -159,12 +209,11 @@ naive(const struct plan_query *q, const struct plan_result *r,
 int
 main(int argc, char **argv)
 {
-	struct site_station st;
-	struct site_target tg[NT];
-	struct site_normal_point np[240];
+	static struct load l;
 	struct plan_query q;
 	struct plan_result r;
 	static struct naive_window nw[40000];
+	const char *dir = getenv("MOONRANGE_SOURCE_DIR");
 	double days = argc > 1 ? atof(argv[1]) : 365.0;
 	double t0, t1, t2, fast, slow, sum_d = 0, max_d = 0;
 	size_t nn, matched = 0;
@@ -174,19 +223,19 @@ main(int argc, char **argv)
 		fprintf(stderr, "usage: bench_windows [DAYS]\n");
 		return 2;
 	}
+	if (dir == NULL)
+		dir = MOONRANGE_SOURCE_DIR;
 	mem_install();
-	site_make(&st, tg);
-	memset(np, 0, sizeof np);
-	for (int i = 0; i < 240; i++) {	/* bunched at the quarters */
-		snprintf(np[i].target, sizeof np[i].target, "%s", tg[i % NT].id);
-		np[i].synodic_deg = (i % 2 ? 90.0 : 270.0) + (i % 21) - 10.0;
+	if (site_load(dir, &l) != 0) {
+		fprintf(stderr, "cannot read %s/sample-site\n", dir);
+		return 1;
 	}
 	plan_query_init(&q);
-	q.station = st;
-	q.targets = tg;
-	q.ntargets = NT;
-	q.nps = np;
-	q.nnps = 240;
+	q.station = l.st;
+	q.targets = l.tg;
+	q.ntargets = l.nt;
+	q.attempts = l.at;
+	q.nattempts = l.na;
 	q.from_mjd = 61406.0;	/* 2027-01-01 */
 	q.to_mjd = q.from_mjd + days;
 
@@ -207,7 +256,7 @@ main(int argc, char **argv)
 		double best = 1e9;
 
 		for (size_t k = 0; k < r.n; k++)
-			if (strcmp(r.w[k].target, tg[nw[i].target].id) == 0)
+			if (strcmp(r.w[k].target, l.tg[nw[i].target].id) == 0)
 				best = fmin(best, fabs(r.w[k].start_mjd -
 				    nw[i].start));
 		if (best * 86400.0 <= 60.0) {
@@ -216,7 +265,9 @@ main(int argc, char **argv)
 			max_d = fmax(max_d, best * 86400.0);
 		}
 	}
-	printf("span %.0f days, %d targets, invented demo station\n", days, NT);
+	printf("sample site (invented): %s, %zu targets, %zu logged attempts\n",
+	    l.st.name, l.nt, l.na);
+	printf("span %.0f days from 2027-01-01\n", days);
 	printf("planner (track + edges + scores + ranking): %8.3f s, %zu "
 	    "windows\n", fast, r.total);
 	printf("naive 1-min full-precision baseline:        %8.3f s, %zu "
@@ -226,5 +277,6 @@ main(int argc, char **argv)
 	    "offset %.1f s, max %.1f s)\n", matched, nn,
 	    matched ? sum_d / (double)matched : 0.0, max_d);
 	plan_result_free(&r);
+	free(l.at);
 	return 0;
 }
