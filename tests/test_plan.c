@@ -379,6 +379,7 @@ test_plan_renderers(void **state)
 	}
 	assert_non_null(strstr(tn.data, "Best now:"));
 	assert_non_null(strstr(tx.data, "America/Denver"));
+	assert_non_null(strstr(js.data, "\"dut1_source\": \"none\""));
 	mbuf_free(&js);
 	mbuf_free(&cs);
 	mbuf_free(&ic);
@@ -439,6 +440,13 @@ test_plan_db_and_cli_same_bytes(void **state)
 		    sizeof err), ERRCODE_OK);
 	assert_int_equal(store_blackout_add(st, &s.bo[0], err, sizeof err),
 	    ERRCODE_OK);
+	for (int d = 0; d < 4; d++) {	/* an invented EOP table */
+		struct site_eop_row row = {mjd_of("2027-03-15T00:00:00Z") + d,
+		    0.25, 0.1, 0.3};
+
+		assert_int_equal(store_eop_put(st, &row, err, sizeof err),
+		    ERRCODE_OK);
+	}
 	store_close(st);
 
 	plan_query_init(&q);
@@ -451,6 +459,9 @@ test_plan_db_and_cli_same_bytes(void **state)
 	q.from_mjd = mjd_of("2027-03-16T00:00:00Z");
 	q.to_mjd = mjd_of("2027-03-18T00:00:00Z");
 	assert_int_equal(plan_run(&q, &r, err, sizeof err), ERRCODE_OK);
+	/* DUT1 from the table at the span's middle (constant rows). */
+	assert_string_equal(r.dut1_source, "table");
+	check_near(r.eop.dut1, 0.25, 1e-12, "s", "DUT1 of the table");
 	memset(&rp, 0, sizeof rp);
 	rp.r = &r;
 	rp.station_name = q.station.name;
