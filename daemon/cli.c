@@ -16,6 +16,8 @@ const struct cli_command cli_commands[] = {
 	    cmd_ephem},
 	{"phases", "new moon, quarters and full moon in a time span",
 	    cmd_phases},
+	{"init", "create a station database from a site directory",
+	    cmd_init},
 	{"log", "the observation log: add, list, import, export attempts",
 	    cmd_log},
 	{NULL, NULL, NULL}

@@ -65,5 +65,6 @@ int cli_emit(struct mbuf *b);
 int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
 int cmd_log(int argc, char **argv);
+int cmd_init(int argc, char **argv);
 
 #endif
