@@ -66,5 +66,7 @@ int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
 int cmd_log(int argc, char **argv);
 int cmd_init(int argc, char **argv);
+int cmd_np(int argc, char **argv);
+int cmd_eop(int argc, char **argv);
 
 #endif
