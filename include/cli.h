@@ -68,5 +68,8 @@ int cmd_log(int argc, char **argv);
 int cmd_init(int argc, char **argv);
 int cmd_np(int argc, char **argv);
 int cmd_eop(int argc, char **argv);
+int cmd_target(int argc, char **argv);
+int cmd_station(int argc, char **argv);
+int cmd_blackout(int argc, char **argv);
 
 #endif
