@@ -15,8 +15,9 @@
  * Bad records are collected in the report with their line number and the
  * field at fault; parsing continues so that every bad line is reported at
  * once.  A callback returning non-OK stops the parse and that code is
- * returned.  The parsers never allocate beyond what they state and never
- * keep pointers into the buffer after returning.
+ * returned.  The parsers allocate nothing (records are built in bounded
+ * stack buffers) and keep no pointer into the buffer after returning;
+ * the buffer need not end with a NUL.
  *
  * Return value: ERRCODE_OK when every record was good; ERRCODE_BAD_ARG
  * when at least one record was bad (see the report); ERRCODE_IO for a
@@ -35,7 +36,8 @@ struct import_error {
 struct import_report {
 	size_t records;			/* good records handed to the callback */
 	size_t bad;			/* bad records (all, not only kept) */
-	size_t skipped;			/* records of types not used (CRD) */
+	size_t skipped;			/* CRD records of types not used;
+					   finals rows without values */
 	size_t nerrors;			/* errors kept, <= IMPORT_MAX_ERRORS */
 	struct import_error errors[IMPORT_MAX_ERRORS];
 };
@@ -75,6 +77,13 @@ struct import_key {
 /* The table (static storage) and its length. */
 const struct import_key *import_station_keys(size_t *n);
 
+/*
+ * The key table as a Markdown table (key, type/range, default, help),
+ * appended to out; the README's station-file section is this text.
+ */
+struct mbuf;
+void import_station_keys_doc(struct mbuf *out);
+
 /* Fill *st with every default (text empty, derived values from the
    height; required numbers NaN). */
 void import_station_defaults(struct site_station *st);
@@ -82,13 +91,16 @@ void import_station_defaults(struct site_station *st);
 /*
  * Set one key from its text, validated as in the file: ERRCODE_NOT_FOUND
  * for an unknown section/name, ERRCODE_BAD_ARG for a bad value, each with
- * a sentence in errbuf (may be NULL).  Derived defaults are not redone:
- * call import_station_finish after changing height_m if pressure or
- * temperature should follow.
+ * a sentence in errbuf (may be NULL).  Derived defaults are not redone
+ * (see import_station_finish).
  */
 enum errcode import_station_set(struct site_station *st,
     const char *section, const char *name, const char *value,
     char *errbuf, size_t errlen);
+
+/* Replace NaN pressure and temperature by the standard atmosphere at
+   st->height_m (geom_weather_standard); import_station_ini calls it. */
+void import_station_finish(struct site_station *st);
 
 /*
  * Parse the station INI into *st (all keys validated, unknown keys are
@@ -134,7 +146,12 @@ enum errcode import_attempts_csv(const char *buf, size_t len,
 /*
  * One normal point with the header context it appeared under.  target_name
  * is the CRD target name (H3), to be mapped through the targets' alias;
- * station_code the station of the session (H2).  np->target is left "".
+ * station_code the station of the session (H2).  np->target is left "",
+ * the derived angles NaN.  The epoch is the H4 start date plus the
+ * record's seconds of day, the next day when they fall more than 60 s
+ * before the H4 start (a session across midnight); times of flight
+ * outside 2..3 s (not a lunar two-way time) are refused; a bin RMS of
+ * "na" is NaN.  A file must open with H1 and close with H9.
  */
 struct import_crd_np {
 	char target_name[SITE_NAME_LEN];
@@ -154,9 +171,36 @@ enum errcode import_crd(const char *buf, size_t len, import_np_fn fn,
 typedef enum errcode (*import_eop_fn)(void *ctx, const struct site_eop_row *r,
     size_t line);
 
+/*
+ * finals2000A (also finals.data/.daily/.all): fixed columns as in the
+ * IERS ReadMe.finals2000A; the Bulletin A polar motion (columns 19-27,
+ * 38-46) and UT1-UTC (59-68) are used, Bulletin B ignored.  Rows with no
+ * Bulletin A values (dates beyond the predictions) are skipped and
+ * counted in rep->skipped.  Lines starting with '#' are comments (a
+ * moonrange extension, used by the demo file).  Each row's YYMMDD must
+ * agree with its MJD; MJDs must increase.
+ *
+ * EOP 14 C04 (eopc04_IAU2000.62-now): the text header is skipped; data
+ * rows give year, month, day (columns 1-12), MJD (13-19), x (20-30), y
+ * (31-41), UT1-UTC (42-53).
+ */
 enum errcode import_eop_finals(const char *buf, size_t len, import_eop_fn fn,
     void *ctx, struct import_report *rep);
 enum errcode import_eop_c04(const char *buf, size_t len, import_eop_fn fn,
+    void *ctx, struct import_report *rep);
+
+enum import_eop_format {
+	IMPORT_EOP_UNKNOWN = 0,
+	IMPORT_EOP_FINALS,
+	IMPORT_EOP_C04
+};
+
+/* Guess the format from the first non-comment lines (no parse). */
+enum import_eop_format import_eop_detect(const char *buf, size_t len);
+
+/* Detect and parse; ERRCODE_UNSUPPORTED (one error in rep) when the
+   buffer is neither format. */
+enum errcode import_eop(const char *buf, size_t len, import_eop_fn fn,
     void *ctx, struct import_report *rep);
 
 #endif
