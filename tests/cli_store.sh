@@ -285,8 +285,11 @@ check "target list hides retired" "! '$M' target list --db '$L' | grep -q EXTRA"
 check "station set" "'$M' station set --db '$L' limits.min_elevation_deg=25 >/dev/null && [ \"\$(q '$L' 'SELECT min_el_deg FROM station')\" = 25.0 ]"
 expect_fail "station set: unknown key" 2 "unknown station key" "$M" station set --db "$L" limits.nope=1
 check "blackout add/list" "'$M' blackout add --db '$L' --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason 'invented' >/dev/null && '$M' blackout list --db '$L' --json | grep -q invented"
+check "setting set and list" "'$M' setting set --db '$L' coverage_bins 24 && '$M' setting list --db '$L' | grep -q 'coverage_bins *24'"
+expect_fail "setting set: out of range" 2 "coverage_bins" "$M" setting set --db "$L" coverage_bins 2
 for c in init "log add" "log list" "log import" "log export" "np import" "eop import" \
-    "target add" "target list" "station show" "station set" "blackout add" ephem; do
+    "target add" "target list" "station show" "station set" "blackout add" \
+    "setting list" ephem; do
 	# shellcheck disable=SC2086
 	check "$c --help" "'$M' $c --help | grep -q usage"
 done
