@@ -194,6 +194,11 @@ expect_fail "np import: malformed line named" 2 "bad.crd:12" "$M" np import --db
 check "np import: nothing stored from the bad file" "[ \"\$(q '$L' 'SELECT count(*) FROM normal_points')\" = 0 ]"
 sed 's/^H3 heron /H3 nosuch /' "$SITE/normalpoints.crd" >"$T/alias.crd"
 expect_fail "np import: unknown target name" 2 "nosuch" "$M" np import --db "$L" "$T/alias.crd"
+sed 's/^H2 KSTR /H2 OTHR /' "$SITE/normalpoints.crd" >"$T/other.crd"
+check "np import of another station's file" "'$M' np import --db '$L' '$T/other.crd' >/dev/null"
+check "... keeps its station code, no elevation of ours" "[ \"\$(q '$L' \"SELECT count(*) FROM normal_points WHERE station_code = 'OTHR' AND target_el_deg IS NULL AND sun_el_target_deg IS NOT NULL\")\" = $NNP ]"
+check "np count --station" "[ \"\$('$M' np count --db '$L' --station OTHR)\" = $NNP ]"
+sqlite3 "$L" "DELETE FROM normal_points WHERE station_code = 'OTHR'"
 check "np count" "[ \"\$('$M' np count --db '$L')\" = 0 ]"
 
 # --- EOP -----------------------------------------------------------------------
