@@ -292,6 +292,10 @@ expect_fail "station set: unknown key" 2 "unknown station key" "$M" station set 
 check "blackout add/list" "'$M' blackout add --db '$L' --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason 'invented' >/dev/null && '$M' blackout list --db '$L' --json | grep -q invented"
 check "setting set and list" "'$M' setting set --db '$L' coverage_bins 24 && '$M' setting list --db '$L' | grep -q 'coverage_bins *24'"
 expect_fail "setting set: out of range" 2 "coverage_bins" "$M" setting set --db "$L" coverage_bins 2
+for c in log np eop target station blackout setting; do
+	expect_fail "$c without an action" 2 "an action is required" "$M" "$c"
+done
+expect_fail "unknown action" 2 "unknown action 'frobnicate'" "$M" log frobnicate
 for c in init "log add" "log list" "log import" "log export" "np import" "eop import" \
     "target add" "target list" "station show" "station set" "blackout add" \
     "setting list" ephem; do
