@@ -75,15 +75,19 @@ CREATE TABLE blackouts (
   id              INTEGER PRIMARY KEY,
   start_utc       TEXT NOT NULL CONSTRAINT start_utc
                     CHECK (start_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(start_utc) = substr(start_utc, 1, 10)
-                                OR substr(start_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(start_utc, 1, 10)))
+                                    = substr(start_utc, 1, 10), 0)
+                           AND (julianday(start_utc) IS NOT NULL
+                                OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
                     CHECK (julianday(start_utc) IS NULL
                            OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(end_utc) = substr(end_utc, 1, 10)
-                                OR substr(end_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(end_utc, 1, 10)))
+                                    = substr(end_utc, 1, 10), 0)
+                           AND (julianday(end_utc) IS NOT NULL
+                                OR substr(end_utc, 12, 8) = '23:59:60')),
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
                     CHECK (end_mjd > start_mjd
                            AND (julianday(end_utc) IS NULL
@@ -99,15 +103,19 @@ CREATE TABLE attempts (
   target_id       TEXT NOT NULL REFERENCES targets (id),
   start_utc       TEXT NOT NULL CONSTRAINT start_utc
                     CHECK (start_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(start_utc) = substr(start_utc, 1, 10)
-                                OR substr(start_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(start_utc, 1, 10)))
+                                    = substr(start_utc, 1, 10), 0)
+                           AND (julianday(start_utc) IS NOT NULL
+                                OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
                     CHECK (julianday(start_utc) IS NULL
                            OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(end_utc) = substr(end_utc, 1, 10)
-                                OR substr(end_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(end_utc, 1, 10)))
+                                    = substr(end_utc, 1, 10), 0)
+                           AND (julianday(end_utc) IS NOT NULL
+                                OR substr(end_utc, 12, 8) = '23:59:60')),
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
                     CHECK (end_mjd > start_mjd
                            AND (julianday(end_utc) IS NULL
@@ -119,8 +127,8 @@ CREATE TABLE attempts (
   outcome         TEXT NOT NULL CONSTRAINT outcome
                     CHECK (outcome IN ('ranged', 'no_returns', 'weather',
                                        'technical', 'safety', 'other')),
-  operator        TEXT NOT NULL CONSTRAINT operator
-                    CHECK (length(operator) BETWEEN 1 AND 95),
+  operator        TEXT NOT NULL DEFAULT '' CONSTRAINT operator
+                    CHECK (length(operator) <= 95),
   seeing_arcsec   REAL CONSTRAINT seeing_arcsec
                     CHECK (seeing_arcsec IS NULL
                            OR (seeing_arcsec > 0 AND seeing_arcsec <= 60)),
@@ -148,8 +156,10 @@ CREATE TABLE normal_points (
                     CHECK (length(station_code) BETWEEN 1 AND 15),
   epoch_utc       TEXT NOT NULL CONSTRAINT epoch_utc
                     CHECK (epoch_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9][0-9][0-9][0-9]Z'
-                           AND (date(epoch_utc) = substr(epoch_utc, 1, 10)
-                                OR substr(epoch_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(epoch_utc, 1, 10)))
+                                    = substr(epoch_utc, 1, 10), 0)
+                           AND (julianday(epoch_utc) IS NOT NULL
+                                OR substr(epoch_utc, 12, 8) = '23:59:60')),
   epoch_mjd       REAL NOT NULL CONSTRAINT epoch_mjd
                     CHECK (julianday(epoch_utc) IS NULL
                            OR abs(julianday(epoch_utc) - 2400000.5 - epoch_mjd) < 1e-6),
@@ -164,8 +174,10 @@ CREATE TABLE normal_points (
                     CHECK (synodic_deg >= 0 AND synodic_deg < 360),
   mean_elong_deg  REAL NOT NULL CONSTRAINT mean_elong_deg
                     CHECK (mean_elong_deg >= 0 AND mean_elong_deg < 360),
-  target_el_deg   REAL NOT NULL CONSTRAINT target_el_deg
-                    CHECK (target_el_deg BETWEEN -90 AND 90),
+  -- elevation at this station; NULL for points of other stations
+  target_el_deg   REAL CONSTRAINT target_el_deg
+                    CHECK (target_el_deg IS NULL
+                           OR target_el_deg BETWEEN -90 AND 90),
   sun_el_target_deg REAL NOT NULL CONSTRAINT sun_el_target_deg
                     CHECK (sun_el_target_deg BETWEEN -90 AND 90),
   CONSTRAINT epoch_unique UNIQUE (station_code, target_id, epoch_utc)
