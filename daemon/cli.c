@@ -16,6 +16,8 @@ const struct cli_command cli_commands[] = {
 	    cmd_ephem},
 	{"phases", "new moon, quarters and full moon in a time span",
 	    cmd_phases},
+	{"coverage", "how the normal points spread over the lunar cycle",
+	    cmd_coverage},
 	{NULL, NULL, NULL}
 };
 
