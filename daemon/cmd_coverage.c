@@ -158,6 +158,10 @@ cmd_coverage(int argc, char **argv)
 		return cli_usage_error("--json, --csv and --svg: give one");
 	if (coverage_spec_check(&p.spec, err, sizeof err) != ERRCODE_OK)
 		return cli_usage_error("--%s", err);
+	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')
+		cli_warn("--axis hour_angle: the hour angle is this station's; "
+		    "points of other stations are binned by it too (give "
+		    "--station CODE)");
 	cli_now(&u1, &u2);
 	p.now_mjd = (u1 - 2400000.5) + u2;
 

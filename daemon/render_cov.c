@@ -311,19 +311,26 @@ static void
 text_metrics_line(struct mbuf *out, const char *name,
     const struct coverage_result *r, const struct coverage_metrics *m)
 {
-	mbuf_printf(out, "  %-10s %7ld  %3d/%-3d  ", name, m->total,
-	    m->filled_bins, r->spec.nbins);
+	char arc[32], filled[16];
+
+	snprintf(filled, sizeof filled, "%d/%d", m->filled_bins,
+	    r->spec.nbins);
 	if (isnan(m->longest_gap_from_deg))
-		mbuf_printf(out, "%7s %-6s", "0", "");
+		snprintf(arc, sizeof arc, "none");
 	else
-		mbuf_printf(out, "%7.1f @%-5.0f", m->longest_gap_deg,
+		snprintf(arc, sizeof arc, "%.0f from %.0f", m->longest_gap_deg,
 		    m->longest_gap_from_deg);
+	mbuf_printf(out, "  %-10.10s %7ld %7s  %-12s", name, m->total, filled,
+	    arc);
 	if (m->total == 0)
-		mbuf_printf(out, "  %7s  %8s  %-8s\n", "-", "-", "-");
+		mbuf_printf(out, " %7s %9s %9s\n", "-", "-", "-");
 	else
-		mbuf_printf(out, "  %7.3f  %8.2f  %-8.3g%s\n", m->entropy,
-		    m->chi2, m->chi2_p, m->chi2_reliable ? "" : " (few)");
+		mbuf_printf(out, " %7.3f %9.2f %9.3g%s\n", m->entropy, m->chi2,
+		    m->chi2_p, m->chi2_reliable ? "" : " (few)");
 }
+
+#define TEXT_METRICS_HEAD \
+	"             points  filled  empty arc    entropy    chi-sq         p\n"
 
 enum errcode
 render_cov_text(const struct render_cov *c, struct mbuf *out)
@@ -371,14 +378,12 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	for (int i = 0; i < pm->nemptiest; i++)
 		mbuf_printf(out, " %d (%ld)", pm->emptiest[i],
 		    r->pooled.n[pm->emptiest[i]]);
-	mbuf_puts(out, "\n\nMetrics      points  filled   empty arc"
-	    "  entropy  chi-sq    p\n");
+	mbuf_puts(out, "\n\nMetrics (empty arc in degrees)\n" TEXT_METRICS_HEAD);
 	text_metrics_line(out, "pooled", r, pm);
 	for (size_t i = 0; i < r->ntargets; i++)
 		text_metrics_line(out, r->targets[i].id, r, &r->targets[i].c.m);
 	if (r->nyears > 0) {
-		mbuf_puts(out, "\nBy year      points  filled   empty arc"
-		    "  entropy  chi-sq    p\n");
+		mbuf_puts(out, "\nBy year\n" TEXT_METRICS_HEAD);
 		for (size_t i = 0; i < r->nyears; i++) {
 			snprintf(a, sizeof a, "%d", r->years[i].year);
 			text_metrics_line(out, a, r, &r->years[i].c.m);
@@ -454,12 +459,12 @@ render_cov_xml_escape(struct mbuf *out, const char *s)
 }
 
 /* Geometry of the chart, in SVG user units. */
-#define SVG_W 760.0
-#define SVG_H 600.0
-#define SVG_CX 290.0
-#define SVG_CY 300.0
+#define SVG_W 860.0
+#define SVG_H 650.0
+#define SVG_CX 370.0
+#define SVG_CY 332.0
 #define SVG_R0 62.0		/* inner radius: the hub */
-#define SVG_R1 222.0		/* bar length at the largest count */
+#define SVG_R1 205.0		/* bar length at the largest count */
 #define SVG_GAP_R 16.0		/* visible depth of an empty bin */
 #define SVG_STYLES 6
 
@@ -595,7 +600,7 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 static void
 svg_legend(struct mbuf *out, const struct coverage_result *r)
 {
-	double x = 560.0, y = 96.0;
+	double x = 650.0, y = 96.0;
 	char buf[80];
 
 	svg_text(out, x, y, "start", "class=\"head\"", "Legend");
@@ -669,8 +674,9 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	mbuf_printf(out, "<rect width=\"%.0f\" height=\"%.0f\" "
 	    "fill=\"#fdfcf8\"/>\n", SVG_W, SVG_H);
 	svg_text(out, 24.0, 30.0, "start", "class=\"head\"", buf);
-	snprintf(buf, sizeof buf, "%d bins of %.4g deg, %ld in all, "
-	    "largest bar %ld", s->nbins, r->bin_width_deg, m->total, max);
+	snprintf(buf, sizeof buf, "%d bins of %.4g deg, clockwise from the "
+	    "top; %ld in all, largest bar %ld", s->nbins, r->bin_width_deg,
+	    m->total, max);
 	svg_text(out, 24.0, 48.0, "start", "", buf);
 
 	/* Guide rings at quarters of the largest count. */
