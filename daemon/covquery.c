@@ -477,6 +477,7 @@ covquery_run(struct store *db, const struct covquery_params *p,
 	memset(&rc, 0, sizeof rc);
 	rc.r = res;
 	rc.station_name = have_station ? st.name : NULL;
+	rc.time_zone = have_station ? st.time_zone : NULL;
 	if (p->horizon_days > 0 && !have_station) {
 		rc.fill_note = "No gap-filling dates: the database has no "
 		    "station to plan for.";

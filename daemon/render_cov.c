@@ -6,6 +6,7 @@
 
 #include <jansson.h>
 
+#include "render.h"
 #include "render_cov.h"
 #include "tscale.h"
 
@@ -340,7 +341,7 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_metrics *pm = &r->pooled.m;
 	size_t ncol = r->ntargets < TEXT_TARGET_COLS ? r->ntargets :
 	    TEXT_TARGET_COLS;
-	char a[40], b[40];
+	char a[40], b[40], local[48];
 
 	mbuf_printf(out, "Coverage of %s by %s%s%s\n",
 	    s->source == COVERAGE_SOURCE_ATTEMPTS ? "attempts" :
@@ -415,8 +416,14 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 
 				utc_of_mjd(d->in_bin_start_mjd, a, sizeof a);
 				utc_of_mjd(d->in_bin_end_mjd, b, sizeof b);
-				mbuf_printf(out, "    %s to %s  %-12s score "
-				    "%.4g\n", a, b + 11, d->target, d->score);
+				mbuf_printf(out, "    %s to %s  %-10s score %.4g",
+				    a, strncmp(a, b, 11) == 0 ? b + 11 : b,
+				    d->target, d->score);
+				if (c->time_zone != NULL && render_local_time(
+				    MJD0, d->in_bin_start_mjd, c->time_zone, local,
+				    sizeof local) == ERRCODE_OK)
+					mbuf_printf(out, "  (%s)", local);
+				mbuf_puts(out, "\n");
 			}
 		}
 	}
