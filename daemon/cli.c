@@ -18,6 +18,12 @@ const struct cli_command cli_commands[] = {
 	    cmd_phases},
 	{"coverage", "how the normal points spread over the lunar cycle",
 	    cmd_coverage},
+	{"init", "create a station database from a site directory",
+	    cmd_init},
+	{"np", "normal points: import CRD files, count them", cmd_np},
+	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
+	{"log", "the observation log: add, list, import, export attempts",
+	    cmd_log},
 	{NULL, NULL, NULL}
 };
 

@@ -65,5 +65,9 @@ int cli_emit(struct mbuf *b);
 int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
 int cmd_coverage(int argc, char **argv);
+int cmd_log(int argc, char **argv);
+int cmd_init(int argc, char **argv);
+int cmd_np(int argc, char **argv);
+int cmd_eop(int argc, char **argv);
 
 #endif
