@@ -224,6 +224,11 @@ coverage_metrics_of(const long *n, int nbins, long min_count,
 		if (i < COVERAGE_EMPTIEST || n[order[i]] == lo)
 			m->emptiest[m->nemptiest++] = order[i];
 
+	for (int i = 0; i < nbins; i++)
+		if (n[i] >= min_count && 2.0 * (double)n[i] * nbins <
+		    (double)total)
+			m->sparse[m->nsparse++] = i;
+
 	/* Longest run of gap bins, around the circle: start the walk just
 	   after a filled bin so that no run is split at the 0/360 seam. */
 	for (int i = 0; i < nbins; i++)

@@ -106,6 +106,10 @@ struct coverage_metrics {
 	int emptiest[COVERAGE_BINS_MAX]; /* bins by ascending count (ties by
 					   index): at least COVERAGE_EMPTIEST,
 					   and every bin tied at the minimum */
+	int nsparse;			/* entries in sparse[] */
+	int sparse[COVERAGE_BINS_MAX];	/* filled bins (>= min_count) holding
+					   fewer than half the mean count
+					   total/nbins, ascending */
 	double longest_gap_deg;		/* longest run of adjacent bins below
 					   min_count, around the circle */
 	double longest_gap_from_deg;	/* where that run starts; NaN if none */
