@@ -502,12 +502,30 @@ coverage_compute(const struct coverage_spec *spec,
 
 /* --- fill dates --- */
 
-/* Keep the COVERAGE_FILL_PER_BIN earliest dates of a bin. */
+/*
+ * Keep the COVERAGE_FILL_PER_BIN earliest opportunities of a bin.  Dates
+ * whose parts in the bin overlap are one opportunity (the same night,
+ * another target): the one with the higher score stays.
+ */
 static void
 fill_insert(struct coverage_fill_bin *fb, const struct coverage_fill_date *d)
 {
-	size_t i = fb->ndates;
+	size_t i;
 
+	for (i = 0; i < fb->ndates; i++) {
+		struct coverage_fill_date *o = &fb->dates[i];
+
+		if (d->in_bin_start_mjd <= o->in_bin_end_mjd &&
+		    o->in_bin_start_mjd <= d->in_bin_end_mjd) {
+			if (!(d->score > o->score))
+				return;
+			/* Replace it, then restore the order by start. */
+			memmove(o, o + 1, (fb->ndates - i - 1) * sizeof *o);
+			fb->ndates--;
+			break;
+		}
+	}
+	i = fb->ndates;
 	if (i == COVERAGE_FILL_PER_BIN) {
 		if (fb->dates[i - 1].in_bin_start_mjd <= d->in_bin_start_mjd)
 			return;

@@ -265,7 +265,8 @@ struct coverage_fill {
 /*
  * For each bin of r below min_count (per r->spec.target when set, else
  * pooled), the earliest windows in [from, to) during which the axis angle
- * lies in that bin.
+ * lies in that bin.  Windows whose parts in the bin overlap (the same
+ * night for several targets) are one date: the best-scoring one is kept.
  *
  * Given:
  *   r        a coverage result (its spec gives axis, bins, target, site)
