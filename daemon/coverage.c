@@ -8,6 +8,7 @@
 #include <erfam.h>
 
 #include "coverage.h"
+#include "score.h"
 #include "tscale.h"
 
 #define MJD0 2400000.5
@@ -286,20 +287,11 @@ coverage_metrics_of(const long *n, int nbins, long min_count,
 
 /* --- angles --- */
 
+/* One binning rule for the audit and the planner's coverage weight. */
 int
 coverage_bin_of(double deg, int nbins)
 {
-	double a = fmod(deg, 360.0);
-	int b;
-
-	if (a < 0.0)
-		a += 360.0;
-	b = (int)floor(a / (360.0 / nbins));
-	if (b >= nbins)
-		b = nbins - 1;
-	if (b < 0)
-		b = 0;
-	return b;
+	return score_bin_of(deg, nbins);
 }
 
 enum errcode
