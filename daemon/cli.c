@@ -24,6 +24,10 @@ const struct cli_command cli_commands[] = {
 	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
 	{"log", "the observation log: add, list, import, export attempts",
 	    cmd_log},
+	{"windows", "observing windows in a span, ranked by yield and phase "
+	    "coverage", cmd_windows},
+	{"tonight", "the coming night: ranked windows, best target now",
+	    cmd_tonight},
 	{NULL, NULL, NULL}
 };
 

@@ -69,5 +69,7 @@ int cmd_log(int argc, char **argv);
 int cmd_init(int argc, char **argv);
 int cmd_np(int argc, char **argv);
 int cmd_eop(int argc, char **argv);
+int cmd_windows(int argc, char **argv);
+int cmd_tonight(int argc, char **argv);
 
 #endif
