@@ -360,10 +360,15 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	    isnan(s->since_mjd) ? "-" : a, isnan(s->until_mjd) ? "-" : b,
 	    s->target[0] ? s->target : "all",
 	    s->station[0] ? s->station : "all");
-	mbuf_printf(out, "Records: %ld counted (%ld points), %ld skipped\n"
-	    "gap = fewer than %ld; sparse = fewer than half the mean of "
-	    "%.1f\n\n", r->records, r->pooled.m.total, r->skipped,
-	    s->min_count, (double)r->pooled.m.total / s->nbins);
+	if (s->source == COVERAGE_SOURCE_ATTEMPTS)
+		mbuf_printf(out, "Records: %ld attempts, %ld skipped\n",
+		    r->records, r->skipped);
+	else
+		mbuf_printf(out, "Records: %ld counted (%ld normal points), %ld "
+		    "skipped\n", r->records, r->pooled.m.total, r->skipped);
+	mbuf_printf(out, "gap = fewer than %ld; sparse = fewer than half the "
+	    "mean of %.1f\n\n", s->min_count,
+	    (double)r->pooled.m.total / s->nbins);
 
 	mbuf_printf(out, "  bin   from    to  %-15s %7s", "mark", "pooled");
 	for (size_t i = 0; i < ncol; i++)
