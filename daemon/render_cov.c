@@ -727,6 +727,7 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	    "</pattern></defs>\n"
 	    "<style>text{font-family:sans-serif;font-size:12px;fill:#24313a}"
 	    ".head{font-size:15px;font-weight:bold}.count{font-size:11px}"
+	    ".dense .count{font-size:8px}"
 	    ".mark{font-size:12px;font-style:italic}</style>\n");
 	mbuf_printf(out, "<rect width=\"%.0f\" height=\"%.0f\" "
 	    "fill=\"#fdfcf8\"/>\n", SVG_W, SVG_H);
@@ -778,7 +779,8 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	mbuf_puts(out, "</g>\n");
 
 	/* Count labels just outside the ring. */
-	mbuf_puts(out, "<g class=\"counts\">\n");
+	mbuf_puts(out, s->nbins > 24 ? "<g class=\"counts dense\">\n" :
+	    "<g class=\"counts\">\n");
 	for (int b = 0; b < s->nbins; b++) {
 		char attrs[48];
 

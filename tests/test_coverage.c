@@ -309,6 +309,26 @@ test_coverage_bins_and_filters(void **state)
 	assert_int_equal(r->pooled.n[6], 1);
 	assert_int_equal(r->pooled.n[0], 1);
 
+	/* More distinct targets than a result holds: refused, not cut. */
+	{
+		static struct site_normal_point many[COVERAGE_MAX_TARGETS + 1];
+		struct coverage_input big = {many, COVERAGE_MAX_TARGETS + 1,
+		    NULL, 0};
+
+		for (int i = 0; i <= COVERAGE_MAX_TARGETS; i++) {
+			char id[16];
+
+			snprintf(id, sizeof id, "t%03d", i);
+			many[i] = np_at(id, "7001", 61055.0, 10.0);
+		}
+		coverage_spec_init(&s);
+		assert_int_equal(coverage_compute(&s, &big, r),
+		    ERRCODE_TOO_LARGE);
+		big.nnp = COVERAGE_MAX_TARGETS;
+		assert_int_equal(coverage_compute(&s, &big, r), ERRCODE_OK);
+		assert_int_equal(r->ntargets, COVERAGE_MAX_TARGETS);
+	}
+
 	/* A bad spec is refused. */
 	s.nbins = 3;
 	assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_BAD_ARG);

@@ -129,6 +129,63 @@ test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 	free(r);
 }
 
+/* No records at all, and the smallest and largest bin counts: still
+   well-formed, one mark per bin, undefined metrics as null in JSON. */
+static void
+test_render_cov_empty_and_bin_limits(void **state)
+{
+	static const int nb[3] = {4, 12, 72};
+	struct coverage_result *r = calloc(1, sizeof *r);
+	struct coverage_input in = {NULL, 0, NULL, 0};
+	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128];
+
+	(void)state;
+	assert_non_null(r);
+	for (int k = 0; k < 3; k++) {
+		struct render_cov c = {r, NULL, NULL, NULL, NULL};
+		struct coverage_spec s;
+		json_error_t jerr;
+		json_t *root, *m;
+		struct mbuf b;
+		FILE *f;
+		int fd;
+
+		coverage_spec_init(&s);
+		s.nbins = nb[k];
+		assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_OK);
+		mbuf_init(&b);
+		assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
+		assert_int_equal(count_of(b.data, "<path class=\"bin"), nb[k]);
+		assert_int_equal(count_of(b.data, "<path class=\"bin gap\""),
+		    nb[k]);
+		assert_non_null(strstr(b.data, "no records match the query"));
+		strcpy(path, "/tmp/moonrange-cov-XXXXXX");
+		fd = mkstemp(path);
+		assert_true(fd >= 0);
+		f = fdopen(fd, "w");
+		assert_non_null(f);
+		assert_int_equal(fwrite(b.data, 1, b.len, f), b.len);
+		assert_int_equal(fclose(f), 0);
+		snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
+		assert_int_equal(system(cmd), 0);
+		unlink(path);
+		mbuf_free(&b);
+
+		mbuf_init(&b);
+		assert_int_equal(render_cov_json(&c, &b), ERRCODE_OK);
+		root = json_loads(b.data, 0, &jerr);
+		assert_non_null(root);
+		m = json_object_get(json_object_get(root, "pooled"), "metrics");
+		assert_true(json_is_null(json_object_get(m, "entropy")));
+		assert_true(json_is_null(json_object_get(m, "chi_square_p")));
+		check_near(json_real_value(json_object_get(m,
+		    "longest_empty_arc_deg")), 360.0, 0.0, "deg", "empty arc");
+		json_decref(root);
+		mbuf_free(&b);
+	}
+	free(r);
+}
+
 static void
 test_render_cov_json_fields(void **state)
 {
@@ -293,6 +350,7 @@ main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_render_cov_counts_of_sample),
 		cmocka_unit_test(test_render_cov_svg_is_xml_with_one_mark_per_bin),
+		cmocka_unit_test(test_render_cov_empty_and_bin_limits),
 		cmocka_unit_test(test_render_cov_json_fields),
 		cmocka_unit_test(test_render_cov_csv_rows),
 		cmocka_unit_test(test_render_cov_text_table),
