@@ -73,29 +73,38 @@ count_of(const char *hay, const char *needle)
 	return n;
 }
 
+/* The buffer is well-formed XML, checked by xmllint (Debian
+   libxml2-utils, test-only) on a temporary file. */
+static void
+assert_well_formed(const struct mbuf *b)
+{
+	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128];
+	FILE *f;
+	int fd;
+
+	fd = mkstemp(path);
+	assert_true(fd >= 0);
+	f = fdopen(fd, "w");
+	assert_non_null(f);
+	assert_int_equal(fwrite(b->data, 1, b->len, f), b->len);
+	assert_int_equal(fclose(f), 0);
+	snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
+	assert_int_equal(system(cmd), 0);
+	unlink(path);
+}
+
 static void
 test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 {
 	struct coverage_result *r = sample_result();
 	struct render_cov c = {r, NULL, NULL, "Test & <station>", NULL};
-	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128], key[64];
+	char key[64];
 	struct mbuf b;
-	FILE *f;
-	int fd;
 
 	(void)state;
 	mbuf_init(&b);
 	assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
-	fd = mkstemp(path);
-	assert_true(fd >= 0);
-	f = fdopen(fd, "w");
-	assert_non_null(f);
-	assert_int_equal(fwrite(b.data, 1, b.len, f), b.len);
-	assert_int_equal(fclose(f), 0);
-	/* Well-formed XML, checked by xmllint (Debian libxml2-utils). */
-	snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
-	assert_int_equal(system(cmd), 0);
-	unlink(path);
+	assert_well_formed(&b);
 
 	assert_non_null(strstr(b.data, "<title id=\"cov-title\">"));
 	assert_non_null(strstr(b.data, "<desc id=\"cov-desc\">"));
@@ -137,7 +146,6 @@ test_render_cov_empty_and_bin_limits(void **state)
 	static const int nb[3] = {4, 12, 72};
 	struct coverage_result *r = calloc(1, sizeof *r);
 	struct coverage_input in = {NULL, 0, NULL, 0};
-	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128];
 
 	(void)state;
 	assert_non_null(r);
@@ -147,8 +155,6 @@ test_render_cov_empty_and_bin_limits(void **state)
 		json_error_t jerr;
 		json_t *root, *m;
 		struct mbuf b;
-		FILE *f;
-		int fd;
 
 		coverage_spec_init(&s);
 		s.nbins = nb[k];
@@ -159,16 +165,7 @@ test_render_cov_empty_and_bin_limits(void **state)
 		assert_int_equal(count_of(b.data, "<path class=\"bin gap\""),
 		    nb[k]);
 		assert_non_null(strstr(b.data, "no records match the query"));
-		strcpy(path, "/tmp/moonrange-cov-XXXXXX");
-		fd = mkstemp(path);
-		assert_true(fd >= 0);
-		f = fdopen(fd, "w");
-		assert_non_null(f);
-		assert_int_equal(fwrite(b.data, 1, b.len, f), b.len);
-		assert_int_equal(fclose(f), 0);
-		snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
-		assert_int_equal(system(cmd), 0);
-		unlink(path);
+		assert_well_formed(&b);
 		mbuf_free(&b);
 
 		mbuf_init(&b);
