@@ -21,6 +21,8 @@ const struct cli_command cli_commands[] = {
 	    "coverage", cmd_windows},
 	{"tonight", "the coming night: ranked windows, best target now",
 	    cmd_tonight},
+	{"coverage", "how the normal points spread over the lunar cycle",
+	    cmd_coverage},
 	{"init", "create a station database from a site directory",
 	    cmd_init},
 	{"station", "show or change the stored station", cmd_station},
