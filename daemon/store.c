@@ -598,8 +598,16 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		goto out;
 	/* The first read tells a database from any other file. */
 	if ((v = store_schema_version(s)) < 0) {
-		seterr(errbuf, errlen, "'%s' is not a readable SQLite database: "
-		    "%s", path, sqlite3_errmsg(s->db));
+		/* A WAL database is read through its -shm file, which SQLite
+		   must be able to create beside it. */
+		if ((sqlite3_extended_errcode(s->db) & 0xff) == SQLITE_READONLY)
+			seterr(errbuf, errlen, "cannot read database '%s': "
+			    "SQLite needs to create '%s-shm' beside it (is its "
+			    "directory read-only?): %s", path, path,
+			    sqlite3_errmsg(s->db));
+		else
+			seterr(errbuf, errlen, "'%s' is not a readable SQLite "
+			    "database: %s", path, sqlite3_errmsg(s->db));
 		e = ERRCODE_DB;
 		goto out;
 	}
@@ -616,6 +624,13 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 			seterr(errbuf, errlen, "%s: %s", path, msg);
 			goto out;
 		}
+	}
+	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
+		seterr(errbuf, errlen, "%s: the database has schema version %d, "
+		    "newer than this program knows (up to %d)", path, v,
+		    STORE_SCHEMA_VERSION);
+		e = ERRCODE_DB;
+		goto out;
 	}
 	if ((flags & STORE_OPEN_READONLY) && v != STORE_SCHEMA_VERSION) {
 		seterr(errbuf, errlen, "%s: schema version %d, this program needs "
