@@ -109,6 +109,7 @@ mbuf_sink(const char *buf, size_t size, void *data)
 static enum errcode
 dump(json_t *root, struct mbuf *out)
 {
+	size_t mark = out->len;
 	int rc;
 
 	if (root == NULL)
@@ -116,8 +117,14 @@ dump(json_t *root, struct mbuf *out)
 	rc = json_dump_callback(root, mbuf_sink, out,
 	    JSON_INDENT(2) | JSON_REAL_PRECISION(15));
 	json_decref(root);
-	if (rc != 0)
+	if (rc != 0) {
+		/* Drop a partial document (when the mbuf itself is intact). */
+		if (mbuf_status(out) == ERRCODE_OK && out->data != NULL) {
+			out->len = mark;
+			out->data[mark] = '\0';
+		}
 		return ERRCODE_NOMEM;
+	}
 	mbuf_puts(out, "\n");
 	return mbuf_status(out);
 }

@@ -13,15 +13,6 @@
 
 #define MJD_BASE 2400000.5
 
-/* A number rounded to some decimals, or null when absent (NaN). */
-static json_t *
-jreal(double v, int decimals)
-{
-	double scale = pow(10.0, decimals);
-
-	return isfinite(v) ? json_real(round(v * scale) / scale) : json_null();
-}
-
 /* A UTC MJD as ISO text with ndp decimals, or null. */
 static json_t *
 jtime(double mjd, int ndp)
@@ -40,43 +31,21 @@ text_time(double mjd, int ndp, char *buf, size_t len)
 		snprintf(buf, len, "?");
 }
 
-/* json_dump_callback's sink: append to the mbuf. */
-static int
-sink(const char *buf, size_t size, void *data)
-{
-	struct mbuf *out = data;
-
-	mbuf_add(out, buf, size);
-	return mbuf_status(out) == ERRCODE_OK ? 0 : -1;
-}
-
 /*
- * Serialise root (a reference that is consumed) into out; failed says a
- * member could not be added.  The layout (two-space indent, 15 digits)
- * is the one of render.c, so every moonrange JSON document reads alike.
- * The text goes straight into the mbuf, whose failed flag survives
- * jansson: json_dumps in jansson 2.14 ignores a failed write of an object
- * key and can return a truncated document when memory runs out
- * (test_render_site_allocation_failure).
+ * Serialise root (a reference that is consumed) into out with render.c's
+ * render_json_dump (same layout as every moonrange JSON document, written
+ * straight into the mbuf so a failed allocation inside jansson cannot
+ * give a damaged document: test_render_site_allocation_failure); failed
+ * says a member could not be added.
  */
 static enum errcode
 finish(json_t *root, int failed, struct mbuf *out)
 {
-	size_t mark = out->len;
-
-	if (root == NULL || failed ||
-	    json_dump_callback(root, sink, out, JSON_INDENT(2) |
-	    JSON_REAL_PRECISION(15)) != 0) {
+	if (failed) {
 		json_decref(root);
-		if (mbuf_status(out) == ERRCODE_OK && out->data != NULL) {
-			out->len = mark;	/* drop a partial document */
-			out->data[mark] = '\0';
-		}
 		return ERRCODE_NOMEM;
 	}
-	json_decref(root);
-	mbuf_add(out, "\n", 1);
-	return mbuf_status(out);
+	return render_json_dump(root, out);
 }
 
 /* {"key": [items]}; *arr receives the (borrowed) array. */
@@ -111,18 +80,19 @@ attempt_obj(const struct site_attempt *a)
 	    "target", a->target,
 	    "start_utc", jtime(a->start_mjd, 3),
 	    "end_utc", jtime(a->end_mjd, 3),
-	    "duration_s", jreal((a->end_mjd - a->start_mjd) * 86400.0, 3),
+	    "duration_s",
+	    render_json_num((a->end_mjd - a->start_mjd) * 86400.0, 3),
 	    "shots", (json_int_t)a->shots,
 	    "returns", (json_int_t)a->returns,
 	    "normal_points", (json_int_t)a->normal_points,
 	    "outcome", site_outcome_name(a->outcome),
 	    "operator", a->operator_name,
-	    "seeing_arcsec", jreal(a->seeing_arcsec, 3),
+	    "seeing_arcsec", render_json_num(a->seeing_arcsec, 3),
 	    "notes", a->notes,
-	    "synodic_deg", jreal(a->synodic_deg, 6),
-	    "mean_elong_deg", jreal(a->mean_elong_deg, 6),
-	    "target_el_deg", jreal(a->target_el_deg, 6),
-	    "sun_el_target_deg", jreal(a->sun_el_target_deg, 6));
+	    "synodic_deg", render_json_num(a->synodic_deg, 6),
+	    "mean_elong_deg", render_json_num(a->mean_elong_deg, 6),
+	    "target_el_deg", render_json_num(a->target_el_deg, 6),
+	    "sun_el_target_deg", render_json_num(a->sun_el_target_deg, 6));
 
 	return o;
 }
@@ -255,19 +225,19 @@ render_site_station_json(const struct site_station *st, struct mbuf *out)
 	    "s:o, s:o, s:o, s:o, s:o, s:o, s:o}",
 	    "name", st->name,
 	    "code", st->code,
-	    "lat_deg", jreal(st->lat_deg, 7),
-	    "lon_deg", jreal(st->lon_deg, 7),
-	    "height_m", jreal(st->height_m, 3),
+	    "lat_deg", render_json_num(st->lat_deg, 7),
+	    "lon_deg", render_json_num(st->lon_deg, 7),
+	    "height_m", render_json_num(st->height_m, 3),
 	    "time_zone", st->time_zone,
-	    "min_el_deg", jreal(st->min_el_deg, 4),
-	    "max_sun_el_deg", jreal(st->max_sun_el_deg, 4),
-	    "min_sun_sep_deg", jreal(st->min_sun_sep_deg, 4),
-	    "pressure_hpa", jreal(st->pressure_hpa, 2),
-	    "temperature_c", jreal(st->temperature_c, 2),
-	    "humidity", jreal(st->humidity, 3),
-	    "wavelength_nm", jreal(st->wavelength_nm, 3),
-	    "zenith_tau", jreal(st->zenith_tau, 4),
-	    "fire_rate_hz", jreal(st->fire_rate_hz, 3));
+	    "min_el_deg", render_json_num(st->min_el_deg, 4),
+	    "max_sun_el_deg", render_json_num(st->max_sun_el_deg, 4),
+	    "min_sun_sep_deg", render_json_num(st->min_sun_sep_deg, 4),
+	    "pressure_hpa", render_json_num(st->pressure_hpa, 2),
+	    "temperature_c", render_json_num(st->temperature_c, 2),
+	    "humidity", render_json_num(st->humidity, 3),
+	    "wavelength_nm", render_json_num(st->wavelength_nm, 3),
+	    "zenith_tau", render_json_num(st->zenith_tau, 4),
+	    "fire_rate_hz", render_json_num(st->fire_rate_hz, 3));
 
 	return finish(root, 0, out);
 }
@@ -308,10 +278,10 @@ render_site_targets_json(const struct site_target *t, size_t n,
 		    "id", t[i].id,
 		    "name", t[i].name,
 		    "alias", t[i].alias,
-		    "lat_deg", jreal(t[i].lat_deg, 6),
-		    "lon_deg", jreal(t[i].lon_deg, 6),
-		    "height_m", jreal(t[i].height_m, 2),
-		    "strength", jreal(t[i].strength, 4),
+		    "lat_deg", render_json_num(t[i].lat_deg, 6),
+		    "lon_deg", render_json_num(t[i].lon_deg, 6),
+		    "height_m", render_json_num(t[i].height_m, 2),
+		    "strength", render_json_num(t[i].strength, 4),
 		    "dark_only", t[i].dark_only,
 		    "active", t[i].active)) != 0;
 	return finish(root, failed, out);
