@@ -259,10 +259,13 @@ render_ephem_text(const struct render_ephem *e, struct mbuf *out)
 	    sizeof local) == ERRCODE_OK)
 		mbuf_printf(out, "  (%s)", local);
 	mbuf_puts(out, "\n");
-	mbuf_printf(out, "Station %s%s%.5f, %.5f, %.1f m   DUT1 %+.4f s (%s)\n",
+	mbuf_printf(out, "Station %s%s%.5f, %.5f, %.1f m   DUT1 %+.4f s (%s",
 	    e->station_name ? e->station_name : "", e->station_name ? " " : "",
 	    g->site.lat * R2D, g->site.lon * R2D, g->site.height, g->t.dut1,
 	    e->dut1_source ? e->dut1_source : "option");
+	if (e->eop_last_utc != NULL)
+		mbuf_printf(out, "; EOP table ends %s", e->eop_last_utc);
+	mbuf_puts(out, ")\n");
 	if (g->t.dubious)
 		mbuf_puts(out, "Note: ERFA's leap-second table may be out of "
 		    "date for this year.\n");

@@ -216,6 +216,9 @@ expect_fail "eop import: truncated finals file" 2 "cut.finals" "$M" eop import -
 check "eop import failure left the table" "[ \"\$(q '$L' 'SELECT count(*) FROM eop')\" = $NE ]"
 check "ephem --db reports the EOP source" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | grep -q '\"dut1_source\": \"table\"'"
 check "ephem --db: no table row gives none" "'$M' ephem --db '$L' --at 2035-06-01T00:00:00Z --json | grep -q '\"dut1_source\": \"none\"'"
+check "ephem --db: JSON gives the table's last day" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | grep -q '\"eop_last_utc\": \"[0-9]\{4\}-[0-9][0-9]-[0-9][0-9]\"'"
+check "ephem --db: text gives the DUT1 source and the table's last day" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z | grep -q 'DUT1 .* (table; EOP table ends [0-9]\{4\}-[0-9][0-9]-[0-9][0-9])'"
+check "ephem --db: text beyond the table says none" "'$M' ephem --db '$L' --at 2035-06-01T00:00:00Z | grep -q 'DUT1 +0.0000 s (none; EOP table ends'"
 check "ephem --db lists the active targets" "[ \"\$('$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | $PY -c 'import json,sys; print(len(json.load(sys.stdin)[\"targets\"]))')\" = 5 ]"
 
 # --- schema versions -----------------------------------------------------------
