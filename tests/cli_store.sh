@@ -207,6 +207,23 @@ if [ -r "$C04" ]; then
 	check "eop import --c04 of the IERS C04 series (python3-astropy)" "'$M' eop import --db '$L' --c04 '$C04' >/dev/null 2>&1"
 	# IERS rule: |UT1-UTC| < 0.9 s on every day.
 	check "C04: |UT1-UTC| < 0.9 s every day" "[ \"\$(q '$L' 'SELECT count(*) FROM eop WHERE abs(dut1_s) >= 0.9')\" = 0 ]"
+	# IERS/ERFA: every jump of UT1-UTC by about +1 s from one day to the
+	# next falls on a day where ERFA's leap-second table steps by 1 s, and
+	# every such step inside the series shows as a jump (pyerfa of
+	# python3-astropy gives ERFA's table).
+	q "$L" 'SELECT b.mjd FROM eop a JOIN eop b ON b.mjd = a.mjd + 1 WHERE b.dut1_s - a.dut1_s > 0.5' >"$T/jumps"
+	q "$L" 'SELECT min(mjd), max(mjd) FROM eop' >"$T/span"
+	check "C04: the +1 s jumps of UT1-UTC are ERFA's leap seconds" "$PY - '$T/jumps' '$T/span' <<'PYEOF'
+import sys, erfa
+jumps = {int(l) for l in open(sys.argv[1]) if l.strip()}
+lo, hi = (int(x) for x in open(sys.argv[2]).read().split('|'))
+def dat(mjd):
+    y, m, d, f = erfa.jd2cal(2400000.5, float(mjd))
+    return erfa.dat(y, m, d, 0.0)
+steps = {mjd for mjd in range(max(lo + 1, 41318), hi + 1)
+         if abs(dat(mjd) - dat(mjd - 1) - 1.0) < 1e-9}
+sys.exit(0 if jumps and jumps == steps else 1)
+PYEOF"
 else
 	echo "# skip: $C04 not installed"
 fi
