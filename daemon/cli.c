@@ -292,3 +292,18 @@ cli_emit(struct mbuf *b)
 		return cli_fail("cannot write output");
 	return CLI_EXIT_OK;
 }
+
+int
+cli_bad_option(const char *cmd, const char *action, const char *opt)
+{
+	return cli_usage_error("%s%s%s: unknown or incomplete option '%s' (see "
+	    "'moonrange %s --help')", cmd, action ? " " : "",
+	    action ? action : "", opt, cmd);
+}
+
+int
+cli_extra_argument(const char *cmd, const char *action, const char *arg)
+{
+	return cli_usage_error("%s%s%s: unexpected argument '%s'", cmd,
+	    action ? " " : "", action ? action : "", arg);
+}

@@ -93,8 +93,7 @@ cmd_blackout(int argc, char **argv)
 			    "id (a whole number, see 'blackout list') is "
 			    "required");
 	} else if (optind < argc) {
-		return cli_usage_error("blackout %s: unexpected argument '%s'",
-		    argv[0], argv[optind]);
+		return cli_extra_argument("blackout", argv[0], argv[optind]);
 	}
 	if (which == 0) {
 		if (isnan(b.start_mjd) || isnan(b.end_mjd))

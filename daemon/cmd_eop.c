@@ -60,8 +60,7 @@ cmd_eop(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("eop %s: unknown or incomplete "
-			    "option '%s' (see 'moonrange eop --help')", argv[0],
+			return cli_bad_option("eop", argv[0],
 			    argv[optind - 1]);
 		}
 	}
@@ -69,8 +68,7 @@ cmd_eop(int argc, char **argv)
 		return cli_usage_error("eop import: exactly one EOP file is "
 		    "required");
 	if (!import && optind < argc)
-		return cli_usage_error("eop status: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("eop", "status", argv[optind]);
 	if ((st = cli_store_open(&c, db, import ? 0 : STORE_OPEN_READONLY)))
 		return st;
 	if (import) {

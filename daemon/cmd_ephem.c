@@ -226,14 +226,11 @@ cmd_ephem(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("ephem: unknown or incomplete "
-			    "option '%s' (see 'moonrange ephem --help')",
-			    argv[optind - 1]);
+			return cli_bad_option("ephem", NULL, argv[optind - 1]);
 		}
 	}
 	if (optind < argc)
-		return cli_usage_error("ephem: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("ephem", NULL, argv[optind]);
 	if (!have_at)
 		cli_now(&utc1, &utc2);
 	if (db != NULL && !demo)

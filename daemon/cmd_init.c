@@ -236,14 +236,11 @@ cmd_init(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("init: unknown or incomplete "
-			    "option '%s' (see 'moonrange init --help')",
-			    argv[optind - 1]);
+			return cli_bad_option("init", NULL, argv[optind - 1]);
 		}
 	}
 	if (optind < argc)
-		return cli_usage_error("init: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("init", NULL, argv[optind]);
 	if (db == NULL)
 		return cli_usage_error("init: --db FILE is required");
 	if (strlen(db) > 4000)

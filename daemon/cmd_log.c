@@ -157,8 +157,7 @@ parse_args(int argc, char **argv, struct log_args *a)
 			break;
 		case O_HELP: a->help = 1; break;
 		default:
-			return cli_usage_error("log %s: unknown or incomplete "
-			    "option '%s' (see 'moonrange log --help')", argv[0],
+			return cli_bad_option("log", argv[0],
 			    argv[optind - 1]);
 		}
 		if (st != CLI_EXIT_OK)
@@ -167,8 +166,7 @@ parse_args(int argc, char **argv, struct log_args *a)
 	if (optind < argc)
 		a->file = argv[optind++];
 	if (optind < argc)
-		return cli_usage_error("log %s: unexpected argument '%s'",
-		    argv[0], argv[optind]);
+		return cli_extra_argument("log", argv[0], argv[optind]);
 	if (a->json && a->csv)
 		return cli_usage_error("--json and --csv exclude each other");
 	return CLI_EXIT_OK;
@@ -339,8 +337,7 @@ cmd_log(int argc, char **argv)
 		return CLI_EXIT_OK;
 	}
 	if (a.file != NULL && which != 2)
-		return cli_usage_error("log %s: unexpected argument '%s'",
-		    argv[1], a.file);
+		return cli_extra_argument("log", argv[1], a.file);
 	switch (which) {
 	case 0:
 		return log_add(&a);

@@ -78,8 +78,7 @@ cmd_np(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("np %s: unknown or incomplete "
-			    "option '%s' (see 'moonrange np --help')", argv[0],
+			return cli_bad_option("np", argv[0],
 			    argv[optind - 1]);
 		}
 	}
@@ -87,8 +86,7 @@ cmd_np(int argc, char **argv)
 		return cli_usage_error("np import: at least one CRD file is "
 		    "required");
 	if (!import && optind < argc)
-		return cli_usage_error("np count: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("np", "count", argv[optind]);
 	if ((st = cli_store_open(&c, db, import ? 0 : STORE_OPEN_READONLY)))
 		return st;
 	if (!import) {

@@ -73,14 +73,11 @@ cmd_phases(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("phases: unknown or incomplete "
-			    "option '%s' (see 'moonrange phases --help')",
-			    argv[optind - 1]);
+			return cli_bad_option("phases", NULL, argv[optind - 1]);
 		}
 	}
 	if (optind < argc)
-		return cli_usage_error("phases: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("phases", NULL, argv[optind]);
 	if (have_to && have_days)
 		return cli_usage_error("--to and --days: give one, not both");
 	if (!have_from)

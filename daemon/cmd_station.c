@@ -95,8 +95,7 @@ cmd_station(int argc, char **argv)
 		}
 	}
 	if (show && optind < argc)
-		return cli_usage_error("station show: unexpected argument '%s'",
-		    argv[optind]);
+		return cli_extra_argument("station", "show", argv[optind]);
 	if (!show && optind >= argc)
 		return cli_usage_error("station set: give at least one "
 		    "SECTION.KEY=VALUE");

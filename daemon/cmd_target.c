@@ -169,9 +169,8 @@ cmd_target(int argc, char **argv)
 			usage(stdout);
 			return CLI_EXIT_OK;
 		default:
-			return cli_usage_error("target %s: unknown or incomplete "
-			    "option '%s' (see 'moonrange target --help')",
-			    argv[0], argv[optind - 1]);
+			return cli_bad_option("target", argv[0],
+			    argv[optind - 1]);
 		}
 		if (st != CLI_EXIT_OK)
 			return st;
@@ -179,11 +178,9 @@ cmd_target(int argc, char **argv)
 	if (optind < argc)
 		id = argv[optind++];
 	if (optind < argc)
-		return cli_usage_error("target %s: unexpected argument '%s'",
-		    argv[0], argv[optind]);
+		return cli_extra_argument("target", argv[0], argv[optind]);
 	if (which == 3 && id != NULL)
-		return cli_usage_error("target list: unexpected argument '%s'",
-		    id);
+		return cli_extra_argument("target", "list", id);
 	if (which != 3 && (id == NULL || !valid_ident(id, SITE_ID_LEN - 1)))
 		return cli_usage_error("target %s: an ID of 1-32 letters, "
 		    "digits, '_', '-' or '.' is required", argv[0]);

@@ -66,6 +66,15 @@ void cli_now(double *utc1, double *utc2);
 enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
     double *utc2);
 
+/*
+ * The errors of an option loop, for command cmd (and the action word of a
+ * command with actions, or NULL): an option getopt_long refused (pass
+ * argv[optind - 1]), and an operand left over.  Both print one line and
+ * return CLI_EXIT_USAGE.
+ */
+int cli_bad_option(const char *cmd, const char *action, const char *opt);
+int cli_extra_argument(const char *cmd, const char *action, const char *arg);
+
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
 
