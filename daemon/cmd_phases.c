@@ -4,6 +4,7 @@
 #include <stdio.h>
 
 #include "cli.h"
+#include "cli_store.h"
 #include "geom.h"
 #include "render.h"
 
@@ -13,7 +14,8 @@ static void
 usage(FILE *f)
 {
 	fprintf(f,
-	    "usage: moonrange phases [--from UTC] [--to UTC | --days N] [--json]\n"
+	    "usage: moonrange phases [--from UTC] [--to UTC | --days N]\n"
+	    "                        [--tz ZONE | --db FILE] [--json]\n"
 	    "\n"
 	    "Every new moon, first quarter, full moon and last quarter in the\n"
 	    "span, each to better than a second on the synodic angle (the\n"
@@ -22,6 +24,8 @@ usage(FILE *f)
 	    "  --from UTC   start, ISO 8601 with Z (default: now)\n"
 	    "  --to UTC     end (default: --days after the start)\n"
 	    "  --days N     length of the span in days (default 30, max 36600)\n"
+	    "  --tz ZONE    also show local time in this IANA zone (text table)\n"
+	    "  --db FILE    also show local time in the stored station's zone\n"
 	    "  --json       machine-readable output: {\"phases\":[{kind,utc}]}\n"
 	    "  --help       this text\n");
 }
@@ -33,6 +37,8 @@ cmd_phases(int argc, char **argv)
 		{"from", required_argument, NULL, 'f'},
 		{"to", required_argument, NULL, 't'},
 		{"days", required_argument, NULL, 'd'},
+		{"tz", required_argument, NULL, 'z'},
+		{"db", required_argument, NULL, 'D'},
 		{"json", no_argument, NULL, 'j'},
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
@@ -43,6 +49,9 @@ cmd_phases(int argc, char **argv)
 	struct tscale_instant a, b;
 	struct render_phases rp;
 	struct mbuf out;
+	struct cli_store cs;
+	const char *tz = NULL, *db = NULL;
+	char zone[sizeof cs.station.time_zone];
 	size_t n = 0;
 	enum errcode rc;
 
@@ -66,6 +75,16 @@ cmd_phases(int argc, char **argv)
 				    "number in 0..36600", optarg);
 			have_days = 1;
 			break;
+		case 'z':
+			if (!render_zone_known(optarg))
+				return cli_usage_error("--tz: '%s' is not a time "
+				    "zone known to this system (an IANA name such "
+				    "as Europe/Madrid)", optarg);
+			tz = optarg;
+			break;
+		case 'D':
+			db = optarg;
+			break;
 		case 'j':
 			json = 1;
 			break;
@@ -80,6 +99,22 @@ cmd_phases(int argc, char **argv)
 		return cli_extra_argument("phases", NULL, argv[optind]);
 	if (have_to && have_days)
 		return cli_usage_error("--to and --days: give one, not both");
+	if (tz != NULL && db != NULL)
+		return cli_usage_error("--tz and --db: give one, not both");
+	if (db != NULL) {
+		if ((st = cli_store_open(&cs, db, STORE_OPEN_READONLY)) ||
+		    (st = cli_store_load(&cs))) {
+			cli_store_close(&cs);
+			return st;
+		}
+		snprintf(zone, sizeof zone, "%s", cs.station.time_zone);
+		cli_store_close(&cs);
+		if (render_zone_known(zone))
+			tz = zone;
+		else if (zone[0] != '\0')
+			cli_warn("%s: the station's time zone '%s' is not known "
+			    "to this system; UTC only", db, zone);
+	}
 	if (!have_from)
 		cli_now(&f1, &f2);
 	if (!have_to) {
@@ -102,7 +137,7 @@ cmd_phases(int argc, char **argv)
 	rp.to2 = t2;
 	rp.ev = ev;
 	rp.n = n;
-	rp.time_zone = NULL;
+	rp.time_zone = tz;
 	mbuf_init(&out);
 	rc = json ? render_phases_json(&rp, &out) : render_phases_text(&rp, &out);
 	if (rc != ERRCODE_OK) {

@@ -94,6 +94,30 @@ else
 	fail "phases --json exited $?: $(cat "$TMP/err")"
 fi
 
+# --- phases --tz: local time beside UTC ---------------------------------
+# Every principal phase of January 2027 falls in CET, UTC+1 in Madrid in
+# winter (tzdata, common practice).
+if "$BIN" phases --from 2027-01-01T00:00:00Z --days 31 --tz Europe/Madrid \
+    >"$TMP/ph_tz.txt" 2>"$TMP/err"; then
+	grep -q '^Phase  *UTC  *Local$' "$TMP/ph_tz.txt" ||
+	    fail "phases --tz: no Local column"
+	"$PY" - "$TMP/ph_tz.txt" <<'PYEOF' || fail "phases --tz: local = UTC + 1 h"
+import datetime, sys
+rows = [l.split() for l in open(sys.argv[1]) if l[:1] != "P"]
+rows = [r for r in rows if len(r) >= 5]
+assert len(rows) >= 4, rows
+for r in rows:
+    utc = datetime.datetime.strptime(r[-4], "%Y-%m-%dT%H:%M:%SZ")
+    loc = datetime.datetime.strptime(r[-3] + " " + r[-2], "%Y-%m-%d %H:%M")
+    assert r[-1] == "CET", r
+    assert utc.replace(second=0) + datetime.timedelta(hours=1) == loc, r
+PYEOF
+else
+	fail "phases --tz exited $?: $(cat "$TMP/err")"
+fi
+"$BIN" phases --from 2027-01-01T00:00:00Z --days 31 >"$TMP/ph_utc.txt" &&
+    ! grep -q 'Local' "$TMP/ph_utc.txt" || fail "phases without a zone: UTC only"
+
 # --- bad input: exit 2, one line "moonrange: error: ..." naming the field
 # expect_bad FIELD ARGS...: the message must contain FIELD.
 expect_bad() {
@@ -154,6 +178,11 @@ expect_bad --to phases --from 2027-01-01T00:00:00Z --to 2027-01-01T25:00:00Z
 expect_bad --to phases --from 2027-02-01T00:00:00Z --to 2027-01-01T00:00:00Z
 expect_bad --days phases --from 2027-01-01T00:00:00Z --days -3
 expect_bad --bogus phases --bogus
+expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz Mars/Olympus
+expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz ../../etc/passwd
+expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz ""
+expect_bad --db phases --from 2027-01-01T00:00:00Z --tz UTC --db x.db
+expect_bad "$TMP/none.db" phases --db "$TMP/none.db"
 expect_bad "unknown command" nosuchcommand
 
 # --- --help on every subcommand ----------------------------------------

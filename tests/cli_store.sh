@@ -236,6 +236,7 @@ check "ephem --db: no table row gives none" "'$M' ephem --db '$L' --at 2035-06-0
 check "ephem --db: JSON gives the table's last day" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | grep -q '\"eop_last_utc\": \"[0-9]\{4\}-[0-9][0-9]-[0-9][0-9]\"'"
 check "ephem --db: text gives the DUT1 source and the table's last day" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z | grep -q 'DUT1 .* (table; EOP table ends [0-9]\{4\}-[0-9][0-9]-[0-9][0-9])'"
 check "ephem --db: text beyond the table says none" "'$M' ephem --db '$L' --at 2035-06-01T00:00:00Z | grep -q 'DUT1 +0.0000 s (none; EOP table ends'"
+check "phases --db: local time in the station's zone beside UTC" "'$M' phases --db '$L' --from 2026-01-01T00:00:00Z --days 31 | grep -q '^New moon .*Z  2026-01-[0-9][0-9] [0-9][0-9]:[0-9][0-9] PST\$'"
 check "ephem --db lists the active targets" "[ \"\$('$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | $PY -c 'import json,sys; print(len(json.load(sys.stdin)[\"targets\"]))')\" = 5 ]"
 
 # --- schema versions -----------------------------------------------------------
