@@ -1181,6 +1181,14 @@ test_import_crd_bad(void **state)
 		{ "H1 CRD 1 2026 3 2 1\nH4  1 2026  3  1  4  0  0 2026  3  1 "
 		    " 5  0  0  0 1 0 0 1 0 2 0\nH8\nH9\n", 2, "H4",
 		    "before the H2" },
+		{ "H1 CRD 1 2026 3 2 1\nH2\n", 2, "H2",
+		    "missing or bad station name" },
+		{ "H1 CRD 1 2026 3 2 1\nH2 TSTP 9998 1 1 7\nH3 bad/name na\n",
+		    3, "H3", "missing or bad target name" },
+		{ CRD_V1_HEAD H4OK "H2 OTHR 9997 1 1 7\n" NPOK "H8\nH9\n", 5,
+		    "H2", "station header inside the session opened on line 4" },
+		{ CRD_V1_HEAD H4OK "H3 other na na na 0 2\n" NPOK "H8\nH9\n", 5,
+		    "H3", "target header inside the session opened on line 4" },
 	};
 #undef H4OK
 #undef NPOK
