@@ -1606,6 +1606,33 @@ crd_datetime(char **tok, long v[6])
 	return unset ? 1 : 0;
 }
 
+/*
+ * H2 (station) and H3 (target): the name in the first field, outside a
+ * session.  A bad name clears *have, so the points that follow are
+ * refused until a good header comes.
+ */
+static void
+crd_name_header(struct crd_state *s, char **tok, size_t nt, size_t line,
+    const char *type, const char *what, char *name, size_t len, int *have,
+    struct import_report *rep)
+{
+	if (s->in_session) {
+		rep_error(rep, line, type, "%s header inside the session "
+		    "opened on line %zu", what, s->h4_line);
+		rep->bad++;
+		return;
+	}
+	if (nt < 2 || strlen(tok[1]) >= len ||
+	    !valid_ident(tok[1], len - 1, 1)) {
+		rep_error(rep, line, type, "missing or bad %s name", what);
+		rep->bad++;
+		*have = 0;
+		return;
+	}
+	snprintf(name, len, "%s", tok[1]);
+	*have = 1;
+}
+
 static void
 crd_h4(struct crd_state *s, char **tok, size_t nt, size_t line,
     struct import_report *rep)
@@ -1853,41 +1880,11 @@ import_crd(const char *buf, size_t len, import_np_fn fn, void *ctx,
 		} else if (s.version < 0) {
 			continue;
 		} else if (strcmp(type, "H2") == 0) {
-			if (s.in_session) {
-				rep_error(rep, it.line, "H2", "station header "
-				    "inside the session opened on line %zu",
-				    s.h4_line);
-				rep->bad++;
-				continue;
-			}
-			if (nt < 2 || strlen(tok[1]) >= sizeof s.station ||
-			    !valid_ident(tok[1], sizeof s.station - 1, 1)) {
-				rep_error(rep, it.line, "H2", "missing or bad "
-				    "station name");
-				rep->bad++;
-				s.have_h2 = 0;
-				continue;
-			}
-			snprintf(s.station, sizeof s.station, "%s", tok[1]);
-			s.have_h2 = 1;
+			crd_name_header(&s, tok, nt, it.line, "H2", "station",
+			    s.station, sizeof s.station, &s.have_h2, rep);
 		} else if (strcmp(type, "H3") == 0) {
-			if (s.in_session) {
-				rep_error(rep, it.line, "H3", "target header "
-				    "inside the session opened on line %zu",
-				    s.h4_line);
-				rep->bad++;
-				continue;
-			}
-			if (nt < 2 || strlen(tok[1]) >= sizeof s.target ||
-			    !valid_ident(tok[1], sizeof s.target - 1, 1)) {
-				rep_error(rep, it.line, "H3", "missing or bad "
-				    "target name");
-				rep->bad++;
-				s.have_h3 = 0;
-				continue;
-			}
-			snprintf(s.target, sizeof s.target, "%s", tok[1]);
-			s.have_h3 = 1;
+			crd_name_header(&s, tok, nt, it.line, "H3", "target",
+			    s.target, sizeof s.target, &s.have_h3, rep);
 		} else if (strcmp(type, "H4") == 0) {
 			if (s.in_session) {
 				rep_error(rep, it.line, "H4", "new session "
