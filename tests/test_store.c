@@ -561,7 +561,8 @@ test_store_settings(void **state)
 	    sizeof err), ERRCODE_OK);
 	assert_int_equal(store_settings_get(s, &set, err, sizeof err),
 	    ERRCODE_OK);
-	/* Defaults of DESIGN.md section 4: 12 bins of 30 deg. */
+	/* Defaults documented in the README (setting list): 12 bins of 30 deg,
+	   the usual monthly-phase binning (common practice). */
 	assert_int_equal(set.coverage_bins, 12);
 	assert_true(set.coverage_alpha == 1.0);
 	assert_int_equal(set.coverage_per_target, 0);
