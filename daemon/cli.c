@@ -307,3 +307,11 @@ cli_extra_argument(const char *cmd, const char *action, const char *arg)
 	return cli_usage_error("%s%s%s: unexpected argument '%s'", cmd,
 	    action ? " " : "", action ? action : "", arg);
 }
+
+int
+cli_emit_rendered(enum errcode rc, struct mbuf *b)
+{
+	if (rc != ERRCODE_OK)
+		return cli_fail("%s", errcode_str(rc));
+	return cli_emit(b);
+}

@@ -131,10 +131,10 @@ cmd_blackout(int argc, char **argv)
 		}
 		mbuf_init(&out);
 		if (json)
-			(void)render_site_blackouts_json(list, n, &out);
+			rc = render_site_blackouts_json(list, n, &out);
 		else
-			(void)render_site_blackouts_text(list, n, &out);
-		st = cli_emit(&out);
+			rc = render_site_blackouts_text(list, n, &out);
+		st = cli_emit_rendered(rc, &out);
 		mbuf_free(&out);
 		mem_free(list);
 		break;

@@ -227,11 +227,11 @@ log_add(const struct log_args *a)
 	}
 	mbuf_init(&out);
 	if (a->json)
-		(void)render_site_attempt_json(&at, &out);
+		rc = render_site_attempt_json(&at, &out);
 	else
-		(void)render_site_attempts_text(&at, 1, c.station.time_zone,
+		rc = render_site_attempts_text(&at, 1, c.station.time_zone,
 		    &out);
-	st = cli_emit(&out);
+	st = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
 out:
 	cli_store_close(&c);

@@ -114,10 +114,10 @@ cmd_station(int argc, char **argv)
 	}
 	mbuf_init(&out);
 	if (json)
-		(void)render_site_station_json(&st, &out);
+		rc = render_site_station_json(&st, &out);
 	else
-		(void)render_site_station_text(&st, &out);
-	status = cli_emit(&out);
+		rc = render_site_station_text(&st, &out);
+	status = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
 out:
 	cli_store_close(&c);

@@ -230,10 +230,10 @@ cmd_target(int argc, char **argv)
 		}
 		mbuf_init(&out);
 		if (json)
-			(void)render_site_targets_json(list, n, &out);
+			rc = render_site_targets_json(list, n, &out);
 		else
-			(void)render_site_targets_text(list, n, &out);
-		st = cli_emit(&out);
+			rc = render_site_targets_text(list, n, &out);
+		st = cli_emit_rendered(rc, &out);
 		mbuf_free(&out);
 		mem_free(list);
 		break;

@@ -78,6 +78,10 @@ int cli_extra_argument(const char *cmd, const char *action, const char *arg);
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
 
+/* The status of a renderer, then its buffer: a failed renderer prints
+   its error (nothing on stdout) and gives CLI_EXIT_FAIL. */
+int cli_emit_rendered(enum errcode rc, struct mbuf *b);
+
 /* --- commands (one file each: cmd_<name>.c) --- */
 int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);

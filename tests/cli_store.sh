@@ -142,6 +142,11 @@ expect_fail "log add: end before start" 2 "--end" "$M" log add --db "$L" --targe
 expect_fail "log add: unknown target" 2 "no target 'NOWHERE'" "$M" log add --db "$L" --target NOWHERE --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome weather --operator op
 expect_fail "log add: unknown outcome" 2 "--outcome" "$M" log add --db "$L" --target HERON --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome lucky --operator op
 expect_fail "log add: missing options" 2 "required" "$M" log add --db "$L" --target HERON
+# A value a hand-written INSERT left unreadable as JSON: an error, not an
+# empty document with exit 0.
+cp "$L" "$T/badtext.db"
+sqlite3 "$T/badtext.db" "UPDATE targets SET name = CAST(X'61FF62' AS TEXT) WHERE id = 'HERON'"
+expect_fail "target list --json of a stored non-UTF-8 name fails" 1 "" "$M" target list --db "$T/badtext.db" --json
 expect_fail "log list: missing database" 2 "does not exist" "$M" log list --db "$T/none.db"
 check "log add/failures: one row more" "[ \"\$(q '$L' 'SELECT count(*) FROM attempts')\" = $((N0 + 1)) ]"
 check "log list --since --target" "[ \"\$('$M' log list --db '$L' --since 2026-12-01T00:00:00Z --target HERON --json | $PY -c 'import json,sys; print(len(json.load(sys.stdin)[\"attempts\"]))')\" = 1 ]"
