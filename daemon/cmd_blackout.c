@@ -102,9 +102,9 @@ cmd_blackout(int argc, char **argv)
 		if (!(b.end_mjd > b.start_mjd))
 			return cli_usage_error("--end: not after --start");
 		if (strlen(reason) >= sizeof b.reason ||
-		    strpbrk(reason, "\r\n") != NULL)
-			return cli_usage_error("--reason: at most %zu bytes on "
-			    "one line", sizeof b.reason - 1);
+		    !import_text_ok(reason, 0))
+			return cli_usage_error("--reason: at most %zu bytes of "
+			    "UTF-8 text on one line", sizeof b.reason - 1);
 		strcpy(b.reason, reason);
 	}
 	if ((st = cli_store_open(&c, db, which == 1 ? STORE_OPEN_READONLY :

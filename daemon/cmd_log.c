@@ -90,8 +90,10 @@ copy_text(char *dst, size_t cap, const char *opt, const char *s)
 {
 	if (strlen(s) >= cap)
 		return cli_usage_error("%s: longer than %zu bytes", opt, cap - 1);
-	if (strpbrk(s, "\r\n") != NULL && strcmp(opt, "--notes") != 0)
-		return cli_usage_error("%s: must be one line", opt);
+	if (!import_text_ok(s, strcmp(opt, "--notes") == 0))
+		return cli_usage_error("%s: must be UTF-8 text without control "
+		    "characters%s", opt, strcmp(opt, "--notes") == 0 ? "" :
+		    ", on one line");
 	strcpy(dst, s);
 	return CLI_EXIT_OK;
 }

@@ -64,9 +64,9 @@ apply(struct site_target *t, const struct target_edit *e)
 {
 	if (e->name != NULL) {
 		if (*e->name == '\0' || strlen(e->name) >= sizeof t->name ||
-		    strpbrk(e->name, "\r\n") != NULL)
-			return cli_usage_error("--name: 1..%zu bytes on one "
-			    "line", sizeof t->name - 1);
+		    !import_text_ok(e->name, 0))
+			return cli_usage_error("--name: 1..%zu bytes of UTF-8 "
+			    "text on one line", sizeof t->name - 1);
 		strcpy(t->name, e->name);
 	}
 	if (e->alias != NULL) {

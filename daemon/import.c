@@ -313,21 +313,31 @@ valid_ident(const char *s, size_t maxlen, int dot)
 	return 1;
 }
 
-/* Text without control characters (tab and newline too, unless
-   multiline); UTF-8 validity was checked for the whole buffer. */
+/* Valid UTF-8 without control characters (tab and newline too, unless
+   multiline).  Files were checked whole; command-line values and
+   "station set" are checked here. */
 static int
 valid_text(const char *s, int multiline)
 {
-	for (; *s; s++) {
-		unsigned char c = (unsigned char)*s;
+	const unsigned char *p = (const unsigned char *)s;
+	size_t len = strlen(s), n;
 
-		if (c == 0x7F)
+	for (size_t i = 0; i < len; i += n) {
+		unsigned char c = p[i];
+
+		if ((n = utf8_seq(p + i, len - i)) == 0 || c == 0x7F)
 			return 0;
 		if (c < 0x20 && !(multiline && (c == '\n' || c == '\t' ||
 		    c == '\r')))
 			return 0;
 	}
 	return 1;
+}
+
+int
+import_text_ok(const char *s, int multiline)
+{
+	return s != NULL && valid_text(s, multiline);
 }
 
 /* Compare ASCII text ignoring case (locale-free). */
@@ -609,8 +619,8 @@ key_set(struct site_station *st, size_t k, const char *raw, char *err,
 			return ERRCODE_BAD_ARG;
 		}
 		if (key->type == IMPORT_KEY_TEXT && !valid_text(v, 0)) {
-			snprintf(err, errlen, "control characters are not "
-			    "allowed");
+			snprintf(err, errlen, "not UTF-8 text, or control "
+			    "characters in it");
 			return ERRCODE_BAD_ARG;
 		}
 		if (key->type == IMPORT_KEY_CODE &&

@@ -48,6 +48,14 @@ void import_report_init(struct import_report *rep);
 void import_error_format(const struct import_report *rep, size_t i,
     const char *file, char *buf, size_t len);
 
+/* --- text --- */
+
+/* 1 when s is valid UTF-8 (RFC 3629) without control characters (tab,
+   CR and LF allowed only when multiline), else 0; NULL gives 0.  The
+   rule of every text field the importers accept, for command-line
+   values too. */
+int import_text_ok(const char *s, int multiline);
+
 /* --- station file (INI) --- */
 
 /*

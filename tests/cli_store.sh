@@ -142,6 +142,16 @@ expect_fail "log add: end before start" 2 "--end" "$M" log add --db "$L" --targe
 expect_fail "log add: unknown target" 2 "no target 'NOWHERE'" "$M" log add --db "$L" --target NOWHERE --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome weather --operator op
 expect_fail "log add: unknown outcome" 2 "--outcome" "$M" log add --db "$L" --target HERON --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome lucky --operator op
 expect_fail "log add: missing options" 2 "required" "$M" log add --db "$L" --target HERON
+# Text options must be UTF-8 (0xFF never occurs in UTF-8, RFC 3629), as in
+# the files; nothing is stored.
+NA=$(q "$L" 'SELECT count(*) FROM attempts')
+expect_fail "log add: operator not UTF-8" 2 "--operator" "$M" log add --db "$L" --target HERON --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome weather --operator $'op\xff'
+expect_fail "log add: notes not UTF-8" 2 "--notes" "$M" log add --db "$L" --target HERON --start 2026-12-02T05:00:00Z --end 2026-12-02T05:20:00Z --shots 5 --returns 0 --normal-points 0 --outcome weather --operator op --notes $'two\nlines \xc0\xaf'
+check "log add: nothing stored for bad text" "[ \"\$(q '$L' 'SELECT count(*) FROM attempts')\" = $NA ]"
+expect_fail "target add: name not UTF-8" 2 "--name" "$M" target add --db "$L" BADTXT --name $'a\xffb' --lat 1 --lon 2
+expect_fail "blackout add: reason not UTF-8" 2 "--reason" "$M" blackout add --db "$L" --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason $'\xed\xa0\x80'
+expect_fail "station set: name not UTF-8" 2 "station.name" "$M" station set --db "$L" station.name=$'bad\xff'
+check "target list --json still whole" "'$M' target list --db '$L' --json | $PY -c 'import json,sys; json.load(sys.stdin)'"
 # A value a hand-written INSERT left unreadable as JSON: an error, not an
 # empty document with exit 0.
 cp "$L" "$T/badtext.db"
