@@ -77,16 +77,52 @@ cli_main(int argc, char **argv)
 	    argv[1]);
 }
 
-static void vreport(const char *kind, const char *fmt, va_list ap)
-    MEM_PRINTFLIKE(2, 0);
+#define CLI_MSG_MAX 512	/* bytes of a message; longer ones end in "..." */
 
-static void
-vreport(const char *kind, const char *fmt, va_list ap)
+/* Length of a well-formed UTF-8 sequence at p (lead and continuation
+   bytes only; 0 if malformed). */
+static size_t
+utf8_len(const unsigned char *p)
 {
-	fprintf(stderr, "moonrange: %s: ", kind);
-	vfprintf(stderr, fmt, ap);
-	fputc('\n', stderr);
+	size_t n = *p >= 0xF0 && *p <= 0xF4 ? 4 : *p >= 0xE0 ? 3 :
+	    *p >= 0xC2 ? 2 : 0;
+
+	if (*p >= 0xF5)
+		return 0;
+	for (size_t i = 1; i < n; i++)
+		if ((p[i] & 0xC0) != 0x80)
+			return 0;
+	return n;
 }
+
+void
+cli_vmessage(const char *kind, const char *fmt, va_list ap)
+{
+	char buf[CLI_MSG_MAX + 4];
+	int n = vsnprintf(buf, CLI_MSG_MAX + 1, fmt, ap);
+	size_t len, k;
+
+	/* One line of text whatever the user typed: control bytes and
+	   malformed UTF-8 become '?', an overlong message is cut. */
+	len = n < 0 ? 0 : (size_t)n > CLI_MSG_MAX ? CLI_MSG_MAX : (size_t)n;
+	buf[len] = '\0';
+	for (size_t i = 0; i < len; i += k) {
+		unsigned char c = (unsigned char)buf[i];
+
+		k = 1;
+		if (c < 0x20 || c == 0x7F)
+			buf[i] = '?';
+		else if (c >= 0x80 && ((k = utf8_len((unsigned char *)buf +
+		    i)) == 0 || i + k > len)) {
+			buf[i] = '?';
+			k = 1;
+		}
+	}
+	if (n > CLI_MSG_MAX)
+		memcpy(buf + len, "...", 4);
+	fprintf(stderr, "moonrange: %s: %s\n", kind, buf);
+}
+
 
 int
 cli_usage_error(const char *fmt, ...)
@@ -94,7 +130,7 @@ cli_usage_error(const char *fmt, ...)
 	va_list ap;
 
 	va_start(ap, fmt);
-	vreport("error", fmt, ap);
+	cli_vmessage("error", fmt, ap);
 	va_end(ap);
 	return CLI_EXIT_USAGE;
 }
@@ -105,7 +141,7 @@ cli_fail(const char *fmt, ...)
 	va_list ap;
 
 	va_start(ap, fmt);
-	vreport("error", fmt, ap);
+	cli_vmessage("error", fmt, ap);
 	va_end(ap);
 	return CLI_EXIT_FAIL;
 }
@@ -116,7 +152,7 @@ cli_warn(const char *fmt, ...)
 	va_list ap;
 
 	va_start(ap, fmt);
-	vreport("warning", fmt, ap);
+	cli_vmessage("warning", fmt, ap);
 	va_end(ap);
 }
 

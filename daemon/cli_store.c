@@ -64,11 +64,9 @@ cli_store_fail(enum errcode rc, const char *fmt, ...)
 {
 	va_list ap;
 
-	fputs("moonrange: error: ", stderr);
 	va_start(ap, fmt);
-	vfprintf(stderr, fmt, ap);
+	cli_vmessage("error", fmt, ap);
 	va_end(ap);
-	fputc('\n', stderr);
 	return cli_status_of(rc);
 }
 
@@ -241,11 +239,11 @@ cli_store_rep_print(const struct import_report *rep, const char *file)
 
 	for (size_t i = 0; i < rep->nerrors; i++) {
 		import_error_format(rep, i, file, line, sizeof line);
-		fprintf(stderr, "moonrange: error: %s\n", line);
+		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s", line);
 	}
 	if (rep->bad > rep->nerrors)
-		fprintf(stderr, "moonrange: error: %s: %zu more bad records "
-		    "not shown\n", file, rep->bad - rep->nerrors);
+		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s: %zu more bad records "
+		    "not shown", file, rep->bad - rep->nerrors);
 }
 
 enum errcode

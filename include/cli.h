@@ -3,6 +3,7 @@
 #ifndef MOONRANGE_CLI_H
 #define MOONRANGE_CLI_H
 
+#include <stdarg.h>
 #include <stddef.h>
 
 #include "errcode.h"
@@ -32,6 +33,12 @@ int cli_usage_error(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
 
 /* Print "moonrange: error: ..." to stderr; return CLI_EXIT_FAIL. */
 int cli_fail(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
+
+/* Print "moonrange: KIND: ..." to stderr as one line of UTF-8 text
+   (control bytes and malformed UTF-8 shown as '?', at most 512 bytes):
+   what the three above print. */
+void cli_vmessage(const char *kind, const char *fmt, va_list ap)
+    MEM_PRINTFLIKE(2, 0);
 
 /* Print "moonrange: warning: ..." to stderr. */
 void cli_warn(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);

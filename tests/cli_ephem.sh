@@ -184,6 +184,12 @@ expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz ""
 expect_bad --db phases --from 2027-01-01T00:00:00Z --tz UTC --db x.db
 expect_bad "$TMP/none.db" phases --db "$TMP/none.db"
 expect_bad "unknown command" nosuchcommand
+# Whatever the value holds, the message stays one line of text: a newline
+# or a byte that is not UTF-8 is shown as '?', a long value is cut.
+expect_bad "'2027?foo'" ephem --at $'2027\nfoo'
+expect_bad "'Eu?rope'" phases --tz $'Eu\xffrope'
+expect_bad "..." ephem --target "T1=$(printf '1%.0s' $(seq 1 5000))"
+[ "$(wc -c <"$TMP/err")" -le 600 ] || fail "a 5000-byte value gives a message of $(wc -c <"$TMP/err") bytes"
 
 # --- --help on every subcommand ----------------------------------------
 for cmd in ephem phases; do
