@@ -199,9 +199,13 @@ cli_store_read_file(const char *path, size_t max, char **out, size_t *len,
 			break;
 	}
 	if (ferror(f)) {
-		snprintf(errbuf, errlen, "%s: read error: %s", path,
-		    strerror(errno));
-		rc = ERRCODE_IO;
+		int e = errno;
+
+		/* fopen accepts a directory; reading it fails with EISDIR,
+		   which is a wrong file name, not a failing disk. */
+		snprintf(errbuf, errlen, "%s: %s", path, e == EISDIR ?
+		    "is a directory, not a file" : strerror(e));
+		rc = e == EISDIR ? ERRCODE_NOT_FOUND : ERRCODE_IO;
 		goto out;
 	}
 	buf[n] = '\0';

@@ -245,6 +245,8 @@ fi
 head -c 2000 "$SITE/eop.finals" >"$T/cut.finals"
 NE=$(q "$L" 'SELECT count(*) FROM eop')
 expect_fail "eop import: truncated finals file" 2 "cut.finals" "$M" eop import --db "$L" "$T/cut.finals"
+expect_fail "log import of a directory is bad input" 2 "is a directory" "$M" log import --db "$L" "$T"
+expect_fail "np import of a directory is bad input" 2 "is a directory" "$M" np import --db "$L" "$T"
 check "eop import failure left the table" "[ \"\$(q '$L' 'SELECT count(*) FROM eop')\" = $NE ]"
 check "ephem --db reports the EOP source" "'$M' ephem --db '$L' --at 2026-06-01T00:00:00Z --json | grep -q '\"dut1_source\": \"table\"'"
 check "ephem --db: no table row gives none" "'$M' ephem --db '$L' --at 2035-06-01T00:00:00Z --json | grep -q '\"dut1_source\": \"none\"'"
