@@ -10,6 +10,7 @@
 #include "cli.h"
 #include "cli_store.h"
 #include "derive.h"
+#include "render.h"
 
 #define MJD_BASE 2400000.5
 
@@ -586,4 +587,13 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 		store_rollback(c->s);
 	mem_free(buf);
 	return st;
+}
+
+void
+cli_store_warn_zone(const struct site_station *st)
+{
+	if (st->time_zone[0] != '\0' && !render_zone_known(st->time_zone))
+		cli_warn("time zone '%s' is not known to this system (is "
+		    "tzdata installed?); local times will not be shown",
+		    st->time_zone);
 }

@@ -187,6 +187,7 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 	    "%zu normal points from %zu CRD file%s (%zu repeated)\n", name,
 	    c->station.code, c->station.name, tn.added, en.added, an.added,
 	    nps, ncrd, ncrd == 1 ? "" : "s", npp);
+	cli_store_warn_zone(&c->station);
 out:
 	if (st != CLI_EXIT_OK)
 		store_rollback(c->s);

@@ -112,6 +112,8 @@ cmd_station(int argc, char **argv)
 		status = cli_store_fail(rc, "station set: %s", err);
 		goto out;
 	}
+	if (!show)
+		cli_store_warn_zone(&st);
 	mbuf_init(&out);
 	if (json)
 		rc = render_site_station_json(&st, &out);

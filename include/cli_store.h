@@ -132,6 +132,10 @@ int cli_store_import_file(struct cli_store *c, const char *file, int kind,
 const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
     const char *name);
 
+/* Warn (stderr) when the station's time zone is not in this system's
+   zone database: its tables then show UTC only. */
+void cli_store_warn_zone(const struct site_station *st);
+
 /* A yes/no option value ("yes", "no", "1", "0", "true", "false"). */
 enum errcode cli_store_parse_bool(const char *s, int *out);
 

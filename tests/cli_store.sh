@@ -151,6 +151,8 @@ check "log add: nothing stored for bad text" "[ \"\$(q '$L' 'SELECT count(*) FRO
 expect_fail "target add: name not UTF-8" 2 "--name" "$M" target add --db "$L" BADTXT --name $'a\xffb' --lat 1 --lon 2
 expect_fail "blackout add: reason not UTF-8" 2 "--reason" "$M" blackout add --db "$L" --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason $'\xed\xa0\x80'
 expect_fail "station set: name not UTF-8" 2 "station.name" "$M" station set --db "$L" station.name=$'bad\xff'
+check "station set: a zone this system does not know is kept with a warning" "'$M' station set --db '$L' station.time_zone=Nowhere/Invented 2>&1 >/dev/null | grep -q '^moonrange: warning: time zone .Nowhere/Invented. is not known'"
+check "station set: a known zone gives no warning" "[ -z \"\$('$M' station set --db '$L' station.time_zone=America/Los_Angeles 2>&1 >/dev/null)\" ]"
 check "target list --json still whole" "'$M' target list --db '$L' --json | $PY -c 'import json,sys; json.load(sys.stdin)'"
 # A value a hand-written INSERT left unreadable as JSON: an error, not an
 # empty document with exit 0.
