@@ -30,7 +30,8 @@ usage(FILE *f)
 	fprintf(f,
 	    "usage: moonrange ephem [--db FILE | --station LAT,LON,HEIGHT_M]\n"
 	    "                       [--target ID=LAT,LON[,HEIGHT_M]]...\n"
-	    "                       [--at UTC] [--dut1 SECONDS] [--json]\n"
+	    "                       [--at UTC] [--dut1 SECONDS] [--tz ZONE]\n"
+	    "                       [--json]\n"
 	    "\n"
 	    "Topocentric position of the Moon and the Sun, the lunar phase and\n"
 	    "librations, and for each target its pointing, range, round-trip\n"
@@ -48,6 +49,8 @@ usage(FILE *f)
 	    "  --at UTC             instant, ISO 8601 with Z (default: now)\n"
 	    "  --dut1 SECONDS       UT1-UTC, |DUT1| <= 0.9 (default: from the\n"
 	    "                       table, else 0; dut1_source says which)\n"
+	    "  --tz ZONE            local time in this IANA zone in the table\n"
+	    "                       (default: the station's zone)\n"
 	    "  --json               machine-readable output (see README)\n"
 	    "  --help               this text\n", EPHEM_MAX_TARGETS);
 }
@@ -158,6 +161,7 @@ cmd_ephem(int argc, char **argv)
 		{"target", required_argument, NULL, 't'},
 		{"at", required_argument, NULL, 'a'},
 		{"dut1", required_argument, NULL, 'd'},
+		{"tz", required_argument, NULL, 'z'},
 		{"json", no_argument, NULL, 'j'},
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
@@ -169,7 +173,7 @@ cmd_ephem(int argc, char **argv)
 	double lat = DEMO_LAT, lon = DEMO_LON, h = DEMO_HEIGHT;
 	double utc1 = 0, utc2 = 0, dut1 = 0.0;
 	int have_at = 0, json = 0, demo = 1, c, st;
-	const char *dut1_source = "none", *db = NULL;
+	const char *dut1_source = "none", *db = NULL, *tz = NULL;
 	char err[200], eop_last[40];
 	struct cli_store cs;
 	int have_dut1 = 0;
@@ -218,6 +222,13 @@ cmd_ephem(int argc, char **argv)
 				    "number of seconds in -0.9..0.9", optarg);
 			dut1_source = "option";
 			have_dut1 = 1;
+			break;
+		case 'z':
+			if (!render_zone_known(optarg))
+				return cli_usage_error("--tz: '%s' is not a time "
+				    "zone known to this system (an IANA name such "
+				    "as Europe/Madrid)", optarg);
+			tz = optarg;
 			break;
 		case 'j':
 			json = 1;
@@ -268,8 +279,8 @@ cmd_ephem(int argc, char **argv)
 	rep.dut1_source = dut1_source;
 	rep.station_name = demo ? DEMO_NAME : db != NULL ? cs.station.name :
 	    NULL;
-	rep.time_zone = demo ? DEMO_TZ : db != NULL ? cs.station.time_zone :
-	    NULL;
+	rep.time_zone = tz != NULL ? tz : demo ? DEMO_TZ : db != NULL ?
+	    cs.station.time_zone : NULL;
 	rep.eop_last_utc = eop_last[0] ? eop_last : NULL;
 	mbuf_init(&out);
 	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep, &out);

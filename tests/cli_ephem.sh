@@ -115,6 +115,13 @@ PYEOF
 else
 	fail "phases --tz exited $?: $(cat "$TMP/err")"
 fi
+# ephem: the demo station's zone by default, --tz for any station; the
+# instant 2027-03-01T04:00Z is 05:00 CET (UTC+1 in winter, tzdata).
+"$BIN" ephem --station 41.25,-105.5,2200 --at 2027-03-01T04:00:00Z \
+    --tz Europe/Madrid | head -1 | grep -q '(2027-03-01 05:00 CET)$' ||
+    fail "ephem --tz: local time beside UTC"
+"$BIN" ephem --at 2027-03-01T04:00:00Z | head -1 | grep -q '(2027-02-28 20:00 PST)$' ||
+    fail "ephem: the demo station's local time (UTC-8 in winter, tzdata)"
 "$BIN" phases --from 2027-01-01T00:00:00Z --days 31 >"$TMP/ph_utc.txt" &&
     ! grep -q 'Local' "$TMP/ph_utc.txt" || fail "phases without a zone: UTC only"
 
@@ -179,6 +186,7 @@ expect_bad --to phases --from 2027-02-01T00:00:00Z --to 2027-01-01T00:00:00Z
 expect_bad --days phases --from 2027-01-01T00:00:00Z --days -3
 expect_bad --bogus phases --bogus
 expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz Mars/Olympus
+expect_bad --tz ephem --tz Mars/Olympus $AT
 expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz ../../etc/passwd
 expect_bad --tz phases --from 2027-01-01T00:00:00Z --tz ""
 expect_bad --db phases --from 2027-01-01T00:00:00Z --tz UTC --db x.db
