@@ -114,6 +114,7 @@ cli_status_of(enum errcode rc)
 	case ERRCODE_TOO_LARGE:
 	case ERRCODE_UNSUPPORTED:
 	case ERRCODE_AUTH:
+	case ERRCODE_METHOD:
 		return CLI_EXIT_USAGE;
 	case ERRCODE_NOMEM:
 	case ERRCODE_DB:

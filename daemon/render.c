@@ -345,3 +345,15 @@ render_phases_text(const struct render_phases *p, struct mbuf *out)
 		mbuf_puts(out, "(no principal phase in the span)\n");
 	return mbuf_status(out);
 }
+
+struct json_t *
+render_json_num(double v, int decimals)
+{
+	return num(v, decimals);
+}
+
+enum errcode
+render_json_dump(struct json_t *root, struct mbuf *out)
+{
+	return dump(root, out);
+}

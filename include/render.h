@@ -66,4 +66,14 @@ enum errcode render_local_time(double utc1, double utc2, const char *tz,
 /* Does the C library know this IANA zone name? */
 int render_zone_known(const char *tz);
 
+/*
+ * The house JSON style for other renderers: a real rounded to decimals
+ * (null when not finite), and a value dumped with two-space indent and a
+ * final newline.  render_json_dump takes the reference to root, also on
+ * failure.
+ */
+struct json_t;
+struct json_t *render_json_num(double v, int decimals);
+enum errcode render_json_dump(struct json_t *root, struct mbuf *out);
+
 #endif

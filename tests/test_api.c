@@ -1,0 +1,474 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_api.c: the JSON API through a real server on an ephemeral loopback port. */
+#include <math.h>
+#include <setjmp.h>
+#include <stdarg.h>
+#include <stddef.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+
+#include <cmocka.h>
+#include <jansson.h>
+
+#include "api.h"
+#include "http_client.h"
+#include "log.h"
+#include "mem.h"
+#include "tscale.h"
+#include "web.h"
+
+/*
+ * The station and targets are the CLI's built-in demonstration station
+ * (invented, cmd_ephem.c) and two invented targets, so that the bytes of
+ * GET /api/v1/now?at=... can be compared with "moonrange ephem --at ...
+ * --target ... --json" run as a separate process.
+ */
+#define TOKEN "test-token-0123456789abcdef"
+#define AT "2027-03-14T05:30:00Z"
+#define CLI_TARGETS "--target ALPHA=12.5,-8.25 --target BRAVO=-21.75,14.5"
+
+static struct api_ctx *ctx;
+static struct web_server *srv;
+static unsigned port;
+
+static void
+fill_site(struct api_site *s)
+{
+	struct site_station *st = &s->station;
+
+	memset(s, 0, sizeof *s);
+	snprintf(st->name, sizeof st->name, "Kestrel Ridge (demo)");
+	snprintf(st->code, sizeof st->code, "KRDG");
+	st->lat_deg = 38.9712;
+	st->lon_deg = -114.3098;
+	st->height_m = 2950.0;
+	snprintf(st->time_zone, sizeof st->time_zone, "America/Los_Angeles");
+	st->min_el_deg = 15.0;
+	st->max_sun_el_deg = 90.0;
+	st->min_sun_sep_deg = 15.0;
+	st->pressure_hpa = st->temperature_c = st->humidity = NAN;
+	st->wavelength_nm = NAN;
+	st->zenith_tau = 0.1;
+	st->fire_rate_hz = 20.0;
+	s->targets = mem_calloc(3, sizeof *s->targets);
+	assert_non_null(s->targets);
+	s->ntargets = 3;
+	snprintf(s->targets[0].id, SITE_ID_LEN, "ALPHA");
+	s->targets[0].lat_deg = 12.5;
+	s->targets[0].lon_deg = -8.25;
+	snprintf(s->targets[1].id, SITE_ID_LEN, "BRAVO");
+	s->targets[1].lat_deg = -21.75;
+	s->targets[1].lon_deg = 14.5;
+	snprintf(s->targets[2].id, SITE_ID_LEN, "RETIRED");
+	s->targets[2].lat_deg = 1.0;
+	s->targets[2].lon_deg = 1.0;
+	for (int i = 0; i < 3; i++) {
+		s->targets[i].strength = 1.0;
+		s->targets[i].active = i < 2;
+		snprintf(s->targets[i].name, SITE_NAME_LEN, "Invented %d", i);
+	}
+}
+
+static int
+setup(void **state)
+{
+	struct api_config cfg;
+	struct web_config wc;
+	struct api_site site;
+	char err[200], dir[1024];
+	const char *src = getenv("MOONRANGE_SOURCE_DIR");
+
+	(void)state;
+	log_init(LOG_LEVEL_ERROR, NULL);
+	memset(&cfg, 0, sizeof cfg);
+	cfg.db_path = "test.db";
+	cfg.token = TOKEN;
+	cfg.plan_days = 2;
+	cfg.refresh_s = 600;
+	cfg.start_posix = (double)time(NULL);
+	ctx = api_new(&cfg);
+	if (ctx == NULL)
+		return -1;
+	fill_site(&site);
+	api_set_site(ctx, &site);
+	snprintf(dir, sizeof dir, "%s/web", src ? src : ".");
+	memset(&wc, 0, sizeof wc);
+	wc.addr = "127.0.0.1";
+	wc.port = 0;
+	wc.web_dir = dir;
+	if (web_start(&wc, ctx, &srv, err, sizeof err) != ERRCODE_OK) {
+		fprintf(stderr, "web_start: %s\n", err);
+		return -1;
+	}
+	port = web_port(srv);
+	return port > 0 ? 0 : -1;
+}
+
+static int
+teardown(void **state)
+{
+	(void)state;
+	web_stop(srv, 2.0);
+	api_free(ctx);
+	return 0;
+}
+
+static int
+get(const char *path, struct http_reply *r)
+{
+	return http_request(port, "GET", path, NULL, NULL, 0, r);
+}
+
+/* Parse a reply body as JSON; fails the test if it is not. */
+static json_t *
+body_json(const struct http_reply *r)
+{
+	json_error_t e;
+	json_t *j = json_loadb(r->body, r->body_len, 0, &e);
+
+	if (j == NULL)
+		fail_msg("not JSON (%s): %.200s", e.text, r->body);
+	return j;
+}
+
+/* The error body: code and field as expected (field NULL = null). */
+static void
+assert_error(const struct http_reply *r, int status, const char *code,
+    const char *field)
+{
+	json_t *j, *e;
+
+	assert_int_equal(r->status, status);
+	j = body_json(r);
+	e = json_object_get(j, "error");
+	assert_non_null(e);
+	assert_string_equal(json_string_value(json_object_get(e, "code")),
+	    code);
+	assert_non_null(json_string_value(json_object_get(e, "message")));
+	if (field != NULL)
+		assert_string_equal(json_string_value(json_object_get(e,
+		    "field")), field);
+	else
+		assert_true(json_is_null(json_object_get(e, "field")));
+	json_decref(j);
+}
+
+static void
+assert_security_headers(const struct http_reply *r)
+{
+	char v[256];
+
+	assert_non_null(http_header(r, "Content-Security-Policy", v, sizeof v));
+	assert_string_equal(v, "default-src 'self'");
+	assert_non_null(http_header(r, "X-Content-Type-Options", v, sizeof v));
+	assert_string_equal(v, "nosniff");
+	assert_non_null(http_header(r, "Referrer-Policy", v, sizeof v));
+	assert_non_null(http_header(r, "Cache-Control", v, sizeof v));
+}
+
+/* Run the CLI; its stdout, malloc'ed.  exit status in *st. */
+static char *
+run_cli(const char *args, int *st)
+{
+	const char *bin = getenv("MOONRANGE_BIN");
+	char cmd[1024], *out = NULL;
+	size_t len = 0, cap = 0, k;
+	FILE *p;
+
+	assert_non_null(bin);
+	snprintf(cmd, sizeof cmd, "'%s' %s", bin, args);
+	p = popen(cmd, "r");
+	assert_non_null(p);
+	do {
+		if (cap - len < 4096) {
+			out = realloc(out, cap + 65536);
+			assert_non_null(out);
+			cap += 65536;
+		}
+		k = fread(out + len, 1, cap - len - 1, p);
+		len += k;
+	} while (k > 0);
+	out[len] = '\0';
+	*st = pclose(p);
+	return out;
+}
+
+/* --- tests --- */
+
+static void
+test_api_status(void **state)
+{
+	struct http_reply r;
+	json_t *j;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/status", &r), 200);
+	assert_security_headers(&r);
+	j = body_json(&r);
+	assert_string_equal(json_string_value(json_object_get(j, "version")),
+	    MOONRANGE_VERSION);
+	assert_string_equal(json_string_value(json_object_get(j, "database")),
+	    "test.db");
+	assert_string_equal(json_string_value(json_object_get(j, "station")),
+	    "Kestrel Ridge (demo)");
+	assert_int_equal(json_integer_value(json_object_get(j,
+	    "targets_active")), 2);
+	assert_true(json_is_integer(json_object_get(j, "uptime_s")));
+	assert_non_null(json_object_get(json_object_get(j, "eop"), "rows"));
+	assert_non_null(json_object_get(json_object_get(j, "plan"),
+	    "last_utc"));
+	json_decref(j);
+	http_reply_free(&r);
+}
+
+static void
+test_api_site_and_targets(void **state)
+{
+	struct http_reply r;
+	json_t *j, *arr;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/site", &r), 200);
+	j = body_json(&r);
+	assert_string_equal(json_string_value(json_object_get(
+	    json_object_get(j, "station"), "code")), "KRDG");
+	json_decref(j);
+	http_reply_free(&r);
+
+	assert_int_equal(get("/api/v1/targets", &r), 200);
+	j = body_json(&r);
+	arr = json_object_get(j, "targets");
+	assert_int_equal(json_array_size(arr), 3);
+	assert_string_equal(json_string_value(json_object_get(
+	    json_array_get(arr, 2), "id")), "RETIRED");
+	assert_true(json_is_false(json_object_get(json_array_get(arr, 2),
+	    "active")));
+	json_decref(j);
+	http_reply_free(&r);
+}
+
+/* GET /api/v1/now?at=T prints exactly what "moonrange ephem --json" does. */
+static void
+test_api_now_same_bytes_as_cli(void **state)
+{
+	struct http_reply r;
+	char *cli;
+	int st;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/now?at=" AT, &r), 200);
+	cli = run_cli("ephem --at " AT " " CLI_TARGETS " --json", &st);
+	assert_int_equal(st, 0);
+	assert_string_equal(r.body, cli);
+	free(cli);
+	http_reply_free(&r);
+}
+
+/* Without at, now is the server's clock: the reported instant is within a
+   minute of the test's own clock. */
+static void
+test_api_now_uses_clock(void **state)
+{
+	struct http_reply r;
+	double u1, u2, v1, v2;
+	json_t *j;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/now", &r), 200);
+	j = body_json(&r);
+	assert_int_equal(tscale_parse_utc(json_string_value(json_object_get(j,
+	    "utc")), &u1, &u2, NULL, 0), ERRCODE_OK);
+	assert_int_equal(tscale_from_posix((double)time(NULL), &v1, &v2),
+	    ERRCODE_OK);
+	assert_true(fabs(((u1 - v1) + (u2 - v2)) * 86400.0) < 60.0);
+	/* Only the two active targets appear. */
+	assert_int_equal(json_array_size(json_object_get(j, "targets")), 2);
+	json_decref(j);
+	http_reply_free(&r);
+}
+
+static void
+test_api_phases_same_bytes_as_cli(void **state)
+{
+	static const char *q[][2] = {
+		{"from=2027-01-01T00:00:00Z&to=2027-03-01T00:00:00Z",
+		    "--from 2027-01-01T00:00:00Z --to 2027-03-01T00:00:00Z"},
+		{"from=2026-12-01T12:00:00Z&days=45.5",
+		    "--from 2026-12-01T12:00:00Z --days 45.5"},
+	};
+	struct http_reply r;
+	char path[256], args[256], *cli;
+	int st;
+
+	(void)state;
+	for (size_t i = 0; i < sizeof q / sizeof q[0]; i++) {
+		snprintf(path, sizeof path, "/api/v1/phases?%s", q[i][0]);
+		snprintf(args, sizeof args, "phases %s --json", q[i][1]);
+		assert_int_equal(get(path, &r), 200);
+		cli = run_cli(args, &st);
+		assert_int_equal(st, 0);
+		assert_string_equal(r.body, cli);
+		free(cli);
+		http_reply_free(&r);
+	}
+}
+
+static void
+test_api_bad_parameters(void **state)
+{
+	static const struct {
+		const char *path;
+		const char *code, *field;
+	} cases[] = {
+		{"/api/v1/phases?frm=2027-01-01T00:00:00Z", "bad_arg", "frm"},
+		{"/api/v1/status?verbose=1", "bad_arg", "verbose"},
+		{"/api/v1/phases?from=2027-13-01T00:00:00Z", "bad_time", "from"},
+		{"/api/v1/phases?from=yesterday", "bad_time", "from"},
+		{"/api/v1/phases?days=-3", "bad_arg", "days"},
+		{"/api/v1/phases?days=ten", "bad_arg", "days"},
+		{"/api/v1/phases?to=2027-01-01T00:00:00Z&days=3", "bad_arg",
+		    "days"},
+		{"/api/v1/phases?from=2027-02-01T00:00:00Z"
+		    "&to=2027-01-01T00:00:00Z", "bad_arg", "to"},
+		{"/api/v1/phases?days=1&days=2", "bad_arg", "days"},
+		{"/api/v1/now?at=2027-03-14", "bad_time", "at"},
+	};
+	struct http_reply r;
+
+	(void)state;
+	for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+		get(cases[i].path, &r);
+		assert_error(&r, 400, cases[i].code, cases[i].field);
+		assert_security_headers(&r);
+		http_reply_free(&r);
+	}
+}
+
+static void
+test_api_not_found_and_method(void **state)
+{
+	struct http_reply r;
+	char v[128];
+
+	(void)state;
+	get("/api/v1/nothing", &r);
+	assert_error(&r, 404, "not_found", NULL);
+	assert_security_headers(&r);
+	http_reply_free(&r);
+	get("/api/v2/status", &r);
+	assert_error(&r, 404, "not_found", NULL);
+	http_reply_free(&r);
+
+	http_request(port, "DELETE", "/api/v1/status", NULL, NULL, 0, &r);
+	assert_error(&r, 405, "method", NULL);
+	assert_non_null(http_header(&r, "Allow", v, sizeof v));
+	assert_string_equal(v, "GET, HEAD");
+	http_reply_free(&r);
+	http_request(port, "POST", "/api/v1/phases", "Content-Type: "
+	    "application/json\r\n", "{}", 2, &r);
+	assert_error(&r, 405, "method", NULL);
+	http_reply_free(&r);
+}
+
+static void
+test_api_static_files(void **state)
+{
+	static const char *refused[] = {
+		"/../CMakeLists.txt", "/%2e%2e/CMakeLists.txt", "/.hidden",
+		"/app.js/..", "/nothing.html", "/index.html/", "/a\\b.js",
+		"//etc/passwd",
+	};
+	struct http_reply r;
+	char v[128];
+
+	(void)state;
+	assert_int_equal(get("/", &r), 200);
+	assert_non_null(http_header(&r, "Content-Type", v, sizeof v));
+	assert_string_equal(v, "text/html; charset=utf-8");
+	assert_security_headers(&r);
+	assert_non_null(strstr(r.body, "<html"));
+	http_reply_free(&r);
+	assert_int_equal(get("/app.js", &r), 200);
+	assert_non_null(http_header(&r, "Content-Type", v, sizeof v));
+	assert_string_equal(v, "text/javascript; charset=utf-8");
+	http_reply_free(&r);
+	for (size_t i = 0; i < sizeof refused / sizeof refused[0]; i++) {
+		get(refused[i], &r);
+		if (r.status != 404 && r.status != 400)
+			fail_msg("%s gave %d", refused[i], r.status);
+		assert_null(strstr(r.body, "cmake_minimum_required"));
+		assert_null(strstr(r.body, "root:"));
+		http_reply_free(&r);
+	}
+	http_request(port, "PUT", "/index.html", NULL, "x", 1, &r);
+	assert_int_equal(r.status, 405);
+	http_reply_free(&r);
+}
+
+/* A handler called directly, with every allocation in turn made to fail:
+   the answer is either the normal one or a clean 500, never a crash. */
+static void
+test_api_alloc_failure(void **state)
+{
+	struct api_request req;
+	struct api_response resp;
+	long total;
+
+	(void)state;
+	memset(&req, 0, sizeof req);
+	req.method = "GET";
+	req.path = "/api/v1/now";
+	req.params[0].key = "at";
+	req.params[0].value = AT;
+	req.nparams = 1;
+	assert_int_equal(tscale_parse_utc(AT, &req.now1, &req.now2, NULL, 0),
+	    ERRCODE_OK);
+	mem_fail_after(0);
+	api_handle(ctx, &req, &resp);
+	total = mem_fail_after(0);
+	assert_int_equal(resp.status, 200);
+	api_response_free(&resp);
+	assert_true(total > 5);
+	for (long n = 1; n <= total; n++) {
+		mem_fail_after(n);
+		api_handle(ctx, &req, &resp);
+		mem_fail_after(0);
+		assert_true(resp.status == 200 || resp.status == 500);
+		api_response_free(&resp);
+	}
+}
+
+static void
+test_api_token_equal(void **state)
+{
+	(void)state;
+	assert_true(api_token_equal("abc", 3, "abc", 3));
+	assert_false(api_token_equal("abd", 3, "abc", 3));
+	assert_false(api_token_equal("ab", 2, "abc", 3));
+	assert_false(api_token_equal("abcd", 4, "abc", 3));
+	assert_false(api_token_equal("", 0, "abc", 3));
+	assert_false(api_token_equal("", 0, "", 0));	/* no token: no writes */
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_api_status),
+		cmocka_unit_test(test_api_site_and_targets),
+		cmocka_unit_test(test_api_now_same_bytes_as_cli),
+		cmocka_unit_test(test_api_now_uses_clock),
+		cmocka_unit_test(test_api_phases_same_bytes_as_cli),
+		cmocka_unit_test(test_api_bad_parameters),
+		cmocka_unit_test(test_api_not_found_and_method),
+		cmocka_unit_test(test_api_static_files),
+		cmocka_unit_test(test_api_alloc_failure),
+		cmocka_unit_test(test_api_token_equal),
+	};
+
+	mem_install();
+	return cmocka_run_group_tests(tests, setup, teardown);
+}
