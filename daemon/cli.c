@@ -60,6 +60,9 @@ cli_main(int argc, char **argv)
 	    argv[1]);
 }
 
+static void vreport(const char *kind, const char *fmt, va_list ap)
+    MEM_PRINTFLIKE(2, 0);
+
 static void
 vreport(const char *kind, const char *fmt, va_list ap)
 {
