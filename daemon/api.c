@@ -23,6 +23,7 @@ struct api_ctx {
 	size_t token_len;		/* 0: writes are refused */
 	double plan_days, refresh_s, start_posix;
 	struct api_site site;
+	struct store *db;		/* borrowed */
 	/* the plan cache */
 	int planned;			/* a plan has been computed */
 	double plan_utc1, plan_utc2;	/* when */
@@ -676,6 +677,14 @@ api_free(struct api_ctx *ctx)
 }
 
 void
+api_set_store(struct api_ctx *ctx, struct store *db)
+{
+	pthread_mutex_lock(&ctx->lock);
+	ctx->db = db;
+	pthread_mutex_unlock(&ctx->lock);
+}
+
+void
 api_set_site(struct api_ctx *ctx, struct api_site *site)
 {
 	struct api_site old;
@@ -694,6 +703,7 @@ api_replan(struct api_ctx *ctx, double now1, double now2)
 {
 	pthread_mutex_lock(&ctx->lock);
 	ctx->planned = 1;
+	ctx->replan = 0;
 	ctx->plan_utc1 = now1;
 	ctx->plan_utc2 = now2;
 	pthread_mutex_unlock(&ctx->lock);

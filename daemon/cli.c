@@ -16,6 +16,10 @@ const struct cli_command cli_commands[] = {
 	    cmd_ephem},
 	{"phases", "new moon, quarters and full moon in a time span",
 	    cmd_phases},
+	{"serve", "run the daemon: JSON API and station page over HTTP",
+	    cmd_serve},
+	{"demo", "create a demo database from sample-site/ and serve it",
+	    cmd_demo},
 	{NULL, NULL, NULL}
 };
 

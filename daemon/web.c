@@ -488,6 +488,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	}
 	s->d = MHD_start_daemon(flags, (uint16_t)cfg->port, NULL, NULL,
 	    on_request, s,
+	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, NULL,
 	    MHD_OPTION_SOCK_ADDR, sa,
 	    MHD_OPTION_THREAD_POOL_SIZE,
 	    (unsigned)(cfg->threads ? cfg->threads : 4),
@@ -500,7 +501,6 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	    MHD_OPTION_CONNECTION_MEMORY_LIMIT,
 	    (size_t)(cfg->memory_limit ? cfg->memory_limit : 128 * 1024),
 	    MHD_OPTION_NOTIFY_COMPLETED, on_completed, s,
-	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, NULL,
 	    MHD_OPTION_END);
 	if (s->d == NULL) {
 		snprintf(errbuf, errlen, "cannot listen on %s port %u: %s",

@@ -102,6 +102,11 @@ struct api_ctx;
 struct api_ctx *api_new(const struct api_config *cfg);
 void api_free(struct api_ctx *ctx);
 
+/* The open database the handlers read and write (borrowed; the caller
+   closes it after api_free).  NULL: endpoints that need it answer 503. */
+struct store;
+void api_set_store(struct api_ctx *ctx, struct store *db);
+
 /* Replace the site (takes what *site owns, leaves *site zeroed). */
 void api_set_site(struct api_ctx *ctx, struct api_site *site);
 

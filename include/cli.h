@@ -64,5 +64,7 @@ int cli_emit(struct mbuf *b);
 /* --- commands (one file each: cmd_<name>.c) --- */
 int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
+int cmd_serve(int argc, char **argv);
+int cmd_demo(int argc, char **argv);
 
 #endif
