@@ -36,7 +36,7 @@ CREATE TABLE station (
   pressure_hpa    REAL NOT NULL CONSTRAINT pressure_hpa
                     CHECK (pressure_hpa BETWEEN 0 AND 1100),
   temperature_c   REAL NOT NULL CONSTRAINT temperature_c
-                    CHECK (temperature_c BETWEEN -90 AND 60),
+                    CHECK (temperature_c BETWEEN -80 AND 60),
   humidity        REAL NOT NULL CONSTRAINT humidity
                     CHECK (humidity BETWEEN 0 AND 1),
   wavelength_nm   REAL NOT NULL CONSTRAINT wavelength_nm
