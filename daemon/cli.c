@@ -20,6 +20,8 @@ const struct cli_command cli_commands[] = {
 	    cmd_serve},
 	{"demo", "create a demo database from sample-site/ and serve it",
 	    cmd_demo},
+	{"coverage", "how the normal points spread over the lunar cycle",
+	    cmd_coverage},
 	{NULL, NULL, NULL}
 };
 

@@ -66,5 +66,6 @@ int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
 int cmd_serve(int argc, char **argv);
 int cmd_demo(int argc, char **argv);
+int cmd_coverage(int argc, char **argv);
 
 #endif

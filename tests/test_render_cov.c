@@ -1,0 +1,275 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_render_cov.c: the coverage audit's JSON, CSV, text and SVG. */
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#include <jansson.h>
+
+#include "check.h"
+#include "coverage.h"
+#include "mem.h"
+#include "render_cov.h"
+
+#define MJD0 2400000.5
+
+/* A small result: 12 bins, three targets, two years, a gap at new and
+   full moon; built through coverage_compute from records. */
+static struct coverage_result *
+sample_result(void)
+{
+	static const struct {
+		const char *target;
+		double mjd, syn;
+	} rows[] = {
+		{"alpha", 61055.0, 45.0}, {"alpha", 61056.0, 80.0},
+		{"alpha", 61057.0, 95.0}, {"b<&>\"eta'", 61058.0, 100.0},
+		{"b<&>\"eta'", 61420.0, 130.0}, {"gamma", 61421.0, 250.0},
+		{"gamma", 61422.0, 265.0}, {"gamma", 61423.0, 275.0},
+		{"alpha", 61424.0, 290.0}, {"alpha", 61425.0, 300.0},
+		{"alpha", 61426.0, 320.0}, {"gamma", 61427.0, 95.0},
+		{"alpha", 61428.0, 240.0}, {"alpha", 61429.0, 70.0},
+	};
+	struct site_normal_point np[sizeof rows / sizeof rows[0]];
+	struct coverage_input in = {np, sizeof rows / sizeof rows[0], NULL, 0};
+	struct coverage_result *r = calloc(1, sizeof *r);
+	struct coverage_spec s;
+
+	assert_non_null(r);
+	memset(np, 0, sizeof np);
+	for (size_t i = 0; i < in.nnp; i++) {
+		snprintf(np[i].target, sizeof np[i].target, "%s", rows[i].target);
+		np[i].epoch_mjd = rows[i].mjd;
+		np[i].synodic_deg = rows[i].syn;
+	}
+	coverage_spec_init(&s);
+	assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_OK);
+	return r;
+}
+
+/* Hand-counted pooled bins of sample_result (30 deg bins). */
+static const long sample_counts[12] = {0, 1, 2, 3, 1, 0, 0, 0, 3, 2, 2, 0};
+
+static void
+test_render_cov_counts_of_sample(void **state)
+{
+	struct coverage_result *r = sample_result();
+
+	(void)state;
+	for (int b = 0; b < 12; b++)
+		assert_int_equal(r->pooled.n[b], sample_counts[b]);
+	free(r);
+}
+
+/* Number of occurrences of needle in hay. */
+static int
+count_of(const char *hay, const char *needle)
+{
+	int n = 0;
+
+	for (const char *p = strstr(hay, needle); p; p = strstr(p + 1, needle))
+		n++;
+	return n;
+}
+
+static void
+test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct render_cov c = {r, NULL, NULL, "Test & <station>"};
+	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128], key[64];
+	struct mbuf b;
+	FILE *f;
+	int fd;
+
+	(void)state;
+	mbuf_init(&b);
+	assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
+	fd = mkstemp(path);
+	assert_true(fd >= 0);
+	f = fdopen(fd, "w");
+	assert_non_null(f);
+	assert_int_equal(fwrite(b.data, 1, b.len, f), b.len);
+	assert_int_equal(fclose(f), 0);
+	/* Well-formed XML, checked by xmllint (Debian libxml2-utils). */
+	snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
+	assert_int_equal(system(cmd), 0);
+	unlink(path);
+
+	assert_non_null(strstr(b.data, "<title id=\"cov-title\">"));
+	assert_non_null(strstr(b.data, "<desc id=\"cov-desc\">"));
+	assert_non_null(strstr(b.data, "Test &amp; &lt;station&gt;"));
+	assert_non_null(strstr(b.data, "b&lt;&amp;&gt;&quot;eta&apos;"));
+	assert_null(strstr(b.data, "b<&"));
+	/* One bar per bin, carrying its count... */
+	assert_int_equal(count_of(b.data, "<path class=\"bin"), 12);
+	for (int k = 0; k < 12; k++) {
+		const char *p;
+
+		snprintf(key, sizeof key, "data-bin=\"%d\" data-count=\"%ld\"",
+		    k, sample_counts[k]);
+		assert_non_null(strstr(b.data, key));
+		/* ...and one label whose text is that count. */
+		snprintf(key, sizeof key, "class=\"count\" data-bin=\"%d\">", k);
+		assert_int_equal(count_of(b.data, key), 1);
+		p = strstr(b.data, key) + strlen(key);
+		assert_int_equal(strtol(p, NULL, 10), sample_counts[k]);
+	}
+	/* Gaps hatched: bins 0, 5, 6, 7 and 11. */
+	assert_int_equal(count_of(b.data, "<path class=\"bin gap\""), 5);
+	/* Quarter marks and one line per target, each in the legend. */
+	assert_non_null(strstr(b.data, "new moon (0)"));
+	assert_non_null(strstr(b.data, "first quarter (90)"));
+	assert_non_null(strstr(b.data, "full moon (180)"));
+	assert_non_null(strstr(b.data, "last quarter (270)"));
+	assert_int_equal(count_of(b.data, "<g class=\"target\""), 3);
+	assert_int_equal(count_of(b.data, "<g class=\"legend-target\""), 3);
+	mbuf_free(&b);
+	free(r);
+}
+
+static void
+test_render_cov_json_fields(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct coverage_fill fill;
+	struct render_cov c = {r, &fill, NULL, NULL};
+	json_t *root, *pooled, *m, *counts;
+	json_error_t jerr;
+	struct mbuf b;
+
+	(void)state;
+	memset(&fill, 0, sizeof fill);
+	fill.from_mjd = 61440.0;
+	fill.to_mjd = 61500.0;
+	fill.nbins = 1;
+	fill.bins[0].bin = 5;
+	fill.bins[0].ndates = 1;
+	snprintf(fill.bins[0].dates[0].target, SITE_ID_LEN, "alpha");
+	fill.bins[0].dates[0].in_bin_start_mjd = 61450.25;
+	fill.bins[0].dates[0].in_bin_end_mjd = 61450.5;
+	fill.bins[0].dates[0].window_start_mjd = 61450.2;
+	fill.bins[0].dates[0].window_end_mjd = 61450.5;
+	fill.bins[0].dates[0].score = 2.5;
+	mbuf_init(&b);
+	assert_int_equal(render_cov_json(&c, &b), ERRCODE_OK);
+	root = json_loads(b.data, 0, &jerr);
+	assert_non_null(root);
+	assert_string_equal(json_string_value(json_object_get(root, "axis")),
+	    "synodic");
+	assert_int_equal(json_integer_value(json_object_get(root, "bins")), 12);
+	pooled = json_object_get(root, "pooled");
+	counts = json_object_get(pooled, "counts");
+	assert_int_equal(json_array_size(counts), 12);
+	for (size_t k = 0; k < 12; k++)
+		assert_int_equal(json_integer_value(json_array_get(counts, k)),
+		    sample_counts[k]);
+	m = json_object_get(pooled, "metrics");
+	assert_int_equal(json_integer_value(json_object_get(m, "total")), 14);
+	assert_int_equal(json_integer_value(json_object_get(m, "filled_bins")),
+	    7);
+	/* Bins 5, 6, 7: 90 deg from 150 (hand-counted above). */
+	check_near(json_real_value(json_object_get(m,
+	    "longest_empty_arc_deg")), 90.0, 0.0, "deg", "JSON empty arc");
+	check_near(json_real_value(json_object_get(m,
+	    "longest_empty_arc_from_deg")), 150.0, 0.0, "deg", "its start");
+	assert_non_null(json_object_get(m, "entropy"));
+	assert_non_null(json_object_get(m, "chi_square_p"));
+	assert_int_equal(json_array_size(json_object_get(root, "targets")), 3);
+	assert_int_equal(json_array_size(json_object_get(root, "years")), 2);
+	assert_string_equal(json_string_value(json_object_get(
+	    json_array_get(json_object_get(json_array_get(json_object_get(
+	    json_object_get(root, "fill"), "bins"), 0), "dates"), 0),
+	    "in_bin_start_utc")), "2027-02-14T06:00:00Z");
+	json_decref(root);
+	mbuf_free(&b);
+	free(r);
+}
+
+static void
+test_render_cov_csv_rows(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct render_cov c = {r, NULL, NULL, NULL};
+	struct mbuf b;
+
+	(void)state;
+	mbuf_init(&b);
+	assert_int_equal(render_cov_csv(&c, &b), ERRCODE_OK);
+	/* Header + 12 rows each for pooled, 3 targets and 2 years; CRLF. */
+	assert_int_equal(count_of(b.data, "\r\n"), 1 + 12 * 6);
+	assert_int_equal(count_of(b.data, "\n"), 1 + 12 * 6);
+	assert_non_null(strstr(b.data, "synodic,pooled,,3,90,120,3,0\r\n"));
+	assert_non_null(strstr(b.data, "synodic,pooled,,0,0,30,0,1\r\n"));
+	/* A field with a quote is quoted, its quote doubled (RFC 4180). */
+	assert_non_null(strstr(b.data, ",target,\"b<&>\"\"eta'\",0,"));
+	mbuf_free(&b);
+	free(r);
+}
+
+static void
+test_render_cov_text_table(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct render_cov c = {r, NULL, "fill dates: none here", NULL};
+	struct mbuf b;
+
+	(void)state;
+	mbuf_init(&b);
+	assert_int_equal(render_cov_text(&c, &b), ERRCODE_OK);
+	assert_non_null(strstr(b.data, "new moon"));
+	assert_non_null(strstr(b.data, "full moon"));
+	assert_int_equal(count_of(b.data, "  gap\n"), 5);
+	assert_non_null(strstr(b.data, "fill dates: none here"));
+	mbuf_free(&b);
+	free(r);
+}
+
+/* Every allocation of each renderer failing in turn gives ERRCODE_NOMEM
+   (or success once past the last allocation), never a crash or leak. */
+static void
+test_render_cov_allocation_failure(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct render_cov c = {r, NULL, NULL, "station"};
+	enum errcode (*fn[4])(const struct render_cov *, struct mbuf *) = {
+		render_cov_json, render_cov_csv, render_cov_text, render_cov_svg
+	};
+
+	(void)state;
+	for (int k = 0; k < 4; k++) {
+		int ok = 0;
+
+		for (long n = 1; n < 5000 && !ok; n++) {
+			struct mbuf b;
+			enum errcode rc;
+
+			mbuf_init(&b);
+			mem_fail_after(n);
+			rc = fn[k](&c, &b);
+			mem_fail_after(0);
+			assert_true(rc == ERRCODE_OK || rc == ERRCODE_NOMEM);
+			ok = rc == ERRCODE_OK;
+			mbuf_free(&b);
+		}
+		assert_true(ok);
+	}
+	free(r);
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_render_cov_counts_of_sample),
+		cmocka_unit_test(test_render_cov_svg_is_xml_with_one_mark_per_bin),
+		cmocka_unit_test(test_render_cov_json_fields),
+		cmocka_unit_test(test_render_cov_csv_rows),
+		cmocka_unit_test(test_render_cov_text_table),
+		cmocka_unit_test(test_render_cov_allocation_failure),
+	};
+
+	mem_install();
+	return cmocka_run_group_tests_name("render_cov", tests, NULL, NULL);
+}
