@@ -3,18 +3,27 @@
 #include <math.h>
 #include <pthread.h>
 #include <stdio.h>
+#include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 
 #include <erfam.h>
 #include <jansson.h>
 
 #include "api.h"
+#include "covquery.h"
+#include "derive.h"
 #include "geom.h"
 #include "render.h"
+#include "render_log.h"
+#include "store.h"
 #include "tscale.h"
 
 #define PHASES_CAP 5000		/* ~100 years of principal phases */
 #define SPAN_MAX_DAYS 36600.0	/* as the CLI */
+#define ATTEMPTS_LIMIT_DEFAULT 50
+#define ATTEMPTS_LIMIT_MAX 1000
+#define ATTEMPT_MAX_DAYS 1.0	/* longest attempt accepted, days */
 
 struct api_ctx {
 	pthread_mutex_t lock;		/* serialises handlers and replans */
@@ -509,7 +518,6 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 {
 	const struct site_station *st = &ctx->site.station;
 	struct render_target_row *rows = NULL;
-	struct geom_weather wx;
 	struct geom_site site;
 	struct geom_eop eop = {0.0, 0.0, 0.0};
 	struct geom_instant *g = NULL;
@@ -522,17 +530,7 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 		return;
 	if (param(req, "at") && param_time(req, "at", &u1, &u2, resp))
 		return;
-	geom_weather_standard(st->height_m, &wx);
-	if (isfinite(st->pressure_hpa))
-		wx.pressure_hpa = st->pressure_hpa;
-	if (isfinite(st->temperature_c))
-		wx.temperature_c = st->temperature_c;
-	if (isfinite(st->humidity))
-		wx.humidity = st->humidity;
-	if (isfinite(st->wavelength_nm))
-		wx.wavelength_um = st->wavelength_nm / 1000.0;
-	if (geom_site_init(&site, st->lat_deg * ERFA_DD2R,
-	    st->lon_deg * ERFA_DD2R, st->height_m, &wx) != ERRCODE_OK) {
+	if (derive_site(st, &site) != ERRCODE_OK) {
 		api_error(resp, ERRCODE_CONFIG, NULL,
 		    "the station's position is out of range");
 		return;
@@ -604,7 +602,386 @@ h_phases(struct api_ctx *ctx, const struct api_request *req,
 	mem_free(ev);
 }
 
+static int
+store_open_ok(struct api_ctx *ctx, struct api_response *resp)
+{
+	if (ctx->db == NULL) {
+		api_error(resp, ERRCODE_CONFIG, NULL,
+		    "the daemon has no database open");
+		return 0;
+	}
+	return 1;
+}
+
+/* coverage, coverage.csv, coverage.svg: the CLI's query path. */
+static void
+coverage_common(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, enum covquery_format fmt, const char *ctype)
+{
+	struct covquery_params p;
+	char err[300];
+	enum errcode rc;
+
+	if (!store_open_ok(ctx, resp))
+		return;
+	covquery_params_init(&p);
+	for (size_t i = 0; i < req->nparams; i++) {
+		err[0] = '\0';
+		rc = covquery_param_set(&p, req->params[i].key,
+		    req->params[i].value, err, sizeof err);
+		if (rc != ERRCODE_OK) {
+			api_error(resp, rc == ERRCODE_NOT_FOUND ?
+			    ERRCODE_BAD_ARG : rc, req->params[i].key,
+			    err[0] ? err : NULL);
+			return;
+		}
+	}
+	p.now_mjd = (req->now1 - ERFA_DJM0) + req->now2;
+	err[0] = '\0';
+	rc = covquery_run(ctx->db, &p, fmt, &resp->body, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc == ERRCODE_NOT_FOUND ? ERRCODE_BAD_ARG : rc,
+		    rc == ERRCODE_NOT_FOUND ? "target" : NULL,
+		    err[0] ? err : NULL);
+		return;
+	}
+	ok_or_error(resp, rc, 200, ctype);
+}
+
+static void
+h_coverage(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_JSON, "application/json");
+}
+
+static void
+h_coverage_csv(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_CSV,
+	    "text/csv; charset=utf-8; header=present");
+}
+
+static void
+h_coverage_svg(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_SVG, "image/svg+xml");
+}
+
+static void
+h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	struct site_attempt *rows = NULL;
+	struct store_query q;
+	double limit = ATTEMPTS_LIMIT_DEFAULT, u1, u2;
+	char err[300];
+	size_t n = 0;
+	enum errcode rc;
+
+	if (!store_open_ok(ctx, resp))
+		return;
+	store_query_init(&q);
+	if (param(req, "since") != NULL) {
+		if (param_time(req, "since", &u1, &u2, resp))
+			return;
+		q.since_mjd = (u1 - ERFA_DJM0) + u2;
+	}
+	if (param(req, "limit") != NULL && param_number(req, "limit", 1,
+	    ATTEMPTS_LIMIT_MAX, &limit, resp))
+		return;
+	if (limit != floor(limit)) {
+		api_error(resp, ERRCODE_BAD_ARG, "limit",
+		    "limit: must be a whole number");
+		return;
+	}
+	q.target = param(req, "target");
+	q.limit = (size_t)limit;
+	q.newest_first = 1;
+	rc = store_attempts_list(ctx->db, &q, &rows, &n, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, NULL, err);
+		return;
+	}
+	rc = render_attempts_json(rows, n, &resp->body);
+	mem_free(rows);
+	ok_or_error(resp, rc, 200, "application/json");
+}
+
+static void
+h_attempt_get(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	const char *digits = strrchr(req->path, '/') + 1;
+	struct site_attempt a;
+	char err[300], *end;
+	long id;
+	enum errcode rc;
+
+	if (!store_open_ok(ctx, resp))
+		return;
+	id = strtol(digits, &end, 10);
+	rc = store_attempt_get(ctx->db, id, &a, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, NULL, rc == ERRCODE_NOT_FOUND ?
+		    "no attempt with this id" : err);
+		return;
+	}
+	rc = render_attempt_json(&a, &resp->body);
+	ok_or_error(resp, rc, 200, "application/json");
+}
+
+/* The Authorization header carries "Bearer " and the daemon's token? */
+static int
+authorized(const struct api_ctx *ctx, const struct api_request *req)
+{
+	const char *h = req->authorization;
+
+	if (h == NULL || ctx->token_len == 0 || strncmp(h, "Bearer ", 7) != 0)
+		return 0;
+	h += 7;
+	return api_token_equal(h, strlen(h), ctx->token, ctx->token_len);
+}
+
+/* Is the media type application/json (parameters such as charset aside)? */
+static int
+is_json_type(const char *ct)
+{
+	static const char want[] = "application/json";
+	size_t n = sizeof want - 1;
+
+	if (ct == NULL)
+		return 0;
+	while (*ct == ' ')
+		ct++;
+	if (strncasecmp(ct, want, n) != 0)
+		return 0;
+	ct += n;
+	while (*ct == ' ')
+		ct++;
+	return *ct == '\0' || *ct == ';';
+}
+
+/* Text member into buf (at most len - 1 bytes, no control characters). */
+static int
+member_text(json_t *v, const char *name, char *buf, size_t len, int required,
+    struct api_response *resp)
+{
+	char msg[200];
+	const char *s;
+
+	if (v == NULL && !required) {
+		buf[0] = '\0';
+		return 0;
+	}
+	if (!json_is_string(v)) {
+		snprintf(msg, sizeof msg, "%s: %s a string", name,
+		    v == NULL ? "required," : "must be");
+		api_error(resp, ERRCODE_BAD_ARG, name, msg);
+		return -1;
+	}
+	s = json_string_value(v);
+	if (json_string_length(v) >= len || strlen(s) != json_string_length(v)) {
+		snprintf(msg, sizeof msg, "%s: longer than %zu bytes or holds "
+		    "a NUL", name, len - 1);
+		api_error(resp, ERRCODE_BAD_ARG, name, msg);
+		return -1;
+	}
+	for (const char *p = s; *p; p++)
+		if ((unsigned char)*p < 0x20 && *p != '\n' && *p != '\t') {
+			snprintf(msg, sizeof msg, "%s: holds a control "
+			    "character", name);
+			api_error(resp, ERRCODE_BAD_ARG, name, msg);
+			return -1;
+		}
+	memcpy(buf, s, strlen(s) + 1);
+	return 0;
+}
+
+static int
+member_count(json_t *v, const char *name, long *out,
+    struct api_response *resp)
+{
+	char msg[200];
+
+	if (!json_is_integer(v) || json_integer_value(v) < 0 ||
+	    json_integer_value(v) > 1000000000000LL) {
+		snprintf(msg, sizeof msg, "%s: %s a whole number >= 0", name,
+		    v == NULL ? "required," : "must be");
+		api_error(resp, ERRCODE_BAD_ARG, name, msg);
+		return -1;
+	}
+	*out = (long)json_integer_value(v);
+	return 0;
+}
+
+static int
+member_time(json_t *v, const char *name, double *mjd,
+    struct api_response *resp)
+{
+	char text[64], err[160], msg[240];
+	double u1, u2;
+
+	if (member_text(v, name, text, sizeof text, 1, resp))
+		return -1;
+	if (tscale_parse_utc(text, &u1, &u2, err, sizeof err) != ERRCODE_OK) {
+		snprintf(msg, sizeof msg, "%s: %s", name, err);
+		api_error(resp, ERRCODE_BAD_TIME, name, msg);
+		return -1;
+	}
+	*mjd = (u1 - ERFA_DJM0) + u2;
+	return 0;
+}
+
+#define ATTEMPT_MEMBERS "target,start_utc,end_utc,shots,returns," \
+	"normal_points,outcome,operator,seeing_arcsec,notes"
+
+/* The body of POST /api/v1/attempts into a record; -1 with the error set. */
+static int
+attempt_from_json(json_t *o, struct site_attempt *a, struct api_response *resp)
+{
+	char outcome[SITE_OUTCOME_LEN + 8], msg[300];
+	const char *key;
+	json_t *v;
+	int k;
+
+	memset(a, 0, sizeof *a);
+	if (!json_is_object(o)) {
+		api_error(resp, ERRCODE_BAD_ARG, NULL,
+		    "the body must be a JSON object");
+		return -1;
+	}
+	json_object_foreach(o, key, v) {
+		if (!param_listed(ATTEMPT_MEMBERS, key)) {
+			snprintf(msg, sizeof msg, "unknown member '%.60s' "
+			    "(accepted: %s)", key, ATTEMPT_MEMBERS);
+			api_error(resp, ERRCODE_BAD_ARG, key, msg);
+			return -1;
+		}
+	}
+	if (member_text(json_object_get(o, "target"), "target", a->target,
+	    sizeof a->target, 1, resp) ||
+	    member_time(json_object_get(o, "start_utc"), "start_utc",
+	    &a->start_mjd, resp) ||
+	    member_time(json_object_get(o, "end_utc"), "end_utc", &a->end_mjd,
+	    resp) ||
+	    member_count(json_object_get(o, "shots"), "shots", &a->shots,
+	    resp) ||
+	    member_count(json_object_get(o, "returns"), "returns", &a->returns,
+	    resp) ||
+	    member_count(json_object_get(o, "normal_points"), "normal_points",
+	    &a->normal_points, resp) ||
+	    member_text(json_object_get(o, "outcome"), "outcome", outcome,
+	    sizeof outcome, 1, resp) ||
+	    member_text(json_object_get(o, "operator"), "operator",
+	    a->operator_name, sizeof a->operator_name, 0, resp) ||
+	    member_text(json_object_get(o, "notes"), "notes", a->notes,
+	    sizeof a->notes, 0, resp))
+		return -1;
+	if ((k = site_outcome_parse(outcome)) < 0) {
+		api_error(resp, ERRCODE_BAD_ARG, "outcome", "outcome: one of "
+		    "ranged, no_returns, weather, technical, safety, other");
+		return -1;
+	}
+	a->outcome = (enum site_outcome)k;
+	if (!(a->end_mjd > a->start_mjd)) {
+		api_error(resp, ERRCODE_BAD_ARG, "end_utc",
+		    "end_utc: must be after start_utc");
+		return -1;
+	}
+	if (a->end_mjd - a->start_mjd > ATTEMPT_MAX_DAYS) {
+		api_error(resp, ERRCODE_BAD_ARG, "end_utc",
+		    "end_utc: an attempt lasts at most one day");
+		return -1;
+	}
+	v = json_object_get(o, "seeing_arcsec");
+	a->seeing_arcsec = NAN;
+	if (v != NULL && !json_is_null(v)) {
+		double s = json_number_value(v);
+
+		if (!json_is_number(v) || !(s > 0.0) || s > 60.0) {
+			api_error(resp, ERRCODE_BAD_ARG, "seeing_arcsec",
+			    "seeing_arcsec: a number in (0, 60] or null");
+			return -1;
+		}
+		a->seeing_arcsec = s;
+	}
+	return 0;
+}
+
+static void
+h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	struct site_attempt a;
+	struct site_target t;
+	json_error_t jerr;
+	json_t *body = NULL;
+	char err[300], msg[360];
+	enum errcode rc;
+
+	if (!authorized(ctx, req)) {
+		api_error(resp, ERRCODE_AUTH, "Authorization", ctx->token_len ?
+		    "writes need the header Authorization: Bearer TOKEN with "
+		    "the daemon's token" : "writes are disabled: the daemon "
+		    "was started without --token-file");
+		return;
+	}
+	if (req->body_too_large) {
+		snprintf(msg, sizeof msg, "the body is larger than %d bytes",
+		    API_BODY_MAX);
+		api_error(resp, ERRCODE_TOO_LARGE, NULL, msg);
+		return;
+	}
+	if (!is_json_type(req->content_type)) {
+		api_error(resp, ERRCODE_UNSUPPORTED, "Content-Type",
+		    "the body must be sent as Content-Type: application/json");
+		return;
+	}
+	if (!store_open_ok(ctx, resp) || !site_loaded(ctx, resp))
+		return;
+	body = json_loadb(req->body ? req->body : "", req->body_len,
+	    JSON_REJECT_DUPLICATES, &jerr);
+	if (body == NULL) {
+		snprintf(msg, sizeof msg, "the body is not valid JSON: %s "
+		    "(line %d, column %d)", jerr.text, jerr.line, jerr.column);
+		api_error(resp, ERRCODE_BAD_ARG, NULL, msg);
+		return;
+	}
+	if (attempt_from_json(body, &a, resp))
+		goto out;
+	rc = store_target_get(ctx->db, a.target, &t, err, sizeof err);
+	if (rc == ERRCODE_NOT_FOUND) {
+		snprintf(msg, sizeof msg, "target: no target '%.40s' in the "
+		    "database", a.target);
+		api_error(resp, ERRCODE_BAD_ARG, "target", msg);
+		goto out;
+	}
+	if (rc == ERRCODE_OK)
+		rc = derive_attempt(&ctx->site.station, &t, NULL, &a);
+	if (rc == ERRCODE_OK)
+		rc = store_attempt_add(ctx->db, &a, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, rc == ERRCODE_EXISTS ? "start_utc" : NULL,
+		    rc == ERRCODE_EXISTS ? "start_utc: the target already has "
+		    "an attempt starting at this time" : err);
+		goto out;
+	}
+	ctx->replan = 1;
+	snprintf(resp->location, sizeof resp->location,
+	    "/api/v1/attempts/%ld", a.id);
+	rc = render_attempt_json(&a, &resp->body);
+	ok_or_error(resp, rc, 201, "application/json");
+out:
+	json_decref(body);
+}
+
 /* --- the route table --- */
+
+#define COVERAGE_PARAMS "source,axis,bins,min_count,since,until,target," \
+	"station,horizon"
 
 static const struct route routes[] = {
 	{{"GET", "/api/v1/status", "",
@@ -619,6 +996,20 @@ static const struct route routes[] = {
 	    h_now},
 	{{"GET", "/api/v1/phases", "from,to,days",
 	    "new moon, quarters and full moon in a span"}, h_phases},
+	{{"GET", "/api/v1/coverage", COVERAGE_PARAMS,
+	    "phase-coverage audit as JSON (the CLI's coverage --json)"},
+	    h_coverage},
+	{{"GET", "/api/v1/coverage.csv", COVERAGE_PARAMS,
+	    "the coverage audit as CSV (RFC 4180)"}, h_coverage_csv},
+	{{"GET", "/api/v1/coverage.svg", COVERAGE_PARAMS,
+	    "the coverage chart as SVG"}, h_coverage_svg},
+	{{"GET", "/api/v1/attempts", "since,limit,target",
+	    "logged attempts, newest first"}, h_attempts_list},
+	{{"POST", "/api/v1/attempts", "",
+	    "log an attempt (JSON body, bearer token); 201 with Location"},
+	    h_attempts_add},
+	{{"GET", "/api/v1/attempts/{id}", "", "one logged attempt"},
+	    h_attempt_get},
 };
 
 #define NROUTES (sizeof routes / sizeof routes[0])
@@ -744,6 +1135,23 @@ api_token_equal(const char *given, size_t given_len, const char *want,
 
 /* --- dispatch --- */
 
+/* Exact match, or a pattern ending in "{id}": 1 to 18 decimal digits. */
+static int
+path_match(const char *pattern, const char *path)
+{
+	const char *brace = strstr(pattern, "{id}");
+	size_t n;
+
+	if (brace == NULL)
+		return strcmp(pattern, path) == 0;
+	n = (size_t)(brace - pattern);
+	if (strncmp(pattern, path, n) != 0)
+		return 0;
+	path += n;
+	n = strspn(path, "0123456789");
+	return n > 0 && n <= 18 && path[n] == '\0';
+}
+
 static void
 dispatch(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
@@ -756,7 +1164,7 @@ dispatch(struct api_ctx *ctx, const struct api_request *req,
 
 	resp->allow[0] = '\0';
 	for (size_t i = 0; i < NROUTES; i++) {
-		if (strcmp(routes[i].info.path, req->path) != 0)
+		if (!path_match(routes[i].info.path, req->path))
 			continue;
 		if (!path_known++)
 			resp->allow[0] = '\0';

@@ -75,19 +75,18 @@ http_send_all(int fd, const char *p, size_t n)
 }
 
 /*
- * Send method path with extra header lines (each ending "\r\n", may be
- * NULL) and a body (may be NULL) to 127.0.0.1:port.
+ * Send raw bytes (a whole request) to 127.0.0.1:port and read the answer.
+ * A server refusing a large body may answer and close before all is
+ * sent: that is fine.
  */
 static inline int
-http_request(unsigned port, const char *method, const char *path,
-    const char *headers, const char *body, size_t body_len,
-    struct http_reply *r)
+http_raw(unsigned port, const char *raw, size_t raw_len, struct http_reply *r)
 {
 	struct sockaddr_in sa;
 	struct timeval tv = {20, 0};
-	char req[4096], *buf = NULL, *sep;
+	char *buf = NULL, *sep;
 	size_t len = 0, cap = 0;
-	int fd, n;
+	int fd;
 
 	memset(r, 0, sizeof *r);
 	r->status = -1;
@@ -100,18 +99,7 @@ http_request(unsigned port, const char *method, const char *path,
 	sa.sin_addr.s_addr = htonl(INADDR_LOOPBACK);
 	if (connect(fd, (struct sockaddr *)&sa, sizeof sa) != 0)
 		goto out;
-	n = snprintf(req, sizeof req, "%s %s HTTP/1.1\r\nHost: 127.0.0.1:%u\r\n"
-	    "Connection: close\r\n%s", method, path, port,
-	    headers ? headers : "");
-	if (body != NULL)
-		n += snprintf(req + n, sizeof req - (size_t)n,
-		    "Content-Length: %zu\r\n", body_len);
-	n += snprintf(req + n, sizeof req - (size_t)n, "\r\n");
-	if (http_send_all(fd, req, (size_t)n) != 0)
-		goto out;
-	/* A server refusing a large body may close early: that is fine. */
-	if (body != NULL)
-		(void)http_send_all(fd, body, body_len);
+	(void)http_send_all(fd, raw, raw_len);
 	for (;;) {
 		ssize_t k;
 
@@ -148,6 +136,37 @@ out:
 	free(buf);
 	close(fd);
 	return r->status;
+}
+
+/*
+ * Send method path with extra header lines (each ending "\r\n", may be
+ * NULL) and a body (may be NULL, then no Content-Length is sent).
+ */
+static inline int
+http_request(unsigned port, const char *method, const char *path,
+    const char *headers, const char *body, size_t body_len,
+    struct http_reply *r)
+{
+	char head[4096], *req;
+	size_t n;
+	int k, st;
+
+	k = snprintf(head, sizeof head, "%s %s HTTP/1.1\r\nHost: 127.0.0.1:%u"
+	    "\r\nConnection: close\r\n%s", method, path, port,
+	    headers ? headers : "");
+	if (body != NULL)
+		k += snprintf(head + k, sizeof head - (size_t)k,
+		    "Content-Length: %zu\r\n", body_len);
+	k += snprintf(head + k, sizeof head - (size_t)k, "\r\n");
+	n = (size_t)k + (body ? body_len : 0);
+	if ((req = malloc(n)) == NULL)
+		return -1;
+	memcpy(req, head, (size_t)k);
+	if (body != NULL)
+		memcpy(req + k, body, body_len);
+	st = http_raw(port, req, n, r);
+	free(req);
+	return st;
 }
 
 #endif
