@@ -22,6 +22,10 @@ const struct cli_command cli_commands[] = {
 	    cmd_demo},
 	{"coverage", "how the normal points spread over the lunar cycle",
 	    cmd_coverage},
+	{"windows", "observing windows in a span, ranked by yield and phase "
+	    "coverage", cmd_windows},
+	{"tonight", "the coming night: ranked windows, best target now",
+	    cmd_tonight},
 	{NULL, NULL, NULL}
 };
 

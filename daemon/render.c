@@ -346,14 +346,14 @@ render_phases_text(const struct render_phases *p, struct mbuf *out)
 	return mbuf_status(out);
 }
 
-struct json_t *
+json_t *
 render_json_num(double v, int decimals)
 {
 	return num(v, decimals);
 }
 
 enum errcode
-render_json_dump(struct json_t *root, struct mbuf *out)
+render_json_dump(json_t *root, struct mbuf *out)
 {
 	return dump(root, out);
 }

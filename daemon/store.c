@@ -94,7 +94,6 @@ sq_shutdown(void *ctx)
 }
 
 static pthread_once_t sqlite_once = PTHREAD_ONCE_INIT;
-static int sqlite_init_rc;
 
 static void
 sqlite_setup(void)
@@ -107,7 +106,6 @@ sqlite_setup(void)
 	/* Before any other use of SQLite in the process (store.c is the
 	   only user), so the call cannot fail with SQLITE_MISUSE. */
 	(void)sqlite3_config(SQLITE_CONFIG_MALLOC, &methods);
-	sqlite_init_rc = sqlite3_initialize();
 }
 
 /* --- statements ----------------------------------------------------------- */
@@ -550,7 +548,7 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
     size_t errlen)
 {
 	struct store *s = NULL;
-	int oflags, memory, v;
+	int oflags, memory, v, rc;
 	enum errcode e = ERRCODE_OK;
 	char busy[48];
 
@@ -560,10 +558,11 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		return ERRCODE_BAD_ARG;
 	}
 	pthread_once(&sqlite_once, sqlite_setup);
-	if (sqlite_init_rc != SQLITE_OK) {
+	/* A no-op once it has succeeded; retried after a failure. */
+	if ((rc = sqlite3_initialize()) != SQLITE_OK) {
 		seterr(errbuf, errlen, "SQLite failed to start: %s",
-		    sqlite3_errstr(sqlite_init_rc));
-		return ERRCODE_DB;
+		    sqlite3_errstr(rc));
+		return (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
 	memory = strcmp(path, ":memory:") == 0;
 	if (!memory && !(flags & STORE_OPEN_CREATE) && access(path, F_OK) != 0) {

@@ -67,5 +67,7 @@ int cmd_phases(int argc, char **argv);
 int cmd_serve(int argc, char **argv);
 int cmd_demo(int argc, char **argv);
 int cmd_coverage(int argc, char **argv);
+int cmd_windows(int argc, char **argv);
+int cmd_tonight(int argc, char **argv);
 
 #endif

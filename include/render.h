@@ -8,6 +8,7 @@
 #include "errcode.h"
 #include "geom.h"
 #include "mem.h"
+#include "plan.h"
 
 /*
  * Renderers append to a caller-owned mbuf and return ERRCODE_OK or
@@ -50,6 +51,34 @@ enum errcode render_phases_json(const struct render_phases *p,
 enum errcode render_phases_text(const struct render_phases *p,
     struct mbuf *out);
 
+/* --- planned windows (moonrange windows / tonight, GET /api/v1/windows) */
+
+struct render_plan {
+	const struct plan_result *r;
+	const char *station_name;	/* NULL for an ad-hoc station */
+	const char *time_zone;		/* IANA zone for local times, or NULL */
+	double now_mjd;			/* UTC: DTSTAMP of iCalendar, "now" of
+					   tonight */
+	double now_synodic_deg;		/* tonight: the phase now */
+};
+
+/* {"windows":[...]} and metadata; field names in README "windows". */
+enum errcode render_windows_json(const struct render_plan *p,
+    struct mbuf *out);
+/* RFC 4180: header row, CRLF, quoted where needed; reasons joined by
+   "; ". */
+enum errcode render_windows_csv(const struct render_plan *p,
+    struct mbuf *out);
+/* RFC 5545: one VEVENT per window, folded at 75 octets, CRLF. */
+enum errcode render_windows_ics(const struct render_plan *p,
+    struct mbuf *out);
+/* A table with UTC and station local time side by side. */
+enum errcode render_windows_text(const struct render_plan *p,
+    struct mbuf *out);
+/* The operator's view of the coming night, 80 columns. */
+enum errcode render_tonight_text(const struct render_plan *p,
+    struct mbuf *out);
+
 /* --- shared helpers --- */
 
 /* UTC of a TT JD as ISO text (0 decimals); "?" on failure. buf >= 32. */
@@ -66,12 +95,8 @@ enum errcode render_local_time(double utc1, double utc2, const char *tz,
 /* Does the C library know this IANA zone name? */
 int render_zone_known(const char *tz);
 
-/*
- * The house JSON style for other renderers: a real rounded to decimals
- * (null when not finite), and a value dumped with two-space indent and a
- * final newline.  render_json_dump takes the reference to root, also on
- * failure.
- */
+/* JSON helpers for the render*.c files: a real rounded to decimals (null
+   when not finite); dump a value (consumed) with a newline into out. */
 struct json_t;
 struct json_t *render_json_num(double v, int decimals);
 enum errcode render_json_dump(struct json_t *root, struct mbuf *out);

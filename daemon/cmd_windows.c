@@ -1,0 +1,265 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cmd_windows.c: "moonrange windows", ranked observing windows in a span. */
+#include <getopt.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "cli.h"
+#include "plan.h"
+#include "plan_db.h"
+#include "render.h"
+
+#define MJD0 2400000.5
+
+static void
+usage(FILE *f)
+{
+	fprintf(f,
+	    "usage: moonrange windows (--db FILE | --station LAT,LON,HEIGHT_M)\n"
+	    "                         [--from UTC] [--to UTC | --days N]\n"
+	    "                         [--target ID] [--limit N] [--min-el DEG]\n"
+	    "                         [--max-sun-el DEG] [--min-sun-sep DEG]\n"
+	    "                         [--tz ZONE] [--json | --csv | --ics]\n"
+	    "\n"
+	    "Every interval in which a target is above the minimum elevation,\n"
+	    "the Sun is low enough at the station and far enough from the Moon,\n"
+	    "outside blackouts (and, for dark-only targets, with the reflector\n"
+	    "in lunar darkness), ranked together by expected returns times the\n"
+	    "coverage weight of the lunar phase (README, \"Windows and\n"
+	    "ranking\").\n"
+	    "\n"
+	    "  --db FILE          station, targets, blackouts, log and normal\n"
+	    "                     points from a moonrange database\n"
+	    "  --station LAT,LON,H  an ad-hoc station (deg, deg east, m): plans\n"
+	    "                     the Moon's centre as target \"moon\" with\n"
+	    "                     elevation >= %.0f, Sun <= %.0f, Sun-Moon >= %.0f deg\n"
+	    "  --from UTC         start, ISO 8601 with Z (default: now)\n"
+	    "  --to UTC           end (default: --days after the start)\n"
+	    "  --days N           span in days (default 3, at most 3660)\n"
+	    "  --target ID        only this target\n"
+	    "  --limit N          the best N windows (default: all)\n"
+	    "  --min-el DEG       override the minimum target elevation\n"
+	    "  --max-sun-el DEG   override the maximum Sun elevation\n"
+	    "  --min-sun-sep DEG  override the minimum Sun-Moon separation\n"
+	    "  --tz ZONE          IANA zone for local times (default: the\n"
+	    "                     station's)\n"
+	    "  --json             {\"windows\":[...]} (fields in the README)\n"
+	    "  --csv              RFC 4180 table\n"
+	    "  --ics              iCalendar (RFC 5545), one event per window\n"
+	    "  --help             this text\n"
+	    "\n"
+	    "Elevations are geometric. A planning aid only: laser-safety,\n"
+	    "aircraft and satellite avoidance rules of the station decide.\n",
+	    PLAN_DEFAULT_MIN_EL_DEG, PLAN_DEFAULT_MAX_SUN_EL_DEG,
+	    PLAN_DEFAULT_MIN_SUN_SEP_DEG);
+}
+
+enum out_kind { OUT_TEXT, OUT_JSON, OUT_CSV, OUT_ICS };
+
+int
+cmd_windows(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		{"db", required_argument, NULL, 'D'},
+		{"station", required_argument, NULL, 's'},
+		{"from", required_argument, NULL, 'f'},
+		{"to", required_argument, NULL, 't'},
+		{"days", required_argument, NULL, 'd'},
+		{"target", required_argument, NULL, 'T'},
+		{"limit", required_argument, NULL, 'l'},
+		{"min-el", required_argument, NULL, 'e'},
+		{"max-sun-el", required_argument, NULL, 'S'},
+		{"min-sun-sep", required_argument, NULL, 'p'},
+		{"tz", required_argument, NULL, 'z'},
+		{"json", no_argument, NULL, 'j'},
+		{"csv", no_argument, NULL, 'c'},
+		{"ics", no_argument, NULL, 'i'},
+		{"help", no_argument, NULL, 'h'},
+		{NULL, 0, NULL, 0}
+	};
+	const char *db = NULL, *target = NULL, *tz = NULL;
+	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = 3.0, lat = 0, lon = 0, h = 0;
+	double min_el = NAN, max_sun = NAN, min_sep = NAN, now1, now2;
+	int have_from = 0, have_to = 0, have_days = 0, have_station = 0;
+	int kind = OUT_TEXT, nkind = 0, c, st;
+	long limit = 0;
+	char err[256];
+	struct plan_query q;
+	struct plan_db hold;
+	struct plan_result res;
+	struct render_plan rp;
+	struct mbuf out;
+	enum errcode rc;
+
+	optind = 1;
+	opterr = 0;
+	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		switch (c) {
+		case 'D':
+			db = optarg;
+			break;
+		case 's':
+			if (cli_parse_station(optarg, &lat, &lon, &h, err,
+			    sizeof err) != ERRCODE_OK)
+				return cli_usage_error("%s", err);
+			have_station = 1;
+			break;
+		case 'f':
+			if (cli_parse_time("--from", optarg, &f1, &f2))
+				return CLI_EXIT_USAGE;
+			have_from = 1;
+			break;
+		case 't':
+			if (cli_parse_time("--to", optarg, &t1, &t2))
+				return CLI_EXIT_USAGE;
+			have_to = 1;
+			break;
+		case 'd':
+			if (cli_parse_double(optarg, 0.0, 3660.0, &days) ||
+			    !(days > 0))
+				return cli_usage_error("--days: '%s' is not a "
+				    "number in 0..3660 above 0", optarg);
+			have_days = 1;
+			break;
+		case 'T':
+			target = optarg;
+			break;
+		case 'l':
+			if (cli_parse_long(optarg, 1, PLAN_MAX_WINDOWS, &limit))
+				return cli_usage_error("--limit: '%s' is not a "
+				    "whole number in 1..%d", optarg,
+				    PLAN_MAX_WINDOWS);
+			break;
+		case 'e':
+			if (cli_parse_double(optarg, -5.0, 89.0, &min_el))
+				return cli_usage_error("--min-el: '%s' is not a "
+				    "number of degrees in -5..89", optarg);
+			break;
+		case 'S':
+			if (cli_parse_double(optarg, -90.0, 90.0, &max_sun))
+				return cli_usage_error("--max-sun-el: '%s' is "
+				    "not a number of degrees in -90..90",
+				    optarg);
+			break;
+		case 'p':
+			if (cli_parse_double(optarg, 0.0, 180.0, &min_sep))
+				return cli_usage_error("--min-sun-sep: '%s' is "
+				    "not a number of degrees in 0..180",
+				    optarg);
+			break;
+		case 'z':
+			if (!render_zone_known(optarg))
+				return cli_usage_error("--tz: unknown time zone "
+				    "'%s'", optarg);
+			tz = optarg;
+			break;
+		case 'j':
+			kind = OUT_JSON;
+			nkind++;
+			break;
+		case 'c':
+			kind = OUT_CSV;
+			nkind++;
+			break;
+		case 'i':
+			kind = OUT_ICS;
+			nkind++;
+			break;
+		case 'h':
+			usage(stdout);
+			return CLI_EXIT_OK;
+		default:
+			return cli_usage_error("windows: unknown or incomplete "
+			    "option '%s' (see 'moonrange windows --help')",
+			    argv[optind - 1]);
+		}
+	}
+	if (optind < argc)
+		return cli_usage_error("windows: unexpected argument '%s'",
+		    argv[optind]);
+	if ((db == NULL) == (have_station == 0))
+		return cli_usage_error("windows: give --db FILE or --station "
+		    "LAT,LON,HEIGHT_M (one of them)");
+	if (have_to && have_days)
+		return cli_usage_error("--to and --days: give one, not both");
+	if (nkind > 1)
+		return cli_usage_error("--json, --csv and --ics: give one");
+	cli_now(&now1, &now2);
+	if (!have_from) {
+		f1 = now1;
+		f2 = now2;
+	}
+	if (!have_to) {
+		t1 = f1;
+		t2 = f2 + days;
+	}
+
+	plan_query_init(&q);
+	plan_db_init(&hold);
+	if (db != NULL) {
+		rc = plan_db_load(db, &q, &hold, err, sizeof err);
+		if (rc != ERRCODE_OK) {
+			plan_db_free(&hold);
+			return rc == ERRCODE_NOMEM ? cli_fail("%s",
+			    errcode_str(rc)) : (cli_status_of(rc) ==
+			    CLI_EXIT_USAGE ? cli_usage_error("--db %s: %s", db,
+			    err) : cli_fail("--db %s: %s", db, err));
+		}
+	} else {
+		q.station.lat_deg = lat;
+		q.station.lon_deg = lon;
+		q.station.height_m = h;
+	}
+	if (isfinite(min_el))
+		q.station.min_el_deg = min_el;
+	if (isfinite(max_sun))
+		q.station.max_sun_el_deg = max_sun;
+	if (isfinite(min_sep))
+		q.station.min_sun_sep_deg = min_sep;
+	q.from_mjd = (f1 - MJD0) + f2;
+	q.to_mjd = (t1 - MJD0) + t2;
+	q.target = target;
+	q.limit = (size_t)limit;
+	if (tz == NULL && q.station.time_zone[0] != '\0' &&
+	    render_zone_known(q.station.time_zone))
+		tz = q.station.time_zone;
+
+	rc = plan_run(&q, &res, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		plan_db_free(&hold);
+		if (rc == ERRCODE_NOMEM)
+			return cli_fail("%s", errcode_str(rc));
+		return cli_status_of(rc) == CLI_EXIT_USAGE ?
+		    cli_usage_error("%s", err) : cli_fail("%s", err);
+	}
+	memset(&rp, 0, sizeof rp);
+	rp.r = &res;
+	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
+	rp.time_zone = tz;
+	rp.now_mjd = (now1 - MJD0) + now2;
+	mbuf_init(&out);
+	switch (kind) {
+	case OUT_JSON:
+		rc = render_windows_json(&rp, &out);
+		break;
+	case OUT_CSV:
+		rc = render_windows_csv(&rp, &out);
+		break;
+	case OUT_ICS:
+		rc = render_windows_ics(&rp, &out);
+		break;
+	default:
+		rc = render_windows_text(&rp, &out);
+		break;
+	}
+	plan_result_free(&res);
+	plan_db_free(&hold);
+	if (rc != ERRCODE_OK) {
+		mbuf_free(&out);
+		return cli_fail("%s", errcode_str(rc));
+	}
+	st = cli_emit(&out);
+	mbuf_free(&out);
+	return st;
+}

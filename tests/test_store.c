@@ -1,0 +1,766 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_store.c: the station database on real SQLite files in a temporary
+   directory: round trips, every schema rule, migrations, failures. */
+#include <math.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <unistd.h>
+
+#include "check.h"
+#include "mem.h"
+#include "store.h"
+
+static char tmpdir[256];
+static int fileno_seq;
+
+/* A fresh database path in the temporary directory. */
+static void
+db_path(char *buf, size_t len)
+{
+	snprintf(buf, len, "%s/t%d.db", tmpdir, ++fileno_seq);
+}
+
+static int
+setup_dir(void **state)
+{
+	const char *base = getenv("TMPDIR");
+
+	(void)state;
+	snprintf(tmpdir, sizeof tmpdir, "%s/moonrange-store-XXXXXX",
+	    base != NULL && *base ? base : "/tmp");
+	return mkdtemp(tmpdir) != NULL ? 0 : -1;
+}
+
+static int
+teardown_dir(void **state)
+{
+	char cmd[300];
+
+	(void)state;
+	snprintf(cmd, sizeof cmd, "rm -rf '%s'", tmpdir);
+	return system(cmd) == 0 ? 0 : -1;
+}
+
+/* The invented sample station of these tests. */
+static void
+station(struct site_station *st)
+{
+	memset(st, 0, sizeof *st);
+	strcpy(st->name, "Test Ridge Station (invented)");
+	strcpy(st->code, "TRS1");
+	st->lat_deg = 38.9712;
+	st->lon_deg = -114.3098;
+	st->height_m = 2950.0;
+	strcpy(st->time_zone, "America/Los_Angeles");
+	st->min_el_deg = 15.0;
+	st->max_sun_el_deg = -12.0;
+	st->min_sun_sep_deg = 30.0;
+	st->pressure_hpa = 700.0;
+	st->temperature_c = 5.0;
+	st->humidity = 0.3;
+	st->wavelength_nm = 532.0;
+	st->zenith_tau = 0.1;
+	st->fire_rate_hz = 20.0;
+}
+
+static void
+target(struct site_target *t, const char *id, const char *alias)
+{
+	memset(t, 0, sizeof *t);
+	snprintf(t->id, sizeof t->id, "%s", id);
+	snprintf(t->name, sizeof t->name, "Invented array %s", id);
+	snprintf(t->alias, sizeof t->alias, "%s", alias);
+	t->lat_deg = 12.5;
+	t->lon_deg = -8.25;
+	t->strength = 1.0;
+	t->active = 1;
+}
+
+static void
+attempt(struct site_attempt *a, const char *tgt, double start_mjd)
+{
+	memset(a, 0, sizeof *a);
+	snprintf(a->target, sizeof a->target, "%s", tgt);
+	a->start_mjd = start_mjd;
+	a->end_mjd = start_mjd + 20.0 / 1440.0;
+	a->shots = 12000;
+	a->returns = 340;
+	a->normal_points = 3;
+	a->outcome = SITE_OUTCOME_RANGED;
+	strcpy(a->operator_name, "Operator A");
+	a->seeing_arcsec = NAN;
+	strcpy(a->notes, "invented, \"quoted\", with a comma");
+	a->synodic_deg = 91.5;
+	a->mean_elong_deg = 88.0;
+	a->target_el_deg = 45.0;
+	a->sun_el_target_deg = 2.0;
+}
+
+/* A file database with the station and two targets. */
+static struct store *
+open_site(char *path, size_t len)
+{
+	struct site_station st;
+	struct site_target t;
+	struct store *s = NULL;
+	char err[300];
+
+	db_path(path, len);
+	assert_int_equal(store_open(path, STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	station(&st);
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_OK);
+	target(&t, "NORTH", "INVENTED-N");
+	assert_int_equal(store_target_add(s, &t, err, sizeof err), ERRCODE_OK);
+	target(&t, "SOUTH", "");
+	t.lat_deg = -21.75;
+	assert_int_equal(store_target_add(s, &t, err, sizeof err), ERRCODE_OK);
+	return s;
+}
+
+static void
+test_store_open_requires_create_and_close_accepts_null(void **state)
+{
+	char path[300], err[300];
+	struct store *s = (struct store *)1;
+
+	(void)state;
+	store_close(NULL);
+	db_path(path, sizeof path);
+	assert_int_equal(store_open(path, 0, &s, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	assert_null(s);
+	assert_non_null(strstr(err, "does not exist"));
+	assert_int_equal(store_open(path, STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_schema_version(s), STORE_SCHEMA_VERSION);
+	assert_int_equal(store_integrity_check(s, err, sizeof err), ERRCODE_OK);
+	store_close(s);
+	/* Not a database at all. */
+	{
+		FILE *f = fopen(path, "w");
+
+		assert_non_null(f);
+		fputs("this is a text file, not a database\n", f);
+		fclose(f);
+	}
+	assert_int_equal(store_open(path, 0, &s, err, sizeof err), ERRCODE_DB);
+	assert_non_null(strstr(err, "not a readable SQLite database"));
+}
+
+static void
+test_store_station_round_trip(void **state)
+{
+	struct site_station st, got;
+	struct store *s = NULL;
+	char err[300];
+
+	(void)state;
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_station_get(s, &got, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	station(&st);
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(store_station_get(s, &got, err, sizeof err),
+	    ERRCODE_OK);
+	assert_memory_equal(&st, &got, sizeof st);
+	/* Put again replaces the one row. */
+	st.min_el_deg = 20.0;
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(store_station_get(s, &got, err, sizeof err),
+	    ERRCODE_OK);
+	assert_true(got.min_el_deg == 20.0);
+	store_close(s);
+}
+
+static void
+test_store_targets(void **state)
+{
+	struct site_target t, *list = NULL;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	target(&t, "NORTH", "");
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_EXISTS);
+	target(&t, "EAST", "INVENTED-N");	/* alias taken */
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_EXISTS);
+	assert_int_equal(store_target_by_alias(s, "INVENTED-N", &t, err,
+	    sizeof err), ERRCODE_OK);
+	assert_string_equal(t.id, "NORTH");
+	assert_int_equal(store_target_by_alias(s, "SOUTH", &t, err,
+	    sizeof err), ERRCODE_OK);
+	assert_string_equal(t.id, "SOUTH");
+	assert_int_equal(store_target_by_alias(s, "NOWHERE", &t, err,
+	    sizeof err), ERRCODE_NOT_FOUND);
+	/* Retire SOUTH. */
+	assert_int_equal(store_target_get(s, "SOUTH", &t, err, sizeof err),
+	    ERRCODE_OK);
+	t.active = 0;
+	assert_int_equal(store_target_update(s, &t, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(store_targets_list(s, 1, &list, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 1);
+	assert_string_equal(list[0].id, "NORTH");
+	mem_free(list);
+	assert_int_equal(store_targets_list(s, 0, &list, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 2);
+	assert_string_equal(list[1].id, "SOUTH");
+	assert_int_equal(list[1].active, 0);
+	mem_free(list);
+	target(&t, "GHOST", "");
+	assert_int_equal(store_target_update(s, &t, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	store_close(s);
+}
+
+static void
+test_store_attempts_round_trip_and_filters(void **state)
+{
+	struct site_attempt a, b, *list = NULL;
+	struct store_query q;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	/* 2027-03-01T04:00:00.0004Z: stored to the millisecond. */
+	attempt(&a, "NORTH", 61465.0 + 4.0 / 24 + 0.0004 / 86400);
+	assert_int_equal(store_attempt_add(s, &a, err, sizeof err), ERRCODE_OK);
+	assert_true(a.id > 0);
+	check_near(a.start_mjd, 61465.0 + 4.0 / 24, 1e-9, "d",
+	    "canonical start (rounded to 1 ms)");
+	assert_int_equal(store_attempt_get(s, a.id, &b, err, sizeof err),
+	    ERRCODE_OK);
+	assert_memory_equal(&a, &b, offsetof(struct site_attempt, seeing_arcsec));
+	assert_true(isnan(b.seeing_arcsec));
+	assert_string_equal(a.notes, b.notes);
+	assert_true(a.synodic_deg == b.synodic_deg);
+	/* Same target and start: refused with EXISTS. */
+	attempt(&b, "NORTH", a.start_mjd);
+	assert_int_equal(store_attempt_add(s, &b, err, sizeof err),
+	    ERRCODE_EXISTS);
+	assert_non_null(strstr(err, "already has an attempt"));
+	/* Unknown target: NOT_FOUND naming the field. */
+	attempt(&b, "NOWHERE", a.start_mjd);
+	assert_int_equal(store_attempt_add(s, &b, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	assert_non_null(strstr(err, "target"));
+	for (int i = 1; i <= 9; i++) {
+		attempt(&b, i % 2 ? "SOUTH" : "NORTH", 61465.0 + i);
+		b.seeing_arcsec = 1.5;
+		assert_int_equal(store_attempt_add(s, &b, err, sizeof err),
+		    ERRCODE_OK);
+	}
+	store_query_init(&q);
+	assert_int_equal(store_attempts_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 10);
+	q.target = "SOUTH";
+	assert_int_equal(store_attempts_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 5);
+	q.since_mjd = 61468.0;		/* inclusive */
+	q.until_mjd = 61472.0;		/* exclusive */
+	assert_int_equal(store_attempts_list(s, &q, &list, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 2);		/* SOUTH on days 3 and 5 */
+	mem_free(list);
+	q.target = NULL;
+	q.newest_first = 1;
+	q.limit = 2;
+	assert_int_equal(store_attempts_list(s, &q, &list, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 2);
+	check_near(list[0].start_mjd, 61471.0, 1e-9, "d", "newest first");
+	check_near(list[1].start_mjd, 61470.0, 1e-9, "d", "then the next");
+	check_near(list[0].seeing_arcsec, 1.5, 0, "arcsec", "seeing kept");
+	mem_free(list);
+	store_close(s);
+}
+
+/*
+ * Each row of the table breaks one rule of the attempts table; the schema
+ * must refuse it with ERRCODE_BAD_ARG (or the listed code) and name the
+ * field.  The store passes the values straight to SQLite, so these are the
+ * SQL CHECK rules at work.
+ */
+static void
+test_store_every_attempt_rule_refuses_its_bad_row(void **state)
+{
+	static const struct {
+		const char *field;
+		enum errcode want;
+	} cases[] = {
+		{"shots", ERRCODE_BAD_ARG}, {"returns", ERRCODE_BAD_ARG},
+		{"normal_points", ERRCODE_BAD_ARG},
+		{"end_mjd", ERRCODE_BAD_ARG}, {"operator", ERRCODE_BAD_ARG},
+		{"seeing_arcsec", ERRCODE_BAD_ARG},
+		{"synodic_deg", ERRCODE_BAD_ARG},
+		{"mean_elong_deg", ERRCODE_BAD_ARG},
+		{"target_el_deg", ERRCODE_BAD_ARG},
+		{"sun_el_target_deg", ERRCODE_BAD_ARG},
+		{"outcome", ERRCODE_BAD_ARG},
+		{"start", ERRCODE_BAD_TIME},
+	};
+	struct site_attempt a;
+	struct store_query q;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+		const char *f = cases[i].field;
+
+		attempt(&a, "NORTH", 61500.0 + (double)i);
+		if (strcmp(f, "shots") == 0)
+			a.shots = -1;
+		else if (strcmp(f, "returns") == 0)
+			a.returns = -5;
+		else if (strcmp(f, "normal_points") == 0)
+			a.normal_points = -1;
+		else if (strcmp(f, "end_mjd") == 0)
+			a.end_mjd = a.start_mjd - 0.01;	/* end before start */
+		else if (strcmp(f, "operator") == 0)
+			a.operator_name[0] = '\0';
+		else if (strcmp(f, "seeing_arcsec") == 0)
+			a.seeing_arcsec = -0.5;
+		else if (strcmp(f, "synodic_deg") == 0)
+			a.synodic_deg = 360.0;
+		else if (strcmp(f, "mean_elong_deg") == 0)
+			a.mean_elong_deg = -1.0;
+		else if (strcmp(f, "target_el_deg") == 0)
+			a.target_el_deg = 91.0;
+		else if (strcmp(f, "sun_el_target_deg") == 0)
+			a.sun_el_target_deg = NAN;	/* NULL: required */
+		else if (strcmp(f, "outcome") == 0)
+			a.outcome = SITE_OUTCOME__COUNT;
+		else if (strcmp(f, "start") == 0)
+			a.start_mjd = NAN;
+		err[0] = '\0';
+		assert_int_equal(store_attempt_add(s, &a, err, sizeof err),
+		    cases[i].want);
+		if (strstr(err, f) == NULL)
+			fail_msg("case %s: message '%s' does not name the field",
+			    f, err);
+	}
+	store_query_init(&q);
+	assert_int_equal(store_attempts_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 0);
+	store_close(s);
+}
+
+static void
+test_store_station_and_target_rules(void **state)
+{
+	struct site_station st;
+	struct site_target t;
+	struct store *s = NULL;
+	char err[300];
+
+	(void)state;
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	station(&st);
+	st.lat_deg = 90.5;
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "lat_deg"));
+	station(&st);
+	st.humidity = 1.2;
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "humidity"));
+	station(&st);
+	strcpy(st.code, "bad code");
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "code"));
+	target(&t, "bad id!", "");
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "id"));
+	target(&t, "T1", "");
+	t.lat_deg = -90.01;
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "lat_deg"));
+	target(&t, "T1", "");
+	t.strength = 0.0;
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "strength"));
+	target(&t, "T1", "");
+	t.dark_only = 2;
+	assert_int_equal(store_target_add(s, &t, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "dark_only"));
+	store_close(s);
+}
+
+static void
+test_store_blackouts(void **state)
+{
+	struct site_blackout b, *list = NULL;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	memset(&b, 0, sizeof b);
+	b.start_mjd = 61500.25;
+	b.end_mjd = 61500.5;
+	strcpy(b.reason, "invented maintenance");
+	assert_int_equal(store_blackout_add(s, &b, err, sizeof err),
+	    ERRCODE_OK);
+	assert_true(b.id > 0);
+	b.start_mjd = 61502.0;
+	b.end_mjd = 61501.0;		/* end before start */
+	assert_int_equal(store_blackout_add(s, &b, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "end_mjd"));
+	assert_int_equal(store_blackouts_list(s, 61500.4, NAN, &list, &n, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(n, 1);
+	assert_string_equal(list[0].reason, "invented maintenance");
+	mem_free(list);
+	assert_int_equal(store_blackouts_list(s, 61500.6, NAN, &list, &n, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(n, 0);
+	assert_int_equal(store_blackout_remove(s, 1, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(store_blackout_remove(s, 1, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	store_close(s);
+}
+
+static void
+test_store_normal_points_idempotent(void **state)
+{
+	struct site_normal_point np, *list = NULL;
+	struct store_query q;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+	int ins = -1;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	memset(&np, 0, sizeof np);
+	strcpy(np.target, "NORTH");
+	strcpy(np.station_code, "TRS1");
+	np.epoch_mjd = 61465.123456789;
+	np.tof_s = 2.5312345678901;
+	np.photons = 42;
+	np.rms_ps = 55.0;
+	np.synodic_deg = 10.0;
+	np.mean_elong_deg = 12.0;
+	np.target_el_deg = 40.0;
+	np.sun_el_target_deg = -20.0;
+	assert_int_equal(store_np_add(s, &np, &ins, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(ins, 1);
+	assert_int_equal(store_np_add(s, &np, &ins, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(ins, 0);
+	strcpy(np.station_code, "OTHER");	/* another station: new row */
+	assert_int_equal(store_np_add(s, &np, &ins, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(ins, 1);
+	np.tof_s = 1.0;			/* not a lunar round trip */
+	np.epoch_mjd += 0.1;
+	assert_int_equal(store_np_add(s, &np, &ins, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "tof_s"));
+	store_query_init(&q);
+	q.station_code = "TRS1";
+	assert_int_equal(store_nps_list(s, &q, &list, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 1);
+	/* Epochs are kept to the microsecond, the time of flight exactly. */
+	check_near(list[0].epoch_mjd, 61465.123456789, 1e-6 / 86400 + 1e-11,
+	    "d", "epoch to 1 us");
+	assert_true(list[0].tof_s == 2.5312345678901);
+	mem_free(list);
+	store_query_init(&q);
+	assert_int_equal(store_nps_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 2);
+	store_close(s);
+}
+
+static void
+test_store_eop(void **state)
+{
+	struct site_eop_row r, *rows = NULL;
+	struct store *s = NULL;
+	char err[300];
+	double first = 0, last = 0;
+	size_t n = 0;
+
+	(void)state;
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_eop_span(s, &first, &last, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	for (int i = 2; i >= 0; i--) {
+		r.mjd = 61400.0 + i;
+		r.dut1_s = 0.1 - 0.001 * i;
+		r.xp_arcsec = 0.2;
+		r.yp_arcsec = 0.3;
+		assert_int_equal(store_eop_put(s, &r, err, sizeof err),
+		    ERRCODE_OK);
+	}
+	r.mjd = 61401.0;			/* replaces */
+	r.dut1_s = -0.25;
+	assert_int_equal(store_eop_put(s, &r, err, sizeof err), ERRCODE_OK);
+	r.mjd = 61403.5;
+	assert_int_equal(store_eop_put(s, &r, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	r.mjd = 61404.0;
+	r.dut1_s = 1.2;				/* |UT1-UTC| < 0.9 s rule */
+	assert_int_equal(store_eop_put(s, &r, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "dut1_s"));
+	assert_int_equal(store_eop_load(s, &rows, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 3);
+	assert_true(rows[0].mjd == 61400.0 && rows[2].mjd == 61402.0);
+	assert_true(rows[1].dut1_s == -0.25);
+	mem_free(rows);
+	assert_int_equal(store_eop_span(s, &first, &last, err, sizeof err),
+	    ERRCODE_OK);
+	assert_true(first == 61400.0 && last == 61402.0);
+	store_close(s);
+}
+
+static void
+test_store_settings(void **state)
+{
+	struct store_settings set;
+	struct store *s = NULL;
+	char err[300], v[64];
+
+	(void)state;
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_settings_get(s, &set, err, sizeof err),
+	    ERRCODE_OK);
+	/* Defaults of DESIGN.md section 4: 12 bins of 30 deg. */
+	assert_int_equal(set.coverage_bins, 12);
+	assert_true(set.coverage_alpha == 1.0);
+	assert_int_equal(set.coverage_per_target, 0);
+	assert_int_equal(store_setting_set(s, "coverage_bins", "24", err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_setting_set(s, "coverage_scope", "per_target",
+	    err, sizeof err), ERRCODE_OK);
+	assert_int_equal(store_setting_set(s, "coverage_alpha", "0", err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_settings_get(s, &set, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(set.coverage_bins, 24);
+	assert_int_equal(set.coverage_per_target, 1);
+	assert_true(set.coverage_alpha == 0.0);
+	assert_int_equal(store_setting_set(s, "coverage_bins", "3", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "coverage_bins"));
+	assert_int_equal(store_setting_set(s, "coverage_bins", "12x", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_int_equal(store_setting_set(s, "coverage_k", "0", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_int_equal(store_setting_set(s, "no_such_key", "1", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "no_such_key"));
+	assert_int_equal(store_setting_get(s, "plan_days", v, sizeof v, err,
+	    sizeof err), ERRCODE_OK);
+	assert_string_equal(v, "3");
+	for (size_t i = 0; store_setting_info(i) != NULL; i++)
+		assert_int_equal(store_setting_get(s, store_setting_info(i)->key,
+		    v, sizeof v, err, sizeof err), ERRCODE_OK);
+	store_close(s);
+}
+
+static void
+test_store_transaction_all_or_nothing(void **state)
+{
+	struct site_attempt a;
+	struct store_query q;
+	struct store *s;
+	char path[300], err[300];
+	size_t n = 0;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	assert_int_equal(store_begin(s, err, sizeof err), ERRCODE_OK);
+	for (int i = 0; i < 50; i++) {
+		attempt(&a, "NORTH", 61600.0 + i);
+		assert_int_equal(store_attempt_add(s, &a, err, sizeof err),
+		    ERRCODE_OK);
+	}
+	store_rollback(s);
+	store_query_init(&q);
+	assert_int_equal(store_attempts_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 0);
+	assert_int_equal(store_begin(s, err, sizeof err), ERRCODE_OK);
+	assert_int_equal(store_begin(s, err, sizeof err), ERRCODE_DB);
+	attempt(&a, "NORTH", 61600.0);
+	assert_int_equal(store_attempt_add(s, &a, err, sizeof err), ERRCODE_OK);
+	assert_int_equal(store_commit(s, err, sizeof err), ERRCODE_OK);
+	store_close(s);
+	/* Durable: a new connection sees the row. */
+	assert_int_equal(store_open(path, STORE_OPEN_READONLY, &s, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_attempts_count(s, &q, &n, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(n, 1);
+	store_close(s);
+}
+
+/* The schema dump of a database opened at path. */
+static char *
+dump_of(const char *path)
+{
+	struct store *s = NULL;
+	struct mbuf b;
+	char err[300];
+
+	assert_int_equal(store_open(path, STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	mbuf_init(&b);
+	assert_int_equal(store_schema_dump(s, &b), ERRCODE_OK);
+	store_close(s);
+	return mbuf_take(&b);
+}
+
+static void
+test_store_migrations_reach_the_same_schema(void **state)
+{
+	char path[300], err[300];
+	char *fresh, *migrated;
+	struct store *s = NULL;
+
+	(void)state;
+	db_path(path, sizeof path);
+	fresh = dump_of(path);		/* empty file: schema.sql */
+	assert_non_null(strstr(fresh, "table attempts: CREATE TABLE"));
+	assert_non_null(strstr(fresh, "user_version 3"));
+	/* From every earlier version (1 = all migrations from empty). */
+	for (int v = 1; v < STORE_SCHEMA_VERSION; v++) {
+		db_path(path, sizeof path);
+		assert_int_equal(store_open(path, STORE_OPEN_CREATE |
+		    STORE_OPEN_NO_MIGRATE, &s, err, sizeof err), ERRCODE_OK);
+		assert_int_equal(store_schema_version(s), 0);
+		assert_int_equal(store_migrate(s, v, err, sizeof err),
+		    ERRCODE_OK);
+		assert_int_equal(store_schema_version(s), v);
+		/* Going down is refused. */
+		if (v > 1)
+			assert_int_equal(store_migrate(s, v - 1, err,
+			    sizeof err), ERRCODE_DB);
+		store_close(s);
+		migrated = dump_of(path);
+		if (strcmp(fresh, migrated) != 0)
+			fail_msg("schema migrated from version %d differs:\n"
+			    "%s\n--- fresh ---\n%s", v, migrated, fresh);
+		mem_free(migrated);
+	}
+	mem_free(fresh);
+}
+
+/* A round of work under an allocation failure: success or a clean error. */
+static enum errcode
+work_round(void)
+{
+	struct site_station st;
+	struct site_target t, *list = NULL;
+	struct site_attempt a;
+	struct store *s = NULL;
+	char err[300];
+	size_t n;
+	enum errcode e;
+
+	if ((e = store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err)))
+		return e;
+	station(&st);
+	target(&t, "NORTH", "");
+	attempt(&a, "NORTH", 61465.0);
+	if (!(e = store_station_put(s, &st, err, sizeof err)) &&
+	    !(e = store_target_add(s, &t, err, sizeof err)) &&
+	    !(e = store_attempt_add(s, &a, err, sizeof err)) &&
+	    !(e = store_targets_list(s, 0, &list, &n, err, sizeof err))) {
+		assert_int_equal(n, 1);
+		mem_free(list);
+	}
+	store_close(s);
+	return e;
+}
+
+static void
+test_store_allocation_failure_is_clean(void **state)
+{
+	int failures = 0;
+
+	(void)state;
+	assert_int_equal(work_round(), ERRCODE_OK);	/* warms SQLite up */
+	for (long i = 1; i < 5000; i++) {
+		enum errcode e;
+		long used;
+
+		mem_fail_after(i);
+		e = work_round();
+		used = mem_fail_after(0);
+		if (used < i) {		/* the failure never came: done */
+			assert_int_equal(e, ERRCODE_OK);
+			break;
+		}
+		/* Out of memory, or SQLite reporting it as an error. */
+		if (e != ERRCODE_NOMEM && e != ERRCODE_DB && e != ERRCODE_OK)
+			fail_msg("allocation %ld: unexpected %s", i,
+			    errcode_name(e));
+		failures += e != ERRCODE_OK;
+	}
+	assert_true(failures > 10);
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(
+		    test_store_open_requires_create_and_close_accepts_null),
+		cmocka_unit_test(test_store_station_round_trip),
+		cmocka_unit_test(test_store_targets),
+		cmocka_unit_test(test_store_attempts_round_trip_and_filters),
+		cmocka_unit_test(
+		    test_store_every_attempt_rule_refuses_its_bad_row),
+		cmocka_unit_test(test_store_station_and_target_rules),
+		cmocka_unit_test(test_store_blackouts),
+		cmocka_unit_test(test_store_normal_points_idempotent),
+		cmocka_unit_test(test_store_eop),
+		cmocka_unit_test(test_store_settings),
+		cmocka_unit_test(test_store_transaction_all_or_nothing),
+		cmocka_unit_test(test_store_migrations_reach_the_same_schema),
+		cmocka_unit_test(test_store_allocation_failure_is_clean),
+	};
+
+	return cmocka_run_group_tests_name("store", tests, setup_dir,
+	    teardown_dir);
+}
