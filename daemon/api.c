@@ -14,6 +14,8 @@
 #include "covquery.h"
 #include "derive.h"
 #include "geom.h"
+#include "plan.h"
+#include "plan_db.h"
 #include "render.h"
 #include "render_log.h"
 #include "store.h"
@@ -24,6 +26,8 @@
 #define ATTEMPTS_LIMIT_DEFAULT 50
 #define ATTEMPTS_LIMIT_MAX 1000
 #define ATTEMPT_MAX_DAYS 1.0	/* longest attempt accepted, days */
+#define WINDOWS_DAYS_DEFAULT 3.0	/* as the CLI */
+#define WINDOWS_DAYS_MAX 3660.0
 
 struct api_ctx {
 	pthread_mutex_t lock;		/* serialises handlers and replans */
@@ -33,10 +37,14 @@ struct api_ctx {
 	double plan_days, refresh_s, start_posix;
 	struct api_site site;
 	struct store *db;		/* borrowed */
-	/* the plan cache */
+	/* the plan cache: GET windows and coverage without parameters */
 	int planned;			/* a plan has been computed */
 	double plan_utc1, plan_utc2;	/* when */
 	int replan;			/* a write asked for a new plan */
+	struct mbuf plan_windows;	/* render_windows_json of the plan */
+	struct mbuf plan_coverage;	/* coverage JSON, default query */
+	size_t plan_nwindows;
+	double plan_days_used;
 };
 
 typedef void (*api_handler)(struct api_ctx *ctx, const struct api_request *req,
@@ -265,7 +273,8 @@ param_number(const struct api_request *req, const char *key, double min,
  * to to from + days, days to defdays; to and days exclude each other.
  */
 static int
-param_span(const struct api_request *req, double defdays, double *f1,
+param_span(const struct api_request *req, double defdays, double maxdays,
+    double *f1,
     double *f2, double *t1, double *t2, struct tscale_instant *a,
     struct tscale_instant *b, struct api_response *resp)
 {
@@ -276,7 +285,7 @@ param_span(const struct api_request *req, double defdays, double *f1,
 	if (param(req, "from") && param_time(req, "from", f1, f2, resp))
 		return -1;
 	if (param(req, "days") && param_number(req, "days", 0.0,
-	    SPAN_MAX_DAYS, &days, resp))
+	    maxdays, &days, resp))
 		return -1;
 	if (param(req, "to") != NULL) {
 		if (param(req, "days") != NULL) {
@@ -302,9 +311,12 @@ param_span(const struct api_request *req, double defdays, double *f1,
 		    "to: must not be before from");
 		return -1;
 	}
-	if (span > SPAN_MAX_DAYS * 86400.0) {
-		api_error(resp, ERRCODE_BAD_ARG, "to",
-		    "to: span longer than 36600 days");
+	if (span > maxdays * 86400.0) {
+		char msg[80];
+
+		snprintf(msg, sizeof msg, "to: span longer than %.0f days",
+		    maxdays);
+		api_error(resp, ERRCODE_BAD_ARG, "to", msg);
 		return -1;
 	}
 	return 0;
@@ -397,8 +409,10 @@ h_status(struct api_ctx *ctx, const struct api_request *req,
 		    iso_or_null(ctx->plan_utc1, ctx->plan_utc2) : json_null());
 		bad |= json_object_set_new(o, "refresh_s",
 		    render_json_num(ctx->refresh_s, 0));
-		bad |= json_object_set_new(o, "days",
-		    render_json_num(ctx->plan_days, 3));
+		bad |= json_object_set_new(o, "days", ctx->planned ?
+		    render_json_num(ctx->plan_days_used, 3) : json_null());
+		bad |= json_object_set_new(o, "windows", ctx->planned ?
+		    json_integer((json_int_t)ctx->plan_nwindows) : json_null());
 	}
 
 	o = json_object();
@@ -584,7 +598,7 @@ h_phases(struct api_ctx *ctx, const struct api_request *req,
 
 	(void)ctx;
 	memset(&rp, 0, sizeof rp);
-	if (param_span(req, 30.0, &rp.from1, &rp.from2, &rp.to1, &rp.to2, &a,
+	if (param_span(req, 30.0, SPAN_MAX_DAYS, &rp.from1, &rp.from2, &rp.to1, &rp.to2, &a,
 	    &b, resp))
 		return;
 	ev = mem_calloc(PHASES_CAP, sizeof *ev);
@@ -613,6 +627,111 @@ store_open_ok(struct api_ctx *ctx, struct api_response *resp)
 	return 1;
 }
 
+/*
+ * Ranked windows of [from, to) from the database at path, rendered as
+ * JSON or iCalendar: the planner's query loaded by plan_db_load, run by
+ * plan_run and printed by render_windows_*, as "moonrange windows" does.
+ */
+static enum errcode
+windows_render(const char *path, double from_mjd, double to_mjd,
+    const char *target, size_t limit, int ics, double now_mjd,
+    struct mbuf *out, size_t *nwindows, char *err, size_t errlen)
+{
+	struct plan_query q;
+	struct plan_db hold;
+	struct plan_result res;
+	struct render_plan rp;
+	enum errcode rc;
+
+	memset(&res, 0, sizeof res);
+	plan_query_init(&q);
+	plan_db_init(&hold);
+	rc = plan_db_load(path, &q, &hold, err, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	q.from_mjd = from_mjd;
+	q.to_mjd = to_mjd;
+	q.target = target;
+	q.limit = limit;
+	rc = plan_run(&q, &res, err, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	memset(&rp, 0, sizeof rp);
+	rp.r = &res;
+	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
+	rp.time_zone = q.station.time_zone[0] != '\0' &&
+	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
+	rp.now_mjd = now_mjd;
+	rc = ics ? render_windows_ics(&rp, out) : render_windows_json(&rp, out);
+	if (nwindows != NULL)
+		*nwindows = res.n;
+out:
+	plan_result_free(&res);
+	plan_db_free(&hold);
+	return rc;
+}
+
+static void
+windows_common(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, int ics)
+{
+	struct tscale_instant a, b;
+	double f1, f2, t1, t2, limit = 0;
+	char err[300];
+	enum errcode rc;
+
+	if (!store_open_ok(ctx, resp))
+		return;
+	if (!ics && req->nparams == 0 && ctx->planned &&
+	    mbuf_status(&ctx->plan_windows) == ERRCODE_OK &&
+	    ctx->plan_windows.len > 0) {
+		/* The plan cache: the coming days as of the last refresh. */
+		mbuf_add(&resp->body, ctx->plan_windows.data,
+		    ctx->plan_windows.len);
+		ok_or_error(resp, ERRCODE_OK, 200, "application/json");
+		return;
+	}
+	if (param_span(req, WINDOWS_DAYS_DEFAULT, WINDOWS_DAYS_MAX, &f1, &f2,
+	    &t1, &t2, &a, &b, resp))
+		return;
+	if (param(req, "limit") != NULL && (param_number(req, "limit", 1,
+	    PLAN_MAX_WINDOWS, &limit, resp) || limit != floor(limit))) {
+		if (limit != floor(limit))
+			api_error(resp, ERRCODE_BAD_ARG, "limit",
+			    "limit: must be a whole number");
+		return;
+	}
+	err[0] = '\0';
+	rc = windows_render(ctx->db_path, (f1 - ERFA_DJM0) + f2,
+	    (t1 - ERFA_DJM0) + t2, param(req, "target"), (size_t)limit, ics,
+	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
+	    sizeof err);
+	if (rc == ERRCODE_OK)
+		ok_or_error(resp, rc, 200, ics ? "text/calendar; charset=utf-8" :
+		    "application/json");
+	else if (rc == ERRCODE_NOT_FOUND)	/* the target */
+		api_error(resp, ERRCODE_BAD_ARG, "target", err[0] ? err : NULL);
+	else if (rc == ERRCODE_TOO_LARGE)	/* the span's windows */
+		api_error(resp, ERRCODE_BAD_ARG, "to", err[0] ? err :
+		    "too many windows: shorten the span or set a limit");
+	else
+		api_error(resp, rc, NULL, err[0] ? err : NULL);
+}
+
+static void
+h_windows(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	windows_common(ctx, req, resp, 0);
+}
+
+static void
+h_windows_ics(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	windows_common(ctx, req, resp, 1);
+}
+
 /* coverage, coverage.csv, coverage.svg: the CLI's query path. */
 static void
 coverage_common(struct api_ctx *ctx, const struct api_request *req,
@@ -624,6 +743,14 @@ coverage_common(struct api_ctx *ctx, const struct api_request *req,
 
 	if (!store_open_ok(ctx, resp))
 		return;
+	if (fmt == COVQUERY_JSON && req->nparams == 0 && ctx->planned &&
+	    ctx->plan_coverage.len > 0 &&
+	    mbuf_status(&ctx->plan_coverage) == ERRCODE_OK) {
+		mbuf_add(&resp->body, ctx->plan_coverage.data,
+		    ctx->plan_coverage.len);
+		ok_or_error(resp, ERRCODE_OK, 200, "application/json");
+		return;
+	}
 	covquery_params_init(&p);
 	for (size_t i = 0; i < req->nparams; i++) {
 		err[0] = '\0';
@@ -996,6 +1123,11 @@ static const struct route routes[] = {
 	    h_now},
 	{{"GET", "/api/v1/phases", "from,to,days",
 	    "new moon, quarters and full moon in a span"}, h_phases},
+	{{"GET", "/api/v1/windows", "from,to,days,target,limit",
+	    "ranked observing windows (no parameters: the cached plan)"},
+	    h_windows},
+	{{"GET", "/api/v1/windows.ics", "from,to,days,target,limit",
+	    "the windows as iCalendar (RFC 5545)"}, h_windows_ics},
 	{{"GET", "/api/v1/coverage", COVERAGE_PARAMS,
 	    "phase-coverage audit as JSON (the CLI's coverage --json)"},
 	    h_coverage},
@@ -1047,7 +1179,9 @@ api_new(const struct api_config *cfg)
 		ctx->token[n] = '\0';
 		ctx->token_len = n;
 	}
-	ctx->plan_days = cfg->plan_days > 0 ? cfg->plan_days : 2.0;
+	ctx->plan_days = cfg->plan_days;	/* 0: the store's setting */
+	mbuf_init(&ctx->plan_windows);
+	mbuf_init(&ctx->plan_coverage);
 	ctx->refresh_s = cfg->refresh_s;
 	ctx->start_posix = cfg->start_posix;
 	return ctx;
@@ -1059,6 +1193,8 @@ api_free(struct api_ctx *ctx)
 	if (ctx == NULL)
 		return;
 	api_site_free(&ctx->site);
+	mbuf_free(&ctx->plan_windows);
+	mbuf_free(&ctx->plan_coverage);
 	mem_free(ctx->db_path);
 	/* volatile: keep the wipe of the token from being optimised away */
 	for (volatile char *p = ctx->token; *p != '\0'; p++)
@@ -1090,15 +1226,54 @@ api_set_site(struct api_ctx *ctx, struct api_site *site)
 }
 
 enum errcode
-api_replan(struct api_ctx *ctx, double now1, double now2)
+api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
+    size_t errlen)
 {
+	struct store_settings set;
+	struct covquery_params p;
+	struct mbuf w, c;
+	double now_mjd = (now1 - ERFA_DJM0) + now2, days;
+	size_t n = 0;
+	enum errcode rc;
+
+	mbuf_init(&w);
+	mbuf_init(&c);
 	pthread_mutex_lock(&ctx->lock);
+	if (ctx->db == NULL || ctx->db_path == NULL) {
+		rc = ERRCODE_CONFIG;
+		snprintf(errbuf, errlen, "no database open");
+		goto out;
+	}
+	rc = store_settings_get(ctx->db, &set, errbuf, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
+	rc = windows_render(ctx->db_path, now_mjd, now_mjd + days, NULL, 0, 0,
+	    now_mjd, &w, &n, errbuf, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	covquery_params_init(&p);
+	p.now_mjd = now_mjd;
+	rc = covquery_run(ctx->db, &p, COVQUERY_JSON, &c, errbuf, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	mbuf_free(&ctx->plan_windows);
+	mbuf_free(&ctx->plan_coverage);
+	ctx->plan_windows = w;
+	ctx->plan_coverage = c;
+	mbuf_init(&w);
+	mbuf_init(&c);
+	ctx->plan_nwindows = n;
+	ctx->plan_days_used = days;
 	ctx->planned = 1;
-	ctx->replan = 0;
 	ctx->plan_utc1 = now1;
 	ctx->plan_utc2 = now2;
+out:
+	ctx->replan = 0;
 	pthread_mutex_unlock(&ctx->lock);
-	return ERRCODE_OK;
+	mbuf_free(&w);
+	mbuf_free(&c);
+	return rc;
 }
 
 int

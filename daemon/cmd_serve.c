@@ -128,12 +128,14 @@ static void
 replan(struct api_ctx *ctx, const char *why)
 {
 	double u1, u2, t0 = mono_s();
+	char err[300] = "";
 	enum errcode rc;
 
 	utc_now(&u1, &u2);
-	rc = api_replan(ctx, u1, u2);
+	rc = api_replan(ctx, u1, u2, err, sizeof err);
 	if (rc != ERRCODE_OK)
-		log_error("plan refresh (%s) failed: %s", why, errcode_str(rc));
+		log_error("plan refresh (%s) failed: %s: %s", why,
+		    errcode_str(rc), err);
 	else
 		log_info("plan refreshed (%s) in %.0f ms", why,
 		    (mono_s() - t0) * 1e3);

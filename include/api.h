@@ -86,7 +86,8 @@ struct api_config {
 	const char *db_path;		/* shown by /status; may be NULL */
 	const char *token;		/* bearer token for writes, NULL = none
 					   (then every write is refused) */
-	double plan_days;		/* span of the plan cache, days */
+	double plan_days;		/* span of the plan cache, days; 0:
+					   the store's plan_days setting */
 	double refresh_s;		/* plan refresh interval, seconds */
 	double start_posix;		/* when the daemon started */
 };
@@ -111,11 +112,14 @@ void api_set_store(struct api_ctx *ctx, struct store *db);
 void api_set_site(struct api_ctx *ctx, struct api_site *site);
 
 /*
- * Recompute the plan cache for [now, now + plan_days).  Called by the
- * daemon's main loop every refresh interval and when api_replan_wanted()
- * says a write changed the data.
+ * Recompute the plan cache: the ranked windows of [now, now + plan_days)
+ * and the coverage audit with default parameters, served by GET windows
+ * and GET coverage without parameters.  Called by the daemon's main loop
+ * every refresh interval and when api_replan_wanted() says the data
+ * changed.  On failure the previous plan stays and errbuf says why.
  */
-enum errcode api_replan(struct api_ctx *ctx, double now1, double now2);
+enum errcode api_replan(struct api_ctx *ctx, double now1, double now2,
+    char *errbuf, size_t errlen);
 
 /* 1 once after each successful write since the last call, else 0. */
 int api_replan_wanted(struct api_ctx *ctx);

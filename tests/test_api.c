@@ -107,7 +107,7 @@ setup(void **state)
 	memset(&cfg, 0, sizeof cfg);
 	cfg.db_path = dbpath;
 	cfg.token = TOKEN;
-	cfg.plan_days = 2;
+	cfg.plan_days = 0;	/* the store's setting */
 	cfg.refresh_s = 600;
 	cfg.start_posix = (double)time(NULL);
 	ctx = api_new(&cfg);
@@ -723,6 +723,119 @@ test_api_coverage_same_bytes_as_cli(void **state)
 	http_reply_free(&r);
 }
 
+/* Drop the lines starting with prefix (DTSTAMP: the moment of the call). */
+static void
+drop_lines(char *s, const char *prefix)
+{
+	char *out = s;
+	size_t n = strlen(prefix);
+
+	for (char *p = s; *p;) {
+		char *e = strchr(p, '\n');
+		size_t len = e ? (size_t)(e - p) + 1 : strlen(p);
+
+		if (strncmp(p, prefix, n) != 0) {
+			memmove(out, p, len);
+			out += len;
+		}
+		p += len;
+	}
+	*out = '\0';
+}
+
+/* windows and windows.ics print what "moonrange windows" prints. */
+static void
+test_api_windows_same_bytes_as_cli(void **state)
+{
+	struct http_reply r;
+	char args[512], v[128], *cli;
+	json_t *j;
+	int st;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/windows?from=2027-03-10T00:00:00Z"
+	    "&to=2027-03-13T00:00:00Z&limit=10", &r), 200);
+	snprintf(args, sizeof args, "windows --db '%s' --from "
+	    "2027-03-10T00:00:00Z --to 2027-03-13T00:00:00Z --limit 10 --json",
+	    dbpath);
+	cli = run_cli(args, &st);
+	assert_int_equal(st, 0);
+	assert_string_equal(r.body, cli);
+	free(cli);
+	/* A daylight-capable station (max Sun elevation 90 deg) sees the
+	   Moon above 15 deg on most days: three days hold windows. */
+	j = body_json(&r);
+	assert_true(json_array_size(json_object_get(j, "windows")) > 0);
+	json_decref(j);
+	http_reply_free(&r);
+
+	assert_int_equal(get("/api/v1/windows.ics?from=2027-03-10T00:00:00Z"
+	    "&days=2&target=BRAVO", &r), 200);
+	assert_non_null(http_header(&r, "Content-Type", v, sizeof v));
+	assert_string_equal(v, "text/calendar; charset=utf-8");
+	snprintf(args, sizeof args, "windows --db '%s' --from "
+	    "2027-03-10T00:00:00Z --days 2 --target BRAVO --ics", dbpath);
+	cli = run_cli(args, &st);
+	assert_int_equal(st, 0);
+	assert_non_null(strstr(r.body, "BEGIN:VCALENDAR\r\n"));
+	drop_lines(r.body, "DTSTAMP:");
+	drop_lines(cli, "DTSTAMP:");
+	assert_string_equal(r.body, cli);
+	free(cli);
+	http_reply_free(&r);
+
+	get("/api/v1/windows?target=NOPE", &r);
+	assert_error(&r, 400, "bad_arg", "target");
+	http_reply_free(&r);
+	get("/api/v1/windows?limit=0", &r);
+	assert_error(&r, 400, "bad_arg", "limit");
+	http_reply_free(&r);
+	get("/api/v1/windows?days=4000", &r);
+	assert_error(&r, 400, "bad_arg", "days");
+	http_reply_free(&r);
+	get("/api/v1/windows.ics?format=ics", &r);
+	assert_error(&r, 400, "bad_arg", "format");
+	http_reply_free(&r);
+}
+
+/* After a replan, windows and coverage without parameters are the cache,
+   and status reports the plan. */
+static void
+test_api_plan_cache(void **state)
+{
+	struct http_reply r;
+	double u1, u2;
+	char err[300];
+	json_t *j, *plan;
+	json_int_t n;
+
+	(void)state;
+	assert_int_equal(tscale_from_posix((double)time(NULL), &u1, &u2),
+	    ERRCODE_OK);
+	assert_int_equal(api_replan(ctx, u1, u2, err, sizeof err), ERRCODE_OK);
+	assert_int_equal(get("/api/v1/status", &r), 200);
+	j = body_json(&r);
+	plan = json_object_get(j, "plan");
+	assert_true(json_is_string(json_object_get(plan, "last_utc")));
+	/* plan_days: the store's default setting, 3 days (store.h). */
+	assert_true(fabs(json_real_value(json_object_get(plan, "days")) - 3.0)
+	    < 1e-9);
+	n = json_integer_value(json_object_get(plan, "windows"));
+	json_decref(j);
+	http_reply_free(&r);
+
+	assert_int_equal(get("/api/v1/windows", &r), 200);
+	j = body_json(&r);
+	assert_int_equal(json_array_size(json_object_get(j, "windows")), n);
+	json_decref(j);
+	http_reply_free(&r);
+	assert_int_equal(get("/api/v1/coverage", &r), 200);
+	j = body_json(&r);
+	assert_true(json_is_object(j));
+	json_decref(j);
+	http_reply_free(&r);
+}
+
 int
 main(void)
 {
@@ -739,6 +852,8 @@ main(void)
 		cmocka_unit_test(test_api_body_limit),
 		cmocka_unit_test(test_api_attempts_create_and_list),
 		cmocka_unit_test(test_api_coverage_same_bytes_as_cli),
+		cmocka_unit_test(test_api_windows_same_bytes_as_cli),
+		cmocka_unit_test(test_api_plan_cache),
 		cmocka_unit_test(test_api_alloc_failure),
 		cmocka_unit_test(test_api_token_equal),
 	};
