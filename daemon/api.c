@@ -13,11 +13,12 @@
 #include "api.h"
 #include "covquery.h"
 #include "derive.h"
+#include "eop.h"
 #include "geom.h"
 #include "plan.h"
 #include "plan_db.h"
 #include "render.h"
-#include "render_log.h"
+#include "render_site.h"
 #include "store.h"
 #include "tscale.h"
 
@@ -365,6 +366,17 @@ site_loaded(struct api_ctx *ctx, struct api_response *resp)
 	return 1;
 }
 
+/* Earth orientation at a UTC MJD from the site's table (zeros if none). */
+static enum eop_source
+site_eop_at(const struct api_site *s, double mjd, struct geom_eop *out)
+{
+	struct eop_table t;
+
+	t.rows = s->eop;
+	t.n = s->neop;
+	return eop_lookup(&t, mjd, out);
+}
+
 /* --- handlers --- */
 
 static void
@@ -434,96 +446,31 @@ out:
 	json_reply(resp, root, bad);
 }
 
-static json_t *
-num_or_null(double v, int decimals)
-{
-	return render_json_num(v, decimals);
-}
-
+/* The station and the targets: the renderers of "station show --json"
+   and "target list --json". */
 static void
 h_site(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
-	const struct site_station *st = &ctx->site.station;
-	json_t *root, *o;
-	int bad;
+	enum errcode rc;
 
 	(void)req;
 	if (!site_loaded(ctx, resp))
 		return;
-	root = json_object();
-	o = json_object();
-	bad = root == NULL || o == NULL;
-	if (bad) {
-		json_decref(o);
-		goto out;
-	}
-	bad |= json_object_set_new(root, "station", o);
-	bad |= json_object_set_new(o, "name", json_string(st->name));
-	bad |= json_object_set_new(o, "code", json_string(st->code));
-	bad |= json_object_set_new(o, "lat_deg", num_or_null(st->lat_deg, 7));
-	bad |= json_object_set_new(o, "lon_deg", num_or_null(st->lon_deg, 7));
-	bad |= json_object_set_new(o, "height_m", num_or_null(st->height_m, 2));
-	bad |= json_object_set_new(o, "time_zone", json_string(st->time_zone));
-	bad |= json_object_set_new(o, "min_el_deg",
-	    num_or_null(st->min_el_deg, 3));
-	bad |= json_object_set_new(o, "max_sun_el_deg",
-	    num_or_null(st->max_sun_el_deg, 3));
-	bad |= json_object_set_new(o, "min_sun_sep_deg",
-	    num_or_null(st->min_sun_sep_deg, 3));
-	bad |= json_object_set_new(o, "pressure_hpa",
-	    num_or_null(st->pressure_hpa, 2));
-	bad |= json_object_set_new(o, "temperature_c",
-	    num_or_null(st->temperature_c, 2));
-	bad |= json_object_set_new(o, "humidity", num_or_null(st->humidity, 3));
-	bad |= json_object_set_new(o, "wavelength_nm",
-	    num_or_null(st->wavelength_nm, 3));
-	bad |= json_object_set_new(o, "zenith_tau",
-	    num_or_null(st->zenith_tau, 4));
-	bad |= json_object_set_new(o, "fire_rate_hz",
-	    num_or_null(st->fire_rate_hz, 3));
-out:
-	json_reply(resp, root, bad);
+	rc = render_site_station_json(&ctx->site.station, &resp->body);
+	ok_or_error(resp, rc, 200, "application/json");
 }
 
 static void
 h_targets(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
-	json_t *root = json_object(), *arr = json_array();
-	int bad = root == NULL || arr == NULL;
+	enum errcode rc;
 
 	(void)req;
-	if (bad) {
-		json_decref(arr);
-		goto out;
-	}
-	bad |= json_object_set_new(root, "targets", arr);
-	for (size_t i = 0; i < ctx->site.ntargets; i++) {
-		const struct site_target *t = &ctx->site.targets[i];
-		json_t *o = json_object();
-
-		bad |= json_array_append_new(arr, o);
-		if (o == NULL)
-			break;
-		bad |= json_object_set_new(o, "id", json_string(t->id));
-		bad |= json_object_set_new(o, "name", json_string(t->name));
-		bad |= json_object_set_new(o, "alias", t->alias[0] ?
-		    json_string(t->alias) : json_null());
-		bad |= json_object_set_new(o, "lat_deg",
-		    num_or_null(t->lat_deg, 5));
-		bad |= json_object_set_new(o, "lon_deg",
-		    num_or_null(t->lon_deg, 5));
-		bad |= json_object_set_new(o, "height_m",
-		    num_or_null(t->height_m, 1));
-		bad |= json_object_set_new(o, "strength",
-		    num_or_null(t->strength, 4));
-		bad |= json_object_set_new(o, "dark_only",
-		    json_boolean(t->dark_only));
-		bad |= json_object_set_new(o, "active", json_boolean(t->active));
-	}
-out:
-	json_reply(resp, root, bad);
+	rc = render_site_targets_json(ctx->site.targets, ctx->site.ntargets,
+	    &resp->body);
+	ok_or_error(resp, rc, 200, "application/json");
 }
 
 static void
@@ -536,7 +483,9 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 	struct geom_eop eop = {0.0, 0.0, 0.0};
 	struct geom_instant *g = NULL;
 	struct render_ephem rep;
+	enum eop_source src;
 	double u1 = req->now1, u2 = req->now2;
+	char last[40];
 	size_t n = 0;
 	enum errcode rc;
 
@@ -549,6 +498,10 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 		    "the station's position is out of range");
 		return;
 	}
+	src = site_eop_at(&ctx->site, (u1 - ERFA_DJM0) + u2, &eop);
+	if (ctx->site.neop == 0 || tscale_format_utc(ERFA_DJM0,
+	    ctx->site.eop[ctx->site.neop - 1].mjd, 0, last, sizeof last))
+		last[0] = '\0';
 	g = mem_alloc(sizeof *g);
 	rows = mem_calloc(ctx->site.ntargets + 1, sizeof *rows);
 	if (g == NULL || rows == NULL) {
@@ -575,7 +528,8 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 	rep.g = g;
 	rep.targets = rows;
 	rep.ntargets = n;
-	rep.dut1_source = "none";
+	rep.dut1_source = eop_source_name(src);
+	rep.eop_last_utc = last[0] ? last : NULL;
 	rep.station_name = st->name;
 	rep.time_zone = st->time_zone[0] ? st->time_zone : NULL;
 	rc = render_ephem_json(&rep, &resp->body);
@@ -832,7 +786,7 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 		api_error(resp, rc, NULL, err);
 		return;
 	}
-	rc = render_attempts_json(rows, n, &resp->body);
+	rc = render_site_attempts_json(rows, n, &resp->body);
 	mem_free(rows);
 	ok_or_error(resp, rc, 200, "application/json");
 }
@@ -856,7 +810,7 @@ h_attempt_get(struct api_ctx *ctx, const struct api_request *req,
 		    "no attempt with this id" : err);
 		return;
 	}
-	rc = render_attempt_json(&a, &resp->body);
+	rc = render_site_attempt_json(&a, &resp->body);
 	ok_or_error(resp, rc, 200, "application/json");
 }
 
@@ -1086,8 +1040,13 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 		api_error(resp, ERRCODE_BAD_ARG, "target", msg);
 		goto out;
 	}
-	if (rc == ERRCODE_OK)
-		rc = derive_attempt(&ctx->site.station, &t, NULL, &a);
+	if (rc == ERRCODE_OK) {
+		struct geom_eop eop;
+
+		(void)site_eop_at(&ctx->site, 0.5 * (a.start_mjd + a.end_mjd),
+		    &eop);
+		rc = derive_attempt(&ctx->site.station, &t, &eop, &a);
+	}
 	if (rc == ERRCODE_OK)
 		rc = store_attempt_add(ctx->db, &a, err, sizeof err);
 	if (rc != ERRCODE_OK) {
@@ -1099,7 +1058,7 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 	ctx->replan = 1;
 	snprintf(resp->location, sizeof resp->location,
 	    "/api/v1/attempts/%ld", a.id);
-	rc = render_attempt_json(&a, &resp->body);
+	rc = render_site_attempt_json(&a, &resp->body);
 	ok_or_error(resp, rc, 201, "application/json");
 out:
 	json_decref(body);

@@ -26,6 +26,10 @@ const struct cli_command cli_commands[] = {
 	    "coverage", cmd_windows},
 	{"tonight", "the coming night: ranked windows, best target now",
 	    cmd_tonight},
+	{"init", "create a station database from a site directory",
+	    cmd_init},
+	{"log", "the observation log: add, list, import, export attempts",
+	    cmd_log},
 	{NULL, NULL, NULL}
 };
 

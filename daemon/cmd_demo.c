@@ -29,17 +29,6 @@ usage(FILE *f)
 	    "  --help             this text\n");
 }
 
-/* The sample site: the installed copy if there is one, else the source's. */
-static const char *
-sample_site_dir(void)
-{
-	struct stat st;
-
-	if (stat(MOONRANGE_INSTALL_SITE_DIR "/station.ini", &st) == 0)
-		return MOONRANGE_INSTALL_SITE_DIR;
-	return MOONRANGE_SOURCE_DIR "/sample-site";
-}
-
 /* mkdir -p with mode 0700 for the parts it creates. */
 static int
 make_dirs(const char *path)
@@ -182,12 +171,12 @@ cmd_demo(int argc, char **argv)
 	snprintf(token, sizeof token, "%s/token", dir);
 
 	if (stat(db, &sb) != 0) {
-		char *iargv[] = {"init", "--db", db, "--site",
-		    (char *)sample_site_dir(), NULL};
+		/* init's default site directory is the sample site. */
+		char *iargv[] = {"init", "--db", db, NULL};
 
-		printf("moonrange: creating %s from %s\n", db, iargv[4]);
+		printf("moonrange: creating %s from the sample site\n", db);
 		fflush(stdout);
-		st = run_command("init", 5, iargv);
+		st = run_command("init", 3, iargv);
 		if (st != CLI_EXIT_OK)
 			return st;
 	}

@@ -1231,7 +1231,7 @@ row_np(sqlite3_stmt *st, void *dst)
 	o->rms_ps = col_real_or_nan(st, 6);
 	o->synodic_deg = sqlite3_column_double(st, 7);
 	o->mean_elong_deg = sqlite3_column_double(st, 8);
-	o->target_el_deg = sqlite3_column_double(st, 9);
+	o->target_el_deg = col_real_or_nan(st, 9);
 	o->sun_el_target_deg = sqlite3_column_double(st, 10);
 }
 

@@ -69,5 +69,7 @@ int cmd_demo(int argc, char **argv);
 int cmd_coverage(int argc, char **argv);
 int cmd_windows(int argc, char **argv);
 int cmd_tonight(int argc, char **argv);
+int cmd_log(int argc, char **argv);
+int cmd_init(int argc, char **argv);
 
 #endif

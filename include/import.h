@@ -48,12 +48,76 @@ void import_error_format(const struct import_report *rep, size_t i,
 
 /* --- station file (INI) --- */
 
-/* Parse the station INI into *st (all keys validated, unknown keys are
-   errors naming the key, missing required keys too). */
+/*
+ * The station file's keys: one table gives each key its section, type,
+ * range, default and help text.  The parser, `station set` and the
+ * README's table of keys all come from it.
+ */
+enum import_key_type {
+	IMPORT_KEY_TEXT = 0,		/* free text, 1..max bytes of UTF-8 */
+	IMPORT_KEY_CODE,		/* 1..max of [A-Za-z0-9_-] */
+	IMPORT_KEY_TZ,			/* IANA zone name syntax */
+	IMPORT_KEY_REAL			/* decimal number in [min, max] */
+};
+
+struct import_key {
+	const char *section;		/* "station", "limits", ... */
+	const char *name;		/* "lat_deg", ... */
+	enum import_key_type type;
+	double min, max;		/* REAL: inclusive range; text: max
+					   length in bytes (min unused) */
+	int required;			/* 1: no default, must be given */
+	double def;			/* REAL default; NaN: derived (help
+					   says from what) */
+	const char *help;		/* one line, with the unit */
+};
+
+/* The table (static storage) and its length. */
+const struct import_key *import_station_keys(size_t *n);
+
+/* Fill *st with every default (text empty, derived values from the
+   height; required numbers NaN). */
+void import_station_defaults(struct site_station *st);
+
+/*
+ * Set one key from its text, validated as in the file: ERRCODE_NOT_FOUND
+ * for an unknown section/name, ERRCODE_BAD_ARG for a bad value, each with
+ * a sentence in errbuf (may be NULL).  Derived defaults are not redone:
+ * call import_station_finish after changing height_m if pressure or
+ * temperature should follow.
+ */
+enum errcode import_station_set(struct site_station *st,
+    const char *section, const char *name, const char *value,
+    char *errbuf, size_t errlen);
+
+/*
+ * Parse the station INI into *st (all keys validated, unknown keys are
+ * errors naming the key, missing required keys too).  Section and key
+ * names are case-sensitive; ';' and '#' start a comment line, ';' also
+ * an inline comment; each key may be given once; lines are at most 196
+ * bytes.  Unset pressure and temperature come from the standard
+ * atmosphere at height_m (geom_weather_standard).
+ */
 enum errcode import_station_ini(const char *buf, size_t len,
     struct site_station *st, struct import_report *rep);
 
 /* --- CSV (RFC 4180, header row required) --- */
+
+/*
+ * Column names.  The header row names the columns, in any order; the
+ * required ones must be present, unknown ones are errors.  Lines starting
+ * with '#' before the header are comments (an extension); empty lines are
+ * skipped.  A record is at most IMPORT_CSV_MAX_RECORD bytes and
+ * IMPORT_CSV_MAX_FIELDS fields.  These are also the headers `log export`
+ * writes, so that export and import round-trip.
+ */
+#define IMPORT_TARGETS_COLUMNS \
+	"id,name,alias,lat_deg,lon_deg,height_m,strength,dark_only,active"
+#define IMPORT_ATTEMPTS_COLUMNS \
+	"target,start_utc,end_utc,shots,returns,normal_points,outcome," \
+	"operator,seeing_arcsec,notes"
+#define IMPORT_CSV_MAX_RECORD 8192
+#define IMPORT_CSV_MAX_FIELDS 32
 
 typedef enum errcode (*import_target_fn)(void *ctx,
     const struct site_target *t, size_t line);
@@ -75,6 +139,8 @@ enum errcode import_attempts_csv(const char *buf, size_t len,
 struct import_crd_np {
 	char target_name[SITE_NAME_LEN];
 	struct site_normal_point np;
+	int crd_version;		/* 1 or 2, from H1 */
+	size_t session_line;		/* line of the session's H4 */
 };
 
 typedef enum errcode (*import_np_fn)(void *ctx, const struct import_crd_np *np,

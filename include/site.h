@@ -92,7 +92,8 @@ struct site_normal_point {
 	double tof_s;			/* two-way time of flight */
 	long photons;			/* returns in the bin */
 	double rms_ps;			/* bin RMS, picoseconds */
-	double synodic_deg, mean_elong_deg; /* computed at the epoch */
+	double synodic_deg, mean_elong_deg; /* computed at the epoch; */
+	/* target_el_deg is NaN for points of another station */
 	double target_el_deg, sun_el_target_deg;
 };
 

@@ -164,8 +164,10 @@ CREATE TABLE normal_points (
                     CHECK (synodic_deg >= 0 AND synodic_deg < 360),
   mean_elong_deg  REAL NOT NULL CONSTRAINT mean_elong_deg
                     CHECK (mean_elong_deg >= 0 AND mean_elong_deg < 360),
-  target_el_deg   REAL NOT NULL CONSTRAINT target_el_deg
-                    CHECK (target_el_deg BETWEEN -90 AND 90),
+  -- elevation at this station; NULL for points of other stations
+  target_el_deg   REAL CONSTRAINT target_el_deg
+                    CHECK (target_el_deg IS NULL
+                           OR target_el_deg BETWEEN -90 AND 90),
   sun_el_target_deg REAL NOT NULL CONSTRAINT sun_el_target_deg
                     CHECK (sun_el_target_deg BETWEEN -90 AND 90),
   CONSTRAINT epoch_unique UNIQUE (station_code, target_id, epoch_utc)

@@ -268,8 +268,8 @@ test_api_site_and_targets(void **state)
 	(void)state;
 	assert_int_equal(get("/api/v1/site", &r), 200);
 	j = body_json(&r);
-	assert_string_equal(json_string_value(json_object_get(
-	    json_object_get(j, "station"), "code")), "KRDG");
+	assert_string_equal(json_string_value(json_object_get(j, "code")),
+	    "KRDG");
 	json_decref(j);
 	http_reply_free(&r);
 
@@ -635,7 +635,7 @@ test_api_attempts_create_and_list(void **state)
 	/* Stored as text, never interpreted. */
 	assert_string_equal(json_string_value(json_object_get(j, "operator")),
 	    "<b>Invented Operator</b>");
-	assert_true(json_is_real(json_object_get(j, "synodic_angle_deg")));
+	assert_true(json_is_real(json_object_get(j, "synodic_deg")));
 	json_decref(j);
 	assert_int_equal(attempts_in_db(), before + 1);
 

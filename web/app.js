@@ -101,7 +101,7 @@
   async function loadSite() {
     try {
       const s = await getJson("/api/v1/site");
-      const st = s.station;
+      const st = s;
       zone = st.time_zone || "UTC";
       zoneLabel = zone.split("/").pop().replace(/_/g, " ");
       setText("station", st.name + " · " + st.code + " · " +
