@@ -58,9 +58,9 @@
     const d = parseUtc(iso);
     if (!d) return "–";
     try {
-      return new Intl.DateTimeFormat("en-GB", {
+      return new Intl.DateTimeFormat("en-US", {
         timeZone: zone, month: "short", day: "2-digit",
-        hour: "2-digit", minute: "2-digit", hour12: false,
+        hour: "2-digit", minute: "2-digit", hourCycle: "h23",
         timeZoneName: "short"
       }).format(d);
     } catch (e) {
@@ -161,17 +161,23 @@
         tr.appendChild(cell(deg(x.synodic_angle_deg), "num"));
         tr.appendChild(cell(fixed(x.coverage_weight, 2), "num"));
         tr.appendChild(cell(fixed(x.score, 1), "num"));
-        tr.appendChild(cell((x.reasons || []).join(" "), "why"));
         rows.push(tr);
+        // The factors behind the rank, on a line of their own.
+        const why = document.createElement("tr");
+        why.className = "why-row";
+        const td = cell((x.reasons || []).join(" · "), "why");
+        td.colSpan = 10;
+        why.appendChild(td);
+        rows.push(why);
       }
       if (rows.length === 0)
-        emptyRow(tbody, 11, "No window in the next 24 hours.");
+        emptyRow(tbody, 10, "No window in the next 24 hours.");
       else
         tbody.replaceChildren(...rows);
       setText("windows-note", "next 24 h from " + fmtUtc(w.from || "") +
         ", ranked by expected returns × phase value");
     } catch (e) {
-      emptyRow(tbody, 11, "Windows not available: " + e.message);
+      emptyRow(tbody, 10, "Windows not available: " + e.message);
     }
   }
 
@@ -219,8 +225,15 @@
 
   // --- coverage chart -----------------------------------------------------
 
+  // Two spellings of the same query: the browser keeps an image per URL
+  // for the page's life, so alternating them makes it fetch the new chart.
+  const CHART_URLS = ["/api/v1/coverage.svg?horizon=0",
+    "/api/v1/coverage.svg?horizon=0&min_count=1"];
+  let chartTurn = 0;
+
   function reloadChart() {
-    $("coverage-chart").src = "/api/v1/coverage.svg?horizon=0&t=" + Date.now();
+    chartTurn = 1 - chartTurn;
+    $("coverage-chart").src = CHART_URLS[chartTurn];
   }
 
   // --- recent attempts ----------------------------------------------------
