@@ -44,6 +44,9 @@ log_level_parse(const char *name)
 	return -1;
 }
 
+static void vlog(enum log_level level, const char *suffix, const char *fmt,
+    va_list ap) MEM_PRINTFLIKE(3, 0);
+
 /* Format the whole line into one buffer, then write it with one call. */
 static void
 vlog(enum log_level level, const char *suffix, const char *fmt, va_list ap)

@@ -425,6 +425,10 @@ on_completed(void *cls, struct MHD_Connection *conn, void **con_cls,
 	atomic_fetch_sub(&s->inflight, 1);
 }
 
+/* libmicrohttpd's own messages, routed into the event log. */
+static void mhd_logger(void *cls, const char *fmt, va_list ap)
+    MEM_PRINTFLIKE(2, 0);
+
 static void
 mhd_logger(void *cls, const char *fmt, va_list ap)
 {
