@@ -28,6 +28,11 @@ const struct cli_command cli_commands[] = {
 	    cmd_tonight},
 	{"init", "create a station database from a site directory",
 	    cmd_init},
+	{"station", "show or change the stored station", cmd_station},
+	{"target", "the lunar targets: add, list, set, retire", cmd_target},
+	{"blackout", "spans without ranging: add, list, remove", cmd_blackout},
+	{"np", "normal points: import CRD files, count them", cmd_np},
+	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
 	{"log", "the observation log: add, list, import, export attempts",
 	    cmd_log},
 	{NULL, NULL, NULL}

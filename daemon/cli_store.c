@@ -31,6 +31,19 @@ cli_store_open(struct cli_store *c, const char *db, int flags)
 }
 
 int
+cli_store_fail(enum errcode rc, const char *fmt, ...)
+{
+	va_list ap;
+
+	fputs("moonrange: error: ", stderr);
+	va_start(ap, fmt);
+	vfprintf(stderr, fmt, ap);
+	va_end(ap);
+	fputc('\n', stderr);
+	return cli_status_of(rc);
+}
+
+int
 cli_store_load(struct cli_store *c)
 {
 	char err[512];
@@ -480,9 +493,7 @@ cli_store_import_station(struct cli_store *c, const char *file,
 		status = cli_usage_error("%s: the station file has errors; "
 		    "nothing imported", file);
 	} else if ((rc = store_station_put(c->s, &st, err, sizeof err))) {
-		status = cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s: %s", file, err) :
-		    cli_fail("%s: %s", file, err);
+		status = cli_store_fail(rc, "%s: %s", file, err);
 	}
 	mem_free(rep);
 	if (status == CLI_EXIT_OK)
@@ -530,8 +541,7 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 	memset(n, 0, sizeof *n);
 	if ((rc = cli_store_read_file(file, CLI_STORE_MAX_FILE, &buf, &len, err,
 	    sizeof err)))
-		return cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s", err) : cli_fail("%s", err);
+		return cli_store_fail(rc, "%s", err);
 	if ((rc = store_begin(c->s, err, sizeof err))) {
 		mem_free(buf);
 		return cli_fail("%s: %s", c->path, err);

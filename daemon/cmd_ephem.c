@@ -9,6 +9,8 @@
 #include <erfam.h>
 
 #include "cli.h"
+#include "cli_store.h"
+#include "derive.h"
 #include "geom.h"
 #include "render.h"
 
@@ -26,7 +28,7 @@ static void
 usage(FILE *f)
 {
 	fprintf(f,
-	    "usage: moonrange ephem [--station LAT,LON,HEIGHT_M]\n"
+	    "usage: moonrange ephem [--db FILE | --station LAT,LON,HEIGHT_M]\n"
 	    "                       [--target ID=LAT,LON[,HEIGHT_M]]...\n"
 	    "                       [--at UTC] [--dut1 SECONDS] [--json]\n"
 	    "\n"
@@ -34,13 +36,18 @@ usage(FILE *f)
 	    "librations, and for each target its pointing, range, round-trip\n"
 	    "time and the Sun's elevation at the reflector.\n"
 	    "\n"
+	    "  --db FILE            use the stored station, its active targets\n"
+	    "                       and its Earth orientation table (DUT1 and\n"
+	    "                       polar motion interpolated when the table\n"
+	    "                       covers the instant)\n"
 	    "  --station LAT,LON,H  geodetic latitude, east longitude (deg) and\n"
 	    "                       WGS84 height (m); default: a demo station\n"
 	    "  --target ID=LAT,LON[,H]  selenographic latitude, east longitude\n"
 	    "                       (deg) and height above 1737.4 km (m);\n"
 	    "                       repeat for several targets (at most %d)\n"
 	    "  --at UTC             instant, ISO 8601 with Z (default: now)\n"
-	    "  --dut1 SECONDS       UT1-UTC (default 0), |DUT1| <= 0.9\n"
+	    "  --dut1 SECONDS       UT1-UTC, |DUT1| <= 0.9 (default: from the\n"
+	    "                       table, else 0; dut1_source says which)\n"
 	    "  --json               machine-readable output (see README)\n"
 	    "  --help               this text\n", EPHEM_MAX_TARGETS);
 }
@@ -98,10 +105,57 @@ parse_target(const char *arg, char *idbuf, size_t idlen,
 	return CLI_EXIT_OK;
 }
 
+/*
+ * From the database: the station (position and weather), its active
+ * targets after any given with --target, and unless eop is NULL (DUT1
+ * given) the Earth orientation at the instant with its source and the
+ * table's last day.
+ */
+static int
+load_db(struct cli_store *cs, const char *db, double utc1, double utc2,
+    char ids[][33], struct geom_target *targets, size_t *ntargets,
+    struct geom_site *site, struct geom_eop *eop, const char **source,
+    char *eop_last)
+{
+	double last;
+	int st;
+
+	if ((st = cli_store_open(cs, db, STORE_OPEN_READONLY)) ||
+	    (st = cli_store_load(cs)))
+		return st;
+	if (derive_site(&cs->station, site))
+		return cli_fail("%s: the stored station is out of range", db);
+	for (size_t i = 0; i < cs->ntargets; i++) {
+		const struct site_target *t = &cs->targets[i];
+
+		if (!t->active)
+			continue;
+		if (*ntargets == EPHEM_MAX_TARGETS)
+			return cli_usage_error("%s: more than %d targets", db,
+			    EPHEM_MAX_TARGETS);
+		snprintf(ids[*ntargets], 33, "%s", t->id);
+		if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &targets[*ntargets]))
+			return cli_fail("%s: target %s is out of range", db,
+			    t->id);
+		(*ntargets)++;
+	}
+	if (cs->neop > 0) {
+		last = cs->eop[cs->neop - 1].mjd;
+		(void)tscale_format_utc(2400000.5, last, 0, eop_last, 40);
+		eop_last[10] = '\0';	/* the day */
+	}
+	if (eop != NULL)
+		*source = eop_source_name(cli_store_eop_at(cs,
+		    (utc1 - 2400000.5) + utc2, eop));
+	return CLI_EXIT_OK;
+}
+
 int
 cmd_ephem(int argc, char **argv)
 {
 	static const struct option opts[] = {
+		{"db", required_argument, NULL, 'D'},
 		{"station", required_argument, NULL, 's'},
 		{"target", required_argument, NULL, 't'},
 		{"at", required_argument, NULL, 'a'},
@@ -117,8 +171,10 @@ cmd_ephem(int argc, char **argv)
 	double lat = DEMO_LAT, lon = DEMO_LON, h = DEMO_HEIGHT;
 	double utc1 = 0, utc2 = 0, dut1 = 0.0;
 	int have_at = 0, json = 0, demo = 1, c, st;
-	const char *dut1_source = "none";
-	char err[200];
+	const char *dut1_source = "none", *db = NULL;
+	char err[200], eop_last[40];
+	struct cli_store cs;
+	int have_dut1 = 0;
 	struct geom_site site;
 	struct geom_eop eop = {0.0, 0.0, 0.0};
 	struct geom_instant g;
@@ -130,6 +186,9 @@ cmd_ephem(int argc, char **argv)
 	opterr = 0;
 	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
 		switch (c) {
+		case 'D':
+			db = optarg;
+			break;
 		case 's':
 			if (cli_parse_station(optarg, &lat, &lon, &h, err,
 			    sizeof err))
@@ -160,6 +219,7 @@ cmd_ephem(int argc, char **argv)
 				return cli_usage_error("--dut1: '%s' is not a "
 				    "number of seconds in -0.9..0.9", optarg);
 			dut1_source = "option";
+			have_dut1 = 1;
 			break;
 		case 'j':
 			json = 1;
@@ -178,13 +238,30 @@ cmd_ephem(int argc, char **argv)
 		    argv[optind]);
 	if (!have_at)
 		cli_now(&utc1, &utc2);
+	if (db != NULL && !demo)
+		return cli_usage_error("--db and --station exclude each other");
 
-	if (geom_site_init(&site, lat * ERFA_DD2R, lon * ERFA_DD2R, h, NULL))
+	memset(&cs, 0, sizeof cs);
+	eop_last[0] = '\0';
+	if (db != NULL) {
+		st = load_db(&cs, db, utc1, utc2, ids, targets, &ntargets, &site,
+		    have_dut1 ? NULL : &eop, &dut1_source, eop_last);
+		if (st != CLI_EXIT_OK) {
+			cli_store_close(&cs);
+			return st;
+		}
+		demo = 0;
+	} else if (geom_site_init(&site, lat * ERFA_DD2R, lon * ERFA_DD2R, h,
+	    NULL)) {
 		return cli_usage_error("--station: position out of range");
-	eop.dut1 = dut1;
+	}
+	if (have_dut1 || db == NULL)
+		eop.dut1 = dut1;
 	rc = geom_instant_at(&site, &eop, utc1, utc2, GEOM_PREC_FULL, &g);
-	if (rc != ERRCODE_OK)
+	if (rc != ERRCODE_OK) {
+		cli_store_close(&cs);
 		return cli_usage_error("--at: %s", errcode_str(rc));
+	}
 	for (size_t i = 0; i < ntargets; i++) {
 		rows[i].id = ids[i];
 		geom_target_view(&g, &targets[i], &rows[i].view);
@@ -194,15 +271,16 @@ cmd_ephem(int argc, char **argv)
 	rep.targets = rows;
 	rep.ntargets = ntargets;
 	rep.dut1_source = dut1_source;
-	rep.station_name = demo ? DEMO_NAME : NULL;
-	rep.time_zone = demo ? DEMO_TZ : NULL;
+	rep.station_name = demo ? DEMO_NAME : db != NULL ? cs.station.name :
+	    NULL;
+	rep.time_zone = demo ? DEMO_TZ : db != NULL ? cs.station.time_zone :
+	    NULL;
+	rep.eop_last_utc = eop_last[0] ? eop_last : NULL;
 	mbuf_init(&out);
 	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep, &out);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		return cli_fail("%s", errcode_str(rc));
-	}
-	st = cli_emit(&out);
+	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
+	    cli_emit(&out);
 	mbuf_free(&out);
+	cli_store_close(&cs);
 	return st;
 }

@@ -115,8 +115,7 @@ read_site_file(const char *path, char **buf, size_t *len)
 	    sizeof err);
 	if (rc == ERRCODE_OK)
 		return CLI_EXIT_OK;
-	return cli_status_of(rc) == CLI_EXIT_USAGE ?
-	    cli_usage_error("%s", err) : cli_fail("%s", err);
+	return cli_store_fail(rc, "%s", err);
 }
 
 /*

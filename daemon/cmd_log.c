@@ -226,9 +226,7 @@ log_add(const struct log_args *a)
 		goto out;
 	if ((rc = cli_store_derive_attempt(&c, &at, err, sizeof err)) ||
 	    (rc = store_attempt_add(c.s, &at, err, sizeof err))) {
-		st = cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("log add: %s", err) :
-		    cli_fail("log add: %s", err);
+		st = cli_store_fail(rc, "log add: %s", err);
 		goto out;
 	}
 	mbuf_init(&out);

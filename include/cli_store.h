@@ -32,6 +32,11 @@ struct cli_store {
 /* Open --db (NULL: error "--db FILE is required"); flags of store_open. */
 int cli_store_open(struct cli_store *c, const char *db, int flags);
 
+/* Print "moonrange: error: ..." and return the exit status of rc
+   (CLI_EXIT_USAGE for bad input, CLI_EXIT_FAIL otherwise). */
+int cli_store_fail(enum errcode rc, const char *fmt, ...)
+    MEM_PRINTFLIKE(2, 3);
+
 /* Load station, targets and EOP table (the station must exist). */
 int cli_store_load(struct cli_store *c);
 
