@@ -67,6 +67,15 @@ write_file(const char *path, struct mbuf *b)
 	return CLI_EXIT_OK;
 }
 
+/* A sentence "name: ..." from the shared query code, as "--option: ...". */
+static int
+option_error(const char *err)
+{
+	if (strncmp(err, "min_count", 9) == 0)
+		return cli_usage_error("--min-count%s", err + 9);
+	return cli_usage_error("--%s", err);
+}
+
 int
 cmd_coverage(int argc, char **argv)
 {
@@ -120,7 +129,7 @@ cmd_coverage(int argc, char **argv)
 		if (i < sizeof params / sizeof params[0]) {
 			if (covquery_param_set(&p, params[i].name, optarg, err,
 			    sizeof err) != ERRCODE_OK)
-				return cli_usage_error("--%s", err);
+				return option_error(err);
 			continue;
 		}
 		switch (c) {
@@ -157,7 +166,11 @@ cmd_coverage(int argc, char **argv)
 	if (nfmt > 1)
 		return cli_usage_error("--json, --csv and --svg: give one");
 	if (coverage_spec_check(&p.spec, err, sizeof err) != ERRCODE_OK)
-		return cli_usage_error("--%s", err);
+		return option_error(err);
+	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')
+		cli_warn("--axis hour_angle: the hour angle is this station's; "
+		    "points of other stations are binned by it too (give "
+		    "--station CODE)");
 	cli_now(&u1, &u2);
 	p.now_mjd = (u1 - 2400000.5) + u2;
 
@@ -173,8 +186,8 @@ cmd_coverage(int argc, char **argv)
 	if (rc != ERRCODE_OK) {
 		mbuf_free(&out);
 		if (cli_status_of(rc) == CLI_EXIT_USAGE)
-			return cli_usage_error("--%s", err[0] ? err :
-			    errcode_str(rc));
+			return err[0] ? option_error(err) :
+			    cli_usage_error("coverage: %s", errcode_str(rc));
 		return cli_fail("coverage: %s", err[0] ? err : errcode_str(rc));
 	}
 	st = svg_path != NULL ? write_file(svg_path, &out) : cli_emit(&out);

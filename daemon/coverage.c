@@ -8,6 +8,7 @@
 #include <erfam.h>
 
 #include "coverage.h"
+#include "score.h"
 #include "tscale.h"
 
 #define MJD0 2400000.5
@@ -224,6 +225,11 @@ coverage_metrics_of(const long *n, int nbins, long min_count,
 		if (i < COVERAGE_EMPTIEST || n[order[i]] == lo)
 			m->emptiest[m->nemptiest++] = order[i];
 
+	for (int i = 0; i < nbins; i++)
+		if (n[i] >= min_count && 2.0 * (double)n[i] * nbins <
+		    (double)total)
+			m->sparse[m->nsparse++] = i;
+
 	/* Longest run of gap bins, around the circle: start the walk just
 	   after a filled bin so that no run is split at the 0/360 seam. */
 	for (int i = 0; i < nbins; i++)
@@ -281,20 +287,11 @@ coverage_metrics_of(const long *n, int nbins, long min_count,
 
 /* --- angles --- */
 
+/* One binning rule for the audit and the planner's coverage weight. */
 int
 coverage_bin_of(double deg, int nbins)
 {
-	double a = fmod(deg, 360.0);
-	int b;
-
-	if (a < 0.0)
-		a += 360.0;
-	b = (int)floor(a / (360.0 / nbins));
-	if (b >= nbins)
-		b = nbins - 1;
-	if (b < 0)
-		b = 0;
-	return b;
+	return score_bin_of(deg, nbins);
 }
 
 enum errcode
@@ -497,12 +494,30 @@ coverage_compute(const struct coverage_spec *spec,
 
 /* --- fill dates --- */
 
-/* Keep the COVERAGE_FILL_PER_BIN earliest dates of a bin. */
+/*
+ * Keep the COVERAGE_FILL_PER_BIN earliest opportunities of a bin.  Dates
+ * whose parts in the bin overlap are one opportunity (the same night,
+ * another target): the one with the higher score stays.
+ */
 static void
 fill_insert(struct coverage_fill_bin *fb, const struct coverage_fill_date *d)
 {
-	size_t i = fb->ndates;
+	size_t i;
 
+	for (i = 0; i < fb->ndates; i++) {
+		struct coverage_fill_date *o = &fb->dates[i];
+
+		if (d->in_bin_start_mjd <= o->in_bin_end_mjd &&
+		    o->in_bin_start_mjd <= d->in_bin_end_mjd) {
+			if (!(d->score > o->score))
+				return;
+			/* Replace it, then restore the order by start. */
+			memmove(o, o + 1, (fb->ndates - i - 1) * sizeof *o);
+			fb->ndates--;
+			break;
+		}
+	}
+	i = fb->ndates;
 	if (i == COVERAGE_FILL_PER_BIN) {
 		if (fb->dates[i - 1].in_bin_start_mjd <= d->in_bin_start_mjd)
 			return;

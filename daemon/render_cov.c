@@ -6,6 +6,7 @@
 
 #include <jansson.h>
 
+#include "render.h"
 #include "render_cov.h"
 #include "tscale.h"
 
@@ -59,19 +60,23 @@ static json_t *
 jcounts(const struct coverage_counts *c, int nbins, long min_count)
 {
 	json_t *o = json_object(), *arr = json_array(), *m = json_object();
-	json_t *em = json_array();
+	json_t *em = json_array(), *sp = json_array();
 	const struct coverage_metrics *x = &c->m;
-	int bad = o == NULL || arr == NULL || m == NULL || em == NULL;
+	int bad = o == NULL || arr == NULL || m == NULL || em == NULL ||
+	    sp == NULL;
 
 	for (int b = 0; b < nbins && !bad; b++)
 		bad |= json_array_append_new(arr, json_integer(c->n[b]));
 	for (int i = 0; i < x->nemptiest && !bad; i++)
 		bad |= json_array_append_new(em, json_integer(x->emptiest[i]));
+	for (int i = 0; i < x->nsparse && !bad; i++)
+		bad |= json_array_append_new(sp, json_integer(x->sparse[i]));
 	if (bad) {
 		json_decref(o);
 		json_decref(arr);
 		json_decref(m);
 		json_decref(em);
+		json_decref(sp);
 		return NULL;
 	}
 	bad |= json_object_set_new(o, "counts", arr);
@@ -85,6 +90,7 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	    json_integer(nbins - x->filled_bins));
 	bad |= json_object_set_new(m, "min_count", json_integer(min_count));
 	bad |= json_object_set_new(m, "emptiest_bins", em);
+	bad |= json_object_set_new(m, "sparse_bins", sp);
 	bad |= json_object_set_new(m, "longest_empty_arc_deg",
 	    jnum(x->longest_gap_deg, 6));
 	bad |= json_object_set_new(m, "longest_empty_arc_from_deg",
@@ -311,19 +317,26 @@ static void
 text_metrics_line(struct mbuf *out, const char *name,
     const struct coverage_result *r, const struct coverage_metrics *m)
 {
-	mbuf_printf(out, "  %-10s %7ld  %3d/%-3d  ", name, m->total,
-	    m->filled_bins, r->spec.nbins);
+	char arc[32], filled[16];
+
+	snprintf(filled, sizeof filled, "%d/%d", m->filled_bins,
+	    r->spec.nbins);
 	if (isnan(m->longest_gap_from_deg))
-		mbuf_printf(out, "%7s %-6s", "0", "");
+		snprintf(arc, sizeof arc, "none");
 	else
-		mbuf_printf(out, "%7.1f @%-5.0f", m->longest_gap_deg,
+		snprintf(arc, sizeof arc, "%.0f from %.0f", m->longest_gap_deg,
 		    m->longest_gap_from_deg);
+	mbuf_printf(out, "  %-10.10s %7ld %7s  %-12s", name, m->total, filled,
+	    arc);
 	if (m->total == 0)
-		mbuf_printf(out, "  %7s  %8s  %-8s\n", "-", "-", "-");
+		mbuf_printf(out, " %7s %9s %9s\n", "-", "-", "-");
 	else
-		mbuf_printf(out, "  %7.3f  %8.2f  %-8.3g%s\n", m->entropy,
-		    m->chi2, m->chi2_p, m->chi2_reliable ? "" : " (few)");
+		mbuf_printf(out, " %7.3f %9.2f %9.3g%s\n", m->entropy, m->chi2,
+		    m->chi2_p, m->chi2_reliable ? "" : " (few)");
 }
+
+#define TEXT_METRICS_HEAD \
+	"             points  filled  empty arc    entropy    chi-sq         p\n"
 
 enum errcode
 render_cov_text(const struct render_cov *c, struct mbuf *out)
@@ -333,7 +346,7 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_metrics *pm = &r->pooled.m;
 	size_t ncol = r->ntargets < TEXT_TARGET_COLS ? r->ntargets :
 	    TEXT_TARGET_COLS;
-	char a[40], b[40];
+	char a[40], b[40], local[48];
 
 	mbuf_printf(out, "Coverage of %s by %s%s%s\n",
 	    s->source == COVERAGE_SOURCE_ATTEMPTS ? "attempts" :
@@ -347,8 +360,10 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	    isnan(s->since_mjd) ? "-" : a, isnan(s->until_mjd) ? "-" : b,
 	    s->target[0] ? s->target : "all",
 	    s->station[0] ? s->station : "all");
-	mbuf_printf(out, "Records: %ld used, %ld skipped\n\n", r->records,
-	    r->skipped);
+	mbuf_printf(out, "Records: %ld counted (%ld points), %ld skipped\n"
+	    "gap = fewer than %ld; sparse = fewer than half the mean of "
+	    "%.1f\n\n", r->records, r->pooled.m.total, r->skipped,
+	    s->min_count, (double)r->pooled.m.total / s->nbins);
 
 	mbuf_printf(out, "  bin   from    to  %-15s %7s", "mark", "pooled");
 	for (size_t i = 0; i < ncol; i++)
@@ -360,8 +375,12 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 		    r->pooled.n[k]);
 		for (size_t i = 0; i < ncol; i++)
 			mbuf_printf(out, " %7ld", r->targets[i].c.n[k]);
-		mbuf_puts(out, r->pooled.n[k] < s->min_count ? "  gap\n" :
-		    "\n");
+		if (r->pooled.n[k] < s->min_count)
+			mbuf_puts(out, "  gap");
+		for (int i = 0; i < pm->nsparse; i++)
+			if (pm->sparse[i] == k)
+				mbuf_puts(out, "  sparse");
+		mbuf_puts(out, "\n");
 	}
 	if (r->ntargets > ncol)
 		mbuf_printf(out, "  (%zu more targets: see --json or --csv)\n",
@@ -371,14 +390,12 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	for (int i = 0; i < pm->nemptiest; i++)
 		mbuf_printf(out, " %d (%ld)", pm->emptiest[i],
 		    r->pooled.n[pm->emptiest[i]]);
-	mbuf_puts(out, "\n\nMetrics      points  filled   empty arc"
-	    "  entropy  chi-sq    p\n");
+	mbuf_puts(out, "\n\nMetrics (empty arc in degrees)\n" TEXT_METRICS_HEAD);
 	text_metrics_line(out, "pooled", r, pm);
 	for (size_t i = 0; i < r->ntargets; i++)
 		text_metrics_line(out, r->targets[i].id, r, &r->targets[i].c.m);
 	if (r->nyears > 0) {
-		mbuf_puts(out, "\nBy year      points  filled   empty arc"
-		    "  entropy  chi-sq    p\n");
+		mbuf_puts(out, "\nBy year\n" TEXT_METRICS_HEAD);
 		for (size_t i = 0; i < r->nyears; i++) {
 			snprintf(a, sizeof a, "%d", r->years[i].year);
 			text_metrics_line(out, a, r, &r->years[i].c.m);
@@ -410,8 +427,14 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 
 				utc_of_mjd(d->in_bin_start_mjd, a, sizeof a);
 				utc_of_mjd(d->in_bin_end_mjd, b, sizeof b);
-				mbuf_printf(out, "    %s to %s  %-12s score "
-				    "%.4g\n", a, b + 11, d->target, d->score);
+				mbuf_printf(out, "    %s to %s  %-10s score %.4g",
+				    a, strncmp(a, b, 11) == 0 ? b + 11 : b,
+				    d->target, d->score);
+				if (c->time_zone != NULL && render_local_time(
+				    MJD0, d->in_bin_start_mjd, c->time_zone, local,
+				    sizeof local) == ERRCODE_OK)
+					mbuf_printf(out, "  (%s)", local);
+				mbuf_puts(out, "\n");
 			}
 		}
 	}
@@ -454,14 +477,15 @@ render_cov_xml_escape(struct mbuf *out, const char *s)
 }
 
 /* Geometry of the chart, in SVG user units. */
-#define SVG_W 760.0
-#define SVG_H 600.0
-#define SVG_CX 290.0
-#define SVG_CY 300.0
+#define SVG_W 900.0
+#define SVG_H 650.0
+#define SVG_CX 360.0
+#define SVG_CY 332.0
 #define SVG_R0 62.0		/* inner radius: the hub */
-#define SVG_R1 222.0		/* bar length at the largest count */
+#define SVG_R1 205.0		/* bar length at the largest count */
 #define SVG_GAP_R 16.0		/* visible depth of an empty bin */
 #define SVG_STYLES 6
+#define SVG_MAX_LINES 16	/* targets drawn; the rest are counted */
 
 /* Stroke dashes, markers and inks of target lines: dash and marker alone
    tell the targets apart; the ink helps where colour is seen. */
@@ -482,10 +506,14 @@ polar(double deg, double rad, double *x, double *y)
 	*y = SVG_CY - rad * cos(a);
 }
 
+/* Radius of a bar of count n: the sector's area (from the hub) grows in
+   proportion to the count, so that small bins stay visible and the eye
+   compares areas fairly. */
 static double
-bar_radius(long n, long max)
+bar_radius(double n, double max)
 {
-	return SVG_R0 + (SVG_R1 - SVG_R0) * (double)n / (double)max;
+	return sqrt(SVG_R0 * SVG_R0 + (SVG_R1 * SVG_R1 - SVG_R0 * SVG_R0) *
+	    n / max);
 }
 
 /* Marker shape k centred at x, y. */
@@ -570,8 +598,9 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 	render_cov_xml_escape(out, buf);
 	render_cov_xml_escape(out, coverage_axis_label(r->spec.axis));
 	mbuf_printf(out, ", %.4g degrees each, drawn clockwise from the top "
-	    "(0 degrees, %s). Bar length is proportional to the pooled "
-	    "count; bins below %ld are hatched. Pooled counts by bin:",
+	    "(0 degrees, %s). Bar area is proportional to the pooled "
+	    "count; bins below %ld are hatched, bins under half the mean "
+	    "dotted. Pooled counts by bin:",
 	    r->bin_width_deg, coverage_axis_mark(r->spec.axis, 0),
 	    r->spec.min_count);
 	for (int b = 0; b < r->spec.nbins; b++)
@@ -582,7 +611,8 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 	for (size_t i = 0; i < r->ntargets; i++) {
 		mbuf_puts(out, " Target ");
 		render_cov_xml_escape(out, r->targets[i].id);
-		mbuf_printf(out, " (line style %zu):", i % SVG_STYLES + 1);
+		mbuf_printf(out, " (line style %zu, scaled to its own fullest "
+		    "bin):", i % SVG_STYLES + 1);
 		for (int b = 0; b < r->spec.nbins; b++)
 			mbuf_printf(out, "%s %ld", b ? "," : "",
 			    r->targets[i].c.n[b]);
@@ -595,7 +625,7 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 static void
 svg_legend(struct mbuf *out, const struct coverage_result *r)
 {
-	double x = 560.0, y = 96.0;
+	double x = 712.0, y = 96.0;
 	char buf[80];
 
 	svg_text(out, x, y, "start", "class=\"head\"", "Legend");
@@ -610,7 +640,17 @@ svg_legend(struct mbuf *out, const struct coverage_result *r)
 	    x, y - 10.0);
 	snprintf(buf, sizeof buf, "below %ld (gap)", r->spec.min_count);
 	svg_text(out, x + 26.0, y, "start", "", buf);
-	for (size_t i = 0; i < r->ntargets; i++) {
+	y += 22.0;
+	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"18\" height=\"12\" "
+	    "fill=\"url(#cov-sparse)\" stroke=\"#3c4a52\" stroke-width=\"0.8\"/>\n",
+	    x, y - 10.0);
+	svg_text(out, x + 26.0, y, "start", "", "under half the mean");
+	svg_text(out, x + 26.0, y + 14.0, "start", "", "(sparse)");
+	y += 14.0;
+	size_t nlines = r->ntargets < SVG_MAX_LINES ? r->ntargets :
+	    SVG_MAX_LINES;
+
+	for (size_t i = 0; i < nlines; i++) {
 		int k = (int)(i % SVG_STYLES);
 
 		y += 22.0;
@@ -624,6 +664,18 @@ svg_legend(struct mbuf *out, const struct coverage_result *r)
 		snprintf(buf, sizeof buf, "%s (%ld)", r->targets[i].id,
 		    r->targets[i].c.m.total);
 		svg_text(out, x + 30.0, y, "start", "", buf);
+	}
+	if (r->ntargets > nlines) {
+		y += 22.0;
+		snprintf(buf, sizeof buf, "%zu more targets not drawn",
+		    r->ntargets - nlines);
+		svg_text(out, x - 4.0, y, "start", "", buf);
+	}
+	if (r->ntargets > 0) {
+		svg_text(out, x - 4.0, y + 24.0, "start", "", "Each line is one");
+		svg_text(out, x - 4.0, y + 38.0, "start", "",
+		    "target, scaled to its");
+		svg_text(out, x - 4.0, y + 52.0, "start", "", "own fullest bin.");
 	}
 }
 
@@ -662,6 +714,11 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	    "patternUnits=\"userSpaceOnUse\" patternTransform=\"rotate(45)\">"
 	    "<rect width=\"6\" height=\"6\" fill=\"#fbf1e4\"/>"
 	    "<path d=\"M0 0V6\" stroke=\"#b4532a\" stroke-width=\"2.2\"/>"
+	    "</pattern>"
+	    "<pattern id=\"cov-sparse\" width=\"5\" height=\"5\" "
+	    "patternUnits=\"userSpaceOnUse\">"
+	    "<rect width=\"5\" height=\"5\" fill=\"#eef0e2\"/>"
+	    "<circle cx=\"2.5\" cy=\"2.5\" r=\"1.1\" fill=\"#7d6a2e\"/>"
 	    "</pattern></defs>\n"
 	    "<style>text{font-family:sans-serif;font-size:12px;fill:#24313a}"
 	    ".head{font-size:15px;font-weight:bold}.count{font-size:11px}"
@@ -669,8 +726,9 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	mbuf_printf(out, "<rect width=\"%.0f\" height=\"%.0f\" "
 	    "fill=\"#fdfcf8\"/>\n", SVG_W, SVG_H);
 	svg_text(out, 24.0, 30.0, "start", "class=\"head\"", buf);
-	snprintf(buf, sizeof buf, "%d bins of %.4g deg, %ld in all, "
-	    "largest bar %ld", s->nbins, r->bin_width_deg, m->total, max);
+	snprintf(buf, sizeof buf, "%d bins of %.4g deg, clockwise from the "
+	    "top; %ld in all, largest bar %ld", s->nbins, r->bin_width_deg,
+	    m->total, max);
 	svg_text(out, 24.0, 48.0, "start", "", buf);
 
 	/* Guide rings at quarters of the largest count. */
@@ -678,7 +736,7 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	    "stroke-width=\"0.6\">\n");
 	for (int q = 1; q <= 4; q++)
 		mbuf_printf(out, "<circle cx=\"%.0f\" cy=\"%.0f\" r=\"%.2f\"/>\n",
-		    SVG_CX, SVG_CY, SVG_R0 + (SVG_R1 - SVG_R0) * q / 4.0);
+		    SVG_CX, SVG_CY, bar_radius(q, 4.0));
 	for (int q = 0; q < 4; q++) {
 		double x0, y0, x1, y1;
 
@@ -693,12 +751,21 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	mbuf_puts(out, "<g class=\"bins\">\n");
 	for (int b = 0; b < s->nbins; b++) {
 		long n = r->pooled.n[b];
-		double rad = bar_radius(n, max);
+		double rad = bar_radius((double)n, (double)max);
 
+		int sparse = 0;
+
+		for (int i = 0; i < m->nsparse; i++)
+			sparse |= m->sparse[i] == b;
 		if (n < s->min_count) {
 			if (rad < SVG_R0 + SVG_GAP_R)
 				rad = SVG_R0 + SVG_GAP_R;
 			svg_sector(out, r, b, rad, "bin gap", "url(#cov-gap)");
+		} else if (sparse) {
+			if (rad < SVG_R0 + SVG_GAP_R)
+				rad = SVG_R0 + SVG_GAP_R;
+			svg_sector(out, r, b, rad, "bin sparse",
+			    "url(#cov-sparse)");
 		} else {
 			svg_sector(out, r, b, rad, "bin", "#c8d3c0");
 		}
@@ -719,10 +786,16 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	}
 	mbuf_puts(out, "</g>\n");
 
-	/* Per-target lines through the bin centres. */
-	for (size_t i = 0; i < r->ntargets; i++) {
+	/* Per-target lines through the bin centres, each scaled to its own
+	   fullest bin so that every target's shape over the cycle shows. */
+	for (size_t i = 0; i < r->ntargets && i < SVG_MAX_LINES; i++) {
+		const long *tn = r->targets[i].c.n;
 		int k = (int)(i % SVG_STYLES);
+		long tmax = 1;
 
+		for (int b = 0; b < s->nbins; b++)
+			if (tn[b] > tmax)
+				tmax = tn[b];
 		mbuf_puts(out, "<g class=\"target\" data-target=\"");
 		render_cov_xml_escape(out, r->targets[i].id);
 		mbuf_printf(out, "\"><path fill=\"none\" stroke=\"%s\" "
@@ -730,13 +803,13 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 		    svg_ink[k], svg_dash[k]);
 		for (int b = 0; b < s->nbins; b++) {
 			polar(edge(r, b) + 0.5 * r->bin_width_deg,
-			    bar_radius(r->targets[i].c.n[b], max), &x, &y);
+			    bar_radius((double)tn[b], (double)tmax), &x, &y);
 			mbuf_printf(out, "%s%.2f %.2f", b ? "L" : "M", x, y);
 		}
 		mbuf_puts(out, "Z\"/>");
 		for (int b = 0; b < s->nbins; b++) {
 			polar(edge(r, b) + 0.5 * r->bin_width_deg,
-			    bar_radius(r->targets[i].c.n[b], max), &x, &y);
+			    bar_radius((double)tn[b], (double)tmax), &x, &y);
 			svg_marker(out, (int)i, x, y, svg_ink[k]);
 		}
 		mbuf_puts(out, "</g>\n");

@@ -106,6 +106,10 @@ struct coverage_metrics {
 	int emptiest[COVERAGE_BINS_MAX]; /* bins by ascending count (ties by
 					   index): at least COVERAGE_EMPTIEST,
 					   and every bin tied at the minimum */
+	int nsparse;			/* entries in sparse[] */
+	int sparse[COVERAGE_BINS_MAX];	/* filled bins (>= min_count) holding
+					   fewer than half the mean count
+					   total/nbins, ascending */
 	double longest_gap_deg;		/* longest run of adjacent bins below
 					   min_count, around the circle */
 	double longest_gap_from_deg;	/* where that run starts; NaN if none */
@@ -261,7 +265,8 @@ struct coverage_fill {
 /*
  * For each bin of r below min_count (per r->spec.target when set, else
  * pooled), the earliest windows in [from, to) during which the axis angle
- * lies in that bin.
+ * lies in that bin.  Windows whose parts in the bin overlap (the same
+ * night for several targets) are one date: the best-scoring one is kept.
  *
  * Given:
  *   r        a coverage result (its spec gives axis, bins, target, site)

@@ -20,6 +20,8 @@ struct render_cov {
 	const struct coverage_fill *fill;
 	const char *fill_note;
 	const char *station_name;	/* for titles, may be NULL */
+	const char *time_zone;		/* IANA zone for local times in the
+					   text table, or NULL */
 };
 
 /* JSON: the field names are documented in README ("Coverage audit"). */

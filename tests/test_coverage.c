@@ -443,7 +443,7 @@ test_coverage_fill_dates_fall_in_their_bin(void **state)
 	struct coverage_result *r = calloc(1, sizeof *r);
 	struct coverage_fill *f = calloc(1, sizeof *f);
 	struct geom_phase_event ev[8];
-	struct coverage_window w[4];
+	struct coverage_window w[5];
 	struct tscale_instant t;
 	double full = 0, first = 0, deg;
 	size_t n;
@@ -488,9 +488,15 @@ test_coverage_fill_dates_fall_in_their_bin(void **state)
 	snprintf(w[3].target, sizeof w[3].target, "alpha");
 	w[3].start_mjd = full + 40.0;
 	w[3].end_mjd = full + 40.1;
-	assert_int_equal(coverage_fill_compute(r, w, 4, full - 20.0,
+	/* The same night as w[0] for another target, starting after full
+	   moon: it overlaps w[0] in bin 6 only, with a lower score there. */
+	snprintf(w[4].target, sizeof w[4].target, "gamma");
+	w[4].start_mjd = full + 1.0 / 24;
+	w[4].end_mjd = full + 3.0 / 24;
+	w[4].score = 5.0;
+	assert_int_equal(coverage_fill_compute(r, w, 5, full - 20.0,
 	    full + 20.0, f), ERRCODE_OK);
-	assert_int_equal(f->windows, 3);
+	assert_int_equal(f->windows, 4);
 	assert_int_equal(f->nbins, 2);
 	assert_int_equal(f->bins[0].bin, 5);
 	assert_int_equal(f->bins[1].bin, 6);
@@ -498,8 +504,10 @@ test_coverage_fill_dates_fall_in_their_bin(void **state)
 	assert_int_equal(f->bins[0].ndates, 1);
 	assert_string_equal(f->bins[0].dates[0].target, "alpha");
 	check_near(f->bins[0].dates[0].score, 7.5, 0.0, "", "score");
-	/* Bin 6: the second half, then the window two days later. */
+	/* Bin 6: the second half (alpha outscores gamma the same night),
+	   then the window two days later. */
 	assert_int_equal(f->bins[1].ndates, 2);
+	assert_string_equal(f->bins[1].dates[0].target, "alpha");
 	assert_string_equal(f->bins[1].dates[1].target, "beta");
 	/* The split falls at full moon, to the sampling step. */
 	check_near((f->bins[1].dates[0].in_bin_start_mjd - full) * 86400.0,
@@ -527,10 +535,20 @@ test_coverage_fill_dates_fall_in_their_bin(void **state)
 	memcpy(r->targets[0].id, "beta", 5);
 	r->targets[0].c = r->pooled;
 	r->ntargets = 1;
-	assert_int_equal(coverage_fill_compute(r, w, 4, full - 20.0,
+	assert_int_equal(coverage_fill_compute(r, w, 5, full - 20.0,
 	    full + 20.0, f), ERRCODE_OK);
 	assert_int_equal(f->bins[0].ndates, 0);
 	assert_int_equal(f->bins[1].ndates, 1);
+
+	/* A better score the same night replaces the date. */
+	r->spec.target[0] = '\0';
+	w[4].score = 9.5;
+	assert_int_equal(coverage_fill_compute(r, w, 5, full - 20.0,
+	    full + 20.0, f), ERRCODE_OK);
+	assert_int_equal(f->bins[1].ndates, 2);
+	assert_string_equal(f->bins[1].dates[0].target, "gamma");
+	check_near(f->bins[1].dates[0].score, 9.5, 0.0, "", "best score");
+	assert_string_equal(f->bins[0].dates[0].target, "alpha");
 	free(r);
 	free(f);
 }

@@ -11,6 +11,7 @@
 #include "covquery.h"
 #include "mem.h"
 #include "store.h"
+#include "tscale.h"
 
 /* An invented station and two invented targets. */
 static struct store *
@@ -216,7 +217,8 @@ test_covquery_allocation_failure(void **state)
 	for (int i = 0; i < 6; i++)
 		add_np(db, "north", "9901", 61406.0 + 3.1 * i);
 	covquery_params_init(&p);
-	p.horizon_days = 0;
+	p.horizon_days = 3;		/* the planner's allocations too */
+	p.now_mjd = 61440.0;
 	for (long n = 1; n < 5000 && !ok; n++) {
 		struct mbuf b;
 		enum errcode rc;
@@ -234,6 +236,81 @@ test_covquery_allocation_failure(void **state)
 	store_close(db);
 }
 
+/* The fill dates from the real window planner land in the bins below the
+   threshold, inside a window of the station, within the horizon. */
+static void
+test_covquery_fill_dates_from_the_planner(void **state)
+{
+	struct store *db = open_db();
+	struct covquery_params p;
+	json_t *root, *fill, *bins;
+	char err[256];
+	size_t ndates = 0;
+
+	(void)state;
+	/* Points only between first quarter and full (synodic 60..170 deg)
+	   in January 2027, so new moon and the waning half are gaps. */
+	for (double mjd = 61406.0; mjd < 61436.0; mjd += 0.25) {
+		double syn;
+
+		assert_int_equal(coverage_axis_value(COVERAGE_AXIS_SYNODIC, NULL,
+		    mjd, &syn), ERRCODE_OK);
+		if (syn > 60.0 && syn < 170.0)
+			add_np(db, "north", "9901", mjd);
+	}
+	covquery_params_init(&p);
+	assert_int_equal(covquery_param_set(&p, "horizon", "30", err,
+	    sizeof err), ERRCODE_OK);
+	p.now_mjd = 61440.0;		/* 2027-02-04T00:00Z, pinned */
+	root = run_json(db, &p);
+	fill = json_object_get(root, "fill");
+	assert_true(json_is_object(fill));
+	assert_true(json_integer_value(json_object_get(fill,
+	    "windows_examined")) > 10);
+	bins = json_object_get(fill, "bins");
+	assert_true(json_array_size(bins) >= 6);
+	for (size_t i = 0; i < json_array_size(bins); i++) {
+		json_t *b = json_array_get(bins, i), *d;
+		long bin = (long)json_integer_value(json_object_get(b, "bin"));
+		size_t k;
+
+		/* Only bins below the threshold (min_count 1: empty). */
+		assert_int_equal(json_integer_value(json_object_get(b, "count")),
+		    0);
+		json_array_foreach(json_object_get(b, "dates"), k, d) {
+			double u1, u2, mjd, deg, ws, we;
+
+			assert_int_equal(tscale_parse_utc(json_string_value(
+			    json_object_get(d, "in_bin_start_utc")), &u1, &u2,
+			    NULL, 0), ERRCODE_OK);
+			mjd = (u1 - 2400000.5) + u2;
+			assert_int_equal(coverage_axis_value(
+			    COVERAGE_AXIS_SYNODIC, NULL, mjd, &deg), ERRCODE_OK);
+			assert_int_equal(coverage_bin_of(deg, 12), bin);
+			assert_true(mjd >= 61440.0 && mjd < 61470.0);
+			assert_int_equal(tscale_parse_utc(json_string_value(
+			    json_object_get(d, "window_start_utc")), &u1, &u2,
+			    NULL, 0), ERRCODE_OK);
+			ws = (u1 - 2400000.5) + u2;
+			assert_int_equal(tscale_parse_utc(json_string_value(
+			    json_object_get(d, "window_end_utc")), &u1, &u2,
+			    NULL, 0), ERRCODE_OK);
+			we = (u1 - 2400000.5) + u2;
+			/* Inside the window (times printed to the second). */
+			assert_true(mjd >= ws - 1.0 / 86400 &&
+			    mjd <= we + 1.0 / 86400);
+			assert_true(json_real_value(json_object_get(d,
+			    "score")) >= 0.0);
+			ndates++;
+		}
+	}
+	/* A night-only station gets windows in most gap bins within 30
+	   days; bins next to new moon may have none (Sun too close). */
+	assert_true(ndates >= 6);
+	json_decref(root);
+	store_close(db);
+}
+
 int
 main(void)
 {
@@ -241,6 +318,7 @@ main(void)
 		cmocka_unit_test(test_covquery_filters_through_the_store),
 		cmocka_unit_test(test_covquery_bad_parameters),
 		cmocka_unit_test(test_covquery_allocation_failure),
+		cmocka_unit_test(test_covquery_fill_dates_from_the_planner),
 	};
 
 	mem_install();

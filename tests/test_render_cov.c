@@ -77,7 +77,7 @@ static void
 test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, "Test & <station>"};
+	struct render_cov c = {r, NULL, NULL, "Test & <station>", NULL};
 	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128], key[64];
 	struct mbuf b;
 	FILE *f;
@@ -134,7 +134,7 @@ test_render_cov_json_fields(void **state)
 {
 	struct coverage_result *r = sample_result();
 	struct coverage_fill fill;
-	struct render_cov c = {r, &fill, NULL, NULL};
+	struct render_cov c = {r, &fill, NULL, NULL, NULL};
 	json_t *root, *pooled, *m, *counts;
 	json_error_t jerr;
 	struct mbuf b;
@@ -191,7 +191,7 @@ static void
 test_render_cov_csv_rows(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, NULL};
+	struct render_cov c = {r, NULL, NULL, NULL, NULL};
 	struct mbuf b;
 
 	(void)state;
@@ -212,7 +212,8 @@ static void
 test_render_cov_text_table(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, "fill dates: none here", NULL};
+	struct render_cov c = {r, NULL, "fill dates: none here", NULL, NULL};
+	struct coverage_fill fill;
 	struct mbuf b;
 
 	(void)state;
@@ -223,6 +224,34 @@ test_render_cov_text_table(void **state)
 	assert_int_equal(count_of(b.data, "  gap\n"), 5);
 	assert_non_null(strstr(b.data, "fill dates: none here"));
 	mbuf_free(&b);
+
+	/* Fill dates with UTC and the station's local time; a span across
+	   midnight UTC keeps both dates. */
+	memset(&fill, 0, sizeof fill);
+	fill.from_mjd = 61440.0;
+	fill.to_mjd = 61500.0;
+	fill.nbins = 1;
+	fill.bins[0].bin = 6;
+	fill.bins[0].ndates = 2;
+	snprintf(fill.bins[0].dates[0].target, SITE_ID_LEN, "alpha");
+	fill.bins[0].dates[0].in_bin_start_mjd = 61450.25;
+	fill.bins[0].dates[0].in_bin_end_mjd = 61450.5;
+	fill.bins[0].dates[0].score = 2.5;
+	snprintf(fill.bins[0].dates[1].target, SITE_ID_LEN, "gamma");
+	fill.bins[0].dates[1].in_bin_start_mjd = 61451.875;
+	fill.bins[0].dates[1].in_bin_end_mjd = 61452.125;
+	fill.bins[0].dates[1].score = 1.0;
+	c.fill = &fill;
+	c.fill_note = NULL;
+	c.time_zone = "UTC";
+	mbuf_init(&b);
+	assert_int_equal(render_cov_text(&c, &b), ERRCODE_OK);
+	/* MJD 61450 = 2027-02-14 (61406 = 2027-01-01, + 44 days). */
+	assert_non_null(strstr(b.data, "    2027-02-14T06:00:00Z to "
+	    "12:00:00Z  alpha      score 2.5  (2027-02-14 06:00 UTC)\n"));
+	assert_non_null(strstr(b.data, "2027-02-15T21:00:00Z to "
+	    "2027-02-16T03:00:00Z  gamma"));
+	mbuf_free(&b);
 	free(r);
 }
 
@@ -232,7 +261,7 @@ static void
 test_render_cov_allocation_failure(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, "station"};
+	struct render_cov c = {r, NULL, NULL, "station", NULL};
 	enum errcode (*fn[4])(const struct render_cov *, struct mbuf *) = {
 		render_cov_json, render_cov_csv, render_cov_text, render_cov_svg
 	};
