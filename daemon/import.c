@@ -484,6 +484,49 @@ key_real(struct site_station *st, size_t k)
 	return NULL;
 }
 
+static const char *
+key_type_name(enum import_key_type t)
+{
+	switch (t) {
+	case IMPORT_KEY_TEXT:
+		return "text";
+	case IMPORT_KEY_CODE:
+		return "code";
+	case IMPORT_KEY_TZ:
+		return "time zone";
+	case IMPORT_KEY_REAL:
+		return "number";
+	}
+	return "text";
+}
+
+void
+import_station_keys_doc(struct mbuf *out)
+{
+	mbuf_puts(out, "| Key | Type and range | Default | Meaning |\n"
+	    "|---|---|---|---|\n");
+	for (size_t k = 0; k < NKEYS; k++) {
+		const struct import_key *key = &station_keys[k];
+
+		mbuf_printf(out, "| `[%s] %s` | %s", key->section, key->name,
+		    key_type_name(key->type));
+		if (key->type == IMPORT_KEY_REAL)
+			mbuf_printf(out, ", %g to %g", key->min, key->max);
+		else if (key->type == IMPORT_KEY_CODE)
+			mbuf_printf(out, ", 1-%.0f of A-Z a-z 0-9 _ -",
+			    key->max);
+		else
+			mbuf_printf(out, ", at most %.0f bytes", key->max);
+		if (key->required)
+			mbuf_puts(out, " | required");
+		else if (isnan(key->def))
+			mbuf_puts(out, " | derived");
+		else
+			mbuf_printf(out, " | %g", key->def);
+		mbuf_printf(out, " | %s |\n", key->help);
+	}
+}
+
 void
 import_station_defaults(struct site_station *st)
 {
@@ -496,9 +539,8 @@ import_station_defaults(struct site_station *st)
 	}
 }
 
-/* Derived defaults: weather from the height when not given. */
-static void
-station_finish(struct site_station *st)
+void
+import_station_finish(struct site_station *st)
 {
 	struct geom_weather wx;
 
@@ -547,6 +589,11 @@ key_set(struct site_station *st, size_t k, const char *raw, char *err,
 	size_t cap;
 	char *dst;
 
+	if (strlen(raw) >= sizeof v) {
+		snprintf(err, errlen, "value longer than %zu bytes",
+		    sizeof v - 1);
+		return ERRCODE_BAD_ARG;
+	}
 	trim(raw, v, sizeof v);
 	switch (key->type) {
 	case IMPORT_KEY_TEXT:
@@ -782,7 +829,7 @@ import_station_ini(const char *buf, size_t len, struct site_station *st,
 		    station_keys[k].section);
 		rep->bad++;
 	}
-	station_finish(st);
+	import_station_finish(st);
 	return rep_status(rep);
 }
 
@@ -798,7 +845,6 @@ struct csv {
 	size_t line;			/* current physical line */
 	size_t rec_line;		/* first line of the last record */
 	size_t nf;
-	size_t flen[IMPORT_CSV_MAX_FIELDS];
 	char *f[IMPORT_CSV_MAX_FIELDS];
 	char store[IMPORT_CSV_MAX_RECORD + IMPORT_CSV_MAX_FIELDS];
 	size_t used;
@@ -848,14 +894,12 @@ csv_begin_field(struct csv *c)
 	return 0;
 }
 
+/* Fields hold no NUL (check_text), so the terminator ends each one. */
 static int
 csv_end_field(struct csv *c)
 {
-	size_t start = (size_t)(c->f[c->nf] - c->store);
-
 	if (c->used >= sizeof c->store)
 		return -1;
-	c->flen[c->nf] = c->used - start;
 	c->store[c->used++] = '\0';
 	c->nf++;
 	return 0;
@@ -1123,14 +1167,12 @@ row_real(const struct csv *c, const struct csv_table *t, size_t j,
 
 	trim(raw, v, sizeof v);
 	if (v[0] == '\0') {
-		if (t->cols[j].required || isnan(dflt)) {
-			if (t->cols[j].required) {
-				rep_error(rep, c->rec_line, t->cols[j].name,
-				    "empty; a number is required");
-				return -1;
-			}
+		if (t->cols[j].required) {
+			rep_error(rep, c->rec_line, t->cols[j].name,
+			    "empty; a number is required");
+			return -1;
 		}
-		*out = dflt;
+		*out = dflt;	/* NaN for "not given" */
 		return 0;
 	}
 	if (strlen(raw) >= sizeof v || parse_real(v, out) != 0) {
@@ -1493,8 +1535,30 @@ crd_known_type(const char *t)
 	return 0;
 }
 
-/* UTC MJD of a calendar date and seconds of that day (a leap-second day
-   has 86401).  Returns -1 if ERFA refuses it. */
+/*
+ * UTC quasi-MJD of a CRD epoch.
+ *
+ * Given:
+ *   y,m,d   int     UTC calendar date (Gregorian)
+ *   sod     double  seconds of that UTC day, 0 <= sod < 86400, or up to
+ *                   86401 on a day that ends with a leap second
+ * Returned:
+ *   mjd     double  UTC quasi-JD - 2400000.5 (ERFA's convention: on a
+ *                   leap-second day the fraction runs over 86401 s)
+ * Returned (function value):
+ *   0, or -1 when the date or time does not exist (including 86400.x on
+ *   a day without a leap second)
+ * Notes:
+ *   CRD epochs are UTC seconds of day (the H2 record's time-scale field
+ *   names the UTC source; all are taken as UTC).  Precision: a double
+ *   MJD resolves ~1 us, far below what the planner and audit use,
+ *   though coarser than the CRD picosecond fields.
+ * References:
+ *   ILRS, Consolidated Laser Ranging Data Format (CRD) version 2,
+ *   record 11; ERFA eraDtf2d.
+ * Called:
+ *   eraDtf2d
+ */
 static int
 crd_mjd(int y, int m, int d, double sod, double *mjd)
 {
@@ -1859,7 +1923,7 @@ import_crd(const char *buf, size_t len, import_np_fn fn, void *ctx,
 	if (s.version == 0) {
 		rep_error(rep, 0, "", "not a CRD file: no H1 record");
 		rep->bad++;
-	} else if (!s.done) {
+	} else if (s.version > 0 && !s.done) {
 		rep_error(rep, it.line, "H9", "the file ends without the H9 "
 		    "end-of-file record (truncated?)");
 		rep->bad++;
@@ -2154,4 +2218,65 @@ import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 		rep->bad++;
 	}
 	return rep_status(rep);
+}
+
+enum import_eop_format
+import_eop_detect(const char *buf, size_t len)
+{
+	struct lines it;
+	const char *ln;
+	size_t n;
+	int term;
+
+	if (buf == NULL)
+		return IMPORT_EOP_UNKNOWN;
+	it.p = buf + bom_len(buf, len);
+	it.end = buf + len;
+	it.line = 0;
+	while (lines_next(&it, &ln, &n, &term)) {
+		size_t i = 0, d = 0;
+
+		if (blank(ln, n) || ln[0] == '#')
+			continue;
+		/* C04 opens with a text header; finals with data rows */
+		while (i < n && ln[i] == ' ')
+			i++;
+		if (i < n && !isdigit((unsigned char)ln[i]))
+			return IMPORT_EOP_C04;
+		/* a finals row: YYMMDD, a blank, the MJD as F8.2 in columns
+		   8-15; a C04 row: a four-digit year, the MJD as I7 in
+		   columns 13-19 */
+		if (n >= 15 && ln[6] == ' ' && ln[12] == '.')
+			return IMPORT_EOP_FINALS;
+		for (i = 0; i < n && i < 4 && isdigit((unsigned char)ln[i]);
+		    i++)
+			d++;
+		if (d == 4 && n >= 19 && isdigit((unsigned char)ln[18]))
+			return IMPORT_EOP_C04;
+		return IMPORT_EOP_UNKNOWN;
+	}
+	return IMPORT_EOP_UNKNOWN;
+}
+
+enum errcode
+import_eop(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	enum errcode rc;
+
+	import_report_init(rep);
+	if ((rc = check_text(buf, len, rep)) != ERRCODE_OK)
+		return rc;
+	switch (import_eop_detect(buf, len)) {
+	case IMPORT_EOP_FINALS:
+		return import_eop_finals(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_C04:
+		return import_eop_c04(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_UNKNOWN:
+		break;
+	}
+	rep_error(rep, 0, "", "neither the IERS finals2000A nor the EOP 14 "
+	    "C04 format");
+	rep->bad++;
+	return ERRCODE_UNSUPPORTED;
 }

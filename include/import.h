@@ -75,6 +75,13 @@ struct import_key {
 /* The table (static storage) and its length. */
 const struct import_key *import_station_keys(size_t *n);
 
+/*
+ * The key table as a Markdown table (key, type/range, default, help),
+ * appended to out; the README's station-file section is this text.
+ */
+struct mbuf;
+void import_station_keys_doc(struct mbuf *out);
+
 /* Fill *st with every default (text empty, derived values from the
    height; required numbers NaN). */
 void import_station_defaults(struct site_station *st);
@@ -82,13 +89,16 @@ void import_station_defaults(struct site_station *st);
 /*
  * Set one key from its text, validated as in the file: ERRCODE_NOT_FOUND
  * for an unknown section/name, ERRCODE_BAD_ARG for a bad value, each with
- * a sentence in errbuf (may be NULL).  Derived defaults are not redone:
- * call import_station_finish after changing height_m if pressure or
- * temperature should follow.
+ * a sentence in errbuf (may be NULL).  Derived defaults are not redone
+ * (see import_station_finish).
  */
 enum errcode import_station_set(struct site_station *st,
     const char *section, const char *name, const char *value,
     char *errbuf, size_t errlen);
+
+/* Replace NaN pressure and temperature by the standard atmosphere at
+   st->height_m (geom_weather_standard); import_station_ini calls it. */
+void import_station_finish(struct site_station *st);
 
 /*
  * Parse the station INI into *st (all keys validated, unknown keys are
@@ -154,9 +164,36 @@ enum errcode import_crd(const char *buf, size_t len, import_np_fn fn,
 typedef enum errcode (*import_eop_fn)(void *ctx, const struct site_eop_row *r,
     size_t line);
 
+/*
+ * finals2000A (also finals.data/.daily/.all): fixed columns as in the
+ * IERS ReadMe.finals2000A; the Bulletin A polar motion (columns 19-27,
+ * 38-46) and UT1-UTC (59-68) are used, Bulletin B ignored.  Rows with no
+ * Bulletin A values (dates beyond the predictions) are skipped and
+ * counted in rep->skipped.  Lines starting with '#' are comments (a
+ * moonrange extension, used by the demo file).  Each row's YYMMDD must
+ * agree with its MJD; MJDs must increase.
+ *
+ * EOP 14 C04 (eopc04_IAU2000.62-now): the text header is skipped; data
+ * rows give year, month, day (columns 1-12), MJD (13-19), x (20-30), y
+ * (31-41), UT1-UTC (42-53).
+ */
 enum errcode import_eop_finals(const char *buf, size_t len, import_eop_fn fn,
     void *ctx, struct import_report *rep);
 enum errcode import_eop_c04(const char *buf, size_t len, import_eop_fn fn,
+    void *ctx, struct import_report *rep);
+
+enum import_eop_format {
+	IMPORT_EOP_UNKNOWN = 0,
+	IMPORT_EOP_FINALS,
+	IMPORT_EOP_C04
+};
+
+/* Guess the format from the first non-comment lines (no parse). */
+enum import_eop_format import_eop_detect(const char *buf, size_t len);
+
+/* Detect and parse; ERRCODE_UNSUPPORTED (one error in rep) when the
+   buffer is neither format. */
+enum errcode import_eop(const char *buf, size_t len, import_eop_fn fn,
     void *ctx, struct import_report *rep);
 
 #endif

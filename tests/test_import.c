@@ -386,6 +386,169 @@ test_import_not_text(void **state)
 	}
 }
 
+/* Every parser behind one signature, for the tables below. */
+static enum errcode
+run_ini(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_station st;
+
+	return import_station_ini(b, n, &st, rep);
+}
+
+static enum errcode
+run_targets(const char *b, size_t n, struct import_report *rep)
+{
+	struct targets_seen ts = { 0 };
+
+	return import_targets_csv(b, n, on_target, &ts, rep);
+}
+
+static enum errcode
+run_attempts(const char *b, size_t n, struct import_report *rep)
+{
+	static struct site_attempt store[MAXREC];
+	struct attempts_seen s;
+
+	memset(&s, 0, sizeof s);
+	s.a = store;
+	return import_attempts_csv(b, n, on_attempt, &s, rep);
+}
+
+static enum errcode
+run_crd(const char *b, size_t n, struct import_report *rep)
+{
+	static struct nps_seen ns;
+
+	memset(&ns, 0, sizeof ns);
+	return import_crd(b, n, on_np, &ns, rep);
+}
+
+static enum errcode
+run_finals(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_eop_row rows[4];
+	struct eop_seen es = { 0, 4, rows };
+
+	return import_eop_finals(b, n, on_eop, &es, rep);
+}
+
+static enum errcode
+run_c04(const char *b, size_t n, struct import_report *rep)
+{
+	struct site_eop_row rows[4];
+	struct eop_seen es = { 0, 4, rows };
+
+	return import_eop_c04(b, n, on_eop, &es, rep);
+}
+
+static const struct {
+	const char *name;
+	enum errcode (*run)(const char *, size_t, struct import_report *);
+	const char *good;	/* a small good file */
+} parsers[] = {
+	{ "ini", run_ini, INI_REQUIRED },
+	{ "targets", run_targets, "id,name,lat_deg,lon_deg\nA,Alpha,1,2\n" },
+	{ "attempts", run_attempts, IMPORT_ATTEMPTS_COLUMNS "\n"
+	    "A,2026-03-01T04:00:00Z,2026-03-01T04:10:00Z,1,1,0,ranged,,,\n" },
+	{ "crd", run_crd, "H1 CRD 1 2026 3 2 1\nH2 TSTP 9998 1 1 7\n"
+	    "H3 x na na na 0 2\nH4 1 2026 3 1 4 0 0 2026 3 1 5 0 0 0 1 0 0 1 "
+	    "0 2 0\n11 14500.0 2.5 std1 2 120.0 25 51.0 na na na 1.0 0\n"
+	    "H8\nH9\n" },
+	{ "finals", run_finals, "2412 1 60645.00 I  0.196498 0.000090  "
+	    "0.492936 0.000090  I 0.0907574 0.0000120 -0.1848 0.0100\n" },
+	{ "c04", run_c04, "2016  12  31  57753   0.081284   0.263013  "
+	    "-0.4077492   0.0009173\n" },
+};
+
+/* Each parser: its good file passes; with a NUL byte or a byte that is
+   not UTF-8 put into its second line, ERRCODE_IO names that line; with
+   CRLF line ends and a byte-order mark it passes too. */
+static void
+test_import_text_rules(void **state)
+{
+	(void)state;
+	for (size_t i = 0; i < sizeof parsers / sizeof parsers[0]; i++) {
+		char buf[1024], crlf[1200];
+		struct import_report rep;
+		const char *nl;
+		size_t n = strlen(parsers[i].good), at, m = 0;
+
+		assert_true(n < sizeof buf);
+		if (parsers[i].run(parsers[i].good, n, &rep) != ERRCODE_OK) {
+			dump(&rep, parsers[i].name);
+			fail_msg("%s: good file refused", parsers[i].name);
+		}
+		/* second line, or the first when there is one */
+		nl = strchr(parsers[i].good, '\n');
+		at = (nl != NULL && (size_t)(nl - parsers[i].good) + 3 < n) ?
+		    (size_t)(nl - parsers[i].good) + 2 : 1;
+		memcpy(buf, parsers[i].good, n);
+		buf[at] = '\0';
+		assert_int_equal(parsers[i].run(buf, n, &rep), ERRCODE_IO);
+		expect_error(&rep, at == 1 ? 1 : 2, "", "NUL byte",
+		    parsers[i].name);
+		buf[at] = '\xff';
+		assert_int_equal(parsers[i].run(buf, n, &rep), ERRCODE_IO);
+		expect_error(&rep, at == 1 ? 1 : 2, "", "invalid UTF-8 byte "
+		    "0xFF", parsers[i].name);
+		/* BOM + CRLF */
+		memcpy(crlf, "\xef\xbb\xbf", 3);
+		m = 3;
+		for (size_t j = 0; j < n; j++) {
+			if (parsers[i].good[j] == '\n')
+				crlf[m++] = '\r';
+			crlf[m++] = parsers[i].good[j];
+		}
+		if (parsers[i].run(crlf, m, &rep) != ERRCODE_OK) {
+			dump(&rep, parsers[i].name);
+			fail_msg("%s: CRLF file refused", parsers[i].name);
+		}
+		/* an empty buffer is never good */
+		assert_int_not_equal(parsers[i].run("", 0, &rep), ERRCODE_OK);
+		assert_true(rep.nerrors >= 1);
+	}
+}
+
+/* A file cut short inside its last line: a per-line error for each. */
+static void
+test_import_truncated(void **state)
+{
+	static const struct {
+		size_t parser;		/* index in parsers[] */
+		const char *text;
+		size_t line;
+		const char *field, *part;
+	} cases[] = {
+		{ 0, INI_REQUIRED "[laser]\nfire_ra", 9, "", "not a [section]" },
+		{ 0, "[station]\nname = X\ncode = T\nlat_deg = 1\n"
+		    "lon_deg = 2\nheight_m = 3\ntime_zo", 7, "", "not a" },
+		{ 1, "id,name,lat_deg,lon_deg\nA,Alpha,1,2\nB,Be", 3, "",
+		    "row has 2 fields" },
+		{ 2, IMPORT_ATTEMPTS_COLUMNS "\nA,2026-03-01T04:00:00Z,20", 2,
+		    "", "row has 3 fields" },
+		{ 3, "H1 CRD 1 2026 3 2 1\nH2 TSTP 9998 1 1 7\nH3 x na na "
+		    "na 0 2\nH4 1 2026 3 1 4 0 0 2026 3 1 5 0 0 0 1 0 0 1 0 2 0"
+		    "\n11 14500.0 2.5 std1 2 120", 5, "11", "6 fields" },
+		{ 4, "2412 1 60645.00 I  0.196498 0.000090  0.492936 0.000090  "
+		    "I 0.09075", 1, "UT1-UTC", "truncated?" },
+		{ 5, "2016  12  31  57753   0.081284   0.263013  -0.40775", 1,
+		    "UT1-UTC", "truncated?" },
+	};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++) {
+		struct import_report rep;
+		char what[40];
+
+		snprintf(what, sizeof what, "truncated %s",
+		    parsers[cases[i].parser].name);
+		assert_int_equal(parsers[cases[i].parser].run(cases[i].text,
+		    strlen(cases[i].text), &rep), ERRCODE_BAD_ARG);
+		expect_error(&rep, cases[i].line, cases[i].field,
+		    cases[i].part, what);
+	}
+}
+
 /* ------------------------------------------------------------------ */
 /* CSV                                                                 */
 /* ------------------------------------------------------------------ */
@@ -671,6 +834,35 @@ test_import_error_format(void **state)
 	assert_string_equal(line, "log.csv: no such error");
 }
 
+/* Records beyond the reader's bounds are refused, and the rows after
+   them still read with their own line numbers. */
+static void
+test_import_csv_limits(void **state)
+{
+	static char text[20000];
+	struct attempts_seen s;
+	struct import_report rep;
+	size_t n;
+
+	(void)state;
+	n = (size_t)snprintf(text, sizeof text, "%s", AH);
+	for (int i = 0; i < 40; i++)
+		n += (size_t)snprintf(text + n, sizeof text - n, "x,");
+	n += (size_t)snprintf(text + n, sizeof text - n, "x\n");
+	n += (size_t)snprintf(text + n, sizeof text - n, "HERON,2026-03-01T04:"
+	    "00:00Z,2026-03-01T04:10:00Z,5,1,0,ranged,op,,");
+	memset(text + n, 'n', 9000);
+	n += 9000;
+	n += (size_t)snprintf(text + n, sizeof text - n, "\n%s", AROW);
+	assert_int_equal(parse_attempts(text, &s, &rep), ERRCODE_BAD_ARG);
+	expect_error(&rep, 2, "", "record longer than 8192 bytes or 32 "
+	    "fields", "41 fields");
+	expect_error(&rep, 3, "notes", "record longer than 8192", "9000 bytes");
+	assert_int_equal(rep.bad, 2);
+	assert_int_equal(s.n, 1);
+	assert_int_equal(s.line[0], 4);
+}
+
 /* The many-error case keeps IMPORT_MAX_ERRORS and counts them all. */
 static void
 test_import_error_cap(void **state)
@@ -705,9 +897,14 @@ test_import_attempts_sample(void **state)
 	double first = 1e9, last = -1e9;
 	char *buf = sample("attempts.csv", &len);
 	char *sbuf = sample("station.ini", &slen);
+	size_t tlen;
+	char *tbuf = sample("targets.csv", &tlen);
+	struct targets_seen ts = { 0 };
 	static struct site_attempt store[MAXREC];
 
 	(void)state;
+	assert_int_equal(import_targets_csv(tbuf, tlen, on_target, &ts, &rep),
+	    ERRCODE_OK);
 	assert_int_equal(import_station_ini(sbuf, slen, &st, &rep),
 	    ERRCODE_OK);
 	assert_int_equal(geom_site_init(&gs, st.lat_deg * ERFA_DD2R,
@@ -724,7 +921,13 @@ test_import_attempts_sample(void **state)
 		const struct site_attempt *a = &s.a[i];
 		struct geom_instant g;
 		double syn;
+		size_t k;
 
+		/* every attempt names a target of targets.csv */
+		for (k = 0; k < ts.n; k++)
+			if (strcmp(ts.t[k].id, a->target) == 0)
+				break;
+		assert_true(k < ts.n);
 		if (a->start_mjd < first)
 			first = a->start_mjd;
 		if (a->end_mjd > last)
@@ -758,6 +961,7 @@ test_import_attempts_sample(void **state)
 	assert_true(quarter > 3 * syzygy);
 	free(buf);
 	free(sbuf);
+	free(tbuf);
 }
 
 /* The parsers allocate nothing: a failing allocator changes nothing. */
@@ -1231,6 +1435,17 @@ test_import_c04_real(void **state)
 			eraDat(y, m, d, 0.0, &b);
 			if (b - a > 0.99 && b - a < 1.01)
 				erfa_steps++;
+			/* UT1-TAI is smooth: it changes by the excess length
+			   of day, at most 4.4 ms a day (the file's own LOD
+			   column peaks at 4.355 ms, MJD 41419), so every step
+			   of UT1-UTC, the 0.05 s and 0.1 s ones before 1972
+			   too, is one of ERFA's */
+			if (!(fabs((rows[i].dut1_s - b) -
+			    (rows[i - 1].dut1_s - a)) < 0.005)) {
+				print_error("UT1-TAI steps at MJD %.0f\n",
+				    rows[i].mjd);
+				fail();
+			}
 			if (rows[i].dut1_s - rows[i - 1].dut1_s > 0.5) {
 				/* each +1 s jump falls where ERFA's
 				   leap-second table steps by 1 s */
@@ -1294,6 +1509,77 @@ test_import_c04_bad(void **state)
 	}
 }
 
+static void
+test_import_eop_detect(void **state)
+{
+	static const char finals[] = "# demo\n"
+	    "2412 1 60645.00 I  0.196498 0.000090  0.492936 0.000090  I "
+	    "0.0907574 0.0000120 -0.1848 0.0100\n";
+	static const char c04_row[] = "1962   1   1  37665  -0.012700   "
+	    "0.213000   0.0326338\n";
+	static const char c04_head[] = "  EOP (IERS) 14 C04 TIME SERIES\n";
+	static const char other[] = "mjd,dut1\n";
+	struct site_eop_row rows[2];
+	struct eop_seen es = { 0, 2, rows };
+	struct import_report rep;
+
+	(void)state;
+	assert_int_equal(import_eop_detect(finals, strlen(finals)),
+	    IMPORT_EOP_FINALS);
+	assert_int_equal(import_eop_detect(c04_row, strlen(c04_row)),
+	    IMPORT_EOP_C04);
+	assert_int_equal(import_eop_detect(c04_head, strlen(c04_head)),
+	    IMPORT_EOP_C04);
+	assert_int_equal(import_eop_detect("123\n", 4), IMPORT_EOP_UNKNOWN);
+	assert_int_equal(import_eop_detect("", 0), IMPORT_EOP_UNKNOWN);
+	assert_int_equal(import_eop(finals, strlen(finals), on_eop, &es,
+	    &rep), ERRCODE_OK);
+	assert_int_equal(es.n, 1);
+	assert_int_equal(import_eop(c04_row, strlen(c04_row), on_eop, &es,
+	    &rep), ERRCODE_OK);
+	assert_int_equal(es.n, 2);
+	assert_int_equal(import_eop(other, strlen(other), on_eop, &es, &rep),
+	    ERRCODE_BAD_ARG);	/* starts with a letter: read as C04 */
+	assert_int_equal(import_eop("12345\n", 6, on_eop, &es, &rep),
+	    ERRCODE_UNSUPPORTED);
+	expect_error(&rep, 0, "", "neither", "eop unknown");
+}
+
+/* The README's table of station keys is the key table's own text. */
+static void
+test_import_keys_in_readme(void **state)
+{
+	const char *src = getenv("MOONRANGE_SOURCE_DIR");
+	char path[1024];
+	struct mbuf doc;
+	size_t len, n;
+	char *readme;
+	const struct import_key *keys = import_station_keys(&n);
+
+	(void)state;
+	snprintf(path, sizeof path, "%s/README.md", src ? src : ".");
+	readme = slurp(path, &len);
+	assert_non_null(readme);
+	mbuf_init(&doc);
+	import_station_keys_doc(&doc);
+	assert_int_equal(mbuf_status(&doc), ERRCODE_OK);
+	if (strstr(readme, doc.data) == NULL) {
+		print_error("README.md lacks the station key table; paste the "
+		    "output of 'gen_sample_site keys .':\n%s", doc.data);
+		fail();
+	}
+	/* one row per key */
+	for (size_t k = 0; k < n; k++) {
+		char row[96];
+
+		snprintf(row, sizeof row, "| `[%s] %s` |", keys[k].section,
+		    keys[k].name);
+		assert_non_null(strstr(doc.data, row));
+	}
+	mbuf_free(&doc);
+	free(readme);
+}
+
 int
 main(void)
 {
@@ -1303,6 +1589,8 @@ main(void)
 		cmocka_unit_test(test_import_station_set),
 		cmocka_unit_test(test_import_station_bad),
 		cmocka_unit_test(test_import_not_text),
+		cmocka_unit_test(test_import_text_rules),
+		cmocka_unit_test(test_import_truncated),
 		cmocka_unit_test(test_import_targets_sample),
 		cmocka_unit_test(test_import_targets_columns),
 		cmocka_unit_test(test_import_targets_bad),
@@ -1312,6 +1600,7 @@ main(void)
 		cmocka_unit_test(test_import_attempts_callback_stops),
 		cmocka_unit_test(test_import_error_format),
 		cmocka_unit_test(test_import_error_cap),
+		cmocka_unit_test(test_import_csv_limits),
 		cmocka_unit_test(test_import_attempts_sample),
 		cmocka_unit_test(test_import_no_allocation),
 		cmocka_unit_test(test_import_crd_sample),
@@ -1323,6 +1612,8 @@ main(void)
 		cmocka_unit_test(test_import_finals_sample),
 		cmocka_unit_test(test_import_c04_real),
 		cmocka_unit_test(test_import_c04_bad),
+		cmocka_unit_test(test_import_eop_detect),
+		cmocka_unit_test(test_import_keys_in_readme),
 	};
 
 	return cmocka_run_group_tests_name("import", tests, NULL, NULL);

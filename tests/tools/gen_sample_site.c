@@ -11,11 +11,12 @@
 
 #include "geom.h"
 #include "import.h"
+#include "mem.h"
 #include "site.h"
 #include "tscale.h"
 
 /*
- * Usage: gen_sample_site attempts|crd|eop SITE_DIR > FILE
+ * Usage: gen_sample_site attempts|crd|eop|keys SITE_DIR > FILE
  *
  * Reads SITE_DIR/station.ini and SITE_DIR/targets.csv with the importers,
  * and writes one file to stdout.  Everything is computed with the
@@ -447,12 +448,23 @@ main(int argc, char **argv)
 	struct site s;
 
 	if (argc != 3) {
-		fprintf(stderr, "usage: gen_sample_site attempts|crd|eop "
+		fprintf(stderr, "usage: gen_sample_site attempts|crd|eop|keys "
 		    "SITE_DIR\n");
 		return 2;
 	}
 	if (strcmp(argv[1], "eop") == 0) {
 		gen_eop();
+		return 0;
+	}
+	if (strcmp(argv[1], "keys") == 0) {
+		struct mbuf doc;
+
+		mbuf_init(&doc);
+		import_station_keys_doc(&doc);
+		if (mbuf_status(&doc) != ERRCODE_OK)
+			return 1;
+		fputs(doc.data, stdout);
+		mbuf_free(&doc);
 		return 0;
 	}
 	load_site(argv[2], &s);
