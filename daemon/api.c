@@ -499,9 +499,11 @@ h_now(struct api_ctx *ctx, const struct api_request *req,
 		return;
 	}
 	src = site_eop_at(&ctx->site, (u1 - ERFA_DJM0) + u2, &eop);
+	/* The table's last day, as "ephem --db" reports it. */
 	if (ctx->site.neop == 0 || tscale_format_utc(ERFA_DJM0,
 	    ctx->site.eop[ctx->site.neop - 1].mjd, 0, last, sizeof last))
 		last[0] = '\0';
+	last[10] = '\0';
 	g = mem_alloc(sizeof *g);
 	rows = mem_calloc(ctx->site.ntargets + 1, sizeof *rows);
 	if (g == NULL || rows == NULL) {

@@ -25,13 +25,12 @@
 
 /*
  * The station and targets are the CLI's built-in demonstration station
- * (invented, cmd_ephem.c) and two invented targets, so that the bytes of
- * GET /api/v1/now?at=... can be compared with "moonrange ephem --at ...
- * --target ... --json" run as a separate process.
+ * (invented, cmd_ephem.c) and invented targets, stored in a real SQLite
+ * file; the CLI run as a separate process on the same file must print
+ * the same bytes as the API.
  */
 #define TOKEN "test-token-0123456789abcdef"
 #define AT "2027-03-14T05:30:00Z"
-#define CLI_TARGETS "--target ALPHA=12.5,-8.25 --target BRAVO=-21.75,14.5"
 
 static char dbdir[64], dbpath[128];
 static struct store *db;
@@ -123,6 +122,26 @@ setup(void **state)
 			fprintf(stderr, "target: %s\n", err);
 			return -1;
 		}
+	/* Two invented Earth-orientation days around AT (MJD 61478 is
+	   2027-03-14), so that now?at= interpolates from a table. */
+	{
+		static const struct site_eop_row eop[] = {
+			{61478.0, 0.0512, 0.1031, 0.3307},
+			{61479.0, 0.0498, 0.1042, 0.3299},
+		};
+
+		site.eop = mem_calloc(2, sizeof *site.eop);
+		if (site.eop == NULL)
+			return -1;
+		for (size_t i = 0; i < 2; i++) {
+			site.eop[i] = eop[i];
+			if (store_eop_put(db, &eop[i], err, sizeof err)) {
+				fprintf(stderr, "eop: %s\n", err);
+				return -1;
+			}
+		}
+		site.neop = 2;
+	}
 	api_set_site(ctx, &site);
 	api_set_store(ctx, db);
 	snprintf(dir, sizeof dir, "%s/web", src ? src : ".");
@@ -285,7 +304,8 @@ test_api_site_and_targets(void **state)
 	http_reply_free(&r);
 }
 
-/* GET /api/v1/now?at=T prints exactly what "moonrange ephem --json" does. */
+/* GET /api/v1/now?at=T prints what "moonrange ephem --db --at T --json"
+   prints for the database the daemon serves. */
 static void
 test_api_now_same_bytes_as_cli(void **state)
 {
@@ -294,8 +314,19 @@ test_api_now_same_bytes_as_cli(void **state)
 	int st;
 
 	(void)state;
+	char args[512];
+	json_t *j;
+
 	assert_int_equal(get("/api/v1/now?at=" AT, &r), 200);
-	cli = run_cli("ephem --at " AT " " CLI_TARGETS " --json", &st);
+	j = body_json(&r);
+	assert_string_equal(json_string_value(json_object_get(j,
+	    "dut1_source")), "table");
+	assert_string_equal(json_string_value(json_object_get(j,
+	    "eop_last_utc")), "2027-03-15");
+	json_decref(j);
+	snprintf(args, sizeof args, "ephem --db '%s' --at " AT " --json",
+	    dbpath);
+	cli = run_cli(args, &st);
 	assert_int_equal(st, 0);
 	assert_string_equal(r.body, cli);
 	free(cli);
