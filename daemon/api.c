@@ -959,10 +959,15 @@ attempt_from_json(json_t *o, struct site_attempt *a, struct api_response *resp)
 	    member_text(json_object_get(o, "outcome"), "outcome", outcome,
 	    sizeof outcome, 1, resp) ||
 	    member_text(json_object_get(o, "operator"), "operator",
-	    a->operator_name, sizeof a->operator_name, 0, resp) ||
+	    a->operator_name, sizeof a->operator_name, 1, resp) ||
 	    member_text(json_object_get(o, "notes"), "notes", a->notes,
 	    sizeof a->notes, 0, resp))
 		return -1;
+	if (a->operator_name[0] == '\0') {
+		api_error(resp, ERRCODE_BAD_ARG, "operator",
+		    "operator: required, 1 to 95 bytes");
+		return -1;
+	}
 	if ((k = site_outcome_parse(outcome)) < 0) {
 		api_error(resp, ERRCODE_BAD_ARG, "outcome", "outcome: one of "
 		    "ranged, no_returns, weather, technical, safety, other");
@@ -992,6 +997,41 @@ attempt_from_json(json_t *o, struct site_attempt *a, struct api_response *resp)
 		a->seeing_arcsec = s;
 	}
 	return 0;
+}
+
+/*
+ * Parse the body twice and keep it only if both parses agree.  jansson
+ * does not always report an allocation failure inside its lexer: it may
+ * call it a syntax error, or drop a character of a string.  Parsing is
+ * deterministic, so two equal results (or two identical syntax errors)
+ * are the text's; anything else is ERRCODE_NOMEM.  *out is NULL with
+ * *err set for a body that is not JSON.
+ */
+static enum errcode
+parse_body(const struct api_request *req, json_t **out, json_error_t *err)
+{
+	const char *text = req->body ? req->body : "";
+	json_error_t e2;
+	json_t *a, *b;
+	enum errcode rc = ERRCODE_OK;
+
+	a = json_loadb(text, req->body_len, JSON_REJECT_DUPLICATES, err);
+	b = json_loadb(text, req->body_len, JSON_REJECT_DUPLICATES, &e2);
+	if (a != NULL && b != NULL) {
+		if (!json_equal(a, b))
+			rc = ERRCODE_NOMEM;
+	} else if (a != NULL || b != NULL || err->text[0] == '\0' ||
+	    json_error_code(err) == json_error_out_of_memory ||
+	    strcmp(err->text, e2.text) != 0 || err->position != e2.position) {
+		rc = ERRCODE_NOMEM;
+	}
+	json_decref(b);
+	if (rc != ERRCODE_OK) {
+		json_decref(a);
+		a = NULL;
+	}
+	*out = a;
+	return rc;
 }
 
 static void
@@ -1025,8 +1065,10 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 	}
 	if (!store_open_ok(ctx, resp) || !site_loaded(ctx, resp))
 		return;
-	body = json_loadb(req->body ? req->body : "", req->body_len,
-	    JSON_REJECT_DUPLICATES, &jerr);
+	if (parse_body(req, &body, &jerr) != ERRCODE_OK) {
+		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
+		return;
+	}
 	if (body == NULL) {
 		snprintf(msg, sizeof msg, "the body is not valid JSON: %s "
 		    "(line %d, column %d)", jerr.text, jerr.line, jerr.column);

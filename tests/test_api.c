@@ -32,6 +32,8 @@
 #define TOKEN "test-token-0123456789abcdef"
 #define AT "2027-03-14T05:30:00Z"
 
+static size_t attempts_in_db(void);
+
 static char dbdir[64], dbpath[128];
 static struct store *db;
 static struct api_ctx *ctx;
@@ -507,6 +509,97 @@ test_api_alloc_failure(void **state)
 	}
 }
 
+/* A POST with every allocation in turn failing: 201 once, then 409 for
+   the same start, or a clean 500; never a crash, a leak or a second row. */
+static void
+test_api_post_alloc_failure(void **state)
+{
+	static const char body[] = "{\"target\":\"BRAVO\",\"start_utc\":"
+	    "\"2027-04-01T02:00:00Z\",\"end_utc\":\"2027-04-01T02:10:00Z\","
+	    "\"shots\":100,\"returns\":1,\"normal_points\":0,"
+	    "\"outcome\":\"ranged\",\"operator\":\"op-alloc\"}";
+	struct api_request req;
+	struct api_response resp;
+	size_t before = attempts_in_db();
+	long total;
+	int created = 0;
+
+	(void)state;
+	memset(&req, 0, sizeof req);
+	req.method = "POST";
+	req.path = "/api/v1/attempts";
+	req.authorization = "Bearer " TOKEN;
+	req.content_type = "application/json";
+	req.body = body;
+	req.body_len = strlen(body);
+	assert_int_equal(tscale_parse_utc(AT, &req.now1, &req.now2, NULL, 0),
+	    ERRCODE_OK);
+	mem_fail_after(0);
+	api_handle(ctx, &req, &resp);
+	total = mem_fail_after(0);
+	if (resp.status != 201)
+		fail_msg("%u: %s", resp.status, resp.body.data);
+	api_response_free(&resp);
+	for (long n = 1; n <= total; n++) {
+		mem_fail_after(n);
+		api_handle(ctx, &req, &resp);
+		mem_fail_after(0);
+		if (resp.status == 201)
+			created++;
+		else if (resp.status != 409 && resp.status != 500)
+			fail_msg("allocation %ld: status %u: %s", n, resp.status,
+			    resp.body.data ? resp.body.data : "");
+		api_response_free(&resp);
+	}
+	assert_int_equal(created, 0);
+	assert_int_equal(attempts_in_db(), before + 1);
+}
+
+/* A daemon without station, store or token: 503 for what needs the site
+   or the database, 401 for every write. */
+static void
+test_api_unconfigured(void **state)
+{
+	static const char *paths503[] = {"/api/v1/now", "/api/v1/site",
+	    "/api/v1/attempts", "/api/v1/windows", "/api/v1/coverage"};
+	struct api_config cfg;
+	struct api_ctx *bare;
+	struct api_request req;
+	struct api_response resp;
+
+	(void)state;
+	memset(&cfg, 0, sizeof cfg);
+	bare = api_new(&cfg);
+	assert_non_null(bare);
+	memset(&req, 0, sizeof req);
+	req.method = "GET";
+	assert_int_equal(tscale_parse_utc(AT, &req.now1, &req.now2, NULL, 0),
+	    ERRCODE_OK);
+	for (size_t i = 0; i < sizeof paths503 / sizeof paths503[0]; i++) {
+		req.path = paths503[i];
+		api_handle(bare, &req, &resp);
+		if (resp.status != 503)
+			fail_msg("%s: %u", paths503[i], resp.status);
+		assert_non_null(strstr(resp.body.data, "\"config\""));
+		api_response_free(&resp);
+	}
+	req.path = "/api/v1/status";
+	api_handle(bare, &req, &resp);
+	assert_int_equal(resp.status, 200);
+	api_response_free(&resp);
+	req.method = "POST";
+	req.path = "/api/v1/attempts";
+	req.authorization = "Bearer ";
+	req.content_type = "application/json";
+	req.body = "{}";
+	req.body_len = 2;
+	api_handle(bare, &req, &resp);
+	assert_int_equal(resp.status, 401);
+	assert_non_null(strstr(resp.body.data, "writes are disabled"));
+	api_response_free(&resp);
+	api_free(bare);
+}
+
 static void
 test_api_token_equal(void **state)
 {
@@ -573,11 +666,11 @@ test_api_attempts_refused(void **state)
 		{AUTH JSON_CT, "{\"target\":\"NOPE\",\"start_utc\":"
 		    "\"2027-03-14T05:30:00Z\",\"end_utc\":\"2027-03-14T05:45:00Z\","
 		    "\"shots\":1,\"returns\":0,\"normal_points\":0,"
-		    "\"outcome\":\"ranged\"}", 400, "bad_arg", "target"},
+		    "\"outcome\":\"ranged\",\"operator\":\"op\"}", 400, "bad_arg", "target"},
 		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
 		    "\"2027-03-14T05:30:00Z\",\"end_utc\":\"2027-03-14T05:00:00Z\","
 		    "\"shots\":1,\"returns\":0,\"normal_points\":0,"
-		    "\"outcome\":\"ranged\"}", 400, "bad_arg", "end_utc"},
+		    "\"outcome\":\"ranged\",\"operator\":\"op\"}", 400, "bad_arg", "end_utc"},
 		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
 		    "\"2027-02-30T05:30:00Z\",\"end_utc\":\"2027-03-14T05:00:00Z\","
 		    "\"shots\":1,\"returns\":0,\"normal_points\":0,"
@@ -589,7 +682,18 @@ test_api_attempts_refused(void **state)
 		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
 		    "\"2027-03-14T05:30:00Z\",\"end_utc\":\"2027-03-14T05:45:00Z\","
 		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
-		    "\"outcome\":\"great\"}", 400, "bad_arg", "outcome"},
+		    "\"outcome\":\"great\",\"operator\":\"op\"}", 400, "bad_arg",
+		    "outcome"},
+		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
+		    "\"2027-03-14T05:30:00Z\",\"end_utc\":\"2027-03-14T05:45:00Z\","
+		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
+		    "\"outcome\":\"ranged\",\"operator\":\"\"}", 400, "bad_arg",
+		    "operator"},
+		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
+		    "\"2027-03-14T05:30:00Z\",\"end_utc\":\"2027-03-14T05:45:00Z\","
+		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
+		    "\"outcome\":\"ranged\",\"operator\":\"op\","
+		    "\"seeing_arcsec\":-1}", 400, "bad_arg", "seeing_arcsec"},
 	};
 	size_t before = attempts_in_db();
 	struct http_reply r;
@@ -886,6 +990,8 @@ main(void)
 		cmocka_unit_test(test_api_windows_same_bytes_as_cli),
 		cmocka_unit_test(test_api_plan_cache),
 		cmocka_unit_test(test_api_alloc_failure),
+		cmocka_unit_test(test_api_post_alloc_failure),
+		cmocka_unit_test(test_api_unconfigured),
 		cmocka_unit_test(test_api_token_equal),
 	};
 
