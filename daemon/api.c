@@ -269,6 +269,27 @@ param_number(const struct api_request *req, const char *key, double min,
 	return 0;
 }
 
+/* A whole-number parameter in [min, max]; *out untouched when absent. */
+static int
+param_count(const struct api_request *req, const char *key, double min,
+    double max, size_t *out, struct api_response *resp)
+{
+	char msg[120];
+	double x;
+
+	if (param(req, key) == NULL)
+		return 0;
+	if (param_number(req, key, min, max, &x, resp))
+		return -1;
+	if (x != floor(x)) {
+		snprintf(msg, sizeof msg, "%s: must be a whole number", key);
+		api_error(resp, ERRCODE_BAD_ARG, key, msg);
+		return -1;
+	}
+	*out = (size_t)x;
+	return 0;
+}
+
 /*
  * The span of from/to/days, with the CLI's rules: from defaults to now,
  * to to from + days, days to defdays; to and days exclude each other.
@@ -632,7 +653,8 @@ windows_common(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp, int ics)
 {
 	struct tscale_instant a, b;
-	double f1, f2, t1, t2, limit = 0;
+	double f1, f2, t1, t2;
+	size_t limit = 0;
 	char err[300];
 	enum errcode rc;
 
@@ -650,16 +672,11 @@ windows_common(struct api_ctx *ctx, const struct api_request *req,
 	if (param_span(req, WINDOWS_DAYS_DEFAULT, WINDOWS_DAYS_MAX, &f1, &f2,
 	    &t1, &t2, &a, &b, resp))
 		return;
-	if (param(req, "limit") != NULL && (param_number(req, "limit", 1,
-	    PLAN_MAX_WINDOWS, &limit, resp) || limit != floor(limit))) {
-		if (limit != floor(limit))
-			api_error(resp, ERRCODE_BAD_ARG, "limit",
-			    "limit: must be a whole number");
+	if (param_count(req, "limit", 1, PLAN_MAX_WINDOWS, &limit, resp))
 		return;
-	}
 	err[0] = '\0';
 	rc = windows_render(ctx->db_path, (f1 - ERFA_DJM0) + f2,
-	    (t1 - ERFA_DJM0) + t2, param(req, "target"), (size_t)limit, ics,
+	    (t1 - ERFA_DJM0) + t2, param(req, "target"), limit, ics,
 	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
 	    sizeof err);
 	if (rc == ERRCODE_OK)
@@ -759,7 +776,8 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 {
 	struct site_attempt *rows = NULL;
 	struct store_query q;
-	double limit = ATTEMPTS_LIMIT_DEFAULT, u1, u2;
+	double u1, u2;
+	size_t limit = ATTEMPTS_LIMIT_DEFAULT;
 	char err[300];
 	size_t n = 0;
 	enum errcode rc;
@@ -772,16 +790,10 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 			return;
 		q.since_mjd = (u1 - ERFA_DJM0) + u2;
 	}
-	if (param(req, "limit") != NULL && param_number(req, "limit", 1,
-	    ATTEMPTS_LIMIT_MAX, &limit, resp))
+	if (param_count(req, "limit", 1, ATTEMPTS_LIMIT_MAX, &limit, resp))
 		return;
-	if (limit != floor(limit)) {
-		api_error(resp, ERRCODE_BAD_ARG, "limit",
-		    "limit: must be a whole number");
-		return;
-	}
 	q.target = param(req, "target");
-	q.limit = (size_t)limit;
+	q.limit = limit;
 	q.newest_first = 1;
 	rc = store_attempts_list(ctx->db, &q, &rows, &n, err, sizeof err);
 	if (rc != ERRCODE_OK) {
