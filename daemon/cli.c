@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cli.c: subcommand table, dispatch and shared option helpers. */
+#include <ctype.h>
 #include <errno.h>
 #include <math.h>
 #include <stdarg.h>
@@ -148,13 +149,30 @@ cli_status_of(enum errcode rc)
 	return CLI_EXIT_FAIL;
 }
 
+/* Plain decimal: [+-]digits[.digits] or [+-].digits, nothing else (no
+   spaces, hex, exponent, inf or nan, which strtod would take). */
+static int
+plain_decimal(const char *s)
+{
+	int digits = 0;
+
+	if (*s == '+' || *s == '-')
+		s++;
+	for (; isdigit((unsigned char)*s); s++)
+		digits++;
+	if (*s == '.')
+		for (s++; isdigit((unsigned char)*s); s++)
+			digits++;
+	return digits > 0 && *s == '\0';
+}
+
 enum errcode
 cli_parse_double(const char *s, double min, double max, double *out)
 {
 	char *end;
 	double v;
 
-	if (s == NULL || *s == '\0')
+	if (s == NULL || *s == '\0' || !plain_decimal(s))
 		return ERRCODE_BAD_ARG;
 	errno = 0;
 	v = strtod(s, &end);
@@ -185,17 +203,15 @@ enum errcode
 cli_parse_station(const char *s, double *lat, double *lon, double *h,
     char *errbuf, size_t errlen)
 {
-	char tmp[128], *f[4], *save = NULL, *p;
-	int n = 0;
+	char tmp[128], *f[3];
+	int n;
 
 	if (s == NULL || strlen(s) >= sizeof tmp) {
 		snprintf(errbuf, errlen, "--station: expected LAT,LON,HEIGHT_M");
 		return ERRCODE_BAD_ARG;
 	}
 	strcpy(tmp, s);
-	for (p = strtok_r(tmp, ",", &save); p && n < 4;
-	    p = strtok_r(NULL, ",", &save))
-		f[n++] = p;
+	n = cli_split_fields(tmp, f, 3);
 	if (n != 3) {
 		snprintf(errbuf, errlen,
 		    "--station '%s': expected LAT,LON,HEIGHT_M", s);
@@ -219,6 +235,28 @@ cli_parse_station(const char *s, double *lat, double *lon, double *h,
 		return ERRCODE_BAD_ARG;
 	}
 	return ERRCODE_OK;
+}
+
+int
+cli_split_fields(char *s, char **fields, int max)
+{
+	int n = 0;
+
+	for (;;) {
+		char *comma = strchr(s, ',');
+
+		if (n == max)
+			return -1;
+		fields[n++] = s;
+		if (comma == NULL)
+			break;
+		*comma = '\0';
+		s = comma + 1;
+	}
+	for (int i = 0; i < n; i++)
+		if (*fields[i] == '\0')
+			return -1;
+	return n;
 }
 
 void

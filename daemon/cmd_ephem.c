@@ -70,9 +70,9 @@ parse_target(const char *arg, char *idbuf, size_t idlen,
     struct geom_target *t)
 {
 	const char *eq = strchr(arg, '=');
-	char tmp[128], *f[4], *save = NULL, *p;
+	char tmp[128], *f[3];
 	double lat, lon, h = 0.0;
-	int n = 0;
+	int n;
 
 	if (eq == NULL || !valid_id(arg, (size_t)(eq - arg)) ||
 	    (size_t)(eq - arg) >= idlen)
@@ -84,9 +84,7 @@ parse_target(const char *arg, char *idbuf, size_t idlen,
 	if (strlen(eq + 1) >= sizeof tmp)
 		return cli_usage_error("--target '%s': too long", arg);
 	strcpy(tmp, eq + 1);
-	for (p = strtok_r(tmp, ",", &save); p && n < 4;
-	    p = strtok_r(NULL, ",", &save))
-		f[n++] = p;
+	n = cli_split_fields(tmp, f, 3);
 	if (n < 2 || n > 3)
 		return cli_usage_error("--target '%s': expected LAT,LON[,HEIGHT_M]"
 		    " after '='", arg);

@@ -165,7 +165,10 @@ geom_site_init(struct geom_site *site, double lat_rad, double lon_rad,
 		site->wx = *wx;
 	else
 		geom_weather_standard(height_m, &site->wx);
-	if (!isfinite(site->wx.pressure_hpa) || site->wx.pressure_hpa < 0 ||
+	if (!isfinite(site->wx.pressure_hpa) ||
+	    !isfinite(site->wx.temperature_c) ||
+	    !isfinite(site->wx.humidity) ||
+	    !isfinite(site->wx.wavelength_um) || site->wx.pressure_hpa < 0 ||
 	    site->wx.pressure_hpa > 1200 || site->wx.temperature_c < -80 ||
 	    site->wx.temperature_c > 60 || site->wx.humidity < 0 ||
 	    site->wx.humidity > 1 || site->wx.wavelength_um < 0.2 ||

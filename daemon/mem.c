@@ -186,8 +186,13 @@ mbuf_take(struct mbuf *b)
 		mbuf_free(b);
 		return NULL;
 	}
-	if (b->data == NULL && !reserve(b, 0))
-		return NULL;
+	if (b->data == NULL) {
+		if (!reserve(b, 0)) {
+			mbuf_free(b);
+			return NULL;
+		}
+		b->data[0] = '\0';	/* an empty buffer is the empty string */
+	}
 	p = b->data;
 	mbuf_init(b);
 	return p;

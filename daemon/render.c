@@ -89,20 +89,36 @@ set(json_t *obj, const char *key, json_t *val)
 	return json_object_set_new(obj, key, val);
 }
 
+/* json_dump_callback sink: append to the mbuf, fail once it has failed. */
+static int
+mbuf_sink(const char *buf, size_t size, void *data)
+{
+	struct mbuf *b = data;
+
+	mbuf_add(b, buf, size);
+	return mbuf_status(b) == ERRCODE_OK ? 0 : -1;
+}
+
+/*
+ * Serialise straight into the caller's mbuf.  Not json_dumps: with
+ * jansson 2.14, json_dumps was seen to return a document with an object
+ * key missing when an allocation inside it failed (test_render's fault
+ * loop), i.e. a wrong document reported as success.  The mbuf's failure
+ * flag is sticky, so any failed append here is seen at the end.
+ */
 static enum errcode
 dump(json_t *root, struct mbuf *out)
 {
-	char *s;
+	int rc;
 
 	if (root == NULL)
 		return ERRCODE_NOMEM;
-	s = json_dumps(root, JSON_INDENT(2) | JSON_REAL_PRECISION(15));
+	rc = json_dump_callback(root, mbuf_sink, out,
+	    JSON_INDENT(2) | JSON_REAL_PRECISION(15));
 	json_decref(root);
-	if (s == NULL)
+	if (rc != 0)
 		return ERRCODE_NOMEM;
-	mbuf_puts(out, s);
 	mbuf_puts(out, "\n");
-	mem_free(s);
 	return mbuf_status(out);
 }
 

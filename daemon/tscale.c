@@ -50,8 +50,11 @@ read_digits(const char *s, int n)
  *      laser-pointing schedule.
  *   2. ERFA's "dubious year" warning is not an error here; tscale_from_utc
  *      reports it.
+ *   3. An offset is applied to the clock reading (RFC 3339): local
+ *      "2017-01-01T00:30:00+01:00" is "2016-12-31T23:30:00Z" exactly,
+ *      even though that UTC day holds a leap second.
  * Called:
- *   eraDtf2d, eraCal2jd
+ *   eraDtf2d, eraCal2jd, eraJd2cal
  */
 enum errcode
 tscale_parse_utc(const char *text, double *utc1, double *utc2, char *errbuf,
@@ -138,9 +141,28 @@ tscale_parse_utc(const char *text, double *utc1, double *utc2, char *errbuf,
 	if (st == 2 || st == 3)
 		return bad_time(errbuf, errlen, text,
 		    "that UTC day holds no leap second");
-	if (off_sign != 0) {
-		/* Local time = UTC + offset; the offset is a plain duration. */
-		d2 -= off_sign * (off_h * 60.0 + off_m) / 1440.0;
+	if (off_sign != 0 && (off_h != 0 || off_m != 0)) {
+		/*
+		 * Local time = UTC + offset, as clock readings (RFC 3339
+		 * section 4.2): subtract the offset from the calendar fields,
+		 * not from the quasi-JD, whose day is 86401 s long when it
+		 * holds a leap second (a quasi-JD shift across such a day
+		 * would be off by up to a second).
+		 */
+		int mins = hour * 60 + minute - off_sign * (off_h * 60 + off_m);
+		int shift = mins < 0 ? -1 : (mins >= 1440 ? 1 : 0);
+		double djm0, djm, fd;
+
+		mins -= shift * 1440;
+		if (eraCal2jd(year, month, day, &djm0, &djm) != 0 ||
+		    eraJd2cal(djm0, djm + shift, &year, &month, &day, &fd) != 0)
+			return bad_time(errbuf, errlen, text,
+			    "impossible date or time");
+		st = eraDtf2d("UTC", year, month, day, mins / 60, mins % 60, sec,
+		    &d1, &d2);
+		if (st < 0)
+			return bad_time(errbuf, errlen, text,
+			    "impossible date or time");
 	}
 	*utc1 = d1;
 	*utc2 = d2;

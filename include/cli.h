@@ -39,7 +39,8 @@ void cli_warn(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
 /* Exit status for an error code: input errors give CLI_EXIT_USAGE. */
 int cli_status_of(enum errcode rc);
 
-/* A whole number or decimal in [min, max]; ERRCODE_BAD_ARG otherwise. */
+/* A whole number or plain decimal ([+-]d[.d], no spaces, exponent or
+   hex) in [min, max]; ERRCODE_BAD_ARG otherwise. */
 enum errcode cli_parse_double(const char *s, double min, double max,
     double *out);
 enum errcode cli_parse_long(const char *s, long min, long max, long *out);
@@ -50,6 +51,13 @@ enum errcode cli_parse_long(const char *s, long min, long max, long *out);
  */
 enum errcode cli_parse_station(const char *s, double *lat_deg,
     double *lon_deg, double *height_m, char *errbuf, size_t errlen);
+
+/*
+ * Split s in place at every ',' into at most max fields.  Returns the
+ * number of fields, or -1 when there are more than max or any is empty
+ * ("1,,2", "1,2,").
+ */
+int cli_split_fields(char *s, char **fields, int max);
 
 /* The current UTC as a quasi-JD (the one place the CLI reads the clock). */
 void cli_now(double *utc1, double *utc2);

@@ -1,0 +1,173 @@
+#!/usr/bin/env bash
+# SPDX-License-Identifier: BSD-3-Clause
+# cli_ephem.sh: black-box checks of "moonrange ephem" and "moonrange phases":
+# the JSON holds every documented field, bad input exits 2 with one line
+# naming the field, --help exits 0.
+# Exercises: daemon/cmd_ephem.c daemon/cmd_phases.c daemon/cli.c
+#            daemon/render.c
+set -u
+BIN=${1:-${MOONRANGE_BIN:?set MOONRANGE_BIN or pass the binary}}
+PY=/usr/bin/python3
+TMP=$(mktemp -d)
+trap 'rm -rf "$TMP"' EXIT
+fails=0
+
+fail() { echo "FAIL: $*"; fails=$((fails + 1)); }
+
+# --- ephem --json: every field of the contract -------------------------
+# The station and targets are invented test values.
+if "$BIN" ephem --station 41.25,-105.5,2200 --target T-A=12.5,-20 \
+    --target T-B=-3,31,-1500 --at 2027-03-01T04:00:00Z --dut1 0.12 \
+    --json >"$TMP/ephem.json" 2>"$TMP/err"; then
+	"$PY" - "$TMP/ephem.json" <<'PYEOF' || fail "ephem --json fields"
+import json, sys
+d = json.load(open(sys.argv[1]))
+need = {
+    "": ["utc", "tt_jd", "dut1_s", "station", "moon", "sun", "libration",
+         "subsolar", "targets"],
+    "station": ["lat_deg", "lon_deg", "height_m"],
+    "moon": ["az_deg", "el_deg", "el_apparent_deg", "ha_deg", "ra_deg",
+             "dec_deg", "range_km", "geocentric_range_km", "phase_angle_deg",
+             "illuminated_fraction", "elongation_deg", "synodic_angle_deg",
+             "mean_elongation_deg"],
+    "sun": ["az_deg", "el_deg", "separation_deg"],
+    "libration": ["geocentric", "topocentric"],
+    "libration.geocentric": ["lon_deg", "lat_deg"],
+    "libration.topocentric": ["lon_deg", "lat_deg"],
+    "subsolar": ["lon_deg", "lat_deg", "colongitude_deg"],
+}
+bad = []
+for path, keys in need.items():
+    o = d
+    for p in [p for p in path.split(".") if p]:
+        o = o[p]
+    for k in keys:
+        if k not in o:
+            bad.append(path + "." + k)
+        elif path and not isinstance(o[k], (int, float, dict)):
+            bad.append(path + "." + k + " (type)")
+assert d["utc"] == "2027-03-01T04:00:00Z", d["utc"]
+assert abs(d["dut1_s"] - 0.12) < 1e-9
+assert len(d["targets"]) == 2
+for t, tid in zip(d["targets"], ["T-A", "T-B"]):
+    if t.get("id") != tid:
+        bad.append("targets.id")
+    for k in ["az_deg", "el_deg", "range_km", "round_trip_s",
+              "offset_ra_arcsec", "offset_dec_arcsec", "sun_elevation_deg",
+              "earth_elevation_deg"]:
+        if not isinstance(t.get(k), (int, float)) or isinstance(t.get(k), bool):
+            bad.append("targets." + k)
+    if not isinstance(t.get("sunlit"), bool):
+        bad.append("targets.sunlit")
+    # round trip = 2 range / c (definition)
+    assert abs(t["round_trip_s"] - 2 * t["range_km"] * 1e3 / 299792458.0) < 1e-6
+for k in ["lon_deg"]:
+    for w in ["geocentric", "topocentric"]:
+        assert -180 <= d["libration"][w][k] <= 180
+if bad:
+    print("missing or mistyped:", bad)
+    sys.exit(1)
+PYEOF
+else
+	fail "ephem --json exited $?: $(cat "$TMP/err")"
+fi
+
+# --- phases --json ------------------------------------------------------
+if "$BIN" phases --from 2027-01-01T00:00:00Z --to 2027-04-01T00:00:00Z \
+    --json >"$TMP/phases.json" 2>"$TMP/err"; then
+	"$PY" - "$TMP/phases.json" <<'PYEOF' || fail "phases --json fields"
+import json, sys
+d = json.load(open(sys.argv[1]))
+ph = d["phases"]
+kinds = ["new", "first_quarter", "full", "last_quarter"]
+# 90 days hold 12 or 13 principal phases (29.53 d / 4 apart, common practice)
+assert 11 <= len(ph) <= 13, len(ph)
+for a, b in zip(ph, ph[1:]):
+    assert kinds.index(b["kind"]) == (kinds.index(a["kind"]) + 1) % 4
+for p in ph:
+    assert set(p) >= {"kind", "utc"}, p
+    assert p["kind"] in kinds
+    assert p["utc"].endswith("Z") and len(p["utc"]) == 20
+    assert "2027-01-01T00:00:00Z" <= p["utc"] < "2027-04-01T00:00:00Z"
+PYEOF
+else
+	fail "phases --json exited $?: $(cat "$TMP/err")"
+fi
+
+# --- bad input: exit 2, one line "moonrange: error: ..." naming the field
+# expect_bad FIELD ARGS...: the message must contain FIELD.
+expect_bad() {
+	local field=$1
+	shift
+	"$BIN" "$@" >"$TMP/out" 2>"$TMP/err"
+	local st=$?
+	local lines
+	lines=$(wc -l <"$TMP/err")
+	if [ "$st" -ne 2 ]; then
+		fail "'$*' exited $st, want 2"
+	elif [ "$lines" -ne 1 ]; then
+		fail "'$*' wrote $lines lines to stderr, want 1"
+	elif ! grep -q '^moonrange: error: ' "$TMP/err"; then
+		fail "'$*': message lacks 'moonrange: error: ': $(cat "$TMP/err")"
+	elif ! grep -qF -- "$field" "$TMP/err"; then
+		fail "'$*': message does not name $field: $(cat "$TMP/err")"
+	elif [ -s "$TMP/out" ]; then
+		fail "'$*' wrote to stdout on error"
+	fi
+}
+
+AT=--at=2027-03-01T04:00:00Z
+expect_bad --station ephem --station 91,0,0 $AT
+expect_bad --station ephem --station 10,20 $AT
+expect_bad --station ephem --station 10,abc,0 $AT
+expect_bad --station ephem --station 10,20,20000 $AT
+expect_bad --station ephem --station "" $AT
+expect_bad --station ephem --station 10,,20,30 $AT
+expect_bad --station ephem --station 10,20,30, $AT
+expect_bad --station ephem --station 10,20,30,40 $AT
+expect_bad --station ephem --station "10,20, 30" $AT
+expect_bad --station ephem --station 10,20,0x1e $AT
+expect_bad --station ephem --station 10,20,nan $AT
+expect_bad --target ephem --target T1=95,0 $AT
+expect_bad --target ephem --target T1=1,,2 $AT
+expect_bad --target ephem --target T1=1,2, $AT
+expect_bad --target ephem --target T1=0x10,2 $AT
+expect_bad --target ephem --target T1=0,400 $AT
+expect_bad --target ephem --target T1 $AT
+expect_bad --target ephem --target =1,2 $AT
+expect_bad --target ephem --target "bad id=1,2" $AT
+expect_bad --target ephem --target T1=1,2,3,4 $AT
+expect_bad --target ephem --target T1=1,2,99999 $AT
+expect_bad --target ephem --target T1=1,2 --target T1=3,4 $AT
+expect_bad --at ephem --at 2027-13-01T00:00:00Z
+expect_bad --at ephem --at 2027-03-01T04:00:00
+expect_bad --at ephem --at 2017-06-30T23:59:60Z
+expect_bad --at ephem --at yesterday
+expect_bad --dut1 ephem --dut1 1.5 $AT
+expect_bad --dut1 ephem --dut1 abc $AT
+expect_bad --dut1 ephem --dut1 1e-1 $AT
+expect_bad --dut1 ephem --dut1 "" $AT
+expect_bad --bogus ephem --bogus $AT
+expect_bad "unexpected argument" ephem $AT extra
+expect_bad --from phases --from 2027-02-30T00:00:00Z --to 2027-04-01T00:00:00Z
+expect_bad --to phases --from 2027-01-01T00:00:00Z --to 2027-01-01T25:00:00Z
+expect_bad --to phases --from 2027-02-01T00:00:00Z --to 2027-01-01T00:00:00Z
+expect_bad --days phases --from 2027-01-01T00:00:00Z --days -3
+expect_bad --bogus phases --bogus
+expect_bad "unknown command" nosuchcommand
+
+# --- --help on every subcommand ----------------------------------------
+for cmd in ephem phases; do
+	if ! "$BIN" "$cmd" --help >"$TMP/out" 2>"$TMP/err"; then
+		fail "$cmd --help exited non-zero"
+	elif ! grep -q "usage: moonrange $cmd" "$TMP/out"; then
+		fail "$cmd --help prints no usage"
+	fi
+done
+"$BIN" --help >/dev/null || fail "moonrange --help exited non-zero"
+
+if [ "$fails" -ne 0 ]; then
+	echo "$fails check(s) failed"
+	exit 1
+fi
+echo "cli_ephem: all checks passed"
