@@ -142,9 +142,12 @@ cli_store_read_file(const char *path, size_t max, char **out, size_t *len,
 	*out = NULL;
 	*len = 0;
 	if ((f = fopen(path, "rb")) == NULL) {
+		int e = errno;
+
 		snprintf(errbuf, errlen, "%s: cannot open: %s", path,
-		    strerror(errno));
-		return ERRCODE_IO;
+		    strerror(e));
+		return e == ENOENT || e == ENOTDIR || e == EISDIR ?
+		    ERRCODE_NOT_FOUND : ERRCODE_IO;
 	}
 	for (;;) {
 		if (cap - n < 65536) {

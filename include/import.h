@@ -15,8 +15,9 @@
  * Bad records are collected in the report with their line number and the
  * field at fault; parsing continues so that every bad line is reported at
  * once.  A callback returning non-OK stops the parse and that code is
- * returned.  The parsers never allocate beyond what they state and never
- * keep pointers into the buffer after returning.
+ * returned.  The parsers allocate nothing (records are built in bounded
+ * stack buffers) and keep no pointer into the buffer after returning;
+ * the buffer need not end with a NUL.
  *
  * Return value: ERRCODE_OK when every record was good; ERRCODE_BAD_ARG
  * when at least one record was bad (see the report); ERRCODE_IO for a
@@ -35,7 +36,8 @@ struct import_error {
 struct import_report {
 	size_t records;			/* good records handed to the callback */
 	size_t bad;			/* bad records (all, not only kept) */
-	size_t skipped;			/* records of types not used (CRD) */
+	size_t skipped;			/* CRD records of types not used;
+					   finals rows without values */
 	size_t nerrors;			/* errors kept, <= IMPORT_MAX_ERRORS */
 	struct import_error errors[IMPORT_MAX_ERRORS];
 };
@@ -144,7 +146,12 @@ enum errcode import_attempts_csv(const char *buf, size_t len,
 /*
  * One normal point with the header context it appeared under.  target_name
  * is the CRD target name (H3), to be mapped through the targets' alias;
- * station_code the station of the session (H2).  np->target is left "".
+ * station_code the station of the session (H2).  np->target is left "",
+ * the derived angles NaN.  The epoch is the H4 start date plus the
+ * record's seconds of day, the next day when they fall more than 60 s
+ * before the H4 start (a session across midnight); times of flight
+ * outside 2..3 s (not a lunar two-way time) are refused; a bin RMS of
+ * "na" is NaN.  A file must open with H1 and close with H9.
  */
 struct import_crd_np {
 	char target_name[SITE_NAME_LEN];

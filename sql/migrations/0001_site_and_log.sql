@@ -70,15 +70,19 @@ CREATE TABLE blackouts (
   id              INTEGER PRIMARY KEY,
   start_utc       TEXT NOT NULL CONSTRAINT start_utc
                     CHECK (start_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(start_utc) = substr(start_utc, 1, 10)
-                                OR substr(start_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(start_utc, 1, 10)))
+                                    = substr(start_utc, 1, 10), 0)
+                           AND (julianday(start_utc) IS NOT NULL
+                                OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
                     CHECK (julianday(start_utc) IS NULL
                            OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(end_utc) = substr(end_utc, 1, 10)
-                                OR substr(end_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(end_utc, 1, 10)))
+                                    = substr(end_utc, 1, 10), 0)
+                           AND (julianday(end_utc) IS NOT NULL
+                                OR substr(end_utc, 12, 8) = '23:59:60')),
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
                     CHECK (end_mjd > start_mjd
                            AND (julianday(end_utc) IS NULL
@@ -94,15 +98,19 @@ CREATE TABLE attempts (
   target_id       TEXT NOT NULL REFERENCES targets (id),
   start_utc       TEXT NOT NULL CONSTRAINT start_utc
                     CHECK (start_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(start_utc) = substr(start_utc, 1, 10)
-                                OR substr(start_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(start_utc, 1, 10)))
+                                    = substr(start_utc, 1, 10), 0)
+                           AND (julianday(start_utc) IS NOT NULL
+                                OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
                     CHECK (julianday(start_utc) IS NULL
                            OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
-                           AND (date(end_utc) = substr(end_utc, 1, 10)
-                                OR substr(end_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(end_utc, 1, 10)))
+                                    = substr(end_utc, 1, 10), 0)
+                           AND (julianday(end_utc) IS NOT NULL
+                                OR substr(end_utc, 12, 8) = '23:59:60')),
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
                     CHECK (end_mjd > start_mjd
                            AND (julianday(end_utc) IS NULL

@@ -9,8 +9,10 @@ CREATE TABLE normal_points (
                     CHECK (length(station_code) BETWEEN 1 AND 15),
   epoch_utc       TEXT NOT NULL CONSTRAINT epoch_utc
                     CHECK (epoch_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9][0-9][0-9][0-9]Z'
-                           AND (date(epoch_utc) = substr(epoch_utc, 1, 10)
-                                OR substr(epoch_utc, 18, 2) = '60')),
+                           AND coalesce(date(julianday(substr(epoch_utc, 1, 10)))
+                                    = substr(epoch_utc, 1, 10), 0)
+                           AND (julianday(epoch_utc) IS NOT NULL
+                                OR substr(epoch_utc, 12, 8) = '23:59:60')),
   epoch_mjd       REAL NOT NULL CONSTRAINT epoch_mjd
                     CHECK (julianday(epoch_utc) IS NULL
                            OR abs(julianday(epoch_utc) - 2400000.5 - epoch_mjd) < 1e-6),
