@@ -9,11 +9,11 @@
 #include <erfam.h>
 
 #include "covquery.h"
+#include "plan.h"
+#include "plan_db.h"
 #include "render_cov.h"
-#include "score.h"
 #include "store.h"
 #include "tscale.h"
-#include "window.h"
 
 #define MJD0 2400000.5
 
@@ -162,228 +162,50 @@ site_of(const struct site_station *st, struct geom_site *site)
 
 /* --- what would fill the gaps: the window planner over the horizon --- */
 
-/* Everything the planner holds for one horizon, freed at one place. */
-struct plan {
-	struct site_target *targets;
-	size_t nt;
-	struct geom_target *bodies;
-	struct window_target *wt;
-	struct score_yield *yield;
-	struct site_attempt *att;
-	size_t na;
-	struct site_blackout *bo;
-	size_t nbo;
-	struct window_interval *iv;
-	struct window_node *nodes;
-	struct window *win;
-	struct coverage_window *cw;
-	struct coverage_result *w_counts;	/* synodic counts for W */
-};
-
-static void
-plan_free(struct plan *pl)
-{
-	mem_free(pl->targets);
-	mem_free(pl->bodies);
-	mem_free(pl->wt);
-	mem_free(pl->yield);
-	mem_free(pl->att);
-	mem_free(pl->bo);
-	mem_free(pl->iv);
-	mem_free(pl->nodes);
-	mem_free(pl->win);
-	mem_free(pl->cw);
-	mem_free(pl->w_counts);
-}
-
-/* n elements of size sz, NULL-safe for n = 0. */
-static void *
-alloc_n(size_t n, size_t sz)
-{
-	return mem_calloc(n ? n : 1, sz);
-}
-
-/* TT offset (days since the track base) of a UTC MJD. */
-static double
-tt_offset(const struct window_track *tr, double utc_mjd)
-{
-	struct tscale_instant t;
-
-	if (tscale_from_utc(MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
-		return NAN;
-	return tscale_tt_diff(tr->base1, tr->base2, t.tt1, t.tt2) / 86400.0;
-}
-
-/* UTC MJD of a TT offset on the track. */
-static double
-utc_of_offset(const struct window_track *tr, double off)
-{
-	struct tscale_instant t;
-
-	if (tscale_from_tt(tr->base1, tr->base2 + off, 0.0, &t) != ERRCODE_OK)
-		return NAN;
-	return (t.utc1 - MJD0) + t.utc2;
-}
-
 /*
- * Plan every window of the station's active targets over the horizon,
- * score each one as the planner does (yield learned from the log, the
- * coverage weight of the station's settings) and hand them to the
- * coverage core, which keeps those falling in bins below the threshold.
+ * Plan and score every window of the station's active targets over the
+ * horizon exactly as "moonrange windows" does (plan_run), and hand them to
+ * the coverage core, which keeps those falling in bins below the
+ * threshold.
  */
 static enum errcode
-plan_fill(struct store *db, const struct site_station *st,
-    const struct covquery_params *p, const struct coverage_result *res,
-    struct coverage_fill *fill, char *errbuf, size_t errlen)
+plan_fill(struct store *db, const struct covquery_params *p,
+    const struct coverage_result *res, struct coverage_fill *fill,
+    char *errbuf, size_t errlen)
 {
-	struct plan pl;
-	struct store_settings set;
-	struct score_settings ss;
-	struct score_model model;
-	struct score_params sp;
-	struct window_limits lim;
-	struct window_track tr;
-	struct coverage_spec ws;
-	struct coverage_input in;
-	struct site_normal_point *np = NULL;
-	struct store_query q;
-	struct tscale_instant t0;
-	size_t nn, cap, nw = 0, nnp = 0, k = 0;
-	double from = p->now_mjd, to = p->now_mjd + p->horizon_days;
+	struct plan_query q;
+	struct plan_db hold;
+	struct plan_result pr;
+	struct coverage_window *cw = NULL;
 	enum errcode rc;
 
-	memset(&pl, 0, sizeof pl);
-	if ((rc = store_settings_get(db, &set, errbuf, errlen)) != ERRCODE_OK)
+	plan_query_init(&q);
+	plan_db_init(&hold);
+	memset(&pr, 0, sizeof pr);
+	if ((rc = plan_db_fill(db, &q, &hold, errbuf, errlen)) != ERRCODE_OK)
 		return rc;
-	score_settings_default(&ss);
-	ss.nbins = set.coverage_bins;
-	ss.alpha = set.coverage_alpha;
-	ss.k = set.coverage_k;
-	ss.per_target = set.coverage_per_target;
-
-	if ((rc = store_targets_list(db, 1, &pl.targets, &pl.nt, errbuf,
-	    errlen)) != ERRCODE_OK)
+	q.from_mjd = p->now_mjd;
+	q.to_mjd = p->now_mjd + p->horizon_days;
+	q.target = res->spec.target[0] ? res->spec.target : NULL;
+	q.limit = 0;
+	if ((rc = plan_run(&q, &pr, errbuf, errlen)) != ERRCODE_OK)
 		goto out;
-	if (pl.nt > WINDOW_MAX_TARGETS)
-		pl.nt = WINDOW_MAX_TARGETS;
-	pl.bodies = alloc_n(pl.nt, sizeof *pl.bodies);
-	pl.wt = alloc_n(pl.nt, sizeof *pl.wt);
-	pl.yield = alloc_n(pl.nt, sizeof *pl.yield);
-	pl.w_counts = mem_alloc(sizeof *pl.w_counts);
-	if (!pl.bodies || !pl.wt || !pl.yield || !pl.w_counts) {
+	if ((cw = mem_calloc(pr.n ? pr.n : 1, sizeof *cw)) == NULL) {
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	for (size_t j = 0; j < pl.nt; j++) {
-		const struct site_target *t = &pl.targets[j];
-
-		if ((rc = geom_target_from_selen(t->lat_deg * ERFA_DD2R,
-		    t->lon_deg * ERFA_DD2R, t->height_m, &pl.bodies[j])))
-			goto out;
-		pl.wt[j].body = &pl.bodies[j];
-		pl.wt[j].dark_only = t->dark_only;
+	for (size_t i = 0; i < pr.n; i++) {
+		snprintf(cw[i].target, sizeof cw[i].target, "%s",
+		    pr.w[i].target);
+		cw[i].start_mjd = pr.w[i].start_mjd;
+		cw[i].end_mjd = pr.w[i].end_mjd;
+		cw[i].score = pr.w[i].f.score;
 	}
-
-	/* The yield model from the whole log, the weight from every normal
-	   point on the synodic angle (the planner's own inputs). */
-	store_query_init(&q);
-	if ((rc = store_attempts_list(db, &q, &pl.att, &pl.na, errbuf,
-	    errlen)) != ERRCODE_OK)
-		goto out;
-	if ((rc = score_fit(&ss, st->zenith_tau, pl.targets, pl.nt, pl.att,
-	    pl.na, pl.yield, &model)) != ERRCODE_OK)
-		goto out;
-	if ((rc = store_nps_list(db, &q, &np, &nnp, errbuf, errlen)))
-		goto out;
-	coverage_spec_init(&ws);
-	ws.nbins = ss.nbins;
-	snprintf(ws.own_station, sizeof ws.own_station, "%s", st->code);
-	in.np = np;
-	in.nnp = nnp;
-	in.att = pl.att;
-	in.natt = pl.na;
-	rc = coverage_compute(&ws, &in, pl.w_counts);
-	mem_free(np);
-	if (rc != ERRCODE_OK)
-		goto out;
-
-	/* The track over the horizon (DUT1 taken as 0: < 1 s on edges). */
-	if ((rc = tscale_from_utc(MJD0, from, 0.0, &t0)) != ERRCODE_OK)
-		goto out;
-	nn = window_track_nodes(p->horizon_days);
-	if ((pl.nodes = alloc_n(nn, sizeof *pl.nodes)) == NULL) {
-		rc = ERRCODE_NOMEM;
-		goto out;
-	}
-	if ((rc = window_track_init(&tr, &res->spec.site, NULL, t0.tt1, t0.tt2,
-	    p->horizon_days, pl.nodes, nn)) != ERRCODE_OK)
-		goto out;
-	if ((rc = store_blackouts_list(db, from, to, &pl.bo, &pl.nbo, errbuf,
-	    errlen)) != ERRCODE_OK)
-		goto out;
-	if ((pl.iv = alloc_n(pl.nbo, sizeof *pl.iv)) == NULL) {
-		rc = ERRCODE_NOMEM;
-		goto out;
-	}
-	for (size_t i = 0; i < pl.nbo; i++) {
-		pl.iv[i].start = tt_offset(&tr, pl.bo[i].start_mjd);
-		pl.iv[i].end = tt_offset(&tr, pl.bo[i].end_mjd);
-	}
-	lim.min_el = st->min_el_deg * ERFA_DD2R;
-	lim.max_sun_el = st->max_sun_el_deg * ERFA_DD2R;
-	lim.min_sun_sep = st->min_sun_sep_deg * ERFA_DD2R;
-
-	cap = pl.nt * (size_t)(p->horizon_days + 2.0) * 2 + 16;
-	for (int pass = 0; pass < 2; pass++) {
-		mem_free(pl.win);
-		if ((pl.win = alloc_n(cap, sizeof *pl.win)) == NULL) {
-			rc = ERRCODE_NOMEM;
-			goto out;
-		}
-		rc = window_find(&tr, &lim, pl.wt, pl.nt, pl.iv, pl.nbo, pl.win,
-		    cap, &nw);
-		if (rc != ERRCODE_TOO_LARGE)
-			break;
-		cap = nw;
-	}
-	if (rc != ERRCODE_OK)
-		goto out;
-
-	if ((pl.cw = alloc_n(nw, sizeof *pl.cw)) == NULL) {
-		rc = ERRCODE_NOMEM;
-		goto out;
-	}
-	sp.tr = &tr;
-	sp.s = &ss;
-	sp.tau = st->zenith_tau;
-	sp.fire_rate_hz = st->fire_rate_hz;
-	for (size_t i = 0; i < nw; i++) {
-		const struct window *w = &pl.win[i];
-		const struct coverage_counts *cc = &pl.w_counts->pooled;
-		struct score_target stg;
-		struct score_window sw;
-
-		if (ss.per_target)
-			for (size_t j = 0; j < pl.w_counts->ntargets; j++)
-				if (strcmp(pl.w_counts->targets[j].id,
-				    pl.targets[w->target].id) == 0)
-					cc = &pl.w_counts->targets[j].c;
-		stg.body = &pl.bodies[w->target];
-		stg.yield = pl.yield[w->target];
-		stg.counts = cc->n;
-		if ((rc = score_window(&sp, &stg, w, &sw)) != ERRCODE_OK)
-			goto out;
-		snprintf(pl.cw[k].target, sizeof pl.cw[k].target, "%s",
-		    pl.targets[w->target].id);
-		pl.cw[k].start_mjd = utc_of_offset(&tr, w->start);
-		pl.cw[k].end_mjd = utc_of_offset(&tr, w->end);
-		pl.cw[k].score = sw.score;
-		if (isfinite(pl.cw[k].start_mjd) && isfinite(pl.cw[k].end_mjd))
-			k++;
-	}
-	rc = coverage_fill_compute(res, pl.cw, k, from, to, fill);
+	rc = coverage_fill_compute(res, cw, pr.n, q.from_mjd, q.to_mjd, fill);
 out:
-	plan_free(&pl);
+	mem_free(cw);
+	plan_result_free(&pr);
+	plan_db_free(&hold);
 	return rc;
 }
 
@@ -488,7 +310,7 @@ covquery_run(struct store *db, const struct covquery_params *p,
 			rc_ = ERRCODE_NOMEM;
 			goto out;
 		}
-		if ((rc_ = plan_fill(db, &st, p, res, fill, errbuf, errlen)))
+		if ((rc_ = plan_fill(db, p, res, fill, errbuf, errlen)))
 			goto out;
 		rc.fill = fill;
 	}

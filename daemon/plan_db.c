@@ -31,13 +31,24 @@ plan_db_load(const char *path, struct plan_query *q, struct plan_db *d,
     char *errbuf, size_t errlen)
 {
 	struct store *s = NULL;
-	struct store_settings set;
-	struct store_query all;
 	enum errcode rc;
 
 	rc = store_open(path, STORE_OPEN_READONLY, &s, errbuf, errlen);
 	if (rc != ERRCODE_OK)
 		return rc;
+	rc = plan_db_fill(s, q, d, errbuf, errlen);
+	store_close(s);
+	return rc;
+}
+
+enum errcode
+plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
+    char *errbuf, size_t errlen)
+{
+	struct store_settings set;
+	struct store_query all;
+	enum errcode rc;
+
 	rc = store_station_get(s, &q->station, errbuf, errlen);
 	if (rc == ERRCODE_NOT_FOUND && errbuf != NULL)
 		snprintf(errbuf, errlen, "the database holds no station yet "
@@ -72,7 +83,6 @@ plan_db_load(const char *path, struct plan_query *q, struct plan_db *d,
 	q->nps = d->nps;
 	q->nnps = d->nnps;
 out:
-	store_close(s);
 	if (rc != ERRCODE_OK)
 		plan_db_free(d);
 	return rc;

@@ -338,6 +338,64 @@ text_metrics_line(struct mbuf *out, const char *name,
 #define TEXT_METRICS_HEAD \
 	"             points  filled  empty arc    entropy    chi-sq         p\n"
 
+/* "YYYY-MM-DDTHH:MMZ" of a UTC MJD (minutes: the fill dates are found
+   to 5 minutes). */
+static void
+utc_minutes(double mjd, char *buf, size_t len)
+{
+	char full[40];
+
+	utc_of_mjd(mjd, full, sizeof full);
+	if (strlen(full) >= 16)
+		snprintf(buf, len, "%.16sZ", full);
+	else
+		snprintf(buf, len, "%s", full);
+}
+
+/* The fill dates: for each gap bin, its next dates with target, score
+   and the station's local time of the entry into the bin. */
+static void
+text_fill(struct mbuf *out, const struct render_cov *c)
+{
+	const struct coverage_result *r = c->r;
+	const struct coverage_fill *f = c->fill;
+	char a[40], b[40], local[48];
+
+	utc_minutes(f->from_mjd, a, sizeof a);
+	utc_minutes(f->to_mjd, b, sizeof b);
+	mbuf_printf(out, "\nFill dates %s to %s (%zu windows)\n", a, b,
+	    f->windows);
+	if (f->nbins == 0) {
+		mbuf_puts(out, "  no bin is below the threshold\n");
+		return;
+	}
+	mbuf_printf(out, "    %-27s %-10s %9s  %s\n", "in the bin (UTC)",
+	    "target", "score", c->time_zone ? "local start" : "");
+	for (size_t i = 0; i < f->nbins; i++) {
+		const struct coverage_fill_bin *fb = &f->bins[i];
+
+		mbuf_printf(out, "  bin %d (%.4g-%.4g deg, %ld):%s\n", fb->bin,
+		    edge(r, fb->bin), edge(r, fb->bin + 1), fb->count,
+		    fb->ndates ? "" : " no window in the horizon");
+		for (size_t k = 0; k < fb->ndates; k++) {
+			const struct coverage_fill_date *d = &fb->dates[k];
+
+			utc_minutes(d->in_bin_start_mjd, a, sizeof a);
+			utc_minutes(d->in_bin_end_mjd, b, sizeof b);
+			mbuf_printf(out, d->score >= 1000.0 ?
+			    "    %s to %-6s %-10s %9.0f" :
+			    "    %s to %-6s %-10s %9.4g", a,
+			    strncmp(a, b, 11) == 0 ? b + 11 : b, d->target,
+			    d->score);
+			if (c->time_zone != NULL && render_local_time(MJD0,
+			    d->in_bin_start_mjd, c->time_zone, local,
+			    sizeof local) == ERRCODE_OK)
+				mbuf_printf(out, "  %s", local);
+			mbuf_puts(out, "\n");
+		}
+	}
+}
+
 enum errcode
 render_cov_text(const struct render_cov *c, struct mbuf *out)
 {
@@ -346,12 +404,13 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_metrics *pm = &r->pooled.m;
 	size_t ncol = r->ntargets < TEXT_TARGET_COLS ? r->ntargets :
 	    TEXT_TARGET_COLS;
-	char a[40], b[40], local[48];
+	char a[40], b[40];
 
-	mbuf_printf(out, "Coverage of %s by %s%s%s\n",
+	mbuf_printf(out, "Coverage of %s by %s\n",
 	    s->source == COVERAGE_SOURCE_ATTEMPTS ? "attempts" :
-	    "normal points", coverage_axis_label(s->axis),
-	    c->station_name ? " - " : "", c->station_name ? c->station_name : "");
+	    "normal points", coverage_axis_label(s->axis));
+	if (c->station_name != NULL)
+		mbuf_printf(out, "Station: %s\n", c->station_name);
 	mbuf_printf(out, "%d bins of %.4g deg; a bin is filled at >= %ld\n",
 	    s->nbins, r->bin_width_deg, s->min_count);
 	utc_of_mjd(s->since_mjd, a, sizeof a);
@@ -360,26 +419,31 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	    isnan(s->since_mjd) ? "-" : a, isnan(s->until_mjd) ? "-" : b,
 	    s->target[0] ? s->target : "all",
 	    s->station[0] ? s->station : "all");
-	mbuf_printf(out, "Records: %ld counted (%ld points), %ld skipped\n"
-	    "gap = fewer than %ld; sparse = fewer than half the mean of "
-	    "%.1f\n\n", r->records, r->pooled.m.total, r->skipped,
-	    s->min_count, (double)r->pooled.m.total / s->nbins);
+	if (s->source == COVERAGE_SOURCE_ATTEMPTS)
+		mbuf_printf(out, "Records: %ld attempts, %ld skipped\n",
+		    r->records, r->skipped);
+	else
+		mbuf_printf(out, "Records: %ld counted (%ld normal points), %ld "
+		    "skipped\n", r->records, r->pooled.m.total, r->skipped);
+	mbuf_printf(out, "gap = fewer than %ld; sparse = fewer than half the "
+	    "mean of %.1f\n\n", s->min_count,
+	    (double)r->pooled.m.total / s->nbins);
 
-	mbuf_printf(out, "  bin   from    to  %-15s %7s", "mark", "pooled");
+	mbuf_printf(out, "  bin deg      %-14s %6s", "mark", "pooled");
 	for (size_t i = 0; i < ncol; i++)
-		mbuf_printf(out, " %7.7s", r->targets[i].id);
+		mbuf_printf(out, " %6.6s", r->targets[i].id);
 	mbuf_puts(out, "\n");
 	for (int k = 0; k < s->nbins; k++) {
-		mbuf_printf(out, "  %3d %6.1f %5.1f  %-15.15s %7ld", k,
-		    edge(r, k), edge(r, k + 1), bin_mark(r, k),
-		    r->pooled.n[k]);
+		snprintf(a, sizeof a, "%.0f-%.0f", edge(r, k), edge(r, k + 1));
+		mbuf_printf(out, "  %3d %-7s  %-14.14s %6ld", k, a,
+		    bin_mark(r, k), r->pooled.n[k]);
 		for (size_t i = 0; i < ncol; i++)
-			mbuf_printf(out, " %7ld", r->targets[i].c.n[k]);
+			mbuf_printf(out, " %6ld", r->targets[i].c.n[k]);
 		if (r->pooled.n[k] < s->min_count)
-			mbuf_puts(out, "  gap");
+			mbuf_puts(out, " gap");
 		for (int i = 0; i < pm->nsparse; i++)
 			if (pm->sparse[i] == k)
-				mbuf_puts(out, "  sparse");
+				mbuf_puts(out, " sparse");
 		mbuf_puts(out, "\n");
 	}
 	if (r->ntargets > ncol)
@@ -405,39 +469,8 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	    "freedom; (few) = fewer than 5\nexpected per bin, p is rough.\n",
 	    pm->chi2_dof);
 
-	if (c->fill != NULL) {
-		const struct coverage_fill *f = c->fill;
-
-		utc_of_mjd(f->from_mjd, a, sizeof a);
-		utc_of_mjd(f->to_mjd, b, sizeof b);
-		mbuf_printf(out, "\nWhat would fill the gaps (%s to %s, %zu "
-		    "windows):\n", a, b, f->windows);
-		if (f->nbins == 0)
-			mbuf_puts(out, "  no bin is below the threshold\n");
-		for (size_t i = 0; i < f->nbins; i++) {
-			const struct coverage_fill_bin *fb = &f->bins[i];
-
-			mbuf_printf(out, "  bin %d (%.1f-%.1f deg, %ld):%s\n",
-			    fb->bin, edge(r, fb->bin), edge(r, fb->bin + 1),
-			    fb->count, fb->ndates ? "" :
-			    " no window in the horizon");
-			for (size_t k = 0; k < fb->ndates; k++) {
-				const struct coverage_fill_date *d =
-				    &fb->dates[k];
-
-				utc_of_mjd(d->in_bin_start_mjd, a, sizeof a);
-				utc_of_mjd(d->in_bin_end_mjd, b, sizeof b);
-				mbuf_printf(out, "    %s to %s  %-10s score %.4g",
-				    a, strncmp(a, b, 11) == 0 ? b + 11 : b,
-				    d->target, d->score);
-				if (c->time_zone != NULL && render_local_time(
-				    MJD0, d->in_bin_start_mjd, c->time_zone, local,
-				    sizeof local) == ERRCODE_OK)
-					mbuf_printf(out, "  (%s)", local);
-				mbuf_puts(out, "\n");
-			}
-		}
-	}
+	if (c->fill != NULL)
+		text_fill(out, c);
 	if (c->fill_note != NULL && *c->fill_note != '\0')
 		mbuf_printf(out, "\n%s\n", c->fill_note);
 	return mbuf_status(out);
@@ -722,6 +755,7 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	    "</pattern></defs>\n"
 	    "<style>text{font-family:sans-serif;font-size:12px;fill:#24313a}"
 	    ".head{font-size:15px;font-weight:bold}.count{font-size:11px}"
+	    ".dense .count{font-size:8px}"
 	    ".mark{font-size:12px;font-style:italic}</style>\n");
 	mbuf_printf(out, "<rect width=\"%.0f\" height=\"%.0f\" "
 	    "fill=\"#fdfcf8\"/>\n", SVG_W, SVG_H);
@@ -773,7 +807,8 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	mbuf_puts(out, "</g>\n");
 
 	/* Count labels just outside the ring. */
-	mbuf_puts(out, "<g class=\"counts\">\n");
+	mbuf_puts(out, s->nbins > 24 ? "<g class=\"counts dense\">\n" :
+	    "<g class=\"counts\">\n");
 	for (int b = 0; b < s->nbins; b++) {
 		char attrs[48];
 

@@ -33,4 +33,9 @@ void plan_db_free(struct plan_db *d);
 enum errcode plan_db_load(const char *path, struct plan_query *q,
     struct plan_db *d, char *errbuf, size_t errlen);
 
+/* The same from a database the caller has open (and keeps open). */
+struct store;
+enum errcode plan_db_fill(struct store *s, struct plan_query *q,
+    struct plan_db *d, char *errbuf, size_t errlen);
+
 #endif

@@ -22,7 +22,7 @@ db=$tmp/demo.db
 grep -q "new moon" "$tmp/table.txt" || fail "table lacks the new-moon row"
 grep -q "full moon" "$tmp/table.txt" || fail "table lacks the full-moon row"
 grep -q "Metrics" "$tmp/table.txt" || fail "table lacks the metrics"
-grep -q "What would fill the gaps" "$tmp/table.txt" || fail "no fill section"
+grep -q "^Fill dates " "$tmp/table.txt" || fail "no fill section"
 
 # --- JSON: gaps near new and full moon, fill dates in empty bins --------
 "$bin" coverage --db "$db" --json --horizon 45 >"$tmp/cov.json"

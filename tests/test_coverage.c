@@ -5,6 +5,9 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include <libnova/lunar.h>
+#include <libnova/sidereal_time.h>
+
 #include "check.h"
 #include "coverage.h"
 #include "geom.h"
@@ -306,6 +309,26 @@ test_coverage_bins_and_filters(void **state)
 	assert_int_equal(r->pooled.n[6], 1);
 	assert_int_equal(r->pooled.n[0], 1);
 
+	/* More distinct targets than a result holds: refused, not cut. */
+	{
+		static struct site_normal_point many[COVERAGE_MAX_TARGETS + 1];
+		struct coverage_input big = {many, COVERAGE_MAX_TARGETS + 1,
+		    NULL, 0};
+
+		for (int i = 0; i <= COVERAGE_MAX_TARGETS; i++) {
+			char id[16];
+
+			snprintf(id, sizeof id, "t%03d", i);
+			many[i] = np_at(id, "7001", 61055.0, 10.0);
+		}
+		coverage_spec_init(&s);
+		assert_int_equal(coverage_compute(&s, &big, r),
+		    ERRCODE_TOO_LARGE);
+		big.nnp = COVERAGE_MAX_TARGETS;
+		assert_int_equal(coverage_compute(&s, &big, r), ERRCODE_OK);
+		assert_int_equal(r->ntargets, COVERAGE_MAX_TARGETS);
+	}
+
 	/* A bad spec is refused. */
 	s.nbins = 3;
 	assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_BAD_ARG);
@@ -369,6 +392,19 @@ test_coverage_fundamental_arguments_at_j2000(void **state)
 	check_near(deg, 93.27209062, 1e-5, "deg", "argument of latitude");
 	assert_int_equal(coverage_axis_value(COVERAGE_AXIS_HOUR_ANGLE, NULL,
 	    utc, &deg), ERRCODE_BAD_ARG);
+
+	/* Meeus, Astronomical Algorithms 2nd ed., example 47.a: 1992 April
+	   12, 0h TD (JDE 2448724.5): M' = 5.150833 deg, F = 219.889721 deg
+	   (quoted from memory; reproduced by Meeus's eqs. 47.4-47.5 evaluated
+	   independently, and within 3e-6 deg of IERS 2003). */
+	assert_int_equal(tscale_from_tt(2448724.5, 0.0, 0.0, &t), ERRCODE_OK);
+	utc = (t.utc1 - MJD0) + t.utc2;
+	assert_int_equal(coverage_axis_value(COVERAGE_AXIS_ANOMALY, NULL, utc,
+	    &deg), ERRCODE_OK);
+	check_near(deg, 5.150833, 1e-5, "deg", "M' of Meeus example 47.a");
+	assert_int_equal(coverage_axis_value(COVERAGE_AXIS_LATITUDE, NULL, utc,
+	    &deg), ERRCODE_OK);
+	check_near(deg, 219.889721, 1e-5, "deg", "F of Meeus example 47.a");
 	assert_int_equal(coverage_axis_value(COVERAGE_AXIS_SYNODIC, NULL, NAN,
 	    &deg), ERRCODE_BAD_TIME);
 }
@@ -395,6 +431,39 @@ test_coverage_hour_angle_rate(void **state)
 		   geocentric, more with topocentric parallax): common
 		   practice, 13.9..14.8 deg/h. */
 		assert_true(rate > 13.9 && rate < 14.8);
+	}
+}
+
+/* The hour-angle axis against an independent library: libnova (Debian
+   libnova-dev, test-only; its own lunar theory ELP 2000-82B and its own
+   sidereal time).  libnova's Moon is geocentric, so the topocentric hour
+   angle differs by the diurnal parallax in hour angle, at most about
+   0.95 deg cos(lat) / cos(dec) (Meeus, Astronomical Algorithms 2nd ed.,
+   ch. 40): the tolerance is 1.6 deg, against bins of 5 deg and more. */
+static void
+test_coverage_hour_angle_against_libnova(void **state)
+{
+	struct geom_site site;
+	struct geom_weather wx;
+	const double lat = 38.9712, lon = -114.3098;	/* invented site */
+
+	(void)state;
+	geom_weather_standard(2950.0, &wx);
+	assert_int_equal(geom_site_init(&site, lat * 3.14159265358979323846 /
+	    180.0, lon * 3.14159265358979323846 / 180.0, 2950.0, &wx),
+	    ERRCODE_OK);
+	for (double mjd = 61000.0; mjd < 61400.0; mjd += 7.31) {
+		struct ln_equ_posn equ;
+		double deg, want;
+
+		assert_int_equal(coverage_axis_value(COVERAGE_AXIS_HOUR_ANGLE,
+		    &site, mjd, &deg), ERRCODE_OK);
+		ln_get_lunar_equ_coords(mjd + MJD0, &equ);
+		want = ln_get_apparent_sidereal_time(mjd + MJD0) * 15.0 + lon -
+		    equ.ra;
+		/* libnova, see above. */
+		check_near(check_wrap180(deg - want), 0.0, 1.6, "deg",
+		    "hour angle vs libnova");
 	}
 }
 
@@ -569,6 +638,7 @@ main(void)
 		cmocka_unit_test(test_coverage_names),
 		cmocka_unit_test(test_coverage_fundamental_arguments_at_j2000),
 		cmocka_unit_test(test_coverage_hour_angle_rate),
+		cmocka_unit_test(test_coverage_hour_angle_against_libnova),
 		cmocka_unit_test(test_coverage_synodic_from_epoch),
 		cmocka_unit_test(test_coverage_fill_dates_fall_in_their_bin),
 	};

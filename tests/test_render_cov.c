@@ -73,29 +73,38 @@ count_of(const char *hay, const char *needle)
 	return n;
 }
 
+/* The buffer is well-formed XML, checked by xmllint (Debian
+   libxml2-utils, test-only) on a temporary file. */
+static void
+assert_well_formed(const struct mbuf *b)
+{
+	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128];
+	FILE *f;
+	int fd;
+
+	fd = mkstemp(path);
+	assert_true(fd >= 0);
+	f = fdopen(fd, "w");
+	assert_non_null(f);
+	assert_int_equal(fwrite(b->data, 1, b->len, f), b->len);
+	assert_int_equal(fclose(f), 0);
+	snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
+	assert_int_equal(system(cmd), 0);
+	unlink(path);
+}
+
 static void
 test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 {
 	struct coverage_result *r = sample_result();
 	struct render_cov c = {r, NULL, NULL, "Test & <station>", NULL};
-	char path[] = "/tmp/moonrange-cov-XXXXXX", cmd[128], key[64];
+	char key[64];
 	struct mbuf b;
-	FILE *f;
-	int fd;
 
 	(void)state;
 	mbuf_init(&b);
 	assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
-	fd = mkstemp(path);
-	assert_true(fd >= 0);
-	f = fdopen(fd, "w");
-	assert_non_null(f);
-	assert_int_equal(fwrite(b.data, 1, b.len, f), b.len);
-	assert_int_equal(fclose(f), 0);
-	/* Well-formed XML, checked by xmllint (Debian libxml2-utils). */
-	snprintf(cmd, sizeof cmd, "xmllint --noout %s", path);
-	assert_int_equal(system(cmd), 0);
-	unlink(path);
+	assert_well_formed(&b);
 
 	assert_non_null(strstr(b.data, "<title id=\"cov-title\">"));
 	assert_non_null(strstr(b.data, "<desc id=\"cov-desc\">"));
@@ -126,6 +135,51 @@ test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 	assert_int_equal(count_of(b.data, "<g class=\"target\""), 3);
 	assert_int_equal(count_of(b.data, "<g class=\"legend-target\""), 3);
 	mbuf_free(&b);
+	free(r);
+}
+
+/* No records at all, and the smallest and largest bin counts: still
+   well-formed, one mark per bin, undefined metrics as null in JSON. */
+static void
+test_render_cov_empty_and_bin_limits(void **state)
+{
+	static const int nb[3] = {4, 12, 72};
+	struct coverage_result *r = calloc(1, sizeof *r);
+	struct coverage_input in = {NULL, 0, NULL, 0};
+
+	(void)state;
+	assert_non_null(r);
+	for (int k = 0; k < 3; k++) {
+		struct render_cov c = {r, NULL, NULL, NULL, NULL};
+		struct coverage_spec s;
+		json_error_t jerr;
+		json_t *root, *m;
+		struct mbuf b;
+
+		coverage_spec_init(&s);
+		s.nbins = nb[k];
+		assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_OK);
+		mbuf_init(&b);
+		assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
+		assert_int_equal(count_of(b.data, "<path class=\"bin"), nb[k]);
+		assert_int_equal(count_of(b.data, "<path class=\"bin gap\""),
+		    nb[k]);
+		assert_non_null(strstr(b.data, "no records match the query"));
+		assert_well_formed(&b);
+		mbuf_free(&b);
+
+		mbuf_init(&b);
+		assert_int_equal(render_cov_json(&c, &b), ERRCODE_OK);
+		root = json_loads(b.data, 0, &jerr);
+		assert_non_null(root);
+		m = json_object_get(json_object_get(root, "pooled"), "metrics");
+		assert_true(json_is_null(json_object_get(m, "entropy")));
+		assert_true(json_is_null(json_object_get(m, "chi_square_p")));
+		check_near(json_real_value(json_object_get(m,
+		    "longest_empty_arc_deg")), 360.0, 0.0, "deg", "empty arc");
+		json_decref(root);
+		mbuf_free(&b);
+	}
 	free(r);
 }
 
@@ -221,7 +275,7 @@ test_render_cov_text_table(void **state)
 	assert_int_equal(render_cov_text(&c, &b), ERRCODE_OK);
 	assert_non_null(strstr(b.data, "new moon"));
 	assert_non_null(strstr(b.data, "full moon"));
-	assert_int_equal(count_of(b.data, "  gap\n"), 5);
+	assert_int_equal(count_of(b.data, " gap\n"), 5);
 	assert_non_null(strstr(b.data, "fill dates: none here"));
 	mbuf_free(&b);
 
@@ -247,10 +301,10 @@ test_render_cov_text_table(void **state)
 	mbuf_init(&b);
 	assert_int_equal(render_cov_text(&c, &b), ERRCODE_OK);
 	/* MJD 61450 = 2027-02-14 (61406 = 2027-01-01, + 44 days). */
-	assert_non_null(strstr(b.data, "    2027-02-14T06:00:00Z to "
-	    "12:00:00Z  alpha      score 2.5  (2027-02-14 06:00 UTC)\n"));
-	assert_non_null(strstr(b.data, "2027-02-15T21:00:00Z to "
-	    "2027-02-16T03:00:00Z  gamma"));
+	assert_non_null(strstr(b.data, "    2027-02-14T06:00Z to 12:00Z "
+	    "alpha            2.5  2027-02-14 06:00 UTC\n"));
+	assert_non_null(strstr(b.data, "2027-02-15T21:00Z to "
+	    "2027-02-16T03:00Z gamma"));
 	mbuf_free(&b);
 	free(r);
 }
@@ -293,6 +347,7 @@ main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_render_cov_counts_of_sample),
 		cmocka_unit_test(test_render_cov_svg_is_xml_with_one_mark_per_bin),
+		cmocka_unit_test(test_render_cov_empty_and_bin_limits),
 		cmocka_unit_test(test_render_cov_json_fields),
 		cmocka_unit_test(test_render_cov_csv_rows),
 		cmocka_unit_test(test_render_cov_text_table),
