@@ -605,12 +605,12 @@ store_open_ok(struct api_ctx *ctx, struct api_response *resp)
 }
 
 /*
- * Ranked windows of [from, to) from the database at path, rendered as
- * JSON or iCalendar: the planner's query loaded by plan_db_load, run by
+ * Ranked windows of [from, to) from the open database, rendered as JSON
+ * or iCalendar: the planner's query filled by plan_db_fill, run by
  * plan_run and printed by render_windows_*, as "moonrange windows" does.
  */
 static enum errcode
-windows_render(const char *path, double from_mjd, double to_mjd,
+windows_render(struct store *db, double from_mjd, double to_mjd,
     const char *target, size_t limit, int ics, double now_mjd,
     struct mbuf *out, size_t *nwindows, char *err, size_t errlen)
 {
@@ -623,7 +623,7 @@ windows_render(const char *path, double from_mjd, double to_mjd,
 	memset(&res, 0, sizeof res);
 	plan_query_init(&q);
 	plan_db_init(&hold);
-	rc = plan_db_load(path, &q, &hold, err, errlen);
+	rc = plan_db_fill(db, &q, &hold, err, errlen);
 	if (rc != ERRCODE_OK)
 		goto out;
 	q.from_mjd = from_mjd;
@@ -675,7 +675,7 @@ windows_common(struct api_ctx *ctx, const struct api_request *req,
 	if (param_count(req, "limit", 1, PLAN_MAX_WINDOWS, &limit, resp))
 		return;
 	err[0] = '\0';
-	rc = windows_render(ctx->db_path, (f1 - ERFA_DJM0) + f2,
+	rc = windows_render(ctx->db, (f1 - ERFA_DJM0) + f2,
 	    (t1 - ERFA_DJM0) + t2, param(req, "target"), limit, ics,
 	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
 	    sizeof err);
@@ -1254,7 +1254,7 @@ api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
 	mbuf_init(&w);
 	mbuf_init(&c);
 	pthread_mutex_lock(&ctx->lock);
-	if (ctx->db == NULL || ctx->db_path == NULL) {
+	if (ctx->db == NULL) {
 		rc = ERRCODE_CONFIG;
 		snprintf(errbuf, errlen, "no database open");
 		goto out;
@@ -1263,7 +1263,7 @@ api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
 	if (rc != ERRCODE_OK)
 		goto out;
 	days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
-	rc = windows_render(ctx->db_path, now_mjd, now_mjd + days, NULL, 0, 0,
+	rc = windows_render(ctx->db, now_mjd, now_mjd + days, NULL, 0, 0,
 	    now_mjd, &w, &n, errbuf, errlen);
 	if (rc != ERRCODE_OK)
 		goto out;
