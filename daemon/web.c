@@ -9,6 +9,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <strings.h>
 #include <sys/socket.h>
 #include <sys/stat.h>
 #include <time.h>
@@ -25,6 +26,7 @@ struct web_server {
 	struct api_ctx *ctx;
 	char root[PATH_MAX];		/* canonical web directory, "" none */
 	unsigned port;
+	int loopback;			/* bound to a loopback address */
 	atomic_int inflight;		/* requests between start and reply */
 };
 
@@ -196,6 +198,37 @@ bad:
 	snprintf(errbuf, errlen, "--listen '%s': expected ADDR:PORT, "
 	    "[IPV6]:PORT or :PORT", s ? s : "");
 	return ERRCODE_BAD_ARG;
+}
+
+int
+web_host_is_local(const char *host)
+{
+	char name[64];
+	const char *end;
+	size_t n;
+
+	if (host == NULL || *host == '\0')
+		return 0;
+	if (host[0] == '[') {			/* [v6]:port */
+		end = strchr(host, ']');
+		if (end == NULL)
+			return 0;
+		n = (size_t)(end - host - 1);
+		host++;
+		end++;
+	} else {
+		end = strchr(host, ':');
+		n = end ? (size_t)(end - host) : strlen(host);
+		end = host + n;
+	}
+	if (*end != '\0' && (*end != ':' || end[1] == '\0' ||
+	    strspn(end + 1, "0123456789") != strlen(end + 1)))
+		return 0;
+	if (n == 0 || n >= sizeof name)
+		return 0;
+	memcpy(name, host, n);
+	name[n] = '\0';
+	return strcasecmp(name, "localhost") == 0 || web_is_loopback(name);
 }
 
 /* --- responses --- */
@@ -380,6 +413,13 @@ on_request(void *cls, struct MHD_Connection *conn, const char *url,
 	if (mbuf_status(&wc->body) != ERRCODE_OK) {
 		api_response_init(&ar);
 		api_error(&ar, ERRCODE_NOMEM, NULL, NULL);
+	} else if (s->loopback && !web_host_is_local(
+	    MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_HOST))) {
+		/* A page of another site reaching us by a rebound name. */
+		api_response_init(&ar);
+		api_error(&ar, ERRCODE_BAD_ARG, "Host", "a daemon on loopback "
+		    "answers only Host: localhost or a loopback address");
 	} else if (api) {
 		api_handle(s->ctx, &req, &ar);
 	} else if (strcmp(method, "GET") == 0 || strcmp(method, "HEAD") == 0) {
@@ -513,6 +553,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		mem_free(s);
 		return ERRCODE_IO;
 	}
+	s->loopback = web_is_loopback(addr);
 	info = MHD_get_daemon_info(s->d, MHD_DAEMON_INFO_BIND_PORT);
 	s->port = info != NULL ? info->port : cfg->port;
 	*out = s;

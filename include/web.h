@@ -61,6 +61,14 @@ enum errcode web_parse_listen(const char *s, char *addr, size_t addrlen,
 int web_is_loopback(const char *addr);
 
 /*
+ * 1 if a Host header names this machine: "localhost" or a loopback
+ * address, with an optional numeric port.  A daemon bound to loopback
+ * answers other Host values with 400, so that a page of another site
+ * that rebinds its name to 127.0.0.1 cannot read the API.
+ */
+int web_host_is_local(const char *host);
+
+/*
  * Map a URL path onto a file under root (itself a canonical path), or
  * ERRCODE_NOT_FOUND: only [A-Za-z0-9._-] segments not starting with '.',
  * the canonical result must lie inside root (no symlink escape), be a

@@ -474,6 +474,16 @@ test_api_static_files(void **state)
 	http_request(port, "PUT", "/index.html", NULL, "x", 1, &r);
 	assert_int_equal(r.status, 405);
 	http_reply_free(&r);
+	/* A rebound name: the daemon on loopback refuses other Host values. */
+	{
+		char raw[256];
+		int k = snprintf(raw, sizeof raw, "GET /api/v1/status HTTP/1.1\r\n"
+		    "Host: evil.example:%u\r\nConnection: close\r\n\r\n", port);
+
+		http_raw(port, raw, (size_t)k, &r);
+		assert_error(&r, 400, "bad_arg", "Host");
+		http_reply_free(&r);
+	}
 }
 
 /* A handler called directly, with every allocation in turn made to fail:

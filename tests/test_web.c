@@ -151,6 +151,25 @@ test_web_is_loopback(void **state)
 	assert_false(web_is_loopback("localhost"));
 }
 
+static void
+test_web_host_is_local(void **state)
+{
+	static const char *yes[] = {"127.0.0.1:8470", "127.0.0.1", "localhost",
+	    "LOCALHOST:80", "[::1]:8470", "[::1]", "127.9.9.9:1"};
+	static const char *no[] = {"evil.example", "evil.example:8470",
+	    "localhost.evil.example", "10.0.0.1:8470", "127.0.0.1:", "[::1",
+	    "127.0.0.1:80x", "", "[::2]:80", "localhost:80:90"};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof yes / sizeof yes[0]; i++)
+		if (!web_host_is_local(yes[i]))
+			fail_msg("'%s' refused", yes[i]);
+	for (size_t i = 0; i < sizeof no / sizeof no[0]; i++)
+		if (web_host_is_local(no[i]))
+			fail_msg("'%s' accepted", no[i]);
+	assert_false(web_host_is_local(NULL));
+}
+
 int
 main(void)
 {
@@ -158,6 +177,7 @@ main(void)
 		cmocka_unit_test(test_web_static_resolve),
 		cmocka_unit_test(test_web_parse_listen),
 		cmocka_unit_test(test_web_is_loopback),
+		cmocka_unit_test(test_web_host_is_local),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

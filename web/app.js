@@ -54,6 +54,12 @@
     return d.toISOString().slice(0, 16).replace("T", " ") + "Z";
   }
 
+  function fmtUtcSeconds(iso) {
+    const d = parseUtc(iso);
+    if (!d) return "–";
+    return d.toISOString().slice(0, 19).replace("T", " ") + "Z";
+  }
+
   function fmtLocal(iso) {
     const d = parseUtc(iso);
     if (!d) return "–";
@@ -195,7 +201,7 @@
     try {
       const n = await getJson("/api/v1/now");
       const m = n.moon;
-      setText("now-time", fmtUtc(n.utc) + " · " + fmtLocal(n.utc));
+      setText("now-time", "at " + fmtUtcSeconds(n.utc) + " · " + fmtLocal(n.utc));
       const el = $("moon-el");
       el.textContent = deg(m.el_deg, 2);
       el.className = "value " + (m.el_deg > 0 ? "up" : "down");

@@ -106,6 +106,11 @@ try {
   assert.match(await page.textContent("#moon-phase"), /% lit/);
   const targetRows = await page.$$eval("#now-targets tbody tr", (rs) => rs.length);
   assert.equal(targetRows, 5, "five active targets in the sample site");
+  // It refreshes itself every few seconds.
+  const firstNow = await page.textContent("#now-time");
+  assert.match(firstNow, /^at \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}Z/);
+  await page.waitForFunction((t) => document.getElementById("now-time").textContent !== t,
+    firstNow, { timeout: 12000 });
 
   // The coverage chart: the SVG endpoint, decoded by the browser.
   await page.waitForFunction(() => {
