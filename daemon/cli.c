@@ -32,6 +32,7 @@ const struct cli_command cli_commands[] = {
 	{"station", "show or change the stored station", cmd_station},
 	{"target", "the lunar targets: add, list, set, retire", cmd_target},
 	{"blackout", "spans without ranging: add, list, remove", cmd_blackout},
+	{"setting", "settings of the planner and the audit", cmd_setting},
 	{"np", "normal points: import CRD files, count them", cmd_np},
 	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
 	{"log", "the observation log: add, list, import, export attempts",

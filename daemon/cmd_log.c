@@ -222,10 +222,8 @@ log_add(const struct log_args *a)
 
 	if ((st = cli_store_open(&c, a->db, 0)) != CLI_EXIT_OK)
 		return st;
-	if ((st = cli_store_load(&c)) != CLI_EXIT_OK)
-		goto out;
-	if ((rc = cli_store_derive_attempt(&c, &at, err, sizeof err)) ||
-	    (rc = store_attempt_add(c.s, &at, err, sizeof err))) {
+	if ((rc = store_station_get(c.s, &c.station, err, sizeof err)) ||
+	    (rc = store_attempt_log(c.s, &at, err, sizeof err))) {
 		st = cli_store_fail(rc, "log add: %s", err);
 		goto out;
 	}

@@ -40,24 +40,42 @@ text_time(double mjd, int ndp, char *buf, size_t len)
 		snprintf(buf, len, "?");
 }
 
+/* json_dump_callback's sink: append to the mbuf. */
+static int
+sink(const char *buf, size_t size, void *data)
+{
+	struct mbuf *out = data;
+
+	mbuf_add(out, buf, size);
+	return mbuf_status(out) == ERRCODE_OK ? 0 : -1;
+}
+
 /*
  * Serialise root (a reference that is consumed) into out; failed says a
  * member could not be added.  The layout (two-space indent, 15 digits)
  * is the one of render.c, so every moonrange JSON document reads alike.
+ * The text goes straight into the mbuf, whose failed flag survives
+ * jansson: json_dumps in jansson 2.14 ignores a failed write of an object
+ * key and can return a truncated document when memory runs out
+ * (test_render_site_allocation_failure).
  */
 static enum errcode
 finish(json_t *root, int failed, struct mbuf *out)
 {
-	char *text = NULL;
+	size_t mark = out->len;
 
-	if (root != NULL && !failed)
-		text = json_dumps(root, JSON_INDENT(2) | JSON_REAL_PRECISION(15));
-	json_decref(root);
-	if (text == NULL)
+	if (root == NULL || failed ||
+	    json_dump_callback(root, sink, out, JSON_INDENT(2) |
+	    JSON_REAL_PRECISION(15)) != 0) {
+		json_decref(root);
+		if (mbuf_status(out) == ERRCODE_OK && out->data != NULL) {
+			out->len = mark;	/* drop a partial document */
+			out->data[mark] = '\0';
+		}
 		return ERRCODE_NOMEM;
-	mbuf_puts(out, text);
+	}
+	json_decref(root);
 	mbuf_add(out, "\n", 1);
-	mem_free(text);
 	return mbuf_status(out);
 }
 

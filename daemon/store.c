@@ -11,6 +11,7 @@
 
 #include <sqlite3.h>
 
+#include "derive.h"
 #include "mem.h"
 #include "store.h"
 #include "store_sql.h"
@@ -152,6 +153,7 @@ enum stmt_id {
 	ST_EOP_PUT,
 	ST_EOP_LOAD,
 	ST_EOP_SPAN,
+	ST_EOP_AROUND,
 	ST_SETTING_GET,
 	ST_SETTING_SET,
 	ST__COUNT
@@ -213,6 +215,10 @@ static const char *const stmt_sql[ST__COUNT] = {
 	[ST_EOP_LOAD] = "SELECT mjd, dut1_s, xp_arcsec, yp_arcsec FROM eop "
 	    "ORDER BY mjd",
 	[ST_EOP_SPAN] = "SELECT min(mjd), max(mjd), count(*) FROM eop",
+	/* Rows near an instant: eop_lookup needs the two around it, and
+	   rows more than 10 days apart cover nothing (eop.c). */
+	[ST_EOP_AROUND] = "SELECT mjd, dut1_s, xp_arcsec, yp_arcsec FROM eop "
+	    "WHERE mjd BETWEEN ?1 - 11 AND ?1 + 11 ORDER BY mjd",
 	[ST_SETTING_GET] = "SELECT value FROM settings WHERE key = ?1",
 	[ST_SETTING_SET] = "INSERT INTO settings (key, value) VALUES (?1, ?2) "
 	    "ON CONFLICT (key) DO UPDATE SET value = excluded.value",
@@ -1175,6 +1181,35 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 }
 
 enum errcode
+store_attempt_log(struct store *s, struct site_attempt *a, char *errbuf,
+    size_t errlen)
+{
+	struct site_station station;
+	struct site_target t;
+	struct geom_eop eop;
+	enum errcode e;
+
+	if ((e = store_station_get(s, &station, errbuf, errlen)) ||
+	    (e = store_target_get(s, a->target, &t, errbuf, errlen)))
+		return e;
+	if (!(a->end_mjd > a->start_mjd)) {
+		seterr(errbuf, errlen, "attempt on '%s': field 'end_utc': not "
+		    "after the start", a->target);
+		return ERRCODE_BAD_ARG;
+	}
+	if ((e = store_eop_at(s, 0.5 * (a->start_mjd + a->end_mjd), &eop, NULL,
+	    errbuf, errlen)))
+		return e;
+	if ((e = derive_attempt(&station, &t, &eop, a)) != ERRCODE_OK) {
+		seterr(errbuf, errlen, "attempt on '%s': field 'start_utc': "
+		    "cannot compute the geometry (%s)", a->target,
+		    errcode_str(e));
+		return e;
+	}
+	return store_attempt_add(s, a, errbuf, errlen);
+}
+
+enum errcode
 store_attempt_get(struct store *s, long id, struct site_attempt *out,
     char *errbuf, size_t errlen)
 {
@@ -1347,6 +1382,37 @@ store_eop_load(struct store *s, struct site_eop_row **out, size_t *n,
 		return e;
 	return collect(s, st, sizeof **out, row_eop, (void **)out, n,
 	    "EOP table", errbuf, errlen);
+}
+
+enum errcode
+store_eop_at(struct store *s, double utc_mjd, struct geom_eop *out,
+    enum eop_source *source, char *errbuf, size_t errlen)
+{
+	struct site_eop_row *rows = NULL;
+	struct eop_table t;
+	sqlite3_stmt *st = NULL;
+	size_t n = 0;
+	enum eop_source src;
+	enum errcode e;
+
+	memset(out, 0, sizeof *out);
+	if (source != NULL)
+		*source = EOP_SOURCE_NONE;
+	if (!isfinite(utc_mjd))
+		return ERRCODE_BAD_TIME;
+	if ((e = stmt_get(s, ST_EOP_AROUND, &st, errbuf, errlen)))
+		return e;
+	sqlite3_bind_double(st, 1, floor(utc_mjd));
+	if ((e = collect(s, st, sizeof *rows, row_eop, (void **)&rows, &n,
+	    "EOP table", errbuf, errlen)))
+		return e;
+	t.rows = rows;
+	t.n = n;
+	src = eop_lookup(&t, utc_mjd, out);
+	if (source != NULL)
+		*source = src;
+	mem_free(rows);
+	return ERRCODE_OK;
 }
 
 enum errcode

@@ -84,5 +84,6 @@ int cmd_eop(int argc, char **argv);
 int cmd_target(int argc, char **argv);
 int cmd_station(int argc, char **argv);
 int cmd_blackout(int argc, char **argv);
+int cmd_setting(int argc, char **argv);
 
 #endif

@@ -6,7 +6,9 @@
 
 #include <stddef.h>
 
+#include "eop.h"
 #include "errcode.h"
+#include "geom.h"
 #include "site.h"
 
 /*
@@ -170,6 +172,14 @@ void store_query_init(struct store_query *q);
  */
 enum errcode store_attempt_add(struct store *s, struct site_attempt *a,
     char *errbuf, size_t errlen);
+/*
+ * Log one attempt as the HTTP API and `log add` do: derive its angles
+ * (derive.h) from the stored station, its target and the EOP table at
+ * the mid-time, then store_attempt_add.  ERRCODE_NOT_FOUND for an unknown
+ * target or a database without station; other codes as store_attempt_add.
+ */
+enum errcode store_attempt_log(struct store *s, struct site_attempt *a,
+    char *errbuf, size_t errlen);
 enum errcode store_attempt_get(struct store *s, long id,
     struct site_attempt *out, char *errbuf, size_t errlen);
 /* Matching attempts into a new array; free *out with mem_free. */
@@ -203,6 +213,14 @@ enum errcode store_eop_put(struct store *s, const struct site_eop_row *r,
    mem_free.  *n = 0 and *out = NULL for an empty table. */
 enum errcode store_eop_load(struct store *s, struct site_eop_row **out,
     size_t *n, char *errbuf, size_t errlen);
+/*
+ * Earth orientation at a UTC MJD, interpolated (eop_lookup) from the
+ * stored rows around it; *source says whether the table covered it (else
+ * out is zero).  source may be NULL.
+ */
+enum errcode store_eop_at(struct store *s, double utc_mjd,
+    struct geom_eop *out, enum eop_source *source, char *errbuf,
+    size_t errlen);
 /* First and last MJD of the table; ERRCODE_NOT_FOUND when it is empty.
    Either pointer may be NULL. */
 enum errcode store_eop_span(struct store *s, double *first_mjd,

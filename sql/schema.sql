@@ -127,8 +127,8 @@ CREATE TABLE attempts (
   outcome         TEXT NOT NULL CONSTRAINT outcome
                     CHECK (outcome IN ('ranged', 'no_returns', 'weather',
                                        'technical', 'safety', 'other')),
-  operator        TEXT NOT NULL CONSTRAINT operator
-                    CHECK (length(operator) BETWEEN 1 AND 95),
+  operator        TEXT NOT NULL DEFAULT '' CONSTRAINT operator
+                    CHECK (length(operator) <= 95),
   seeing_arcsec   REAL CONSTRAINT seeing_arcsec
                     CHECK (seeing_arcsec IS NULL
                            OR (seeing_arcsec > 0 AND seeing_arcsec <= 60)),

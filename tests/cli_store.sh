@@ -101,7 +101,7 @@ attempt MJD not of its text|start_mjd|INSERT INTO attempts ($ATT) VALUES ('HERON
 attempt unknown target|FOREIGN KEY|INSERT INTO attempts ($ATT) VALUES ('NOWHERE','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged','op',1.0,'',10,10,30,5)
 attempt text in a count|cannot store TEXT|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,'many',5,1,'ranged','op',1.0,'',10,10,30,5)
 attempt synodic 360|synodic_deg|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged','op',1.0,'',360,10,30,5)
-attempt empty operator|operator|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged','',1.0,'',10,10,30,5)
+attempt operator over 95 bytes|operator|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged',printf('%.96c','x'),1.0,'',10,10,30,5)
 attempt duplicate start|UNIQUE|INSERT INTO attempts ($ATT) SELECT target_id,start_utc,start_mjd,end_utc,end_mjd,shots,returns,normal_points,outcome,operator,seeing_arcsec,notes,synodic_deg,mean_elong_deg,target_el_deg,sun_el_target_deg FROM attempts LIMIT 1
 station second row|failed: id|INSERT INTO station SELECT 2,name,code,lat_deg,lon_deg,height_m,time_zone,min_el_deg,max_sun_el_deg,min_sun_sep_deg,pressure_hpa,temperature_c,humidity,wavelength_nm,zenith_tau,fire_rate_hz FROM station
 station latitude 91|lat_deg|UPDATE station SET lat_deg = 91
@@ -285,8 +285,11 @@ check "target list hides retired" "! '$M' target list --db '$L' | grep -q EXTRA"
 check "station set" "'$M' station set --db '$L' limits.min_elevation_deg=25 >/dev/null && [ \"\$(q '$L' 'SELECT min_el_deg FROM station')\" = 25.0 ]"
 expect_fail "station set: unknown key" 2 "unknown station key" "$M" station set --db "$L" limits.nope=1
 check "blackout add/list" "'$M' blackout add --db '$L' --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason 'invented' >/dev/null && '$M' blackout list --db '$L' --json | grep -q invented"
+check "setting set and list" "'$M' setting set --db '$L' coverage_bins 24 && '$M' setting list --db '$L' | grep -q 'coverage_bins *24'"
+expect_fail "setting set: out of range" 2 "coverage_bins" "$M" setting set --db "$L" coverage_bins 2
 for c in init "log add" "log list" "log import" "log export" "np import" "eop import" \
-    "target add" "target list" "station show" "station set" "blackout add" ephem; do
+    "target add" "target list" "station show" "station set" "blackout add" \
+    "setting list" ephem; do
 	# shellcheck disable=SC2086
 	check "$c --help" "'$M' $c --help | grep -q usage"
 done

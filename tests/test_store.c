@@ -8,6 +8,7 @@
 #include <unistd.h>
 
 #include "check.h"
+#include "derive.h"
 #include "mem.h"
 #include "store.h"
 
@@ -306,7 +307,7 @@ test_store_every_attempt_rule_refuses_its_bad_row(void **state)
 	} cases[] = {
 		{"shots", ERRCODE_BAD_ARG}, {"returns", ERRCODE_BAD_ARG},
 		{"normal_points", ERRCODE_BAD_ARG},
-		{"end_mjd", ERRCODE_BAD_ARG}, {"operator", ERRCODE_BAD_ARG},
+		{"end_mjd", ERRCODE_BAD_ARG},
 		{"seeing_arcsec", ERRCODE_BAD_ARG},
 		{"synodic_deg", ERRCODE_BAD_ARG},
 		{"mean_elong_deg", ERRCODE_BAD_ARG},
@@ -335,8 +336,6 @@ test_store_every_attempt_rule_refuses_its_bad_row(void **state)
 			a.normal_points = -1;
 		else if (strcmp(f, "end_mjd") == 0)
 			a.end_mjd = a.start_mjd - 0.01;	/* end before start */
-		else if (strcmp(f, "operator") == 0)
-			a.operator_name[0] = '\0';
 		else if (strcmp(f, "seeing_arcsec") == 0)
 			a.seeing_arcsec = -0.5;
 		else if (strcmp(f, "synodic_deg") == 0)
@@ -633,6 +632,62 @@ test_store_transaction_all_or_nothing(void **state)
 	store_close(s);
 }
 
+static void
+test_store_attempt_log_derives_with_stored_eop(void **state)
+{
+	struct site_station st;
+	struct site_target t;
+	struct site_attempt a, b;
+	struct site_eop_row r;
+	struct geom_eop eop, want_eop;
+	struct derive_angles d;
+	enum eop_source src;
+	struct store *s;
+	char path[300], err[300];
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	/* Invented EOP rows (test values, not IERS data) on MJD 61465..61467. */
+	for (int i = 0; i < 3; i++) {
+		r.mjd = 61465.0 + i;
+		r.dut1_s = 0.2 + 0.01 * i;
+		r.xp_arcsec = 0.1;
+		r.yp_arcsec = 0.3;
+		assert_int_equal(store_eop_put(s, &r, err, sizeof err),
+		    ERRCODE_OK);
+	}
+	assert_int_equal(store_eop_at(s, 61466.5, &eop, &src, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(src, EOP_SOURCE_TABLE);
+	/* Linear between 0.21 s and 0.22 s, halfway (no leap second). */
+	check_near(eop.dut1, 0.215, 1e-12, "s", "interpolated DUT1");
+	assert_int_equal(store_eop_at(s, 61500.0, &eop, &src, err, sizeof err),
+	    ERRCODE_OK);
+	assert_int_equal(src, EOP_SOURCE_NONE);
+	assert_true(eop.dut1 == 0.0);
+
+	attempt(&a, "NORTH", 61466.25);
+	a.synodic_deg = a.mean_elong_deg = NAN;
+	assert_int_equal(store_attempt_log(s, &a, err, sizeof err), ERRCODE_OK);
+	assert_int_equal(store_attempt_get(s, a.id, &b, err, sizeof err),
+	    ERRCODE_OK);
+	/* The same angles as derive.h with the table's EOP at mid-time. */
+	station(&st);
+	target(&t, "NORTH", "INVENTED-N");
+	assert_int_equal(store_eop_at(s, 0.5 * (a.start_mjd + a.end_mjd),
+	    &want_eop, NULL, err, sizeof err), ERRCODE_OK);
+	assert_int_equal(derive_at(&st, &t, &want_eop, 0.5 * (a.start_mjd +
+	    a.end_mjd), &d), ERRCODE_OK);
+	assert_true(b.synodic_deg == d.synodic_deg);
+	assert_true(b.target_el_deg == d.target_el_deg);
+	assert_true(b.sun_el_target_deg == d.sun_el_target_deg);
+	attempt(&a, "NOWHERE", 61466.5);
+	assert_int_equal(store_attempt_log(s, &a, err, sizeof err),
+	    ERRCODE_NOT_FOUND);
+	assert_non_null(strstr(err, "NOWHERE"));
+	store_close(s);
+}
+
 /* The schema dump of a database opened at path. */
 static char *
 dump_of(const char *path)
@@ -757,6 +812,7 @@ main(void)
 		cmocka_unit_test(test_store_eop),
 		cmocka_unit_test(test_store_settings),
 		cmocka_unit_test(test_store_transaction_all_or_nothing),
+		cmocka_unit_test(test_store_attempt_log_derives_with_stored_eop),
 		cmocka_unit_test(test_store_migrations_reach_the_same_schema),
 		cmocka_unit_test(test_store_allocation_failure_is_clean),
 	};
