@@ -1051,7 +1051,6 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
 	struct site_attempt a;
-	struct site_target t;
 	json_error_t jerr;
 	json_t *body = NULL;
 	char err[300], msg[360];
@@ -1089,22 +1088,15 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 	}
 	if (attempt_from_json(body, &a, resp))
 		goto out;
-	rc = store_target_get(ctx->db, a.target, &t, err, sizeof err);
+	/* As "log add": angles derived from the stored station, target and
+	   EOP table at the mid-time, then one insert. */
+	rc = store_attempt_log(ctx->db, &a, err, sizeof err);
 	if (rc == ERRCODE_NOT_FOUND) {
 		snprintf(msg, sizeof msg, "target: no target '%.40s' in the "
 		    "database", a.target);
 		api_error(resp, ERRCODE_BAD_ARG, "target", msg);
 		goto out;
 	}
-	if (rc == ERRCODE_OK) {
-		struct geom_eop eop;
-
-		(void)site_eop_at(&ctx->site, 0.5 * (a.start_mjd + a.end_mjd),
-		    &eop);
-		rc = derive_attempt(&ctx->site.station, &t, &eop, &a);
-	}
-	if (rc == ERRCODE_OK)
-		rc = store_attempt_add(ctx->db, &a, err, sizeof err);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, rc == ERRCODE_EXISTS ? "start_utc" : NULL,
 		    rc == ERRCODE_EXISTS ? "start_utc: the target already has "
