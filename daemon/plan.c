@@ -9,6 +9,7 @@
 #include <erfam.h>
 
 #include "derive.h"
+#include "eop.h"
 #include "mem.h"
 #include "plan.h"
 #include "window.h"
@@ -184,6 +185,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	struct window_track tr;
 	struct window_limits lim;
 	struct tscale_instant a, b;
+	struct geom_eop eop;
 	const char *field;
 	size_t nt = 0, nn, cap, nw = 0, nbo = 0, keep;
 	double span;
@@ -276,8 +278,22 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	    !(q->to_mjd > q->from_mjd))
 		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
 		    "%s: the span must end after it starts", "to");
-	if (tscale_from_utc(MJD0, q->from_mjd, q->eop.dut1, &a) != ERRCODE_OK ||
-	    tscale_from_utc(MJD0, q->to_mjd, q->eop.dut1, &b) != ERRCODE_OK)
+	/* Earth orientation: the table at the span's middle, else as given. */
+	eop = q->eop;
+	out->dut1_source = (eop.dut1 != 0.0 || eop.xp != 0.0 ||
+	    eop.yp != 0.0) ? "option" : "none";
+	if (q->eop_rows != NULL && q->neop > 0) {
+		struct eop_table et = {q->eop_rows, q->neop};
+		struct geom_eop e2;
+
+		if (eop_lookup(&et, 0.5 * (q->from_mjd + q->to_mjd), &e2) ==
+		    EOP_SOURCE_TABLE) {
+			eop = e2;
+			out->dut1_source = "table";
+		}
+	}
+	if (tscale_from_utc(MJD0, q->from_mjd, eop.dut1, &a) != ERRCODE_OK ||
+	    tscale_from_utc(MJD0, q->to_mjd, eop.dut1, &b) != ERRCODE_OK)
 		return fail(errbuf, errlen, ERRCODE_BAD_TIME,
 		    "%s: outside the convertible range", "from/to");
 	span = tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) / ERFA_DAYSEC;
@@ -296,7 +312,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	rc = window_track_init(&tr, &site, &q->eop, a.tt1, a.tt2, span, nodes,
+	rc = window_track_init(&tr, &site, &eop, a.tt1, a.tt2, span, nodes,
 	    nn);
 	if (rc != ERRCODE_OK) {
 		fail(errbuf, errlen, rc, "%s: cannot tabulate the span",
@@ -422,6 +438,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		    st->zenith_tau);
 	}
 	out->n = keep;
+	out->eop = eop;
 	out->from_mjd = q->from_mjd;
 	out->to_mjd = q->to_mjd;
 	out->station = *st;

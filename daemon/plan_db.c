@@ -23,6 +23,7 @@ plan_db_free(struct plan_db *d)
 	mem_free(d->blackouts);
 	mem_free(d->attempts);
 	mem_free(d->nps);
+	mem_free(d->eop);
 	plan_db_init(d);
 }
 
@@ -72,6 +73,8 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
 		    errbuf, errlen);
 	if (rc == ERRCODE_OK)
 		rc = store_nps_list(s, &all, &d->nps, &d->nnps, errbuf, errlen);
+	if (rc == ERRCODE_OK)
+		rc = store_eop_load(s, &d->eop, &d->neop, errbuf, errlen);
 	if (rc != ERRCODE_OK)
 		goto out;
 	q->targets = d->targets;
@@ -82,6 +85,8 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
 	q->nattempts = d->nattempts;
 	q->nps = d->nps;
 	q->nnps = d->nnps;
+	q->eop_rows = d->eop;
+	q->neop = d->neop;
 out:
 	if (rc != ERRCODE_OK)
 		plan_db_free(d);

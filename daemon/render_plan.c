@@ -88,6 +88,9 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 		return ERRCODE_NOMEM;
 	bad |= set(root, "from", jiso(r->from_mjd));
 	bad |= set(root, "to", jiso(r->to_mjd));
+	bad |= set(root, "dut1_s", render_json_num(r->eop.dut1, 4));
+	bad |= set(root, "dut1_source", json_string(r->dut1_source != NULL ?
+	    r->dut1_source : "none"));
 	o = json_object();
 	bad |= set(root, "station", o);
 	if (o != NULL) {

@@ -36,7 +36,10 @@ struct plan_query {
 	size_t nattempts;
 	const struct site_normal_point *nps;	/* coverage counts */
 	size_t nnps;
-	struct geom_eop eop;		/* constant over the span */
+	struct geom_eop eop;		/* constant over the span, used when
+					   no EOP row covers its middle */
+	const struct site_eop_row *eop_rows;	/* MJD-sorted, or NULL */
+	size_t neop;
 	double from_mjd, to_mjd;	/* UTC */
 	const char *target;		/* only this id, or NULL */
 	size_t limit;			/* keep the best limit; 0 = all */
@@ -63,6 +66,8 @@ struct plan_target_model {
 
 struct plan_result {
 	double from_mjd, to_mjd;
+	struct geom_eop eop;			/* what was used */
+	const char *dut1_source;		/* "table", "option" or "none" */
 	struct site_station station;
 	struct score_settings settings;
 	struct score_model model;

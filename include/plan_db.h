@@ -15,7 +15,8 @@ struct plan_db {
 	struct site_blackout *blackouts;
 	struct site_attempt *attempts;
 	struct site_normal_point *nps;
-	size_t ntargets, nblackouts, nattempts, nnps;
+	struct site_eop_row *eop;
+	size_t ntargets, nblackouts, nattempts, nnps, neop;
 };
 
 void plan_db_init(struct plan_db *d);
@@ -25,7 +26,7 @@ void plan_db_free(struct plan_db *d);
 
 /*
  * Open path read-only and fill q's station, settings, targets, blackouts,
- * attempts and normal points (q->targets and the other arrays then point
+ * attempts, normal points and Earth-orientation rows (q->targets and the other arrays then point
  * into d).  The rest of q (span, target, limit) is left to the caller.
  * Returned (function value): ERRCODE_OK, ERRCODE_NOT_FOUND (no file, or
  * no station in it), ERRCODE_DB, ERRCODE_NOMEM; errbuf says which.

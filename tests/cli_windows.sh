@@ -1,0 +1,98 @@
+#!/usr/bin/env bash
+# SPDX-License-Identifier: BSD-3-Clause
+# cli_windows.sh: black-box checks of "moonrange windows" and "tonight"
+# (cmd_windows.c, cmd_tonight.c, render_plan.c): help, bad input with
+# one-line errors and exit 2, JSON fields, and the iCalendar output
+# against Debian's python3-icalendar (tests/ics_check.py).
+# Usage: cli_windows.sh MOONRANGE_BINARY SOURCE_DIR
+set -euo pipefail
+bin=$1
+src=$2
+tmp=$(mktemp -d)
+trap 'rm -rf "$tmp"' EXIT
+st=38.9712,-114.3098,2950   # the invented demo station
+span=(--from 2027-03-14T00:00:00Z --to 2027-03-24T00:00:00Z)
+
+fail() { echo "FAIL: $*" >&2; exit 1; }
+
+# usage: expect_usage_error ARGS... : exit 2 and one "moonrange: error:" line
+expect_usage_error() {
+	local rc=0
+	"$bin" "$@" >"$tmp/out" 2>"$tmp/err" || rc=$?
+	[ "$rc" = 2 ] || fail "'$*' exited $rc, want 2"
+	[ "$(wc -l <"$tmp/err")" = 1 ] || fail "'$*': not one line on stderr"
+	grep -q '^moonrange: error: ' "$tmp/err" || fail "'$*': $(cat "$tmp/err")"
+	[ ! -s "$tmp/out" ] || fail "'$*' printed to stdout"
+}
+
+"$bin" windows --help | grep -q -- '--min-sun-sep' || fail "windows --help"
+"$bin" tonight --help | grep -q -- '--db' || fail "tonight --help"
+expect_usage_error windows
+expect_usage_error windows --station "$st" --db x.db
+expect_usage_error windows --station 95,0,0
+expect_usage_error windows --station "$st" --days -3
+expect_usage_error windows --station "$st" --from 2027-13-01T00:00:00Z
+expect_usage_error windows --station "$st" --limit 0
+expect_usage_error windows --station "$st" --min-el 120
+expect_usage_error windows --station "$st" --json --csv
+expect_usage_error windows --station "$st" --target HERON "${span[@]}"
+expect_usage_error windows --station "$st" --bogus
+expect_usage_error tonight --station "$st"
+expect_usage_error tonight --station "$st" --tz Mars/Olympus
+expect_usage_error windows --db "$tmp/missing.db"
+grep -q 'missing.db' "$tmp/err" || fail "--db error names the file"
+
+# The Moon's centre, id "moon", default limits; JSON fields.
+"$bin" windows --station "$st" "${span[@]}" --json >"$tmp/w.json"
+/usr/bin/python3 - "$tmp/w.json" <<'PY'
+import json, sys
+d = json.load(open(sys.argv[1]))
+want = ["rank", "target", "start", "end", "duration_s", "max_el_deg",
+        "max_el_utc", "synodic_angle_deg", "phase_bin", "bin_count",
+        "coverage_weight", "sunlit_fraction", "mean_airmass",
+        "expected_returns", "score", "reasons"]
+assert d["windows"], "no windows"
+for w in d["windows"]:
+    assert sorted(w) == sorted(want), sorted(w)
+    assert w["target"] == "moon"
+    assert w["max_el_deg"] >= 20.0 - 1e-6
+assert d["limits"] == {"min_el_deg": 20.0, "max_sun_el_deg": -12.0,
+                       "min_sun_sep_deg": 20.0, "elevation": "geometric"}
+assert [w["rank"] for w in d["windows"]] == list(range(1, len(d["windows"]) + 1))
+print("json ok: %d windows" % len(d["windows"]))
+PY
+
+# Overrides reach the planner; --limit keeps the best.
+"$bin" windows --station "$st" "${span[@]}" --min-el 40 --limit 2 --json \
+	>"$tmp/w40.json"
+/usr/bin/python3 - "$tmp/w40.json" <<'PY'
+import json, sys
+d = json.load(open(sys.argv[1]))
+assert d["limits"]["min_el_deg"] == 40.0
+assert len(d["windows"]) <= 2 and d["total_windows"] >= len(d["windows"])
+PY
+
+# iCalendar against an independent parser, times against the JSON.
+"$bin" windows --station "$st" "${span[@]}" --ics >"$tmp/w.ics"
+/usr/bin/python3 "$src/tests/ics_check.py" "$tmp/w.ics" "$tmp/w.json"
+
+# CSV: header and one record per window.
+"$bin" windows --station "$st" "${span[@]}" --csv >"$tmp/w.csv"
+head -1 "$tmp/w.csv" | grep -q '^rank,target,start,end,duration_s,' ||
+	fail "csv header"
+/usr/bin/python3 - "$tmp/w.csv" "$tmp/w.json" <<'PY'
+import csv, json, sys
+rows = list(csv.reader(open(sys.argv[1], newline="")))
+d = json.load(open(sys.argv[2]))
+assert len(rows) == len(d["windows"]) + 1
+assert all(len(r) == 16 for r in rows)
+assert rows[1][1] == "moon" and rows[1][2] == d["windows"][0]["start"]
+PY
+
+# tonight on an ad-hoc station, pinned now: 80 columns.
+"$bin" tonight --station "$st" --tz America/Los_Angeles \
+	--at 2027-03-20T05:00:00Z >"$tmp/t.txt"
+grep -q 'Best now:' "$tmp/t.txt" || fail "tonight: best now"
+grep -q 'Next change:' "$tmp/t.txt" || fail "tonight: next change"
+awk 'length($0) > 80 { exit 1 }' "$tmp/t.txt" || fail "tonight wider than 80"
+echo "cli_windows ok"

@@ -1,0 +1,398 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_score.c: airmass, the yield model on simulated logs, coverage
+   weights and the ranking of windows by phase coverage. */
+#include <stdlib.h>
+#include <string.h>
+
+#include <erfa.h>
+#include <erfam.h>
+#include <libnova/airmass.h>
+
+#include "check.h"
+#include "score.h"
+
+#define D2R ERFA_DD2R
+#define DAY ERFA_DAYSEC
+
+static unsigned long long rng_state = 0x2545F4914F6CDD1DULL;
+
+static double
+urand(void)
+{
+	rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
+	return ((double)(rng_state >> 11) + 0.5) / 9007199254740992.0;
+}
+
+/* Poisson deviate by multiplying uniforms (Knuth, TAOCP vol. 2, 3.4.1),
+   fine for the means below 100 used here. */
+static long
+poisson(double lambda)
+{
+	double l = exp(-lambda), p = 1.0;
+	long k = 0;
+
+	do {
+		k++;
+		p *= urand();
+	} while (p > l);
+	return k - 1;
+}
+
+/* --- atmosphere --- */
+
+static void
+test_score_airmass_against_libnova(void **state)
+{
+	static const struct {
+		double h, tol_rel;
+	} rows[] = {
+		/* Tolerances: libnova 0.16 ln_get_airmass models a homogeneous
+		   spherical atmosphere (scale 750); it and Kasten & Young's
+		   fit agree to a few 0.1 % above 20 deg and part company
+		   towards the horizon, where refraction matters. */
+		{90.0, 0.001}, {75.0, 0.001}, {60.0, 0.001}, {45.0, 0.001},
+		{30.0, 0.002}, {20.0, 0.003}, {15.0, 0.005}, {10.0, 0.012},
+		{5.0, 0.035},
+	};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof rows / sizeof rows[0]; i++) {
+		double want = ln_get_airmass(rows[i].h, 750.0);
+		double got = score_airmass(rows[i].h * D2R);
+
+		check_near(got, want, rows[i].tol_rel * want, "",
+		    "airmass vs libnova ln_get_airmass");
+	}
+	/* Zenith: the fit reads 0.9997 (1 / (1 + 0.50572 * 96.08^-1.6364),
+	   Kasten & Young 1989 eq. 3 evaluated by hand); physical value 1. */
+	check_near(score_airmass(90.0 * D2R), 1.0, 5e-4, "", "zenith airmass");
+	/* Horizon: Kasten & Young give 38.09 for their model atmosphere and
+	   about 37.92 for the fit (quoted from memory); libnova's spherical
+	   model reads 38.74, within 3 %. */
+	check_near(score_airmass(0.0), 37.92, 0.01, "", "horizon airmass");
+	check_near(score_airmass(0.0), ln_get_airmass(0.0, 750.0),
+	    0.03 * 38.74, "", "horizon airmass vs libnova");
+	/* Below the horizon the value is held at the horizon's. */
+	check_near(score_airmass(-5.0 * D2R), score_airmass(0.0), 0, "",
+	    "below the horizon");
+	/* Two-way transmission exp(-2 tau X), the definition (DESIGN 3). */
+	check_near(score_transmission(0.1, 30.0 * D2R),
+	    exp(-0.2 * score_airmass(30.0 * D2R)), 1e-15, "",
+	    "transmission at 30 deg");
+}
+
+/* --- the yield model --- */
+
+struct truth {
+	const char *id;
+	double strength, r, f;
+};
+
+/* A log of n attempts per target drawn from the model with truth t. */
+static struct site_attempt *
+simulate(const struct truth *t, size_t nt, size_t n, double tau,
+    size_t *na)
+{
+	struct site_attempt *a = calloc(nt * n + 3, sizeof a[0]);
+	size_t k = 0;
+
+	assert_non_null(a);
+	for (size_t i = 0; i < n; i++)
+		for (size_t j = 0; j < nt; j++) {
+			struct site_attempt *x = &a[k++];
+			double el = 20.0 + 65.0 * urand();
+			int lit = urand() < 0.5;
+			double lam;
+
+			snprintf(x->target, sizeof x->target, "%s", t[j].id);
+			x->shots = 3000 + (long)(3000 * urand());
+			x->target_el_deg = el;
+			x->sun_el_target_deg = lit ? 10.0 : -10.0;
+			x->outcome = SITE_OUTCOME_RANGED;
+			lam = (double)x->shots * t[j].r *
+			    score_transmission(tau, el * D2R) *
+			    (lit ? t[j].f : 1.0);
+			x->returns = poisson(lam);
+			if (x->returns == 0)
+				x->outcome = SITE_OUTCOME_NO_RETURNS;
+		}
+	/* Attempts that must be left out: weather, no shots, unknown id. */
+	snprintf(a[k].target, sizeof a[k].target, "%s", t[0].id);
+	a[k].shots = 100000;
+	a[k].returns = 0;
+	a[k].outcome = SITE_OUTCOME_WEATHER;
+	a[k].target_el_deg = 45;
+	a[k++].sun_el_target_deg = -5;
+	snprintf(a[k].target, sizeof a[k].target, "%s", t[0].id);
+	a[k].outcome = SITE_OUTCOME_RANGED;
+	a[k].target_el_deg = 45;
+	a[k++].sun_el_target_deg = -5;
+	snprintf(a[k].target, sizeof a[k].target, "no-such-target");
+	a[k].shots = 1000;
+	a[k].returns = 900;
+	a[k].target_el_deg = 45;
+	a[k++].sun_el_target_deg = -5;
+	*na = k;
+	return a;
+}
+
+static void
+test_score_yield_converges_to_truth(void **state)
+{
+	static const struct truth t[3] = {
+		{"A", 1.0, 2.0e-3, 0.30},
+		{"B", 0.5, 0.8e-3, 0.60},
+		{"C", 2.0, 5.0e-3, 0.45},
+	};
+	struct site_target tg[3];
+	struct score_settings s;
+	struct score_yield y[3];
+	struct score_model m;
+	double err_small[3], err_big[3];
+	const double tau = 0.12;
+
+	(void)state;
+	score_settings_default(&s);
+	memset(tg, 0, sizeof tg);
+	for (int j = 0; j < 3; j++) {
+		snprintf(tg[j].id, sizeof tg[j].id, "%s", t[j].id);
+		tg[j].strength = t[j].strength;
+		tg[j].active = 1;
+	}
+	for (int pass = 0; pass < 2; pass++) {
+		size_t n = pass == 0 ? 10 : 4000, na;
+		struct site_attempt *a = simulate(t, 3, n, tau, &na);
+
+		assert_int_equal(score_fit(&s, tau, tg, 3, a, na, y, &m),
+		    ERRCODE_OK);
+		assert_int_equal(m.attempts_used, (long)(3 * n));
+		assert_int_equal(m.attempts_skipped, 3);
+		for (int j = 0; j < 3; j++) {
+			double e = fabs(y[j].rate / t[j].r - 1.0);
+
+			if (pass == 0) {
+				err_small[j] = e;
+				continue;
+			}
+			err_big[j] = e;
+			/* Truth of the simulation; 4000 attempts of ~4500
+			   shots give ~1 % standard error on r, ~2 % on f. */
+			check_near(y[j].rate, t[j].r, 0.04 * t[j].r,
+			    "returns/shot", "r_j from a long log");
+			check_near(y[j].sunlit_factor, t[j].f, 0.06 * t[j].f, "",
+			    "f_j from a long log");
+		}
+		free(a);
+	}
+	/* Shrinkage: a short log leaves the estimate nearer the prior, and
+	   the error shrinks with exposure for every target. */
+	for (int j = 0; j < 3; j++)
+		assert_true(err_big[j] < err_small[j] + 0.02);
+
+	/* No history: the prior from the strength and the defaults. */
+	assert_int_equal(score_fit(&s, tau, tg, 3, NULL, 0, y, &m), ERRCODE_OK);
+	for (int j = 0; j < 3; j++) {
+		check_near(y[j].rate, s.prior_rate * t[j].strength, 1e-15,
+		    "returns/shot", "prior rate = strength x default");
+		check_near(y[j].sunlit_factor, s.prior_sunlit, 1e-15, "",
+		    "prior sunlit factor");
+	}
+	tg[1].strength = 0.0;
+	assert_int_equal(score_fit(&s, tau, tg, 3, NULL, 0, y, &m),
+	    ERRCODE_BAD_ARG);
+	tg[1].strength = 1.0;
+	assert_int_equal(score_fit(&s, -1.0, tg, 3, NULL, 0, y, &m),
+	    ERRCODE_BAD_ARG);
+}
+
+/* --- coverage weights --- */
+
+static void
+test_score_bins_and_weights(void **state)
+{
+	long c[12] = {0};
+
+	(void)state;
+	assert_int_equal(score_bin_of(0.0, 12), 0);
+	assert_int_equal(score_bin_of(29.999, 12), 0);
+	assert_int_equal(score_bin_of(30.0, 12), 1);
+	assert_int_equal(score_bin_of(359.999, 12), 11);
+	assert_int_equal(score_bin_of(360.0, 12), 0);
+	assert_int_equal(score_bin_of(-1.0, 12), 11);
+	assert_int_equal(score_bin_of(725.0, 72), 1);
+	score_bin_add(c, 12, 95.0, 3);
+	score_bin_add(c, 12, NAN, 5);
+	score_bin_add(c, 12, 275.0, -2);
+	assert_int_equal(c[3], 3);
+	check_near(score_bin_mean(c, 12), 0.25, 1e-15, "", "mean count");
+	/* W = ((nbar + k) / (n + k))^alpha (DESIGN 4): 1 at the mean,
+	   larger where sparse, 1 everywhere with alpha = 0. */
+	check_near(score_coverage_weight(41, 41.0, 1.0, 1.0), 1.0, 1e-15, "",
+	    "at the mean");
+	check_near(score_coverage_weight(3, 41.0, 1.0, 1.0), 42.0 / 4.0, 1e-12,
+	    "", "3 against a mean of 41");
+	check_near(score_coverage_weight(3, 41.0, 1.0, 0.5), sqrt(10.5), 1e-12,
+	    "", "alpha 0.5");
+	check_near(score_coverage_weight(3, 41.0, 1.0, 0.0), 1.0, 0, "",
+	    "alpha 0");
+	assert_true(score_coverage_weight(0, 10, 1, 1) >
+	    score_coverage_weight(5, 10, 1, 1));
+}
+
+/* --- ranking by phase coverage --- */
+
+struct month {
+	struct geom_site site;
+	struct window_track tr;
+	struct window_node *nodes;
+	double full, first_quarter;	/* TT offsets */
+};
+
+static void
+month_open(struct month *m)
+{
+	double u1, u2;
+	struct tscale_instant t;
+	struct geom_phase_event ev[8];
+	size_t nn = window_track_nodes(30.0), n = 0;
+
+	assert_int_equal(geom_site_init(&m->site, 38.9712 * D2R,
+	    -114.3098 * D2R, 2950.0, NULL), ERRCODE_OK);
+	assert_int_equal(tscale_parse_utc("2027-03-01T00:00:00Z", &u1, &u2,
+	    NULL, 0), ERRCODE_OK);
+	assert_int_equal(tscale_from_utc(u1, u2, 0.0, &t), ERRCODE_OK);
+	m->nodes = calloc(nn, sizeof m->nodes[0]);
+	assert_non_null(m->nodes);
+	assert_int_equal(window_track_init(&m->tr, &m->site, NULL, t.tt1,
+	    t.tt2, 30.0, m->nodes, nn), ERRCODE_OK);
+	assert_int_equal(geom_phases_find(t.tt1, t.tt2, t.tt1, t.tt2 + 30.0,
+	    ev, 8, &n), ERRCODE_OK);
+	m->full = m->first_quarter = -1;
+	for (size_t i = 0; i < n; i++) {
+		double off = (ev[i].tt1 - t.tt1) + (ev[i].tt2 - t.tt2);
+
+		if (ev[i].kind == GEOM_PHASE_FULL && m->full < 0)
+			m->full = off;
+		if (ev[i].kind == GEOM_PHASE_FIRST_QUARTER &&
+		    m->first_quarter < 0)
+			m->first_quarter = off;
+	}
+	assert_true(m->full > 0 && m->first_quarter > 0);
+}
+
+static void
+test_score_sparse_phase_outranks_quarter(void **state)
+{
+	struct month m;
+	struct score_settings s;
+	struct score_params p;
+	struct score_target tg;
+	struct score_window sw[2];
+	struct window w[2];
+	long counts[12] = {0};
+	const double hour = 1.0 / 24.0;
+
+	(void)state;
+	month_open(&m);
+	/* A synthetic log concentrated at the quarter phases: 60 normal
+	   points near 90 and near 270 deg, 2 near new and full moon. */
+	for (int i = 0; i < 60; i++) {
+		score_bin_add(counts, 12, 80.0 + 20.0 * i / 60.0, 1);
+		score_bin_add(counts, 12, 260.0 + 20.0 * i / 60.0, 1);
+	}
+	score_bin_add(counts, 12, 185.0, 2);
+	score_bin_add(counts, 12, 5.0, 2);
+	score_settings_default(&s);
+	s.prior_sunlit = 1.0;	/* no sunlit penalty ... */
+	p.tr = &m.tr;
+	p.s = &s;
+	p.tau = 0.0;		/* ... and no atmosphere: R is a constant, so */
+	p.fire_rate_hz = 10.0;	/* two 2 h windows are geometrically equal */
+	memset(&tg, 0, sizeof tg);
+	tg.body = NULL;
+	tg.yield.rate = 2e-3;
+	tg.yield.sunlit_factor = 1.0;
+	tg.counts = counts;
+	/* One to three hours after full moon and after first quarter: the
+	   synodic angle moves ~0.5 deg/h, so neither crosses a bin edge. */
+	w[0].target = 0;
+	w[0].start = m.first_quarter + hour;
+	w[0].end = m.first_quarter + 3 * hour;
+	w[1].target = 0;
+	w[1].start = m.full + hour;
+	w[1].end = m.full + 3 * hour;
+
+	for (int pass = 0; pass < 2; pass++) {
+		s.alpha = pass == 0 ? 1.0 : 0.0;
+		for (int i = 0; i < 2; i++) {
+			assert_int_equal(score_window(&p, &tg, &w[i], &sw[i]),
+			    ERRCODE_OK);
+			/* The factors reproduce the score. */
+			assert_int_equal(sw[i].bins_crossed, 0);
+			check_near(sw[i].expected_returns, 10.0 * 2e-3 * 7200.0,
+			    1e-9, "returns", "R x duration (tau 0, f 1)");
+			check_near(sw[i].coverage_weight,
+			    score_coverage_weight(sw[i].bin_count,
+			    sw[i].bin_mean, s.k, s.alpha), 1e-12, "",
+			    "W from the bin's count");
+			check_near(sw[i].score, sw[i].expected_returns *
+			    sw[i].coverage_weight, 1e-9, "", "score = E x W");
+			check_near(sw[i].duration_s, 7200.0, 1e-6, "s",
+			    "duration");
+		}
+		assert_int_equal(sw[0].phase_bin, 3);	/* 90-120 deg */
+		assert_int_equal(sw[1].phase_bin, 6);	/* 180-210 deg */
+		score_rank(sw, 2);
+		if (pass == 0) {
+			/* alpha 1: the sparse full-moon bin ranks first. */
+			assert_int_equal(sw[0].phase_bin, 6);
+			assert_true(sw[0].score > 5.0 * sw[1].score);
+		} else {
+			/* alpha 0: equal scores; the tie goes to the earlier
+			   window (first quarter), phase plays no part. */
+			check_near(sw[0].score, sw[1].score, 1e-9, "",
+			    "equal without weighting");
+			assert_int_equal(sw[0].phase_bin, 3);
+		}
+		assert_int_equal(sw[0].rank, 1);
+		assert_int_equal(sw[1].rank, 2);
+	}
+	free(m.nodes);
+}
+
+static void
+test_score_settings_checked(void **state)
+{
+	struct score_settings s;
+	const char *field = NULL;
+
+	(void)state;
+	score_settings_default(&s);
+	assert_int_equal(score_settings_check(&s, &field), ERRCODE_OK);
+	assert_null(field);
+	s.nbins = 3;
+	assert_int_equal(score_settings_check(&s, &field), ERRCODE_BAD_ARG);
+	assert_string_equal(field, "coverage_bins");
+	score_settings_default(&s);
+	s.alpha = -1;
+	assert_int_equal(score_settings_check(&s, &field), ERRCODE_BAD_ARG);
+	assert_string_equal(field, "coverage_alpha");
+	score_settings_default(&s);
+	s.k = 0;
+	assert_int_equal(score_settings_check(&s, &field), ERRCODE_BAD_ARG);
+	assert_string_equal(field, "coverage_k");
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_score_airmass_against_libnova),
+		cmocka_unit_test(test_score_yield_converges_to_truth),
+		cmocka_unit_test(test_score_bins_and_weights),
+		cmocka_unit_test(test_score_sparse_phase_outranks_quarter),
+		cmocka_unit_test(test_score_settings_checked),
+	};
+
+	return cmocka_run_group_tests_name("score", tests, NULL, NULL);
+}
