@@ -278,6 +278,12 @@ test_api_status(void **state)
 	    "last_utc"));
 	json_decref(j);
 	http_reply_free(&r);
+	/* HEAD: the headers of GET, no body. */
+	assert_int_equal(http_request(port, "HEAD", "/api/v1/status", NULL,
+	    NULL, 0, &r), 200);
+	assert_int_equal(r.body_len, 0);
+	assert_security_headers(&r);
+	http_reply_free(&r);
 }
 
 static void
