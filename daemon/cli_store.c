@@ -14,6 +14,35 @@
 #define MJD_BASE 2400000.5
 
 int
+cli_store_action(int argc, char **argv, const char *const *actions,
+    void (*usage)(FILE *), int *which)
+{
+	char list[160];
+	size_t len = 0;
+	int n = 0;
+
+	list[0] = '\0';
+	for (n = 0; actions[n] != NULL; n++)
+		len += (size_t)snprintf(list + len, len < sizeof list ?
+		    sizeof list - len : 0, "%s%s", n == 0 ? "" :
+		    actions[n + 1] == NULL ? " or " : ", ", actions[n]);
+	if (argc < 2)
+		return cli_usage_error("%s: an action is required: %s (see "
+		    "'moonrange %s --help')", argv[0], list, argv[0]);
+	if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0) {
+		usage(stdout);
+		return CLI_EXIT_OK;
+	}
+	for (int i = 0; i < n; i++)
+		if (strcmp(argv[1], actions[i]) == 0) {
+			*which = i;
+			return -1;
+		}
+	return cli_usage_error("%s: unknown action '%s' (%s)", argv[0],
+	    argv[1], list);
+}
+
+int
 cli_store_open(struct cli_store *c, const char *db, int flags)
 {
 	char err[512];

@@ -40,7 +40,8 @@ cmd_blackout(int argc, char **argv)
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
 	};
-	static const char *const actions[] = {"add", "list", "remove"};
+	static const char *const actions[] = {"add", "list", "remove",
+	    NULL};
 	struct site_blackout b, *list = NULL;
 	struct cli_store c;
 	struct mbuf out;
@@ -52,17 +53,9 @@ cmd_blackout(int argc, char **argv)
 	size_t n = 0;
 	enum errcode rc;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	for (int i = 0; i < 3; i++)
-		if (strcmp(argv[1], actions[i]) == 0)
-			which = i;
-	if (which < 0)
-		return cli_usage_error("blackout: unknown action '%s' (add, "
-		    "list or remove)", argv[1]);
+	if ((st = cli_store_action(argc, argv, actions, usage, &which)) >= 0)
+		return st;
+	st = CLI_EXIT_OK;
 	memset(&b, 0, sizeof b);
 	b.start_mjd = b.end_mjd = NAN;
 	argc--;

@@ -29,6 +29,7 @@ usage(FILE *f)
 int
 cmd_eop(int argc, char **argv)
 {
+	static const char *const actions[] = {"import", "status", NULL};
 	static const struct option opts[] = {
 		{"db", required_argument, NULL, 'd'},
 		{"c04", no_argument, NULL, 'c'},
@@ -40,18 +41,13 @@ cmd_eop(int argc, char **argv)
 	const char *db = NULL;
 	char err[512], d0[40], d1[40];
 	double first, last;
-	int ch, st, c04 = 0, import;
+	int ch, which, act = 0, st, c04 = 0, import;
 	enum errcode rc;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	if (strcmp(argv[1], "import") != 0 && strcmp(argv[1], "status") != 0)
-		return cli_usage_error("eop: unknown action '%s' (import or "
-		    "status)", argv[1]);
-	import = strcmp(argv[1], "import") == 0;
+	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
+	    0)
+		return which;
+	import = act == 0;
 	argc--;
 	argv++;
 	optind = 1;

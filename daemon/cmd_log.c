@@ -326,21 +326,12 @@ int
 cmd_log(int argc, char **argv)
 {
 	static const char *const actions[] = {"add", "list", "import",
-	    "export"};
+	    "export", NULL};
 	struct log_args a;
 	int st, which = -1;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	for (int i = 0; i < 4; i++)
-		if (strcmp(argv[1], actions[i]) == 0)
-			which = i;
-	if (which < 0)
-		return cli_usage_error("log: unknown action '%s' (add, list, "
-		    "import or export)", argv[1]);
+	if ((st = cli_store_action(argc, argv, actions, usage, &which)) >= 0)
+		return st;
 	if ((st = parse_args(argc - 1, argv + 1, &a)) != CLI_EXIT_OK)
 		return st;
 	if (a.help) {

@@ -32,6 +32,7 @@ usage(FILE *f)
 int
 cmd_np(int argc, char **argv)
 {
+	static const char *const actions[] = {"import", "count", NULL};
 	static const struct option opts[] = {
 		{"db", required_argument, NULL, 'd'},
 		{"since", required_argument, NULL, 's'},
@@ -46,18 +47,13 @@ cmd_np(int argc, char **argv)
 	struct cli_store_counts n;
 	const char *db = NULL;
 	char err[512];
-	int ch, st, import;
+	int ch, which, act = 0, st, import;
 	size_t count = 0;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	if (strcmp(argv[1], "import") != 0 && strcmp(argv[1], "count") != 0)
-		return cli_usage_error("np: unknown action '%s' (import or "
-		    "count)", argv[1]);
-	import = strcmp(argv[1], "import") == 0;
+	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
+	    0)
+		return which;
+	import = act == 0;
 	store_query_init(&q);
 	argc--;
 	argv++;

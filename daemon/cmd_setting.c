@@ -26,6 +26,7 @@ usage(FILE *f)
 int
 cmd_setting(int argc, char **argv)
 {
+	static const char *const actions[] = {"list", "set", NULL};
 	static const struct option opts[] = {
 		{"db", required_argument, NULL, 'd'},
 		{"help", no_argument, NULL, 'h'},
@@ -35,18 +36,13 @@ cmd_setting(int argc, char **argv)
 	struct cli_store c;
 	const char *db = NULL;
 	char err[512], v[64];
-	int ch, st, list;
+	int ch, which, act = 0, st, list;
 	enum errcode rc;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	if (strcmp(argv[1], "list") != 0 && strcmp(argv[1], "set") != 0)
-		return cli_usage_error("setting: unknown action '%s' (list or "
-		    "set)", argv[1]);
-	list = strcmp(argv[1], "list") == 0;
+	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
+	    0)
+		return which;
+	list = act == 0;
 	argc--;
 	argv++;
 	optind = 1;

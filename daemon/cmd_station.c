@@ -58,6 +58,7 @@ set_one(struct site_station *st, const char *arg)
 int
 cmd_station(int argc, char **argv)
 {
+	static const char *const actions[] = {"show", "set", NULL};
 	static const struct option opts[] = {
 		{"db", required_argument, NULL, 'd'},
 		{"json", no_argument, NULL, 'j'},
@@ -69,18 +70,13 @@ cmd_station(int argc, char **argv)
 	struct mbuf out;
 	const char *db = NULL;
 	char err[512];
-	int ch, json = 0, show, status;
+	int ch, which, act = 0, json = 0, show, status;
 	enum errcode rc;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	if (strcmp(argv[1], "show") != 0 && strcmp(argv[1], "set") != 0)
-		return cli_usage_error("station: unknown action '%s' (show or "
-		    "set)", argv[1]);
-	show = strcmp(argv[1], "show") == 0;
+	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
+	    0)
+		return which;
+	show = act == 0;
 	argc--;
 	argv++;
 	optind = 1;

@@ -127,7 +127,8 @@ cmd_target(int argc, char **argv)
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
 	};
-	static const char *const actions[] = {"add", "set", "retire", "list"};
+	static const char *const actions[] = {"add", "set", "retire", "list",
+	    NULL};
 	struct target_edit e = {NULL, NULL, NAN, NAN, NAN, NAN, -1, -1};
 	struct site_target t, *list = NULL;
 	struct cli_store c;
@@ -138,17 +139,9 @@ cmd_target(int argc, char **argv)
 	size_t n = 0;
 	enum errcode rc;
 
-	if (argc < 2 || strcmp(argv[1], "--help") == 0 ||
-	    strcmp(argv[1], "-h") == 0) {
-		usage(argc < 2 ? stderr : stdout);
-		return argc < 2 ? CLI_EXIT_USAGE : CLI_EXIT_OK;
-	}
-	for (int i = 0; i < 4; i++)
-		if (strcmp(argv[1], actions[i]) == 0)
-			which = i;
-	if (which < 0)
-		return cli_usage_error("target: unknown action '%s' (add, set, "
-		    "retire or list)", argv[1]);
+	if ((st = cli_store_action(argc, argv, actions, usage, &which)) >= 0)
+		return st;
+	st = CLI_EXIT_OK;
 	argc--;
 	argv++;
 	optind = 1;

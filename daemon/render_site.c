@@ -83,15 +83,20 @@ finish(json_t *root, int failed, struct mbuf *out)
 static json_t *
 wrapper(const char *key, json_t **arr)
 {
-	json_t *root = json_object();
+	json_t *root = json_object(), *a = json_array();
 
-	*arr = json_array();
-	if (root == NULL || *arr == NULL ||
-	    json_object_set_new(root, key, *arr) != 0) {
+	*arr = NULL;
+	if (root == NULL || a == NULL) {
 		json_decref(root);
-		*arr = NULL;
+		json_decref(a);
 		return NULL;
 	}
+	/* json_object_set_new takes a even when it fails. */
+	if (json_object_set_new(root, key, a) != 0) {
+		json_decref(root);
+		return NULL;
+	}
+	*arr = a;
 	return root;
 }
 

@@ -5,6 +5,7 @@
 #define MOONRANGE_CLI_STORE_H
 
 #include <stddef.h>
+#include <stdio.h>
 
 #include "eop.h"
 #include "geom.h"
@@ -28,6 +29,16 @@ struct cli_store {
 	struct site_eop_row *eop;
 	size_t neop;
 };
+
+/*
+ * The action word of a command with actions ("log add"): argv[1] must be
+ * one of actions[] (NULL-ended).  Returns -1 with *which set (index into
+ * actions) to go on, or an exit status: CLI_EXIT_OK after printing the
+ * usage for --help, CLI_EXIT_USAGE (error printed) for a missing or
+ * unknown action.
+ */
+int cli_store_action(int argc, char **argv, const char *const *actions,
+    void (*usage)(FILE *), int *which);
 
 /* Open --db (NULL: error "--db FILE is required"); flags of store_open. */
 int cli_store_open(struct cli_store *c, const char *db, int flags);

@@ -194,6 +194,11 @@ expect_fail "np import: malformed line named" 2 "bad.crd:12" "$M" np import --db
 check "np import: nothing stored from the bad file" "[ \"\$(q '$L' 'SELECT count(*) FROM normal_points')\" = 0 ]"
 sed 's/^H3 heron /H3 nosuch /' "$SITE/normalpoints.crd" >"$T/alias.crd"
 expect_fail "np import: unknown target name" 2 "nosuch" "$M" np import --db "$L" "$T/alias.crd"
+sed 's/^H2 KSTR /H2 OTHR /' "$SITE/normalpoints.crd" >"$T/other.crd"
+check "np import of another station's file" "'$M' np import --db '$L' '$T/other.crd' >/dev/null"
+check "... keeps its station code, no elevation of ours" "[ \"\$(q '$L' \"SELECT count(*) FROM normal_points WHERE station_code = 'OTHR' AND target_el_deg IS NULL AND sun_el_target_deg IS NOT NULL\")\" = $NNP ]"
+check "np count --station" "[ \"\$('$M' np count --db '$L' --station OTHR)\" = $NNP ]"
+sqlite3 "$L" "DELETE FROM normal_points WHERE station_code = 'OTHR'"
 check "np count" "[ \"\$('$M' np count --db '$L')\" = 0 ]"
 
 # --- EOP -----------------------------------------------------------------------
@@ -287,6 +292,10 @@ expect_fail "station set: unknown key" 2 "unknown station key" "$M" station set 
 check "blackout add/list" "'$M' blackout add --db '$L' --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason 'invented' >/dev/null && '$M' blackout list --db '$L' --json | grep -q invented"
 check "setting set and list" "'$M' setting set --db '$L' coverage_bins 24 && '$M' setting list --db '$L' | grep -q 'coverage_bins *24'"
 expect_fail "setting set: out of range" 2 "coverage_bins" "$M" setting set --db "$L" coverage_bins 2
+for c in log np eop target station blackout setting; do
+	expect_fail "$c without an action" 2 "an action is required" "$M" "$c"
+done
+expect_fail "unknown action" 2 "unknown action 'frobnicate'" "$M" log frobnicate
 for c in init "log add" "log list" "log import" "log export" "np import" "eop import" \
     "target add" "target list" "station show" "station set" "blackout add" \
     "setting list" ephem; do
