@@ -10,7 +10,7 @@
 #include "cli.h"
 #include "geom.h"
 #include "plan.h"
-#include "plan_db.h"
+#include "plan_cli.h"
 #include "render.h"
 
 #define MJD0 2400000.5
@@ -97,11 +97,8 @@ cmd_tonight(int argc, char **argv)
 	char err[256];
 	struct plan_query q;
 	struct plan_db hold;
-	struct plan_result res;
 	struct render_plan rp;
 	struct tscale_instant ti;
-	struct mbuf out;
-	enum errcode rc;
 
 	optind = 1;
 	opterr = 0;
@@ -158,16 +155,10 @@ cmd_tonight(int argc, char **argv)
 		cli_now(&now1, &now2);
 	now = (now1 - MJD0) + now2;
 
-	plan_query_init(&q);
-	plan_db_init(&hold);
+	st = plan_cli_load(db, lat, lon, h, &q, &hold);
+	if (st != CLI_EXIT_OK)
+		return st;
 	if (db != NULL) {
-		rc = plan_db_load(db, &q, &hold, err, sizeof err);
-		if (rc != ERRCODE_OK) {
-			plan_db_free(&hold);
-			return cli_status_of(rc) == CLI_EXIT_USAGE ?
-			    cli_usage_error("--db %s: %s", db, err) :
-			    cli_fail("--db %s: %s", db, err);
-		}
 		if (tz == NULL)
 			tz = q.station.time_zone;
 		if (!render_zone_known(tz)) {
@@ -175,10 +166,6 @@ cmd_tonight(int argc, char **argv)
 			return cli_usage_error("station time_zone: unknown zone "
 			    "'%s' (give --tz)", tz);
 		}
-	} else {
-		q.station.lat_deg = lat;
-		q.station.lon_deg = lon;
-		q.station.height_m = h;
 	}
 	if (noon_before(now, tz, &from) != ERRCODE_OK ||
 	    noon_before(from + 1.5, tz, &to) != ERRCODE_OK) {
@@ -188,14 +175,7 @@ cmd_tonight(int argc, char **argv)
 	q.from_mjd = from;
 	q.to_mjd = to;
 	q.limit = (size_t)limit;
-	rc = plan_run(&q, &res, err, sizeof err);
-	if (rc != ERRCODE_OK) {
-		plan_db_free(&hold);
-		return cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s", err) : cli_fail("%s", err);
-	}
 	memset(&rp, 0, sizeof rp);
-	rp.r = &res;
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = tz;
 	rp.now_mjd = now;
@@ -203,16 +183,6 @@ cmd_tonight(int argc, char **argv)
 	if (tscale_from_utc(MJD0, now, 0.0, &ti) == ERRCODE_OK)
 		rp.now_synodic_deg = geom_synodic_at(ti.tt1, ti.tt2) *
 		    ERFA_DR2D;
-	mbuf_init(&out);
-	rc = json ? render_windows_json(&rp, &out) :
-	    render_tonight_text(&rp, &out);
-	plan_result_free(&res);
-	plan_db_free(&hold);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		return cli_fail("%s", errcode_str(rc));
-	}
-	st = cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	return plan_cli_run(&q, &hold, &rp, json ? render_windows_json :
+	    render_tonight_text);
 }

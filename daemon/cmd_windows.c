@@ -7,7 +7,7 @@
 
 #include "cli.h"
 #include "plan.h"
-#include "plan_db.h"
+#include "plan_cli.h"
 #include "render.h"
 
 #define MJD0 2400000.5
@@ -87,10 +87,7 @@ cmd_windows(int argc, char **argv)
 	char err[256];
 	struct plan_query q;
 	struct plan_db hold;
-	struct plan_result res;
 	struct render_plan rp;
-	struct mbuf out;
-	enum errcode rc;
 
 	optind = 1;
 	opterr = 0;
@@ -195,22 +192,9 @@ cmd_windows(int argc, char **argv)
 		t2 = f2 + days;
 	}
 
-	plan_query_init(&q);
-	plan_db_init(&hold);
-	if (db != NULL) {
-		rc = plan_db_load(db, &q, &hold, err, sizeof err);
-		if (rc != ERRCODE_OK) {
-			plan_db_free(&hold);
-			return rc == ERRCODE_NOMEM ? cli_fail("%s",
-			    errcode_str(rc)) : (cli_status_of(rc) ==
-			    CLI_EXIT_USAGE ? cli_usage_error("--db %s: %s", db,
-			    err) : cli_fail("--db %s: %s", db, err));
-		}
-	} else {
-		q.station.lat_deg = lat;
-		q.station.lon_deg = lon;
-		q.station.height_m = h;
-	}
+	st = plan_cli_load(db, lat, lon, h, &q, &hold);
+	if (st != CLI_EXIT_OK)
+		return st;
 	if (isfinite(min_el))
 		q.station.min_el_deg = min_el;
 	if (isfinite(max_sun))
@@ -225,41 +209,11 @@ cmd_windows(int argc, char **argv)
 	    render_zone_known(q.station.time_zone))
 		tz = q.station.time_zone;
 
-	rc = plan_run(&q, &res, err, sizeof err);
-	if (rc != ERRCODE_OK) {
-		plan_db_free(&hold);
-		if (rc == ERRCODE_NOMEM)
-			return cli_fail("%s", errcode_str(rc));
-		return cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s", err) : cli_fail("%s", err);
-	}
 	memset(&rp, 0, sizeof rp);
-	rp.r = &res;
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = tz;
 	rp.now_mjd = (now1 - MJD0) + now2;
-	mbuf_init(&out);
-	switch (kind) {
-	case OUT_JSON:
-		rc = render_windows_json(&rp, &out);
-		break;
-	case OUT_CSV:
-		rc = render_windows_csv(&rp, &out);
-		break;
-	case OUT_ICS:
-		rc = render_windows_ics(&rp, &out);
-		break;
-	default:
-		rc = render_windows_text(&rp, &out);
-		break;
-	}
-	plan_result_free(&res);
-	plan_db_free(&hold);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		return cli_fail("%s", errcode_str(rc));
-	}
-	st = cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	return plan_cli_run(&q, &hold, &rp, kind == OUT_JSON ?
+	    render_windows_json : kind == OUT_CSV ? render_windows_csv :
+	    kind == OUT_ICS ? render_windows_ics : render_windows_text);
 }

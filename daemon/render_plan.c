@@ -424,9 +424,10 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 
 	iso(r->from_mjd, a, sizeof a);
 	iso(r->to_mjd, b, sizeof b);
-	mbuf_printf(out, "Windows %s to %s%s%s: %zu found, %zu shown\n", a, b,
-	    p->station_name ? " at " : "", p->station_name ? p->station_name :
-	    "", r->total, r->n);
+	if (p->station_name != NULL)
+		mbuf_printf(out, "%s\n", p->station_name);
+	mbuf_printf(out, "Windows %s to %s: %zu found, %zu shown\n", a, b,
+	    r->total, r->n);
 	mbuf_printf(out, "Limits: elevation >= %.1f deg, Sun <= %.1f deg, "
 	    "Sun-Moon >= %.1f deg\n", r->station.min_el_deg,
 	    r->station.max_sun_el_deg, r->station.min_sun_sep_deg);

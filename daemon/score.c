@@ -19,7 +19,7 @@ score_settings_default(struct score_settings *s)
 	s->prior_rate = 1e-3;
 	s->prior_sunlit = 0.5;
 	s->prior_exposure = 2e4;
-	s->step_s = 60.0;
+	s->step_s = 120.0;
 }
 
 enum errcode

@@ -44,7 +44,7 @@ struct score_settings {
 };
 
 /* Defaults: 12 bins, alpha 1, k 1, pooled, prior rate 1e-3, prior
-   sunlit factor 0.5, prior exposure 2e4 shots, step 60 s. */
+   sunlit factor 0.5, prior exposure 2e4 shots, step 120 s. */
 void score_settings_default(struct score_settings *s);
 
 /* ERRCODE_BAD_ARG when a field is out of range; *field names it. */

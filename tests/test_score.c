@@ -245,7 +245,7 @@ struct month {
 	struct geom_site site;
 	struct window_track tr;
 	struct window_node *nodes;
-	double full, first_quarter;	/* TT offsets */
+	double full, first_quarter, new_moon;	/* TT offsets */
 };
 
 static void
@@ -267,17 +267,19 @@ month_open(struct month *m)
 	    t.tt2, 30.0, m->nodes, nn), ERRCODE_OK);
 	assert_int_equal(geom_phases_find(t.tt1, t.tt2, t.tt1, t.tt2 + 30.0,
 	    ev, 8, &n), ERRCODE_OK);
-	m->full = m->first_quarter = -1;
+	m->full = m->first_quarter = m->new_moon = -1;
 	for (size_t i = 0; i < n; i++) {
 		double off = (ev[i].tt1 - t.tt1) + (ev[i].tt2 - t.tt2);
 
 		if (ev[i].kind == GEOM_PHASE_FULL && m->full < 0)
 			m->full = off;
+		if (ev[i].kind == GEOM_PHASE_NEW && m->new_moon < 0)
+			m->new_moon = off;
 		if (ev[i].kind == GEOM_PHASE_FIRST_QUARTER &&
 		    m->first_quarter < 0)
 			m->first_quarter = off;
 	}
-	assert_true(m->full > 0 && m->first_quarter > 0);
+	assert_true(m->full > 0 && m->first_quarter > 0 && m->new_moon > 0);
 }
 
 static void
@@ -356,6 +358,21 @@ test_score_sparse_phase_outranks_quarter(void **state)
 		}
 		assert_int_equal(sw[0].rank, 1);
 		assert_int_equal(sw[1].rank, 2);
+	}
+	/* Near new moon too (bin 0 holds 2 points, like the full bin). */
+	{
+		struct window wn = {0, m.new_moon + hour, m.new_moon + 3 * hour};
+		struct score_window sn, sq;
+
+		s.alpha = 1.0;
+		assert_int_equal(score_window(&p, &tg, &wn, &sn), ERRCODE_OK);
+		assert_int_equal(score_window(&p, &tg, &w[0], &sq), ERRCODE_OK);
+		assert_int_equal(sn.phase_bin, 0);
+		assert_true(sn.score > 5.0 * sq.score);
+		s.alpha = 0.0;
+		assert_int_equal(score_window(&p, &tg, &wn, &sn), ERRCODE_OK);
+		assert_int_equal(score_window(&p, &tg, &w[0], &sq), ERRCODE_OK);
+		check_near(sn.score, sq.score, 1e-9, "", "new vs quarter, alpha 0");
 	}
 	free(m.nodes);
 }

@@ -1,0 +1,63 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* plan_cli.c: loading, running and printing a plan for the commands. */
+#include "cli.h"
+#include "plan_cli.h"
+
+int
+plan_cli_load(const char *db, double lat, double lon, double h,
+    struct plan_query *q, struct plan_db *hold)
+{
+	char err[256];
+	enum errcode rc;
+
+	plan_query_init(q);
+	plan_db_init(hold);
+	if (db == NULL) {
+		q->station.lat_deg = lat;
+		q->station.lon_deg = lon;
+		q->station.height_m = h;
+		return CLI_EXIT_OK;
+	}
+	rc = plan_db_load(db, q, hold, err, sizeof err);
+	if (rc == ERRCODE_OK)
+		return CLI_EXIT_OK;
+	plan_db_free(hold);
+	if (rc == ERRCODE_NOMEM)
+		return cli_fail("%s", errcode_str(rc));
+	return cli_status_of(rc) == CLI_EXIT_USAGE ?
+	    cli_usage_error("--db %s: %s", db, err) :
+	    cli_fail("--db %s: %s", db, err);
+}
+
+int
+plan_cli_run(const struct plan_query *q, struct plan_db *hold,
+    struct render_plan *rp, plan_cli_render_fn fn)
+{
+	struct plan_result res;
+	struct mbuf out;
+	char err[256];
+	enum errcode rc;
+	int st;
+
+	rc = plan_run(q, &res, err, sizeof err);
+	if (rc != ERRCODE_OK) {
+		plan_db_free(hold);
+		if (rc == ERRCODE_NOMEM)
+			return cli_fail("%s", errcode_str(rc));
+		return cli_status_of(rc) == CLI_EXIT_USAGE ?
+		    cli_usage_error("%s", err) : cli_fail("%s", err);
+	}
+	rp->r = &res;
+	mbuf_init(&out);
+	rc = fn(rp, &out);
+	plan_result_free(&res);
+	plan_db_free(hold);
+	rp->r = NULL;
+	if (rc != ERRCODE_OK) {
+		mbuf_free(&out);
+		return cli_fail("%s", errcode_str(rc));
+	}
+	st = cli_emit(&out);
+	mbuf_free(&out);
+	return st;
+}
