@@ -517,9 +517,9 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 	local_parts(r->from_mjd, tz, d, h, z);
 	local_parts(r->to_mjd, tz, d2, h2, z2);
 	iso(r->from_mjd, u, sizeof u);
-	mbuf_printf(out, "Tonight at %s: %.4s-%s %s to %s %s %s\n",
-	    p->station_name ? p->station_name : "the station", u, d, h, d2, h2,
-	    z2);
+	mbuf_printf(out, "Tonight at %.60s\n", p->station_name ?
+	    p->station_name : "the station");
+	mbuf_printf(out, "Night %.4s-%s %s to %s %s %s\n", u, d, h, d2, h2, z2);
 	local_parts(p->now_mjd, tz, d, h, z);
 	iso(p->now_mjd, u, sizeof u);
 	mbuf_printf(out, "Now %s %s %s (%s)\n", d, h, z, u);

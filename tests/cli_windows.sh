@@ -95,4 +95,29 @@ PY
 grep -q 'Best now:' "$tmp/t.txt" || fail "tonight: best now"
 grep -q 'Next change:' "$tmp/t.txt" || fail "tonight: next change"
 awk 'length($0) > 80 { exit 1 }' "$tmp/t.txt" || fail "tonight wider than 80"
+# The sample site through a real database: every target, the DB's limits,
+# dark-only targets never sunlit, iCalendar of the database's windows.
+"$bin" init --db "$tmp/site.db" --site "$src/sample-site" >/dev/null
+"$bin" windows --db "$tmp/site.db" "${span[@]}" --json >"$tmp/d.json"
+"$bin" windows --db "$tmp/site.db" "${span[@]}" --ics >"$tmp/d.ics"
+/usr/bin/python3 "$src/tests/ics_check.py" "$tmp/d.ics" "$tmp/d.json"
+/usr/bin/python3 - "$tmp/d.json" <<'PY'
+import json, sys
+d = json.load(open(sys.argv[1]))
+ids = {w["target"] for w in d["windows"]}
+assert ids <= {"HERON", "OSPREY", "PLOVER", "SANDPIPER", "TERN"}, ids
+assert len(ids) >= 4, ids
+assert d["limits"]["min_sun_sep_deg"] == 30.0      # sample-site/station.ini
+assert d["dut1_source"] == "table"                 # sample-site/eop.finals
+for w in d["windows"]:
+    if w["target"] == "TERN":                      # dark_only = 1
+        assert w["sunlit_fraction"] == 0.0, w
+    s = w["score"]; e = w["expected_returns"]; c = w["coverage_weight"]
+    assert abs(s - e * c) <= 1e-5 * max(1.0, s), w  # rounded JSON values
+PY
+"$bin" tonight --db "$tmp/site.db" --at 2027-03-20T05:00:00Z >"$tmp/t2.txt"
+awk 'length($0) > 80 { exit 1 }' "$tmp/t2.txt" || fail "tonight --db wider than 80"
+grep -q 'America/Los_Angeles' "$tmp/t2.txt" || fail "tonight: station zone"
+expect_usage_error windows --db "$tmp/site.db" --target NOPE "${span[@]}"
+grep -q "NOPE" "$tmp/err" || fail "unknown target is named"
 echo "cli_windows ok"

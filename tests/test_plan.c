@@ -484,7 +484,7 @@ test_plan_db_and_cli_same_bytes(void **state)
 	    "2027-03-18T04:00:00Z > '%s'", bin, db, outp);
 	assert_int_equal(system(cmd), 0);
 	cli = slurp(outp);
-	assert_non_null(strstr(cli, "Tonight at Gravel Flat (invented)"));
+	assert_non_null(strstr(cli, "Tonight at Gravel Flat (invented)\n"));
 	assert_non_null(strstr(cli, "MDT"));
 	for (const char *p = cli; *p;) {
 		const char *e = strchr(p, '\n');
