@@ -17,12 +17,16 @@ const struct cli_command cli_commands[] = {
 	    cmd_ephem},
 	{"phases", "new moon, quarters and full moon in a time span",
 	    cmd_phases},
+	{"serve", "run the daemon: JSON API and station page over HTTP",
+	    cmd_serve},
+	{"demo", "create a demo database from sample-site/ and serve it",
+	    cmd_demo},
+	{"coverage", "how the normal points spread over the lunar cycle",
+	    cmd_coverage},
 	{"windows", "observing windows in a span, ranked by yield and phase "
 	    "coverage", cmd_windows},
 	{"tonight", "the coming night: ranked windows, best target now",
 	    cmd_tonight},
-	{"coverage", "how the normal points spread over the lunar cycle",
-	    cmd_coverage},
 	{"init", "create a station database from a site directory",
 	    cmd_init},
 	{"station", "show or change the stored station", cmd_station},
@@ -134,6 +138,7 @@ cli_status_of(enum errcode rc)
 	case ERRCODE_TOO_LARGE:
 	case ERRCODE_UNSUPPORTED:
 	case ERRCODE_AUTH:
+	case ERRCODE_METHOD:
 		return CLI_EXIT_USAGE;
 	case ERRCODE_NOMEM:
 	case ERRCODE_DB:
