@@ -165,6 +165,56 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		    "zenith from strength %.2f", m->y.rate, m->strength);
 }
 
+/*
+ * The yield model of the nt planned targets tg, fitted with every active
+ * target of the query (the planned ones alone when none is active, i.e.
+ * the Moon's centre).  yield[nt] in the order of tg.
+ */
+static enum errcode
+fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
+    struct score_yield *yield, struct score_model *model)
+{
+	struct site_target *act = NULL;
+	struct score_yield *ay = NULL;
+	size_t na = 0;
+	enum errcode rc;
+
+	for (size_t i = 0; i < q->ntargets; i++)
+		na += q->targets[i].active ? 1 : 0;
+	if (na == 0)
+		return score_fit(&q->settings, q->station.zenith_tau, tg, nt,
+		    q->attempts, q->nattempts, yield, model);
+	act = mem_calloc(na, sizeof act[0]);
+	ay = mem_calloc(na, sizeof ay[0]);
+	if (act == NULL || ay == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	na = 0;
+	for (size_t i = 0; i < q->ntargets; i++)
+		if (q->targets[i].active)
+			act[na++] = q->targets[i];
+	rc = score_fit(&q->settings, q->station.zenith_tau, act, na,
+	    q->attempts, q->nattempts, ay, model);
+	if (rc != ERRCODE_OK)
+		goto out;
+	for (size_t j = 0; j < nt; j++) {
+		size_t i = 0;
+
+		while (i < na && strcmp(act[i].id, tg[j].id) != 0)
+			i++;
+		if (i == na) {		/* cannot happen: tg is drawn from act */
+			rc = ERRCODE_NOT_FOUND;
+			goto out;
+		}
+		yield[j] = ay[i];
+	}
+out:
+	mem_free(act);
+	mem_free(ay);
+	return rc;
+}
+
 enum errcode
 plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
     size_t errlen)
@@ -354,12 +404,14 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	memcpy(out->pooled, counts + nt * (size_t)nb,
 	    (size_t)nb * sizeof counts[0]);
 
-	/* Yield model. */
-	rc = score_fit(&q->settings, st->zenith_tau, tg, nt, q->attempts,
-	    q->nattempts, yield, &out->model);
+	/* Yield model, fitted over every active target whatever --target
+	   selects: the pooled base rate and sunlit factor (the priors of
+	   each target) must not depend on which windows are listed. */
+	rc = fit_all(q, tg, nt, yield, &out->model);
 	if (rc != ERRCODE_OK) {
-		fail(errbuf, errlen, rc, "%s: a target strength is not "
-		    "positive", "targets");
+		if (rc == ERRCODE_BAD_ARG)
+			fail(errbuf, errlen, rc, "%s: a target strength is "
+			    "not positive", "targets");
 		goto out;
 	}
 	out->nmodels = nt;

@@ -246,6 +246,55 @@ test_plan_factors_against_full_chain(void **state)
 	plan_result_free(&r);
 }
 
+/* --- a window's score does not depend on what else is listed --- */
+
+static void
+test_plan_score_independent_of_filter(void **state)
+{
+	struct site s;
+	struct plan_query q;
+	struct plan_result all, one, top;
+	size_t found = 0;
+
+	(void)state;
+	site_make(&s);
+	query_of(&s, &q, "2027-03-16T00:00:00Z", "2027-03-20T00:00:00Z");
+	assert_int_equal(plan_run(&q, &all, NULL, 0), ERRCODE_OK);
+	q.target = "LARK";
+	assert_int_equal(plan_run(&q, &one, NULL, 0), ERRCODE_OK);
+	q.target = NULL;
+	q.limit = 3;
+	assert_int_equal(plan_run(&q, &top, NULL, 0), ERRCODE_OK);
+	assert_true(one.n > 0);
+	assert_int_equal(top.n, 3);
+	/* The filtered run's model is the unfiltered one (same log). */
+	check_near(one.model.base_rate, all.model.base_rate, 0.0, "",
+	    "pooled base rate with --target");
+	for (size_t i = 0; i < one.n; i++)
+		for (size_t j = 0; j < all.n; j++) {
+			if (strcmp(all.w[j].target, "LARK") != 0 ||
+			    all.w[j].start_mjd != one.w[i].start_mjd)
+				continue;
+			/* Same inputs, same arithmetic: equal to rounding. */
+			check_near(one.w[i].f.score, all.w[j].f.score,
+			    1e-12 * all.w[j].f.score, "", "score with --target");
+			check_near(one.w[i].f.expected_returns,
+			    all.w[j].f.expected_returns,
+			    1e-12 * all.w[j].f.expected_returns, "returns",
+			    "expected returns with --target");
+			found++;
+		}
+	assert_int_equal(found, one.n);
+	for (size_t i = 0; i < top.n; i++) {
+		assert_string_equal(top.w[i].target, all.w[i].target);
+		check_near(top.w[i].f.score, all.w[i].f.score, 0.0, "",
+		    "score with --limit");
+	}
+	plan_result_free(&all);
+	plan_result_free(&one);
+	plan_result_free(&top);
+}
+
 /* --- renderers --- */
 
 static void
@@ -588,6 +637,7 @@ main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_plan_factors_against_full_chain),
+		cmocka_unit_test(test_plan_score_independent_of_filter),
 		cmocka_unit_test(test_plan_renderers),
 		cmocka_unit_test(test_plan_db_and_cli_same_bytes),
 		cmocka_unit_test(test_plan_bad_input),
