@@ -23,9 +23,10 @@ usage(FILE *f)
 	    "                         [--at UTC] [--limit N] [--json]\n"
 	    "\n"
 	    "The night from local noon to local noon (the station's IANA time\n"
-	    "zone) that holds the coming evening: ranked windows with local\n"
-	    "time and UTC side by side, the best target now, when that changes\n"
-	    "next, and the coverage of the phase now.\n"
+	    "zone) that holds now, or, after local midnight once its last\n"
+	    "window is over, the next one: ranked windows with local time and\n"
+	    "UTC side by side, the best target now, when that changes next,\n"
+	    "and the coverage of the phase now.\n"
 	    "\n"
 	    "  --db FILE           the station database\n"
 	    "  --station LAT,LON,H an ad-hoc station (plans the Moon's centre)\n"
@@ -75,6 +76,22 @@ noon_before(double mjd, const char *tz, double *out)
 		m -= 1440.0;
 	*out = t - (m - 720.0) / 1440.0;
 	return ERRCODE_OK;
+}
+
+/* Does a window of the night q (limit 0) end after now?  On a planning
+   error, yes: plan_cli_run then reports it. */
+static int
+night_ahead(const struct plan_query *q, double now)
+{
+	struct plan_result r;
+	int ahead = 0;
+
+	if (plan_run(q, &r, NULL, 0) != ERRCODE_OK)
+		return 1;
+	for (size_t i = 0; i < r.n && !ahead; i++)
+		ahead = r.w[i].end_mjd > now;
+	plan_result_free(&r);
+	return ahead;
 }
 
 int
@@ -174,6 +191,16 @@ cmd_tonight(int argc, char **argv)
 	}
 	q.from_mjd = from;
 	q.to_mjd = to;
+	if (now - from > 0.5 && !night_ahead(&q, now)) {
+		/* Past local midnight and this night is over: the next. */
+		from = to;
+		if (noon_before(from + 1.5, tz, &to) != ERRCODE_OK) {
+			plan_db_free(&hold);
+			return cli_fail("cannot find local noon in zone %s", tz);
+		}
+		q.from_mjd = from;
+		q.to_mjd = to;
+	}
 	q.limit = (size_t)limit;
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
