@@ -9,6 +9,7 @@
 #include "plan.h"
 #include "plan_cli.h"
 #include "render.h"
+#include "window.h"
 
 #define MJD0 2400000.5
 
@@ -116,7 +117,8 @@ cmd_windows(int argc, char **argv)
 			if (cli_parse_double(optarg, 0.0, 3660.0, &days) ||
 			    !(days > 0))
 				return cli_usage_error("--days: '%s' is not a "
-				    "number in 0..3660 above 0", optarg);
+				    "number of days above 0 and at most 3660",
+				    optarg);
 			have_days = 1;
 			break;
 		case 'T':
@@ -191,6 +193,13 @@ cmd_windows(int argc, char **argv)
 		t1 = f1;
 		t2 = f2 + days;
 	}
+
+	if (!(((t1 - f1) + (t2 - f2)) > 0.0))
+		return cli_usage_error("--to: the span must end after --from "
+		    "(default now)");
+	if ((t1 - f1) + (t2 - f2) > WINDOW_MAX_SPAN_DAYS)
+		return cli_usage_error("--to: the span is longer than %.0f days",
+		    WINDOW_MAX_SPAN_DAYS);
 
 	st = plan_cli_load(db, lat, lon, h, &q, &hold);
 	if (st != CLI_EXIT_OK)

@@ -37,6 +37,13 @@ expect_usage_error windows --station "$st" --min-el 120
 expect_usage_error windows --station "$st" --json --csv
 expect_usage_error windows --station "$st" --target HERON "${span[@]}"
 expect_usage_error windows --station "$st" --bogus
+expect_usage_error windows --station "$st" --days 1e9
+expect_usage_error windows --station "$st" --from 2027-03-24T00:00:00Z \
+  --to 2027-03-14T00:00:00Z
+grep -q -- '--to' "$tmp/err" || fail "reversed span names --to"
+expect_usage_error windows --station "$st" --from 2027-01-01T00:00:00Z \
+  --to 2047-01-01T00:00:00Z
+grep -q -- '--to' "$tmp/err" || fail "span of many years names --to"
 expect_usage_error tonight --station "$st"
 expect_usage_error tonight --station "$st" --tz Mars/Olympus
 expect_usage_error windows --db "$tmp/missing.db"
