@@ -168,7 +168,6 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_result *r = c->r;
 	const struct coverage_spec *s = &r->spec;
 	json_t *root = json_object(), *o, *arr;
-	char *text;
 	int bad = root == NULL;
 
 	if (bad)
@@ -234,15 +233,7 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 		json_decref(root);
 		return ERRCODE_NOMEM;
 	}
-	text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
-	    JSON_REAL_PRECISION(15));
-	json_decref(root);
-	if (text == NULL)
-		return ERRCODE_NOMEM;
-	mbuf_puts(out, text);
-	mbuf_puts(out, "\n");
-	mem_free(text);
-	return mbuf_status(out);
+	return render_json_dump(root, out);
 }
 
 /* --- CSV --- */
