@@ -138,9 +138,10 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		add_reason(w, "coverage weighting is off (alpha = 0)");
 	else
 		add_reason(w, "%s bin %.0f-%.0f deg has %ld normal points "
-		    "against a mean of %.1f (weight %.2f)",
+		    "%s against a mean of %.1f (weight %.2f)",
 		    plan_phase_label(lo + width / 2), lo, lo + width,
-		    f->bin_count, f->bin_mean, f->coverage_weight);
+		    f->bin_count, s->per_target ? "of this target" :
+		    "of all targets", f->bin_mean, f->coverage_weight);
 	if (f->bins_crossed > 0)
 		add_reason(w, "the window crosses %d bin boundar%s; the weight "
 		    "is the yield-weighted mean", f->bins_crossed,
@@ -149,7 +150,7 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 	if (tscale_utc_fields(MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
 	    &sec) == ERRCODE_OK)
 		snprintf(hhmm, sizeof hhmm, "%02d:%02d", hh, mi);
-	add_reason(w, "rises to %.1f deg at %s UTC; mean airmass %.2f, "
+	add_reason(w, "highest elevation %.1f deg at %s UTC; mean airmass %.2f, "
 	    "two-way transmission %.2f at tau %.2f", f->max_el * ERFA_DR2D,
 	    hhmm, f->mean_airmass, f->mean_transmission, tau);
 	if (f->sunlit_fraction <= 0.0)
