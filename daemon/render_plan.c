@@ -10,6 +10,7 @@
 #include <jansson.h>
 
 #include "render.h"
+#include "render_site.h"
 
 #define MJD0 2400000.5
 #define R2D (ERFA_DR2D)
@@ -172,20 +173,12 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 
 /* --- CSV (RFC 4180) --- */
 
+/* One field (RFC 4180 2.6 quoting, render_site's), then a comma or, for
+   the last, CRLF. */
 static void
 csv_field(struct mbuf *b, const char *s, int last)
 {
-	if (strpbrk(s, ",\"\r\n") != NULL) {
-		mbuf_puts(b, "\"");
-		for (const char *c = s; *c; c++) {
-			if (*c == '"')
-				mbuf_puts(b, "\"");
-			mbuf_add(b, c, 1);
-		}
-		mbuf_puts(b, "\"");
-	} else {
-		mbuf_puts(b, s);
-	}
+	render_site_csv_field(b, s);
 	mbuf_puts(b, last ? "\r\n" : ",");
 }
 
