@@ -29,10 +29,14 @@ const struct cli_command cli_commands[] = {
 	{"target", "the lunar targets: add, list, set, retire", cmd_target},
 	{"blackout", "spans without ranging: add, list, remove", cmd_blackout},
 	{"setting", "settings of the planner and the audit", cmd_setting},
-	{"np", "normal points: import CRD files, count them", cmd_np},
-	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
 	{"log", "the observation log: add, list, import, export attempts",
 	    cmd_log},
+	{"np", "normal points: import CRD files, count them", cmd_np},
+	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
+	{"serve", "run the daemon: JSON API and station page over HTTP",
+	    cmd_serve},
+	{"demo", "create a demo database from sample-site/ and serve it",
+	    cmd_demo},
 	{NULL, NULL, NULL}
 };
 
@@ -170,6 +174,7 @@ cli_status_of(enum errcode rc)
 	case ERRCODE_TOO_LARGE:
 	case ERRCODE_UNSUPPORTED:
 	case ERRCODE_AUTH:
+	case ERRCODE_METHOD:
 		return CLI_EXIT_USAGE;
 	case ERRCODE_NOMEM:
 	case ERRCODE_DB:

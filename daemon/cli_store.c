@@ -349,6 +349,7 @@ job_result(struct job *j, enum errcode rc, size_t line, const char *err)
 	case ERRCODE_TOO_LARGE:
 	case ERRCODE_UNSUPPORTED:
 	case ERRCODE_NO_CONVERGE:
+	case ERRCODE_METHOD:
 	case ERRCODE__LAST:
 		break;
 	}

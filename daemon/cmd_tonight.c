@@ -23,9 +23,10 @@ usage(FILE *f)
 	    "                         [--at UTC] [--limit N] [--json]\n"
 	    "\n"
 	    "The night from local noon to local noon (the station's IANA time\n"
-	    "zone) that holds the coming evening: ranked windows with local\n"
-	    "time and UTC side by side, the best target now, when that changes\n"
-	    "next, and the coverage of the phase now.\n"
+	    "zone) that holds now, or, after local midnight once its last\n"
+	    "window is over, the next one: ranked windows with local time and\n"
+	    "UTC side by side, the best target now, when that changes next,\n"
+	    "and the coverage of the phase now.\n"
 	    "\n"
 	    "  --db FILE           the station database\n"
 	    "  --station LAT,LON,H an ad-hoc station (plans the Moon's centre)\n"
@@ -77,6 +78,22 @@ noon_before(double mjd, const char *tz, double *out)
 	return ERRCODE_OK;
 }
 
+/* Does a window of the night q (limit 0) end after now?  On a planning
+   error, yes: plan_cli_run then reports it. */
+static int
+night_ahead(const struct plan_query *q, double now)
+{
+	struct plan_result r;
+	int ahead = 0;
+
+	if (plan_run(q, &r, NULL, 0) != ERRCODE_OK)
+		return 1;
+	for (size_t i = 0; i < r.n && !ahead; i++)
+		ahead = r.w[i].end_mjd > now;
+	plan_result_free(&r);
+	return ahead;
+}
+
 int
 cmd_tonight(int argc, char **argv)
 {
@@ -90,11 +107,10 @@ cmd_tonight(int argc, char **argv)
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
 	};
-	const char *db = NULL, *tz = NULL;
-	double lat = 0, lon = 0, h = 0, now1, now2, now, from, to;
-	int have_station = 0, have_at = 0, json = 0, c, st;
-	long limit = 12;
-	char err[256];
+	const char *tz;
+	double now1, now2, now, from, to;
+	int have_at = 0, json = 0, c, st;
+	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, 12};
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
@@ -103,32 +119,16 @@ cmd_tonight(int argc, char **argv)
 	optind = 1;
 	opterr = 0;
 	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		if ((st = plan_cli_option(c, optarg, &o)) >= 0) {
+			if (st != CLI_EXIT_OK)
+				return st;
+			continue;
+		}
 		switch (c) {
-		case 'D':
-			db = optarg;
-			break;
-		case 's':
-			if (cli_parse_station(optarg, &lat, &lon, &h, err,
-			    sizeof err) != ERRCODE_OK)
-				return cli_usage_error("%s", err);
-			have_station = 1;
-			break;
-		case 'z':
-			if (!render_zone_known(optarg))
-				return cli_usage_error("--tz: unknown time zone "
-				    "'%s'", optarg);
-			tz = optarg;
-			break;
 		case 'a':
 			if (cli_parse_time("--at", optarg, &now1, &now2))
 				return CLI_EXIT_USAGE;
 			have_at = 1;
-			break;
-		case 'l':
-			if (cli_parse_long(optarg, 1, PLAN_MAX_WINDOWS, &limit))
-				return cli_usage_error("--limit: '%s' is not a "
-				    "whole number in 1..%d", optarg,
-				    PLAN_MAX_WINDOWS);
 			break;
 		case 'j':
 			json = 1;
@@ -142,23 +142,21 @@ cmd_tonight(int argc, char **argv)
 			    argv[optind - 1]);
 		}
 	}
-	if (optind < argc)
-		return cli_usage_error("tonight: unexpected argument '%s'",
-		    argv[optind]);
-	if ((db == NULL) == (have_station == 0))
-		return cli_usage_error("tonight: give --db FILE or --station "
-		    "LAT,LON,HEIGHT_M (one of them)");
-	if (have_station && tz == NULL)
+	if ((st = plan_cli_opts_check(&o, "tonight", argc, argv)) !=
+	    CLI_EXIT_OK)
+		return st;
+	tz = o.tz;
+	if (o.have_station && tz == NULL)
 		return cli_usage_error("--tz: required with --station (an IANA "
 		    "zone such as America/Denver)");
 	if (!have_at)
 		cli_now(&now1, &now2);
 	now = (now1 - MJD0) + now2;
 
-	st = plan_cli_load(db, lat, lon, h, &q, &hold);
+	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)
 		return st;
-	if (db != NULL) {
+	if (o.db != NULL) {
 		if (tz == NULL)
 			tz = q.station.time_zone;
 		if (!render_zone_known(tz)) {
@@ -174,7 +172,17 @@ cmd_tonight(int argc, char **argv)
 	}
 	q.from_mjd = from;
 	q.to_mjd = to;
-	q.limit = (size_t)limit;
+	if (now - from > 0.5 && !night_ahead(&q, now)) {
+		/* Past local midnight and this night is over: the next. */
+		from = to;
+		if (noon_before(from + 1.5, tz, &to) != ERRCODE_OK) {
+			plan_db_free(&hold);
+			return cli_fail("cannot find local noon in zone %s", tz);
+		}
+		q.from_mjd = from;
+		q.to_mjd = to;
+	}
+	q.limit = (size_t)o.limit;
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = tz;

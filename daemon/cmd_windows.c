@@ -9,6 +9,7 @@
 #include "plan.h"
 #include "plan_cli.h"
 #include "render.h"
+#include "window.h"
 
 #define MJD0 2400000.5
 
@@ -78,13 +79,12 @@ cmd_windows(int argc, char **argv)
 		{"help", no_argument, NULL, 'h'},
 		{NULL, 0, NULL, 0}
 	};
-	const char *db = NULL, *target = NULL, *tz = NULL;
-	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = 3.0, lat = 0, lon = 0, h = 0;
+	const char *target = NULL, *tz;
+	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = 3.0;
 	double min_el = NAN, max_sun = NAN, min_sep = NAN, now1, now2;
-	int have_from = 0, have_to = 0, have_days = 0, have_station = 0;
+	int have_from = 0, have_to = 0, have_days = 0;
 	int kind = OUT_TEXT, nkind = 0, c, st;
-	long limit = 0;
-	char err[256];
+	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, 0};
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
@@ -92,16 +92,12 @@ cmd_windows(int argc, char **argv)
 	optind = 1;
 	opterr = 0;
 	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		if ((st = plan_cli_option(c, optarg, &o)) >= 0) {
+			if (st != CLI_EXIT_OK)
+				return st;
+			continue;
+		}
 		switch (c) {
-		case 'D':
-			db = optarg;
-			break;
-		case 's':
-			if (cli_parse_station(optarg, &lat, &lon, &h, err,
-			    sizeof err) != ERRCODE_OK)
-				return cli_usage_error("%s", err);
-			have_station = 1;
-			break;
 		case 'f':
 			if (cli_parse_time("--from", optarg, &f1, &f2))
 				return CLI_EXIT_USAGE;
@@ -116,17 +112,12 @@ cmd_windows(int argc, char **argv)
 			if (cli_parse_double(optarg, 0.0, 3660.0, &days) ||
 			    !(days > 0))
 				return cli_usage_error("--days: '%s' is not a "
-				    "number in 0..3660 above 0", optarg);
+				    "number of days above 0 and at most 3660",
+				    optarg);
 			have_days = 1;
 			break;
 		case 'T':
 			target = optarg;
-			break;
-		case 'l':
-			if (cli_parse_long(optarg, 1, PLAN_MAX_WINDOWS, &limit))
-				return cli_usage_error("--limit: '%s' is not a "
-				    "whole number in 1..%d", optarg,
-				    PLAN_MAX_WINDOWS);
 			break;
 		case 'e':
 			if (cli_parse_double(optarg, -5.0, 89.0, &min_el))
@@ -144,12 +135,6 @@ cmd_windows(int argc, char **argv)
 				return cli_usage_error("--min-sun-sep: '%s' is "
 				    "not a number of degrees in 0..180",
 				    optarg);
-			break;
-		case 'z':
-			if (!render_zone_known(optarg))
-				return cli_usage_error("--tz: unknown time zone "
-				    "'%s'", optarg);
-			tz = optarg;
 			break;
 		case 'j':
 			kind = OUT_JSON;
@@ -172,12 +157,9 @@ cmd_windows(int argc, char **argv)
 			    argv[optind - 1]);
 		}
 	}
-	if (optind < argc)
-		return cli_usage_error("windows: unexpected argument '%s'",
-		    argv[optind]);
-	if ((db == NULL) == (have_station == 0))
-		return cli_usage_error("windows: give --db FILE or --station "
-		    "LAT,LON,HEIGHT_M (one of them)");
+	if ((st = plan_cli_opts_check(&o, "windows", argc, argv)) !=
+	    CLI_EXIT_OK)
+		return st;
 	if (have_to && have_days)
 		return cli_usage_error("--to and --days: give one, not both");
 	if (nkind > 1)
@@ -192,7 +174,14 @@ cmd_windows(int argc, char **argv)
 		t2 = f2 + days;
 	}
 
-	st = plan_cli_load(db, lat, lon, h, &q, &hold);
+	if (!(((t1 - f1) + (t2 - f2)) > 0.0))
+		return cli_usage_error("--to: the span must end after --from "
+		    "(default now)");
+	if ((t1 - f1) + (t2 - f2) > WINDOW_MAX_SPAN_DAYS)
+		return cli_usage_error("--to: the span is longer than %.0f days",
+		    WINDOW_MAX_SPAN_DAYS);
+
+	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)
 		return st;
 	if (isfinite(min_el))
@@ -204,7 +193,8 @@ cmd_windows(int argc, char **argv)
 	q.from_mjd = (f1 - MJD0) + f2;
 	q.to_mjd = (t1 - MJD0) + t2;
 	q.target = target;
-	q.limit = (size_t)limit;
+	q.limit = (size_t)o.limit;
+	tz = o.tz;
 	if (tz == NULL && q.station.time_zone[0] != '\0' &&
 	    render_zone_known(q.station.time_zone))
 		tz = q.station.time_zone;

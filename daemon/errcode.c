@@ -32,6 +32,8 @@ errcode_str(enum errcode code)
 		return "not supported";
 	case ERRCODE_NO_CONVERGE:
 		return "search did not converge";
+	case ERRCODE_METHOD:
+		return "method not allowed";
 	case ERRCODE__LAST:
 		break;
 	}
@@ -68,6 +70,8 @@ errcode_name(enum errcode code)
 		return "unsupported";
 	case ERRCODE_NO_CONVERGE:
 		return "no_converge";
+	case ERRCODE_METHOD:
+		return "method";
 	case ERRCODE__LAST:
 		break;
 	}

@@ -138,9 +138,10 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		add_reason(w, "coverage weighting is off (alpha = 0)");
 	else
 		add_reason(w, "%s bin %.0f-%.0f deg has %ld normal points "
-		    "against a mean of %.1f (weight %.2f)",
+		    "%s against a mean of %.1f (weight %.2f)",
 		    plan_phase_label(lo + width / 2), lo, lo + width,
-		    f->bin_count, f->bin_mean, f->coverage_weight);
+		    f->bin_count, s->per_target ? "of this target" :
+		    "of all targets", f->bin_mean, f->coverage_weight);
 	if (f->bins_crossed > 0)
 		add_reason(w, "the window crosses %d bin boundar%s; the weight "
 		    "is the yield-weighted mean", f->bins_crossed,
@@ -149,7 +150,7 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 	if (tscale_utc_fields(MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
 	    &sec) == ERRCODE_OK)
 		snprintf(hhmm, sizeof hhmm, "%02d:%02d", hh, mi);
-	add_reason(w, "rises to %.1f deg at %s UTC; mean airmass %.2f, "
+	add_reason(w, "highest elevation %.1f deg at %s UTC; mean airmass %.2f, "
 	    "two-way transmission %.2f at tau %.2f", f->max_el * ERFA_DR2D,
 	    hhmm, f->mean_airmass, f->mean_transmission, tau);
 	if (f->sunlit_fraction <= 0.0)
@@ -163,6 +164,56 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 	else
 		add_reason(w, "no usable history: %.3g returns per shot at "
 		    "zenith from strength %.2f", m->y.rate, m->strength);
+}
+
+/*
+ * The yield model of the nt planned targets tg, fitted with every active
+ * target of the query (the planned ones alone when none is active, i.e.
+ * the Moon's centre).  yield[nt] in the order of tg.
+ */
+static enum errcode
+fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
+    struct score_yield *yield, struct score_model *model)
+{
+	struct site_target *act = NULL;
+	struct score_yield *ay = NULL;
+	size_t na = 0;
+	enum errcode rc;
+
+	for (size_t i = 0; i < q->ntargets; i++)
+		na += q->targets[i].active ? 1 : 0;
+	if (na == 0)
+		return score_fit(&q->settings, q->station.zenith_tau, tg, nt,
+		    q->attempts, q->nattempts, yield, model);
+	act = mem_calloc(na, sizeof act[0]);
+	ay = mem_calloc(na, sizeof ay[0]);
+	if (act == NULL || ay == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	na = 0;
+	for (size_t i = 0; i < q->ntargets; i++)
+		if (q->targets[i].active)
+			act[na++] = q->targets[i];
+	rc = score_fit(&q->settings, q->station.zenith_tau, act, na,
+	    q->attempts, q->nattempts, ay, model);
+	if (rc != ERRCODE_OK)
+		goto out;
+	for (size_t j = 0; j < nt; j++) {
+		size_t i = 0;
+
+		while (i < na && strcmp(act[i].id, tg[j].id) != 0)
+			i++;
+		if (i == na) {		/* cannot happen: tg is drawn from act */
+			rc = ERRCODE_NOT_FOUND;
+			goto out;
+		}
+		yield[j] = ay[i];
+	}
+out:
+	mem_free(act);
+	mem_free(ay);
+	return rc;
 }
 
 enum errcode
@@ -354,12 +405,14 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	memcpy(out->pooled, counts + nt * (size_t)nb,
 	    (size_t)nb * sizeof counts[0]);
 
-	/* Yield model. */
-	rc = score_fit(&q->settings, st->zenith_tau, tg, nt, q->attempts,
-	    q->nattempts, yield, &out->model);
+	/* Yield model, fitted over every active target whatever --target
+	   selects: the pooled base rate and sunlit factor (the priors of
+	   each target) must not depend on which windows are listed. */
+	rc = fit_all(q, tg, nt, yield, &out->model);
 	if (rc != ERRCODE_OK) {
-		fail(errbuf, errlen, rc, "%s: a target strength is not "
-		    "positive", "targets");
+		if (rc == ERRCODE_BAD_ARG)
+			fail(errbuf, errlen, rc, "%s: a target strength is "
+			    "not positive", "targets");
 		goto out;
 	}
 	out->nmodels = nt;

@@ -8,6 +8,7 @@
 
 #include "render.h"
 #include "render_cov.h"
+#include "render_site.h"
 #include "tscale.h"
 
 #define MJD0 2400000.5
@@ -30,14 +31,6 @@ edge(const struct coverage_result *r, int b)
 }
 
 /* --- JSON --- */
-
-static json_t *
-jnum(double v, int decimals)
-{
-	double s = pow(10.0, decimals);
-
-	return isfinite(v) ? json_real(round(v * s) / s) : json_null();
-}
 
 static json_t *
 jstr_or_null(const char *s)
@@ -85,21 +78,21 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	bad |= json_object_set_new(m, "filled_bins",
 	    json_integer(x->filled_bins));
 	bad |= json_object_set_new(m, "filled_fraction",
-	    jnum(x->filled_fraction, 6));
+	    render_json_num(x->filled_fraction, 6));
 	bad |= json_object_set_new(m, "bins_below_min_count",
 	    json_integer(nbins - x->filled_bins));
 	bad |= json_object_set_new(m, "min_count", json_integer(min_count));
 	bad |= json_object_set_new(m, "emptiest_bins", em);
 	bad |= json_object_set_new(m, "sparse_bins", sp);
 	bad |= json_object_set_new(m, "longest_empty_arc_deg",
-	    jnum(x->longest_gap_deg, 6));
+	    render_json_num(x->longest_gap_deg, 6));
 	bad |= json_object_set_new(m, "longest_empty_arc_from_deg",
-	    jnum(x->longest_gap_from_deg, 6));
-	bad |= json_object_set_new(m, "entropy", jnum(x->entropy, 6));
-	bad |= json_object_set_new(m, "chi_square", jnum(x->chi2, 6));
+	    render_json_num(x->longest_gap_from_deg, 6));
+	bad |= json_object_set_new(m, "entropy", render_json_num(x->entropy, 6));
+	bad |= json_object_set_new(m, "chi_square", render_json_num(x->chi2, 6));
 	bad |= json_object_set_new(m, "chi_square_dof",
 	    json_integer(x->chi2_dof));
-	bad |= json_object_set_new(m, "chi_square_p", jnum(x->chi2_p, 8));
+	bad |= json_object_set_new(m, "chi_square_p", render_json_num(x->chi2_p, 8));
 	bad |= json_object_set_new(m, "chi_square_reliable",
 	    json_boolean(x->chi2_reliable));
 	if (bad) {
@@ -132,9 +125,9 @@ jfill(const struct coverage_result *r, const struct coverage_fill *f)
 		bad |= json_array_append_new(bins, b);
 		bad |= json_object_set_new(b, "bin", json_integer(fb->bin));
 		bad |= json_object_set_new(b, "from_deg",
-		    jnum(edge(r, fb->bin), 6));
+		    render_json_num(edge(r, fb->bin), 6));
 		bad |= json_object_set_new(b, "to_deg",
-		    jnum(edge(r, fb->bin + 1), 6));
+		    render_json_num(edge(r, fb->bin + 1), 6));
 		bad |= json_object_set_new(b, "count", json_integer(fb->count));
 		bad |= json_object_set_new(b, "dates", dates);
 		for (size_t k = 0; k < fb->ndates && !bad; k++) {
@@ -152,7 +145,7 @@ jfill(const struct coverage_result *r, const struct coverage_fill *f)
 			    jutc(d->in_bin_start_mjd));
 			bad |= json_object_set_new(x, "in_bin_end_utc",
 			    jutc(d->in_bin_end_mjd));
-			bad |= json_object_set_new(x, "score", jnum(d->score, 6));
+			bad |= json_object_set_new(x, "score", render_json_num(d->score, 6));
 		}
 	}
 	if (bad) {
@@ -168,7 +161,6 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_result *r = c->r;
 	const struct coverage_spec *s = &r->spec;
 	json_t *root = json_object(), *o, *arr;
-	char *text;
 	int bad = root == NULL;
 
 	if (bad)
@@ -181,7 +173,7 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	    json_string(coverage_source_name(s->source)));
 	bad |= json_object_set_new(root, "bins", json_integer(s->nbins));
 	bad |= json_object_set_new(root, "bin_width_deg",
-	    jnum(r->bin_width_deg, 6));
+	    render_json_num(r->bin_width_deg, 6));
 	bad |= json_object_set_new(root, "min_count",
 	    json_integer(s->min_count));
 	o = json_object();
@@ -203,8 +195,8 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 		o = json_object();
 		bad |= json_array_append_new(arr, o);
 		bad |= json_object_set_new(o, "bin", json_integer(b));
-		bad |= json_object_set_new(o, "from_deg", jnum(edge(r, b), 6));
-		bad |= json_object_set_new(o, "to_deg", jnum(edge(r, b + 1), 6));
+		bad |= json_object_set_new(o, "from_deg", render_json_num(edge(r, b), 6));
+		bad |= json_object_set_new(o, "to_deg", render_json_num(edge(r, b + 1), 6));
 	}
 	bad |= json_object_set_new(root, "pooled",
 	    jcounts(&r->pooled, s->nbins, s->min_count));
@@ -234,35 +226,10 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 		json_decref(root);
 		return ERRCODE_NOMEM;
 	}
-	text = json_dumps(root, JSON_INDENT(2) | JSON_PRESERVE_ORDER |
-	    JSON_REAL_PRECISION(15));
-	json_decref(root);
-	if (text == NULL)
-		return ERRCODE_NOMEM;
-	mbuf_puts(out, text);
-	mbuf_puts(out, "\n");
-	mem_free(text);
-	return mbuf_status(out);
+	return render_json_dump(root, out);
 }
 
 /* --- CSV --- */
-
-/* A field quoted when it holds a comma, quote, CR or LF (RFC 4180 2.6). */
-static void
-csv_field(struct mbuf *out, const char *s)
-{
-	if (strpbrk(s, ",\"\r\n") == NULL) {
-		mbuf_puts(out, s);
-		return;
-	}
-	mbuf_puts(out, "\"");
-	for (; *s; s++) {
-		if (*s == '"')
-			mbuf_puts(out, "\"");
-		mbuf_add(out, s, 1);
-	}
-	mbuf_puts(out, "\"");
-}
 
 static void
 csv_rows(struct mbuf *out, const struct coverage_result *r,
@@ -271,7 +238,7 @@ csv_rows(struct mbuf *out, const struct coverage_result *r,
 	for (int b = 0; b < r->spec.nbins; b++) {
 		mbuf_printf(out, "%s,%s,", coverage_axis_name(r->spec.axis),
 		    scope);
-		csv_field(out, key);
+		render_site_csv_field(out, key);
 		mbuf_printf(out, ",%d,%.6g,%.6g,%ld,%d\r\n", b, edge(r, b),
 		    edge(r, b + 1), c->n[b],
 		    c->n[b] < r->spec.min_count ? 1 : 0);

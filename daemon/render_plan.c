@@ -10,6 +10,7 @@
 #include <jansson.h>
 
 #include "render.h"
+#include "render_site.h"
 
 #define MJD0 2400000.5
 #define R2D (ERFA_DR2D)
@@ -172,20 +173,12 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 
 /* --- CSV (RFC 4180) --- */
 
+/* One field (RFC 4180 2.6 quoting, render_site's), then a comma or, for
+   the last, CRLF. */
 static void
 csv_field(struct mbuf *b, const char *s, int last)
 {
-	if (strpbrk(s, ",\"\r\n") != NULL) {
-		mbuf_puts(b, "\"");
-		for (const char *c = s; *c; c++) {
-			if (*c == '"')
-				mbuf_puts(b, "\"");
-			mbuf_add(b, c, 1);
-		}
-		mbuf_puts(b, "\"");
-	} else {
-		mbuf_puts(b, s);
-	}
+	render_site_csv_field(b, s);
 	mbuf_puts(b, last ? "\r\n" : ",");
 }
 
@@ -388,6 +381,17 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 
 /* --- text --- */
 
+/* A score for a table: whole numbers from 10 up (no exponent a person
+   has to decode), three significant figures below and past 1e8. */
+static void
+score_text(double score, char *buf, size_t len)
+{
+	if (score >= 10.0 && score < 1e8)
+		snprintf(buf, len, "%.0f", score);
+	else
+		snprintf(buf, len, "%.3g", score);
+}
+
 /*
  * Local "MM-DD HH:MM" and zone abbreviation of a UTC MJD; falls back to
  * UTC when there is no zone.
@@ -438,7 +442,7 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 		const struct plan_window *w = &r->w[i];
 		const struct score_window *f = &w->f;
 		char d1[8], h1[8], z1[8], d2[8], h2[8], z2[8];
-		char u1[24], u2[24], l[24];
+		char u1[24], u2[24], l[24], sc[24];
 
 		local_parts(w->start_mjd, NULL, d1, h1, z1);
 		local_parts(w->end_mjd, NULL, d2, h2, z2);
@@ -450,10 +454,11 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 			snprintf(l, sizeof l, "%s %s-%s", d1, h1, h2);
 		}
 		snprintf(u2, sizeof u2, "%.0f", f->duration_s / 60.0);
+		score_text(f->score, sc, sizeof sc);
 		mbuf_printf(out, "%4zu %-10.10s %-17s %-17s %4s %5.1f %3d %5ld "
-		    "%6.2f %9.4g\n", f->rank, w->target, u1, l, u2,
+		    "%6.2f %9s\n", f->rank, w->target, u1, l, u2,
 		    f->max_el * R2D, f->phase_bin, f->bin_count,
-		    f->coverage_weight, f->score);
+		    f->coverage_weight, sc);
 	}
 	if (r->n == 0)
 		mbuf_puts(out, "(no window meets every limit in the span)\n");
@@ -565,7 +570,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 	for (size_t i = 0; i < r->n; i++) {
 		const struct plan_window *w = &r->w[i];
 		const struct score_window *f = &w->f;
-		char lt[16], ut[16];
+		char lt[16], ut[16], sc[24];
 
 		local_parts(w->start_mjd, tz, d, h, z);
 		local_parts(w->end_mjd, tz, d2, h2, z2);
@@ -573,11 +578,12 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		local_parts(w->start_mjd, NULL, d, h, z);
 		local_parts(w->end_mjd, NULL, d2, h2, z2);
 		snprintf(ut, sizeof ut, "%s-%s", h, h2);
+		score_text(f->score, sc, sizeof sc);
 		mbuf_printf(out, "%4zu %-10.10s %-11s %-11s %4.0f %5.1f %4.0f "
-		    "%3d %5.2f %8.4g%s\n", f->rank, w->target, lt, ut,
+		    "%3d %5.2f %8s%s\n", f->rank, w->target, lt, ut,
 		    f->duration_s / 60.0, f->max_el * R2D,
 		    100.0 * f->sunlit_fraction, f->phase_bin,
-		    f->coverage_weight, f->score,
+		    f->coverage_weight, sc,
 		    w->end_mjd <= p->now_mjd ? " past" :
 		    (w == now ? " <now" : ""));
 	}

@@ -92,15 +92,15 @@ int cli_emit_rendered(enum errcode rc, struct mbuf *b);
 /* --- commands (one file each: cmd_<name>.c) --- */
 int cmd_ephem(int argc, char **argv);
 int cmd_phases(int argc, char **argv);
+int cmd_serve(int argc, char **argv);
+int cmd_demo(int argc, char **argv);
+int cmd_coverage(int argc, char **argv);
 int cmd_windows(int argc, char **argv);
 int cmd_tonight(int argc, char **argv);
-int cmd_coverage(int argc, char **argv);
 int cmd_log(int argc, char **argv);
 int cmd_init(int argc, char **argv);
 int cmd_np(int argc, char **argv);
 int cmd_eop(int argc, char **argv);
-int cmd_windows(int argc, char **argv);
-int cmd_tonight(int argc, char **argv);
 int cmd_target(int argc, char **argv);
 int cmd_station(int argc, char **argv);
 int cmd_blackout(int argc, char **argv);

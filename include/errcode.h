@@ -24,6 +24,7 @@ enum errcode {
 	ERRCODE_TOO_LARGE,	/* input over a size limit */
 	ERRCODE_UNSUPPORTED,	/* a media type or method not offered */
 	ERRCODE_NO_CONVERGE,	/* a root search did not converge */
+	ERRCODE_METHOD,		/* a request method a resource does not offer */
 	ERRCODE__LAST
 };
 

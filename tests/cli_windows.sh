@@ -37,6 +37,13 @@ expect_usage_error windows --station "$st" --min-el 120
 expect_usage_error windows --station "$st" --json --csv
 expect_usage_error windows --station "$st" --target HERON "${span[@]}"
 expect_usage_error windows --station "$st" --bogus
+expect_usage_error windows --station "$st" --days 1e9
+expect_usage_error windows --station "$st" --from 2027-03-24T00:00:00Z \
+  --to 2027-03-14T00:00:00Z
+grep -q -- '--to' "$tmp/err" || fail "reversed span names --to"
+expect_usage_error windows --station "$st" --from 2027-01-01T00:00:00Z \
+  --to 2047-01-01T00:00:00Z
+grep -q -- '--to' "$tmp/err" || fail "span of many years names --to"
 expect_usage_error tonight --station "$st"
 expect_usage_error tonight --station "$st" --tz Mars/Olympus
 expect_usage_error windows --db "$tmp/missing.db"
@@ -118,6 +125,28 @@ PY
 "$bin" tonight --db "$tmp/site.db" --at 2027-03-20T05:00:00Z >"$tmp/t2.txt"
 awk 'length($0) > 80 { exit 1 }' "$tmp/t2.txt" || fail "tonight --db wider than 80"
 grep -q 'America/Los_Angeles' "$tmp/t2.txt" || fail "tonight: station zone"
+# Late morning, this night's windows over: the next night is shown
+# (2026-12-24 11:00 PST; the sample site's windows end by 05:44 PST).
+"$bin" tonight --db "$tmp/site.db" --at 2026-12-24T19:00:00Z >"$tmp/t3.txt"
+grep -q '^Night 2026-12-24 12:00 to 12-25 12:00 PST' "$tmp/t3.txt" ||
+  fail "tonight: after the night's last window, the next night"
+"$bin" tonight --db "$tmp/site.db" --at 2026-12-24T08:00:00Z >"$tmp/t3.txt"
+grep -q '^Night 2026-12-23 12:00 to 12-24 12:00 PST' "$tmp/t3.txt" ||
+  fail "tonight: at local midnight, the night under way"
+# A window's score is the same with --target (the yield model is fitted
+# over every active target).
+w12=(--from 2026-12-24T00:00:00Z --to 2026-12-25T00:00:00Z --json)
+"$bin" windows --db "$tmp/site.db" "${w12[@]}" >"$tmp/all.json"
+"$bin" windows --db "$tmp/site.db" "${w12[@]}" --target OSPREY >"$tmp/one.json"
+/usr/bin/python3 - "$tmp/all.json" "$tmp/one.json" <<'PY'
+import json, sys
+a = json.load(open(sys.argv[1]))["windows"]
+o = json.load(open(sys.argv[2]))["windows"]
+assert o and all(w["target"] == "OSPREY" for w in o), o
+for w in o:
+    m = [x for x in a if x["target"] == "OSPREY" and x["start"] == w["start"]]
+    assert len(m) == 1 and m[0]["score"] == w["score"], (w, m)
+PY
 expect_usage_error windows --db "$tmp/site.db" --target NOPE "${span[@]}"
 grep -q "NOPE" "$tmp/err" || fail "unknown target is named"
 echo "cli_windows ok"

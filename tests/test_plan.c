@@ -185,8 +185,9 @@ test_plan_factors_against_full_chain(void **state)
 		const struct score_window *f = &w->f;
 		const struct plan_target_model *m = &r.models[f->target];
 		struct geom_target body;
-		double e = 0, lit = 0, x = 0, elmax = -1, dt = 10.0 / 86400.0;
+		double e = 0, lit = 0, x = 0, elmax = -1, dt;
 		size_t j = f->target;
+		int nstep;
 
 		assert_int_equal(f->rank, i + 1);
 		if (i > 0)
@@ -200,14 +201,17 @@ test_plan_factors_against_full_chain(void **state)
 			    score_coverage_weight(f->bin_count, f->bin_mean,
 			    q.settings.k, q.settings.alpha), 1e-12, "",
 			    "W from the bin count");
-		/* Independent: 10 s midpoint sums on the full ERFA chain. */
+		/* Independent: a midpoint sum on the full ERFA chain, the
+		   window cut into whole steps of at most 30 s. */
 		assert_int_equal(geom_target_from_selen(s.tg[j].lat_deg * D2R,
 		    s.tg[j].lon_deg * D2R, 0.0, &body), ERRCODE_OK);
-		for (double t = w->start_mjd + dt / 2; t < w->end_mjd;
-		    t += dt) {
+		nstep = (int)ceil(f->duration_s / 30.0);
+		dt = (w->end_mjd - w->start_mjd) / nstep;
+		for (int k = 0; k < nstep; k++) {
 			struct geom_instant g;
 			struct geom_target_view v;
-			double xx;
+			double xx, t = w->start_mjd + (k + 0.5) * dt;
+			double ds = dt * 86400.0;
 
 			assert_int_equal(geom_instant_at(&site, NULL, MJD0, t,
 			    GEOM_PREC_FULL, &g), ERRCODE_OK);
@@ -215,35 +219,92 @@ test_plan_factors_against_full_chain(void **state)
 			xx = score_airmass(v.el);
 			e += s.st.fire_rate_hz * m->y.rate *
 			    exp(-2.0 * s.st.zenith_tau * xx) *
-			    (v.sunlit ? m->y.sunlit_factor : 1.0) * 10.0;
-			lit += v.sunlit ? 10.0 : 0.0;
-			x += xx * 10.0;
+			    (v.sunlit ? m->y.sunlit_factor : 1.0) * ds;
+			lit += v.sunlit ? ds : 0.0;
+			x += xx * ds;
 			elmax = fmax(elmax, v.el);
 			/* And the window's constraints hold throughout. */
 			assert_true(v.el >= s.st.min_el_deg * D2R - 1e-4);
 		}
-		/* Tolerance: the edges of the 10 s sums (<= 10 s of ~1 h). */
+		/* Tolerance: the midpoint rule's error over 30 s steps of a
+		   smooth integrand (well under 0.1 %), and the sunlit factor
+		   switching inside a step (one step of a window of hours). */
 		check_near(f->expected_returns, e, 0.01 * e + 1e-9, "returns",
 		    "expected returns vs full-chain sum");
 		check_near(f->sunlit_fraction, lit / f->duration_s, 0.02, "",
 		    "sunlit fraction vs full chain");
 		check_near(f->mean_airmass, x / f->duration_s,
 		    0.01 * f->mean_airmass, "", "mean airmass vs full chain");
-		for (int k = 0; k < 2; k++) {	/* the ends, too */
+		/* The maximum: the ends, and 1 s samples for 2 min around the
+		   time the planner gives (the 30 s samples above would find
+		   a higher point anywhere else). */
+		for (int k = -121; k <= 120; k++) {
 			struct geom_instant g;
 			struct geom_target_view v;
+			double t = k < -120 ? w->start_mjd : k == 120 ?
+			    w->end_mjd : w->max_el_mjd + k / 86400.0;
 
-			assert_int_equal(geom_instant_at(&site, NULL, MJD0,
-			    k ? w->end_mjd : w->start_mjd, GEOM_PREC_FULL, &g),
-			    ERRCODE_OK);
+			if (t < w->start_mjd || t > w->end_mjd)
+				continue;
+			assert_int_equal(geom_instant_at(&site, NULL, MJD0, t,
+			    GEOM_PREC_FULL, &g), ERRCODE_OK);
 			geom_target_view(&g, &body, &v);
 			elmax = fmax(elmax, v.el);
 		}
-		/* 1": the 10 s samples miss at most ~0.2" of a maximum
-		   between them (curvature), the track is within 0.2". */
+		/* 1": the 1 s samples miss at most ~0.01" of a maximum
+		   between them, the track is within 0.2". */
 		check_near(f->max_el, elmax, 5e-6, "rad", "max elevation");
 	}
 	plan_result_free(&r);
+}
+
+/* --- a window's score does not depend on what else is listed --- */
+
+static void
+test_plan_score_independent_of_filter(void **state)
+{
+	struct site s;
+	struct plan_query q;
+	struct plan_result all, one, top;
+	size_t found = 0;
+
+	(void)state;
+	site_make(&s);
+	query_of(&s, &q, "2027-03-16T00:00:00Z", "2027-03-20T00:00:00Z");
+	assert_int_equal(plan_run(&q, &all, NULL, 0), ERRCODE_OK);
+	q.target = "LARK";
+	assert_int_equal(plan_run(&q, &one, NULL, 0), ERRCODE_OK);
+	q.target = NULL;
+	q.limit = 3;
+	assert_int_equal(plan_run(&q, &top, NULL, 0), ERRCODE_OK);
+	assert_true(one.n > 0);
+	assert_int_equal(top.n, 3);
+	/* The filtered run's model is the unfiltered one (same log). */
+	check_near(one.model.base_rate, all.model.base_rate, 0.0, "",
+	    "pooled base rate with --target");
+	for (size_t i = 0; i < one.n; i++)
+		for (size_t j = 0; j < all.n; j++) {
+			if (strcmp(all.w[j].target, "LARK") != 0 ||
+			    all.w[j].start_mjd != one.w[i].start_mjd)
+				continue;
+			/* Same inputs, same arithmetic: equal to rounding. */
+			check_near(one.w[i].f.score, all.w[j].f.score,
+			    1e-12 * all.w[j].f.score, "", "score with --target");
+			check_near(one.w[i].f.expected_returns,
+			    all.w[j].f.expected_returns,
+			    1e-12 * all.w[j].f.expected_returns, "returns",
+			    "expected returns with --target");
+			found++;
+		}
+	assert_int_equal(found, one.n);
+	for (size_t i = 0; i < top.n; i++) {
+		assert_string_equal(top.w[i].target, all.w[i].target);
+		check_near(top.w[i].f.score, all.w[i].f.score, 0.0, "",
+		    "score with --limit");
+	}
+	plan_result_free(&all);
+	plan_result_free(&one);
+	plan_result_free(&top);
 }
 
 /* --- renderers --- */
@@ -588,6 +649,7 @@ main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_plan_factors_against_full_chain),
+		cmocka_unit_test(test_plan_score_independent_of_filter),
 		cmocka_unit_test(test_plan_renderers),
 		cmocka_unit_test(test_plan_db_and_cli_same_bytes),
 		cmocka_unit_test(test_plan_bad_input),

@@ -1,0 +1,173 @@
+// SPDX-License-Identifier: BSD-3-Clause
+// e2e.mjs: the station page in headless Chromium against a real daemon on
+// 127.0.0.1: windows table, now panel, coverage chart, logging an attempt
+// through the form, the recent list and GET /api/v1/attempts; screenshot.
+//
+// usage: node e2e.mjs MOONRANGE_BINARY [SCREENSHOT.png]
+// Exit 77 (skipped) when playwright-core or Chromium is missing, unless
+// MOONRANGE_E2E_REQUIRED=1 (as in .ci/run), which makes that a failure.
+
+import { spawn, execFileSync } from "node:child_process";
+import { existsSync, mkdtempSync, rmSync, writeFileSync, chmodSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import assert from "node:assert/strict";
+
+const CHROMIUM = process.env.MOONRANGE_CHROMIUM || "/usr/bin/chromium";
+const bin = process.argv[2];
+const shot = process.argv[3] || join(tmpdir(), "moonrange-screenshot.png");
+const required = process.env.MOONRANGE_E2E_REQUIRED === "1";
+
+function skip(why) {
+  console.log("e2e: " + (required ? "FAIL: " : "skipped: ") + why);
+  process.exit(required ? 1 : 77);
+}
+
+if (!bin) {
+  console.error("usage: node e2e.mjs MOONRANGE_BINARY [SCREENSHOT.png]");
+  process.exit(2);
+}
+if (!existsSync(CHROMIUM)) skip(CHROMIUM + " not found (apt-get install -y chromium)");
+let chromium;
+try {
+  ({ chromium } = await import("playwright-core"));
+} catch (e) {
+  skip("playwright-core not installed (npm ci in tests/e2e)");
+}
+
+const dir = mkdtempSync(join(tmpdir(), "moonrange-e2e-"));
+const db = join(dir, "station.db");
+const tokenFile = join(dir, "token");
+const token = "e2e-token-" + Math.random().toString(36).slice(2) + "0123456789";
+let daemon = null;
+let context = null;
+
+async function cleanup() {
+  if (context) await context.close().catch(() => {});
+  if (daemon && daemon.exitCode === null) daemon.kill("SIGTERM");
+  rmSync(dir, { recursive: true, force: true });
+}
+
+function startDaemon() {
+  return new Promise((resolve, reject) => {
+    const p = spawn(bin, ["serve", "--db", db, "--listen", "127.0.0.1:0",
+      "--token-file", tokenFile, "--log-level", "warn"],
+      { stdio: ["ignore", "pipe", "inherit"] });
+    let out = "";
+    const timer = setTimeout(() => reject(new Error("daemon did not start")), 15000);
+    p.stdout.on("data", (d) => {
+      out += d.toString();
+      const m = out.match(/serving (http:\/\/127\.0\.0\.1:\d+\/)/);
+      if (m) {
+        clearTimeout(timer);
+        resolve({ proc: p, url: m[1] });
+      }
+    });
+    p.on("exit", (code) => reject(new Error("daemon exited with " + code)));
+  });
+}
+
+try {
+  execFileSync(bin, ["init", "--db", db], { stdio: "ignore" });
+  writeFileSync(tokenFile, token + "\n");
+  chmodSync(tokenFile, 0o600);
+  const started = await startDaemon();
+  daemon = started.proc;
+  const url = started.url;
+
+  context = await chromium.launchPersistentContext(join(dir, "profile"), {
+    executablePath: CHROMIUM,
+    headless: true,
+    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic",
+      "--no-first-run", "--disable-background-networking",
+      "--disable-component-update", "--disable-sync"],
+    viewport: { width: 1280, height: 1500 }
+  });
+  const page = context.pages()[0] || await context.newPage();
+  const problems = [];
+  page.on("console", (m) => { if (m.type() === "error") problems.push(m.text()); });
+  page.on("pageerror", (e) => problems.push(String(e)));
+  // Nothing may leave the machine: every request goes to the daemon.
+  const foreign = [];
+  page.on("request", (r) => { if (!r.url().startsWith(url)) foreign.push(r.url()); });
+
+  await page.goto(url, { waitUntil: "load" });
+
+  // Tonight's windows: ranked rows with a target and UTC times.
+  await page.waitForSelector("#windows tbody tr td.rank", { timeout: 15000 });
+  const firstRank = await page.textContent("#windows tbody tr:first-child td.rank");
+  assert.equal(firstRank.trim(), "1");
+  const utcCell = await page.textContent("#windows tbody tr:first-child td:nth-child(5)");
+  assert.match(utcCell, /^\d{4}-\d{2}-\d{2} \d{2}:\d{2}Z$/);
+
+  // The now panel: Moon elevation and azimuth, a phase, one row per target.
+  await page.waitForFunction(() => /°$/.test(document.getElementById("moon-el").textContent));
+  assert.match(await page.textContent("#moon-az"), /^\d+\.\d{2}°$/);
+  assert.match(await page.textContent("#moon-phase"), /% lit/);
+  const targetRows = await page.$$eval("#now-targets tbody tr", (rs) => rs.length);
+  assert.equal(targetRows, 5, "five active targets in the sample site");
+  // It refreshes itself every few seconds.
+  const firstNow = await page.textContent("#now-time");
+  assert.match(firstNow, /^at \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}Z/);
+  await page.waitForFunction((t) => document.getElementById("now-time").textContent !== t,
+    firstNow, { timeout: 12000 });
+
+  // The coverage chart: the SVG endpoint, decoded by the browser.
+  await page.waitForFunction(() => {
+    const img = document.getElementById("coverage-chart");
+    return img.complete && img.naturalWidth > 0;
+  }, null, { timeout: 15000 });
+
+  // Log an attempt through the form.  The operator holds markup that must
+  // arrive as text.
+  const note = "e2e note " + Date.now();
+  const operator = "op-e2e <img src=x id=injected>";
+  await page.selectOption("#f-target", "PLOVER");
+  await page.selectOption("#f-outcome", "ranged");
+  await page.fill("#f-start", "2027-02-03T04:05:00Z");
+  await page.fill("#f-end", "2027-02-03T04:25:00Z");
+  await page.fill("#f-shots", "15000");
+  await page.fill("#f-returns", "77");
+  await page.fill("#f-nps", "2");
+  await page.fill("#f-operator", operator);
+  await page.fill("#f-notes", note);
+  await page.fill("#f-token", token);
+  await page.click("#f-submit");
+  await page.waitForFunction(() =>
+    /^Logged attempt \d+ on PLOVER\.$/.test(document.getElementById("form-status").textContent),
+    null, { timeout: 15000 });
+
+  // It shows in the recent list, as text.
+  await page.waitForFunction((n) =>
+    [...document.querySelectorAll("#attempts tbody td")].some((td) => td.textContent === n),
+    note, { timeout: 15000 });
+  const opCell = await page.$$eval("#attempts tbody td",
+    (tds, op) => tds.some((td) => td.textContent === op), operator);
+  assert.ok(opCell, "the operator is shown verbatim");
+  assert.equal(await page.$("#injected"), null, "markup from data was not parsed");
+
+  // The token is kept for the session: the token field is hidden now.
+  assert.equal(await page.isHidden("#token-row"), true);
+
+  // And the API has it.
+  const res = await fetch(url + "api/v1/attempts?limit=5");
+  assert.equal(res.status, 200);
+  const body = await res.json();
+  const row = body.attempts.find((a) => a.notes === note);
+  assert.ok(row, "GET /api/v1/attempts lists the new attempt");
+  assert.equal(row.target, "PLOVER");
+  assert.equal(row.returns, 77);
+  assert.equal(row.operator, operator);
+  assert.equal(row.start_utc, "2027-02-03T04:05:00.000Z");
+
+  await page.screenshot({ path: shot, fullPage: true });
+  assert.deepEqual(foreign, [], "requests outside the daemon");
+  assert.deepEqual(problems, [], "console errors (CSP violations included)");
+  console.log("e2e: ok (screenshot " + shot + ")");
+  await cleanup();
+  process.exit(0);
+} catch (e) {
+  console.error("e2e: FAIL: " + (e && e.stack ? e.stack : e));
+  await cleanup();
+  process.exit(1);
+}
