@@ -776,6 +776,7 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 {
 	struct site_attempt *rows = NULL;
 	struct store_query q;
+	const char *order;
 	double u1, u2;
 	size_t limit = ATTEMPTS_LIMIT_DEFAULT;
 	char err[300];
@@ -790,15 +791,35 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 			return;
 		q.since_mjd = (u1 - ERFA_DJM0) + u2;
 	}
+	if (param(req, "until") != NULL) {
+		if (param_time(req, "until", &u1, &u2, resp))
+			return;
+		q.until_mjd = (u1 - ERFA_DJM0) + u2;
+	}
 	if (param_count(req, "limit", 1, ATTEMPTS_LIMIT_MAX, &limit, resp))
 		return;
+	order = param(req, "order");
+	if (order != NULL && strcmp(order, "newest") != 0 &&
+	    strcmp(order, "oldest") != 0) {
+		api_error(resp, ERRCODE_BAD_ARG, "order",
+		    "order: 'newest' or 'oldest'");
+		return;
+	}
 	q.target = param(req, "target");
 	q.limit = limit;
-	q.newest_first = 1;
+	q.newest_first = 1;		/* the newest limit rows ... */
 	rc = store_attempts_list(ctx->db, &q, &rows, &n, err, sizeof err);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, NULL, err);
 		return;
+	}
+	/* ... shown oldest first with order=oldest, as "log list --limit". */
+	for (size_t i = 0; order != NULL && strcmp(order, "oldest") == 0 &&
+	    i < n / 2; i++) {
+		struct site_attempt tmp = rows[i];
+
+		rows[i] = rows[n - 1 - i];
+		rows[n - 1 - i] = tmp;
 	}
 	rc = render_site_attempts_json(rows, n, &resp->body);
 	mem_free(rows);
@@ -1142,8 +1163,9 @@ static const struct route routes[] = {
 	    "the coverage audit as CSV (RFC 4180)"}, h_coverage_csv},
 	{{"GET", "/api/v1/coverage.svg", COVERAGE_PARAMS,
 	    "the coverage chart as SVG"}, h_coverage_svg},
-	{{"GET", "/api/v1/attempts", "since,limit,target",
-	    "logged attempts, newest first"}, h_attempts_list},
+	{{"GET", "/api/v1/attempts", "since,until,target,limit,order",
+	    "logged attempts, newest first (order=oldest: as log list)"},
+	    h_attempts_list},
 	{{"POST", "/api/v1/attempts", "",
 	    "log an attempt (JSON body, bearer token); 201 with Location"},
 	    h_attempts_add},
