@@ -606,8 +606,8 @@ store_open_ok(struct api_ctx *ctx, struct api_response *resp)
 
 /*
  * Ranked windows of [from, to) from the open database, rendered as JSON
- * or iCalendar: the planner's query filled by plan_db_fill, run by
- * plan_run and printed by render_windows_*, as "moonrange windows" does.
+ * or iCalendar: the planner's query filled by plan_db_fill, then run and
+ * rendered by plan_db_render, as "moonrange windows" does.
  */
 static enum errcode
 windows_render(struct store *db, double from_mjd, double to_mjd,
@@ -616,11 +616,9 @@ windows_render(struct store *db, double from_mjd, double to_mjd,
 {
 	struct plan_query q;
 	struct plan_db hold;
-	struct plan_result res;
 	struct render_plan rp;
 	enum errcode rc;
 
-	memset(&res, 0, sizeof res);
 	plan_query_init(&q);
 	plan_db_init(&hold);
 	rc = plan_db_fill(db, &q, &hold, err, errlen);
@@ -630,20 +628,14 @@ windows_render(struct store *db, double from_mjd, double to_mjd,
 	q.to_mjd = to_mjd;
 	q.target = target;
 	q.limit = limit;
-	rc = plan_run(&q, &res, err, errlen);
-	if (rc != ERRCODE_OK)
-		goto out;
 	memset(&rp, 0, sizeof rp);
-	rp.r = &res;
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = q.station.time_zone[0] != '\0' &&
 	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
 	rp.now_mjd = now_mjd;
-	rc = ics ? render_windows_ics(&rp, out) : render_windows_json(&rp, out);
-	if (nwindows != NULL)
-		*nwindows = res.n;
+	rc = plan_db_render(&q, &rp, ics ? render_windows_ics :
+	    render_windows_json, out, nwindows, err, errlen);
 out:
-	plan_result_free(&res);
 	plan_db_free(&hold);
 	return rc;
 }
