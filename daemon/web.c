@@ -243,11 +243,24 @@ web_host_is_local(const char *host)
 
 /* --- responses --- */
 
-static void
-add_common_headers(struct MHD_Response *r, int api)
+/*
+ * The policy of every response.  An SVG opened on its own is a document
+ * under this policy too; the chart's fixed <style> block (render_cov.c)
+ * would be refused, so SVG answers also allow inline style (never
+ * script: default-src 'self' still holds).
+ */
+static const char *
+csp_of(const char *ctype)
 {
-	MHD_add_response_header(r, "Content-Security-Policy",
-	    "default-src 'self'");
+	if (ctype != NULL && strncmp(ctype, "image/svg+xml", 13) == 0)
+		return "default-src 'self'; style-src 'self' 'unsafe-inline'";
+	return "default-src 'self'";
+}
+
+static void
+add_common_headers(struct MHD_Response *r, int api, const char *ctype)
+{
+	MHD_add_response_header(r, "Content-Security-Policy", csp_of(ctype));
 	MHD_add_response_header(r, "X-Content-Type-Options", "nosniff");
 	MHD_add_response_header(r, "Referrer-Policy", "no-referrer");
 	MHD_add_response_header(r, "X-Frame-Options", "DENY");
@@ -267,7 +280,7 @@ send_response(struct MHD_Connection *conn, const struct api_response *ar,
 	if (r == NULL)
 		return MHD_NO;
 	MHD_add_response_header(r, "Content-Type", ar->content_type);
-	add_common_headers(r, api);
+	add_common_headers(r, api, ar->content_type);
 	if (ar->location[0] != '\0')
 		MHD_add_response_header(r, "Location", ar->location);
 	if (ar->allow[0] != '\0')

@@ -925,6 +925,12 @@ test_api_coverage_same_bytes_as_cli(void **state)
 		assert_int_equal(get(path, &r), 200);
 		assert_non_null(http_header(&r, "Content-Type", v, sizeof v));
 		assert_string_equal(v, ctype[i]);
+		/* The chart may style itself when opened on its own; nothing
+		   else is inline. */
+		assert_non_null(http_header(&r, "Content-Security-Policy", v,
+		    sizeof v));
+		assert_string_equal(v, i == 2 ? "default-src 'self'; style-src "
+		    "'self' 'unsafe-inline'" : "default-src 'self'");
 		assert_cli_prints(&r, args);
 		http_reply_free(&r);
 	}

@@ -199,6 +199,15 @@ try {
 
   assert.deepEqual(foreign, [], "requests outside the daemon");
   assert.deepEqual(problems, [], "console errors (CSP violations included)");
+
+  // The chart opened on its own is a document under the daemon's policy
+  // too: its styling must not be refused.
+  const refused = [];
+  page.on("console", (m) => { if (/Content Security Policy/.test(m.text())) refused.push(m.text()); });
+  await page.goto(url + "api/v1/coverage.svg?horizon=0", { waitUntil: "load" });
+  assert.match(await page.evaluate(() => document.documentElement.nodeName), /^svg$/i);
+  await page.waitForTimeout(300);
+  assert.deepEqual(refused, [], "the chart's own style refused by CSP");
   console.log("e2e: ok (screenshot " + shot + ")");
   await cleanup();
   process.exit(0);
