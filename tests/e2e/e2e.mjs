@@ -69,6 +69,27 @@ function startDaemon() {
   });
 }
 
+// Fill the log form (start and end: as the form offers them unless given;
+// the token only when given), send it and wait for the page's receipt.
+async function logThroughForm(page, f) {
+  await page.selectOption("#f-target", f.target);
+  await page.selectOption("#f-outcome", "ranged");
+  if (f.start) await page.fill("#f-start", f.start);
+  if (f.end) await page.fill("#f-end", f.end);
+  await page.fill("#f-shots", f.shots);
+  await page.fill("#f-returns", f.returns);
+  await page.fill("#f-nps", f.nps);
+  await page.fill("#f-seeing", f.seeing);
+  await page.fill("#f-operator", f.operator);
+  await page.fill("#f-notes", f.notes);
+  if (f.token) await page.fill("#f-token", f.token);
+  await page.click("#f-submit");
+  await page.waitForFunction((t) => {
+    const m = /^Logged attempt \d+ on (\S+)\.$/.exec(document.getElementById("form-status").textContent);
+    return m !== null && m[1] === t;
+  }, f.target, { timeout: 15000 });
+}
+
 try {
   execFileSync(bin, ["init", "--db", db], { stdio: "ignore" });
   writeFileSync(tokenFile, token + "\n");
@@ -123,19 +144,8 @@ try {
   // Log a plain attempt through the form, at the times the form offers
   // (the last quarter hour); the page shows it in the recent list.
   const plainNote = "thin cirrus, steady returns";
-  await page.selectOption("#f-target", "HERON");
-  await page.selectOption("#f-outcome", "ranged");
-  await page.fill("#f-shots", "18000");
-  await page.fill("#f-returns", "412");
-  await page.fill("#f-nps", "3");
-  await page.fill("#f-seeing", "1.8");
-  await page.fill("#f-operator", "op-cedar");
-  await page.fill("#f-notes", plainNote);
-  await page.fill("#f-token", token);
-  await page.click("#f-submit");
-  await page.waitForFunction(() =>
-    /^Logged attempt \d+ on HERON\.$/.test(document.getElementById("form-status").textContent),
-    null, { timeout: 15000 });
+  await logThroughForm(page, { target: "HERON", shots: "18000", returns: "412",
+    nps: "3", seeing: "1.8", operator: "op-cedar", notes: plainNote, token });
   await page.waitForFunction((n) =>
     [...document.querySelectorAll("#attempts tbody td")].some((td) => td.textContent === n),
     plainNote, { timeout: 15000 });
@@ -157,20 +167,9 @@ try {
   // (the token is not asked again).
   const note = "e2e note " + Date.now();
   const operator = "op-e2e <img src=x id=injected>";
-  await page.selectOption("#f-target", "PLOVER");
-  await page.selectOption("#f-outcome", "ranged");
-  await page.fill("#f-start", "2027-02-03T04:05:00Z");
-  await page.fill("#f-end", "2027-02-03T04:25:00Z");
-  await page.fill("#f-shots", "15000");
-  await page.fill("#f-returns", "77");
-  await page.fill("#f-nps", "2");
-  await page.fill("#f-seeing", "");
-  await page.fill("#f-operator", operator);
-  await page.fill("#f-notes", note);
-  await page.click("#f-submit");
-  await page.waitForFunction(() =>
-    /^Logged attempt \d+ on PLOVER\.$/.test(document.getElementById("form-status").textContent),
-    null, { timeout: 15000 });
+  await logThroughForm(page, { target: "PLOVER", start: "2027-02-03T04:05:00Z",
+    end: "2027-02-03T04:25:00Z", shots: "15000", returns: "77", nps: "2",
+    seeing: "", operator, notes: note });
 
   // It shows in the recent list, as text.
   await page.waitForFunction((n) =>
