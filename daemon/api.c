@@ -1112,6 +1112,32 @@ parse_body(const struct api_request *req, json_t **out, json_error_t *err)
 	return rc;
 }
 
+/*
+ * The body member a store message names ("field 'start'" is start_utc,
+ * "field 'end'" end_utc, others by their own name), or NULL.
+ */
+static const char *
+store_member(const char *err)
+{
+	static const char *const members[] = {"target", "shots", "returns",
+	    "normal_points", "outcome", "operator", "seeing_arcsec", "notes"};
+	const char *f = strstr(err, "field '");
+	size_t n;
+
+	if (f == NULL)
+		return NULL;
+	f += 7;
+	n = strcspn(f, "'");
+	if (n == 5 && strncmp(f, "start", 5) == 0)
+		return "start_utc";
+	if (n == 3 && strncmp(f, "end", 3) == 0)
+		return "end_utc";
+	for (size_t i = 0; i < sizeof members / sizeof members[0]; i++)
+		if (strlen(members[i]) == n && strncmp(f, members[i], n) == 0)
+			return members[i];
+	return NULL;
+}
+
 static void
 h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
@@ -1161,6 +1187,15 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 		snprintf(msg, sizeof msg, "target: no target '%.40s' in the "
 		    "database", a.target);
 		api_error(resp, ERRCODE_BAD_ARG, "target", msg);
+		goto out;
+	}
+	if (rc == ERRCODE_BAD_TIME || rc == ERRCODE_BAD_ARG) {
+		/* The store refused a value: "...: field 'start': ..." */
+		const char *member = store_member(err);
+
+		snprintf(msg, sizeof msg, "%s: %s", member ? member : "body",
+		    err);
+		api_error(resp, rc, member, msg);
 		goto out;
 	}
 	if (rc != ERRCODE_OK) {

@@ -713,6 +713,13 @@ test_api_attempts_refused(void **state)
 		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
 		    "\"outcome\":\"ranged\",\"operator\":\"op\","
 		    "\"seeing_arcsec\":-1}", 400, "bad_arg", "seeing_arcsec"},
+		/* A well-formed time the store refuses (1850, out of its
+		   range): the refusal names the member too. */
+		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
+		    "\"1850-03-14T05:30:00Z\",\"end_utc\":\"1850-03-14T05:45:00Z\","
+		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
+		    "\"outcome\":\"ranged\",\"operator\":\"op\"}", 400, "bad_time",
+		    "start_utc"},
 	};
 	size_t before = attempts_in_db();
 	struct http_reply r;
