@@ -54,6 +54,9 @@ typedef void (*api_handler)(struct api_ctx *ctx, const struct api_request *req,
 struct route {
 	struct api_route_info info;
 	api_handler fn;
+	int unlocked;		/* takes ctx->lock itself, only to look at
+				   the context: its slow part runs on a
+				   connection of its own (read_store) */
 };
 
 /* --- responses and errors --- */
@@ -605,9 +608,66 @@ store_open_ok(struct api_ctx *ctx, struct api_response *resp)
 }
 
 /*
+ * A database to read for one slow request (windows, coverage) without
+ * holding ctx->lock, so that /now, /status and writes go on meanwhile:
+ * a read-only connection of its own to the daemon's file (WAL lets it
+ * read beside the shared one).  Where that cannot be had (no path, or
+ * the open fails), the shared connection under the lock; *locked says
+ * which, for release_store.
+ */
+static struct store *
+read_store(struct api_ctx *ctx, int *locked)
+{
+	struct store *db = NULL;
+
+	if (ctx->db_path != NULL && store_open(ctx->db_path,
+	    STORE_OPEN_READONLY, &db, NULL, 0) == ERRCODE_OK) {
+		*locked = 0;
+		return db;
+	}
+	pthread_mutex_lock(&ctx->lock);
+	*locked = 1;
+	return ctx->db;
+}
+
+static void
+release_store(struct api_ctx *ctx, struct store *db, int locked)
+{
+	if (locked)
+		pthread_mutex_unlock(&ctx->lock);
+	else
+		store_close(db);
+}
+
+/*
+ * Under the lock: 0 if the daemon has no database (503 set); 1 if the
+ * plan cache answered (cache is the plan's bytes, used when want); 2 to
+ * compute the answer.
+ */
+static int
+cache_or_compute(struct api_ctx *ctx, const struct mbuf *cache, int want,
+    struct api_response *resp)
+{
+	int r = 2;
+
+	pthread_mutex_lock(&ctx->lock);
+	if (!store_open_ok(ctx, resp)) {
+		r = 0;
+	} else if (want && ctx->planned && cache->len > 0 &&
+	    mbuf_status(cache) == ERRCODE_OK) {
+		/* The plan cache: the coming days as of the last refresh. */
+		mbuf_add(&resp->body, cache->data, cache->len);
+		ok_or_error(resp, ERRCODE_OK, 200, "application/json");
+		r = 1;
+	}
+	pthread_mutex_unlock(&ctx->lock);
+	return r;
+}
+
+/*
  * Ranked windows of [from, to) from the open database, rendered as JSON
- * or iCalendar: the planner's query filled by plan_db_fill, run by
- * plan_run and printed by render_windows_*, as "moonrange windows" does.
+ * or iCalendar: the planner's query filled by plan_db_fill, then run and
+ * rendered by plan_db_render, as "moonrange windows" does.
  */
 static enum errcode
 windows_render(struct store *db, double from_mjd, double to_mjd,
@@ -616,11 +676,9 @@ windows_render(struct store *db, double from_mjd, double to_mjd,
 {
 	struct plan_query q;
 	struct plan_db hold;
-	struct plan_result res;
 	struct render_plan rp;
 	enum errcode rc;
 
-	memset(&res, 0, sizeof res);
 	plan_query_init(&q);
 	plan_db_init(&hold);
 	rc = plan_db_fill(db, &q, &hold, err, errlen);
@@ -630,20 +688,14 @@ windows_render(struct store *db, double from_mjd, double to_mjd,
 	q.to_mjd = to_mjd;
 	q.target = target;
 	q.limit = limit;
-	rc = plan_run(&q, &res, err, errlen);
-	if (rc != ERRCODE_OK)
-		goto out;
 	memset(&rp, 0, sizeof rp);
-	rp.r = &res;
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = q.station.time_zone[0] != '\0' &&
 	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
 	rp.now_mjd = now_mjd;
-	rc = ics ? render_windows_ics(&rp, out) : render_windows_json(&rp, out);
-	if (nwindows != NULL)
-		*nwindows = res.n;
+	rc = plan_db_render(&q, &rp, ics ? render_windows_ics :
+	    render_windows_json, out, nwindows, err, errlen);
 out:
-	plan_result_free(&res);
 	plan_db_free(&hold);
 	return rc;
 }
@@ -653,32 +705,28 @@ windows_common(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp, int ics)
 {
 	struct tscale_instant a, b;
+	struct store *db;
 	double f1, f2, t1, t2;
 	size_t limit = 0;
 	char err[300];
+	int locked;
 	enum errcode rc;
 
-	if (!store_open_ok(ctx, resp))
+	if (cache_or_compute(ctx, &ctx->plan_windows, !ics &&
+	    req->nparams == 0, resp) != 2)
 		return;
-	if (!ics && req->nparams == 0 && ctx->planned &&
-	    mbuf_status(&ctx->plan_windows) == ERRCODE_OK &&
-	    ctx->plan_windows.len > 0) {
-		/* The plan cache: the coming days as of the last refresh. */
-		mbuf_add(&resp->body, ctx->plan_windows.data,
-		    ctx->plan_windows.len);
-		ok_or_error(resp, ERRCODE_OK, 200, "application/json");
-		return;
-	}
 	if (param_span(req, WINDOWS_DAYS_DEFAULT, WINDOWS_DAYS_MAX, &f1, &f2,
 	    &t1, &t2, &a, &b, resp))
 		return;
 	if (param_count(req, "limit", 1, PLAN_MAX_WINDOWS, &limit, resp))
 		return;
 	err[0] = '\0';
-	rc = windows_render(ctx->db, (f1 - ERFA_DJM0) + f2,
+	db = read_store(ctx, &locked);
+	rc = windows_render(db, (f1 - ERFA_DJM0) + f2,
 	    (t1 - ERFA_DJM0) + t2, param(req, "target"), limit, ics,
 	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
 	    sizeof err);
+	release_store(ctx, db, locked);
 	if (rc == ERRCODE_OK)
 		ok_or_error(resp, rc, 200, ics ? "text/calendar; charset=utf-8" :
 		    "application/json");
@@ -711,19 +759,14 @@ coverage_common(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp, enum covquery_format fmt, const char *ctype)
 {
 	struct covquery_params p;
+	struct store *db;
 	char err[300];
+	int locked;
 	enum errcode rc;
 
-	if (!store_open_ok(ctx, resp))
+	if (cache_or_compute(ctx, &ctx->plan_coverage, fmt == COVQUERY_JSON &&
+	    req->nparams == 0, resp) != 2)
 		return;
-	if (fmt == COVQUERY_JSON && req->nparams == 0 && ctx->planned &&
-	    ctx->plan_coverage.len > 0 &&
-	    mbuf_status(&ctx->plan_coverage) == ERRCODE_OK) {
-		mbuf_add(&resp->body, ctx->plan_coverage.data,
-		    ctx->plan_coverage.len);
-		ok_or_error(resp, ERRCODE_OK, 200, "application/json");
-		return;
-	}
 	covquery_params_init(&p);
 	for (size_t i = 0; i < req->nparams; i++) {
 		err[0] = '\0';
@@ -738,7 +781,9 @@ coverage_common(struct api_ctx *ctx, const struct api_request *req,
 	}
 	p.now_mjd = (req->now1 - ERFA_DJM0) + req->now2;
 	err[0] = '\0';
-	rc = covquery_run(ctx->db, &p, fmt, &resp->body, err, sizeof err);
+	db = read_store(ctx, &locked);
+	rc = covquery_run(db, &p, fmt, &resp->body, err, sizeof err);
+	release_store(ctx, db, locked);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc == ERRCODE_NOT_FOUND ? ERRCODE_BAD_ARG : rc,
 		    rc == ERRCODE_NOT_FOUND ? "target" : NULL,
@@ -776,6 +821,7 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 {
 	struct site_attempt *rows = NULL;
 	struct store_query q;
+	const char *order;
 	double u1, u2;
 	size_t limit = ATTEMPTS_LIMIT_DEFAULT;
 	char err[300];
@@ -790,15 +836,35 @@ h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
 			return;
 		q.since_mjd = (u1 - ERFA_DJM0) + u2;
 	}
+	if (param(req, "until") != NULL) {
+		if (param_time(req, "until", &u1, &u2, resp))
+			return;
+		q.until_mjd = (u1 - ERFA_DJM0) + u2;
+	}
 	if (param_count(req, "limit", 1, ATTEMPTS_LIMIT_MAX, &limit, resp))
 		return;
+	order = param(req, "order");
+	if (order != NULL && strcmp(order, "newest") != 0 &&
+	    strcmp(order, "oldest") != 0) {
+		api_error(resp, ERRCODE_BAD_ARG, "order",
+		    "order: 'newest' or 'oldest'");
+		return;
+	}
 	q.target = param(req, "target");
 	q.limit = limit;
-	q.newest_first = 1;
+	q.newest_first = 1;		/* the newest limit rows ... */
 	rc = store_attempts_list(ctx->db, &q, &rows, &n, err, sizeof err);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, NULL, err);
 		return;
+	}
+	/* ... shown oldest first with order=oldest, as "log list --limit". */
+	for (size_t i = 0; order != NULL && strcmp(order, "oldest") == 0 &&
+	    i < n / 2; i++) {
+		struct site_attempt tmp = rows[i];
+
+		rows[i] = rows[n - 1 - i];
+		rows[n - 1 - i] = tmp;
 	}
 	rc = render_site_attempts_json(rows, n, &resp->body);
 	mem_free(rows);
@@ -1046,6 +1112,32 @@ parse_body(const struct api_request *req, json_t **out, json_error_t *err)
 	return rc;
 }
 
+/*
+ * The body member a store message names ("field 'start'" is start_utc,
+ * "field 'end'" end_utc, others by their own name), or NULL.
+ */
+static const char *
+store_member(const char *err)
+{
+	static const char *const members[] = {"target", "shots", "returns",
+	    "normal_points", "outcome", "operator", "seeing_arcsec", "notes"};
+	const char *f = strstr(err, "field '");
+	size_t n;
+
+	if (f == NULL)
+		return NULL;
+	f += 7;
+	n = strcspn(f, "'");
+	if (n == 5 && strncmp(f, "start", 5) == 0)
+		return "start_utc";
+	if (n == 3 && strncmp(f, "end", 3) == 0)
+		return "end_utc";
+	for (size_t i = 0; i < sizeof members / sizeof members[0]; i++)
+		if (strlen(members[i]) == n && strncmp(f, members[i], n) == 0)
+			return members[i];
+	return NULL;
+}
+
 static void
 h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
@@ -1097,6 +1189,15 @@ h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 		api_error(resp, ERRCODE_BAD_ARG, "target", msg);
 		goto out;
 	}
+	if (rc == ERRCODE_BAD_TIME || rc == ERRCODE_BAD_ARG) {
+		/* The store refused a value: "...: field 'start': ..." */
+		const char *member = store_member(err);
+
+		snprintf(msg, sizeof msg, "%s: %s", member ? member : "body",
+		    err);
+		api_error(resp, rc, member, msg);
+		goto out;
+	}
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, rc == ERRCODE_EXISTS ? "start_utc" : NULL,
 		    rc == ERRCODE_EXISTS ? "start_utc: the target already has "
@@ -1120,35 +1221,36 @@ out:
 static const struct route routes[] = {
 	{{"GET", "/api/v1/status", "",
 	    "version, uptime, database, last plan time, EOP coverage"},
-	    h_status},
+	    h_status, 0},
 	{{"GET", "/api/v1/site", "", "the station and its planning limits"},
-	    h_site},
+	    h_site, 0},
 	{{"GET", "/api/v1/targets", "", "every target, active or retired"},
-	    h_targets},
+	    h_targets, 0},
 	{{"GET", "/api/v1/now", "at",
 	    "Moon, Sun and each active target at an instant (default now)"},
-	    h_now},
+	    h_now, 0},
 	{{"GET", "/api/v1/phases", "from,to,days",
-	    "new moon, quarters and full moon in a span"}, h_phases},
+	    "new moon, quarters and full moon in a span"}, h_phases, 1},
 	{{"GET", "/api/v1/windows", "from,to,days,target,limit",
 	    "ranked observing windows (no parameters: the cached plan)"},
-	    h_windows},
+	    h_windows, 1},
 	{{"GET", "/api/v1/windows.ics", "from,to,days,target,limit",
-	    "the windows as iCalendar (RFC 5545)"}, h_windows_ics},
+	    "the windows as iCalendar (RFC 5545)"}, h_windows_ics, 1},
 	{{"GET", "/api/v1/coverage", COVERAGE_PARAMS,
 	    "phase-coverage audit as JSON (the CLI's coverage --json)"},
-	    h_coverage},
+	    h_coverage, 1},
 	{{"GET", "/api/v1/coverage.csv", COVERAGE_PARAMS,
-	    "the coverage audit as CSV (RFC 4180)"}, h_coverage_csv},
+	    "the coverage audit as CSV (RFC 4180)"}, h_coverage_csv, 1},
 	{{"GET", "/api/v1/coverage.svg", COVERAGE_PARAMS,
-	    "the coverage chart as SVG"}, h_coverage_svg},
-	{{"GET", "/api/v1/attempts", "since,limit,target",
-	    "logged attempts, newest first"}, h_attempts_list},
+	    "the coverage chart as SVG"}, h_coverage_svg, 1},
+	{{"GET", "/api/v1/attempts", "since,until,target,limit,order",
+	    "logged attempts, newest first (order=oldest: as log list)"},
+	    h_attempts_list, 0},
 	{{"POST", "/api/v1/attempts", "",
 	    "log an attempt (JSON body, bearer token); 201 with Location"},
-	    h_attempts_add},
+	    h_attempts_add, 0},
 	{{"GET", "/api/v1/attempts/{id}", "", "one logged attempt"},
-	    h_attempt_get},
+	    h_attempt_get, 0},
 };
 
 #define NROUTES (sizeof routes / sizeof routes[0])
@@ -1238,46 +1340,54 @@ api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
 {
 	struct store_settings set;
 	struct covquery_params p;
+	struct store *db;
 	struct mbuf w, c;
 	double now_mjd = (now1 - ERFA_DJM0) + now2, days;
 	size_t n = 0;
+	int locked;
 	enum errcode rc;
 
 	mbuf_init(&w);
 	mbuf_init(&c);
+	/* A write from now on asks for the next plan: this one may not
+	   see it. */
 	pthread_mutex_lock(&ctx->lock);
-	if (ctx->db == NULL) {
-		rc = ERRCODE_CONFIG;
-		snprintf(errbuf, errlen, "no database open");
-		goto out;
-	}
-	rc = store_settings_get(ctx->db, &set, errbuf, errlen);
-	if (rc != ERRCODE_OK)
-		goto out;
-	days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
-	rc = windows_render(ctx->db, now_mjd, now_mjd + days, NULL, 0, 0,
-	    now_mjd, &w, &n, errbuf, errlen);
-	if (rc != ERRCODE_OK)
-		goto out;
-	covquery_params_init(&p);
-	p.now_mjd = now_mjd;
-	rc = covquery_run(ctx->db, &p, COVQUERY_JSON, &c, errbuf, errlen);
-	if (rc != ERRCODE_OK)
-		goto out;
-	mbuf_free(&ctx->plan_windows);
-	mbuf_free(&ctx->plan_coverage);
-	ctx->plan_windows = w;
-	ctx->plan_coverage = c;
-	mbuf_init(&w);
-	mbuf_init(&c);
-	ctx->plan_nwindows = n;
-	ctx->plan_days_used = days;
-	ctx->planned = 1;
-	ctx->plan_utc1 = now1;
-	ctx->plan_utc2 = now2;
-out:
 	ctx->replan = 0;
+	db = ctx->db;
 	pthread_mutex_unlock(&ctx->lock);
+	if (db == NULL) {
+		snprintf(errbuf, errlen, "no database open");
+		return ERRCODE_CONFIG;
+	}
+	/* Computed on a connection of its own: requests go on meanwhile. */
+	db = read_store(ctx, &locked);
+	rc = store_settings_get(db, &set, errbuf, errlen);
+	if (rc == ERRCODE_OK) {
+		days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
+		rc = windows_render(db, now_mjd, now_mjd + days, NULL, 0, 0,
+		    now_mjd, &w, &n, errbuf, errlen);
+	}
+	if (rc == ERRCODE_OK) {
+		covquery_params_init(&p);
+		p.now_mjd = now_mjd;
+		rc = covquery_run(db, &p, COVQUERY_JSON, &c, errbuf, errlen);
+	}
+	release_store(ctx, db, locked);
+	if (rc == ERRCODE_OK) {
+		pthread_mutex_lock(&ctx->lock);
+		mbuf_free(&ctx->plan_windows);
+		mbuf_free(&ctx->plan_coverage);
+		ctx->plan_windows = w;
+		ctx->plan_coverage = c;
+		mbuf_init(&w);
+		mbuf_init(&c);
+		ctx->plan_nwindows = n;
+		ctx->plan_days_used = days;
+		ctx->planned = 1;
+		ctx->plan_utc1 = now1;
+		ctx->plan_utc2 = now2;
+		pthread_mutex_unlock(&ctx->lock);
+	}
 	mbuf_free(&w);
 	mbuf_free(&c);
 	return rc;
@@ -1377,7 +1487,13 @@ dispatch(struct api_ctx *ctx, const struct api_request *req,
 	resp->allow[0] = '\0';
 	if (params_check(req, hit->info.params, resp))
 		return;
+	if (hit->unlocked) {
+		hit->fn(ctx, req, resp);
+		return;
+	}
+	pthread_mutex_lock(&ctx->lock);
 	hit->fn(ctx, req, resp);
+	pthread_mutex_unlock(&ctx->lock);
 }
 
 void
@@ -1385,7 +1501,5 @@ api_handle(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
 	api_response_init(resp);
-	pthread_mutex_lock(&ctx->lock);
 	dispatch(ctx, req, resp);
-	pthread_mutex_unlock(&ctx->lock);
 }

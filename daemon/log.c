@@ -76,9 +76,16 @@ vlog(enum log_level level, const char *suffix, const char *fmt, va_list ap)
 	}
 	if (n >= sizeof line - 1)
 		n = sizeof line - 2;	/* truncated: keep the line whole */
-	for (size_t i = 0; i < n; i++)	/* one event, one line */
-		if (line[i] == '\n' || line[i] == '\r')
+	/* One event, one line, nothing a terminal would act on: a request
+	   path may carry any byte its client percent-encoded. */
+	for (size_t i = 0; i < n; i++) {
+		unsigned char c = (unsigned char)line[i];
+
+		if (c == '\n' || c == '\r' || c == '\t')
 			line[i] = ' ';
+		else if (c < 0x20 || c == 0x7f)
+			line[i] = '?';
+	}
 	line[n++] = '\n';
 	fwrite(line, 1, n, f);
 	fflush(f);

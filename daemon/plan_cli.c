@@ -77,31 +77,22 @@ plan_cli_load(const char *db, double lat, double lon, double h,
 
 int
 plan_cli_run(const struct plan_query *q, struct plan_db *hold,
-    struct render_plan *rp, plan_cli_render_fn fn)
+    struct render_plan *rp, plan_db_render_fn fn)
 {
-	struct plan_result res;
 	struct mbuf out;
 	char err[256];
 	enum errcode rc;
 	int st;
 
-	rc = plan_run(q, &res, err, sizeof err);
+	mbuf_init(&out);
+	rc = plan_db_render(q, rp, fn, &out, NULL, err, sizeof err);
+	plan_db_free(hold);
 	if (rc != ERRCODE_OK) {
-		plan_db_free(hold);
+		mbuf_free(&out);
 		if (rc == ERRCODE_NOMEM)
 			return cli_fail("%s", errcode_str(rc));
 		return cli_status_of(rc) == CLI_EXIT_USAGE ?
 		    cli_usage_error("%s", err) : cli_fail("%s", err);
-	}
-	rp->r = &res;
-	mbuf_init(&out);
-	rc = fn(rp, &out);
-	plan_result_free(&res);
-	plan_db_free(hold);
-	rp->r = NULL;
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		return cli_fail("%s", errcode_str(rc));
 	}
 	st = cli_emit(&out);
 	mbuf_free(&out);

@@ -92,3 +92,28 @@ out:
 		plan_db_free(d);
 	return rc;
 }
+
+enum errcode
+plan_db_render(const struct plan_query *q, struct render_plan *rp,
+    plan_db_render_fn fn, struct mbuf *out, size_t *nwindows, char *errbuf,
+    size_t errlen)
+{
+	struct plan_result res;
+	enum errcode rc;
+
+	memset(&res, 0, sizeof res);
+	rc = plan_run(q, &res, errbuf, errlen);
+	if (rc != ERRCODE_OK) {
+		plan_result_free(&res);
+		return rc;
+	}
+	rp->r = &res;
+	rc = fn(rp, out);
+	rp->r = NULL;
+	if (rc != ERRCODE_OK)
+		snprintf(errbuf, errlen, "%s", errcode_str(rc));
+	if (nwindows != NULL)
+		*nwindows = res.n;
+	plan_result_free(&res);
+	return rc;
+}

@@ -5,6 +5,7 @@
 #include <errno.h>
 #include <limits.h>
 #include <netinet/in.h>
+#include <pthread.h>
 #include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -28,7 +29,16 @@ struct web_server {
 	unsigned port;
 	int loopback;			/* bound to a loopback address */
 	atomic_int inflight;		/* requests between start and reply */
+	/* libmicrohttpd's messages: a repeat within WEB_LOG_REPEAT_S of
+	   the same text is counted, not logged (a flood of refused
+	   connections must not flood the event log). */
+	pthread_mutex_t log_lock;
+	char log_last[512];
+	double log_last_s;		/* monotonic time of log_last */
+	unsigned long log_repeats;	/* repeats of log_last not logged */
 };
+
+#define WEB_LOG_REPEAT_S 10.0
 
 /* Per-request state, kept in MHD's *con_cls until the request completes. */
 struct web_conn {
@@ -233,11 +243,24 @@ web_host_is_local(const char *host)
 
 /* --- responses --- */
 
-static void
-add_common_headers(struct MHD_Response *r, int api)
+/*
+ * The policy of every response.  An SVG opened on its own is a document
+ * under this policy too; the chart's fixed <style> block (render_cov.c)
+ * would be refused, so SVG answers also allow inline style (never
+ * script: default-src 'self' still holds).
+ */
+static const char *
+csp_of(const char *ctype)
 {
-	MHD_add_response_header(r, "Content-Security-Policy",
-	    "default-src 'self'");
+	if (ctype != NULL && strncmp(ctype, "image/svg+xml", 13) == 0)
+		return "default-src 'self'; style-src 'self' 'unsafe-inline'";
+	return "default-src 'self'";
+}
+
+static void
+add_common_headers(struct MHD_Response *r, int api, const char *ctype)
+{
+	MHD_add_response_header(r, "Content-Security-Policy", csp_of(ctype));
 	MHD_add_response_header(r, "X-Content-Type-Options", "nosniff");
 	MHD_add_response_header(r, "Referrer-Policy", "no-referrer");
 	MHD_add_response_header(r, "X-Frame-Options", "DENY");
@@ -257,7 +280,7 @@ send_response(struct MHD_Connection *conn, const struct api_response *ar,
 	if (r == NULL)
 		return MHD_NO;
 	MHD_add_response_header(r, "Content-Type", ar->content_type);
-	add_common_headers(r, api);
+	add_common_headers(r, api, ar->content_type);
 	if (ar->location[0] != '\0')
 		MHD_add_response_header(r, "Location", ar->location);
 	if (ar->allow[0] != '\0')
@@ -465,6 +488,22 @@ on_completed(void *cls, struct MHD_Connection *conn, void **con_cls,
 	atomic_fetch_sub(&s->inflight, 1);
 }
 
+/* Say how many repeats of the last message were not logged. */
+static void
+mhd_log_flush(struct web_server *s)
+{
+	unsigned long n;
+	char last[sizeof s->log_last];
+
+	pthread_mutex_lock(&s->log_lock);
+	n = s->log_repeats;
+	s->log_repeats = 0;
+	memcpy(last, s->log_last, sizeof last);
+	pthread_mutex_unlock(&s->log_lock);
+	if (n > 0)
+		log_warn("http: %s (%lu more times)", last, n);
+}
+
 /* libmicrohttpd's own messages, routed into the event log. */
 static void mhd_logger(void *cls, const char *fmt, va_list ap)
     MEM_PRINTFLIKE(2, 0);
@@ -472,14 +511,34 @@ static void mhd_logger(void *cls, const char *fmt, va_list ap)
 static void
 mhd_logger(void *cls, const char *fmt, va_list ap)
 {
-	char msg[512];
+	struct web_server *s = cls;
+	struct timespec t;
+	char msg[sizeof s->log_last], prev[sizeof s->log_last];
+	unsigned long repeats;
+	double now;
 	size_t n;
 
-	(void)cls;
 	vsnprintf(msg, sizeof msg, fmt, ap);
 	n = strlen(msg);
 	while (n > 0 && (msg[n - 1] == '\n' || msg[n - 1] == '\r'))
 		msg[--n] = '\0';
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	now = (double)t.tv_sec + (double)t.tv_nsec / 1e9;
+	pthread_mutex_lock(&s->log_lock);
+	if (strcmp(msg, s->log_last) == 0 &&
+	    now - s->log_last_s < WEB_LOG_REPEAT_S) {
+		s->log_repeats++;
+		pthread_mutex_unlock(&s->log_lock);
+		return;
+	}
+	repeats = s->log_repeats;
+	memcpy(prev, s->log_last, sizeof prev);
+	memcpy(s->log_last, msg, n + 1);
+	s->log_last_s = now;
+	s->log_repeats = 0;
+	pthread_mutex_unlock(&s->log_lock);
+	if (repeats > 0)
+		log_warn("http: %s (%lu more times)", prev, repeats);
 	log_warn("http: %s", msg);
 }
 
@@ -503,6 +562,10 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		return ERRCODE_NOMEM;
 	s->ctx = ctx;
 	atomic_init(&s->inflight, 0);
+	if (pthread_mutex_init(&s->log_lock, NULL) != 0) {
+		mem_free(s);
+		return ERRCODE_NOMEM;
+	}
 	if (cfg->web_dir != NULL) {
 		struct stat st;
 
@@ -510,6 +573,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		    stat(s->root, &st) != 0 || !S_ISDIR(st.st_mode)) {
 			snprintf(errbuf, errlen, "--web '%s': not a directory",
 			    cfg->web_dir);
+			pthread_mutex_destroy(&s->log_lock);
 			mem_free(s);
 			return ERRCODE_IO;
 		}
@@ -527,12 +591,13 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		flags |= MHD_USE_IPv6;
 	} else {
 		snprintf(errbuf, errlen, "'%s' is not a numeric address", addr);
+		pthread_mutex_destroy(&s->log_lock);
 		mem_free(s);
 		return ERRCODE_BAD_ARG;
 	}
 	s->d = MHD_start_daemon(flags, (uint16_t)cfg->port, NULL, NULL,
 	    on_request, s,
-	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, NULL,
+	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, s,
 	    MHD_OPTION_SOCK_ADDR, sa,
 	    MHD_OPTION_THREAD_POOL_SIZE,
 	    (unsigned)(cfg->threads ? cfg->threads : 4),
@@ -550,6 +615,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		snprintf(errbuf, errlen, "cannot listen on %s port %u: %s",
 		    addr, cfg->port, errno ? strerror(errno) :
 		    "libmicrohttpd refused the options");
+		pthread_mutex_destroy(&s->log_lock);
 		mem_free(s);
 		return ERRCODE_IO;
 	}
@@ -584,5 +650,7 @@ web_stop(struct web_server *s, double grace_s)
 		log_warn("stopping with %d request(s) still open",
 		    atomic_load(&s->inflight));
 	MHD_stop_daemon(s->d);
+	mhd_log_flush(s);
+	pthread_mutex_destroy(&s->log_lock);
 	mem_free(s);
 }

@@ -97,8 +97,11 @@ struct api_ctx;
 /*
  * A context owns a copy of the configuration (the token is copied and
  * wiped on api_free) and the current site.  api_handle() may be called
- * from several threads at once; the context serialises them.  Returns
- * NULL on allocation failure.
+ * from several threads at once; the context serialises what touches it.
+ * The slow reads (windows, coverage, the plan refresh) run on a read-only
+ * database connection of their own, outside that lock, so that /now,
+ * /status and writes are not held up by them.  Returns NULL on
+ * allocation failure.
  */
 struct api_ctx *api_new(const struct api_config *cfg);
 void api_free(struct api_ctx *ctx);
@@ -115,8 +118,9 @@ void api_set_site(struct api_ctx *ctx, struct api_site *site);
  * Recompute the plan cache: the ranked windows of [now, now + plan_days)
  * and the coverage audit with default parameters, served by GET windows
  * and GET coverage without parameters.  Called by the daemon's main loop
- * every refresh interval and when api_replan_wanted() says the data
- * changed.  On failure the previous plan stays and errbuf says why.
+ * (one thread) every refresh interval and when api_replan_wanted() says
+ * the data changed; a write made while it runs asks for the next one.
+ * On failure the previous plan stays and errbuf says why.
  */
 enum errcode api_replan(struct api_ctx *ctx, double now1, double now2,
     char *errbuf, size_t errlen);

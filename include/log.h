@@ -10,8 +10,9 @@
 /*
  * Every line reads "2027-03-01T04:00:00.123Z LEVEL message".  Lines below
  * the level set with log_init() are dropped.  Safe to call from several
- * threads: each line is written whole.  The log never sees a credential;
- * callers must not pass one.
+ * threads: each line is written whole, with control characters replaced
+ * (line breaks and tabs by a space, others by "?").  The log never sees
+ * a credential; callers must not pass one.
  */
 enum log_level {
 	LOG_LEVEL_DEBUG = 0,

@@ -42,8 +42,6 @@ int plan_cli_option(int c, const char *arg, struct plan_cli_opts *o);
 int plan_cli_opts_check(const struct plan_cli_opts *o, const char *cmd,
     int argc, char **argv);
 
-typedef enum errcode (*plan_cli_render_fn)(const struct render_plan *p,
-    struct mbuf *out);
 
 /*
  * Run q, render the result with fn (rp->r is set here, the rest is the
@@ -51,6 +49,6 @@ typedef enum errcode (*plan_cli_render_fn)(const struct render_plan *p,
  * are printed once.
  */
 int plan_cli_run(const struct plan_query *q, struct plan_db *hold,
-    struct render_plan *rp, plan_cli_render_fn fn);
+    struct render_plan *rp, plan_db_render_fn fn);
 
 #endif

@@ -7,6 +7,7 @@
 
 #include "errcode.h"
 #include "plan.h"
+#include "render.h"
 #include "site.h"
 
 /* The arrays a loaded query borrows; free with plan_db_free. */
@@ -38,5 +39,23 @@ enum errcode plan_db_load(const char *path, struct plan_query *q,
 struct store;
 enum errcode plan_db_fill(struct store *s, struct plan_query *q,
     struct plan_db *d, char *errbuf, size_t errlen);
+
+/* A renderer of a plan: render_windows_json, _csv, _ics, _text, ... */
+typedef enum errcode (*plan_db_render_fn)(const struct render_plan *p,
+    struct mbuf *out);
+
+/*
+ * Run a query filled as above (by plan_db_load or plan_db_fill, span,
+ * target and limit set) and append the result rendered by fn to out:
+ * rp->r is set for the call and reset after it, the rest of rp is the
+ * caller's.  *nwindows (may be NULL) gets the number of windows ranked.
+ * The same path for "moonrange windows" / "tonight" and the daemon's
+ * /api/v1/windows, so that both print the same bytes.
+ * Returned (function value): plan_run's code with its sentence in
+ * errbuf, or the renderer's (ERRCODE_NOMEM).
+ */
+enum errcode plan_db_render(const struct plan_query *q,
+    struct render_plan *rp, plan_db_render_fn fn, struct mbuf *out,
+    size_t *nwindows, char *errbuf, size_t errlen);
 
 #endif

@@ -73,6 +73,13 @@ grep -qi '^X-Content-Type-Options: nosniff' "$T/h" || fail "nosniff"
 grep -q '"last_utc": "20' "$T/status" || fail "no plan time in status"
 curl -s -o /dev/null -w '%{http_code}' "${URL}" | grep -q 200 || fail "page"
 
+# --- a path carrying a line break and an escape stays one plain log line ---
+curl -s -o /dev/null --path-as-is "${URL}x%0a2027-01-01T00:00:00.000Z%20error%20forged%1b%5b31m"
+wait_for "$T/err" 'GET /x 2027-01-01T00:00:00.000Z error forged\?\[31m -> 404'
+if grep -q $'\x1b' "$T/err"; then
+	fail "a control character reached the log"
+fi
+
 # --- a write, then the plan is recomputed ---
 code=$(curl -s -o "$T/post" -w '%{http_code}' -X POST \
 	-H "Authorization: Bearer $TOKEN" -H 'Content-Type: application/json' \

@@ -252,6 +252,18 @@ run_cli(const char *args, int *st)
 	return out;
 }
 
+/* The CLI run with args exits 0 and prints exactly the reply's body. */
+static void
+assert_cli_prints(const struct http_reply *r, const char *args)
+{
+	int st;
+	char *cli = run_cli(args, &st);
+
+	assert_int_equal(st, 0);
+	assert_string_equal(r->body, cli);
+	free(cli);
+}
+
 /* --- tests --- */
 
 static void
@@ -318,8 +330,6 @@ static void
 test_api_now_same_bytes_as_cli(void **state)
 {
 	struct http_reply r;
-	char *cli;
-	int st;
 
 	(void)state;
 	char args[512];
@@ -334,10 +344,7 @@ test_api_now_same_bytes_as_cli(void **state)
 	json_decref(j);
 	snprintf(args, sizeof args, "ephem --db '%s' --at " AT " --json",
 	    dbpath);
-	cli = run_cli(args, &st);
-	assert_int_equal(st, 0);
-	assert_string_equal(r.body, cli);
-	free(cli);
+	assert_cli_prints(&r, args);
 	http_reply_free(&r);
 }
 
@@ -374,18 +381,14 @@ test_api_phases_same_bytes_as_cli(void **state)
 		    "--from 2026-12-01T12:00:00Z --days 45.5"},
 	};
 	struct http_reply r;
-	char path[256], args[256], *cli;
-	int st;
+	char path[256], args[256];
 
 	(void)state;
 	for (size_t i = 0; i < sizeof q / sizeof q[0]; i++) {
 		snprintf(path, sizeof path, "/api/v1/phases?%s", q[i][0]);
 		snprintf(args, sizeof args, "phases %s --json", q[i][1]);
 		assert_int_equal(get(path, &r), 200);
-		cli = run_cli(args, &st);
-		assert_int_equal(st, 0);
-		assert_string_equal(r.body, cli);
-		free(cli);
+		assert_cli_prints(&r, args);
 		http_reply_free(&r);
 	}
 }
@@ -710,6 +713,13 @@ test_api_attempts_refused(void **state)
 		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
 		    "\"outcome\":\"ranged\",\"operator\":\"op\","
 		    "\"seeing_arcsec\":-1}", 400, "bad_arg", "seeing_arcsec"},
+		/* A well-formed time the store refuses (1850, out of its
+		   range): the refusal names the member too. */
+		{AUTH JSON_CT, "{\"target\":\"ALPHA\",\"start_utc\":"
+		    "\"1850-03-14T05:30:00Z\",\"end_utc\":\"1850-03-14T05:45:00Z\","
+		    "\"shots\":5,\"returns\":0,\"normal_points\":0,"
+		    "\"outcome\":\"ranged\",\"operator\":\"op\"}", 400, "bad_time",
+		    "start_utc"},
 	};
 	size_t before = attempts_in_db();
 	struct http_reply r;
@@ -833,6 +843,72 @@ test_api_attempts_create_and_list(void **state)
 	http_reply_free(&r);
 }
 
+/* GET attempts?order=oldest prints what "moonrange log list --json" prints;
+   the default order is the same rows newest first. */
+static void
+test_api_attempts_same_bytes_as_cli(void **state)
+{
+	static const char *more[] = {
+		"{\"target\":\"BRAVO\",\"start_utc\":\"2027-03-15T04:00:00Z\","
+		"\"end_utc\":\"2027-03-15T04:20:00Z\",\"shots\":9000,"
+		"\"returns\":0,\"normal_points\":0,\"outcome\":\"no_returns\","
+		"\"operator\":\"Invented Two\"}",
+		"{\"target\":\"ALPHA\",\"start_utc\":\"2027-03-16T03:00:00Z\","
+		"\"end_utc\":\"2027-03-16T03:10:00Z\",\"shots\":6000,"
+		"\"returns\":33,\"normal_points\":1,\"outcome\":\"ranged\","
+		"\"operator\":\"Invented Three\",\"notes\":\"a, \\\"quoted\\\" note\"}",
+	};
+	static const char *q[][2] = {
+		{"order=oldest&limit=50", "--limit 50"},
+		{"order=oldest&limit=2", "--limit 2"},
+		{"order=oldest&limit=9&target=ALPHA", "--limit 9 --target ALPHA"},
+		{"order=oldest&limit=9&since=2027-03-15T00:00:00Z&"
+		    "until=2027-03-16T00:00:00Z",
+		    "--limit 9 --since 2027-03-15T00:00:00Z "
+		    "--until 2027-03-16T00:00:00Z"},
+	};
+	struct http_reply r, o;
+	char path[256], args[512];
+	json_t *a, *b;
+	size_t n;
+
+	(void)state;
+	for (size_t i = 0; i < 2; i++) {
+		assert_int_equal(post(AUTH JSON_CT, more[i], &r), 201);
+		http_reply_free(&r);
+	}
+	for (size_t i = 0; i < sizeof q / sizeof q[0]; i++) {
+		snprintf(path, sizeof path, "/api/v1/attempts?%s", q[i][0]);
+		snprintf(args, sizeof args, "log list --db '%s' --json %s",
+		    dbpath, q[i][1]);
+		assert_int_equal(get(path, &r), 200);
+		assert_cli_prints(&r, args);
+		http_reply_free(&r);
+	}
+	/* Newest first by default: the same rows, reversed. */
+	assert_int_equal(get("/api/v1/attempts?limit=50", &r), 200);
+	assert_int_equal(get("/api/v1/attempts?limit=50&order=oldest", &o), 200);
+	a = body_json(&r);
+	b = body_json(&o);
+	n = json_array_size(json_object_get(a, "attempts"));
+	assert_true(n >= 3);
+	assert_int_equal(json_array_size(json_object_get(b, "attempts")), n);
+	for (size_t i = 0; i < n; i++)
+		assert_true(json_equal(
+		    json_array_get(json_object_get(a, "attempts"), i),
+		    json_array_get(json_object_get(b, "attempts"), n - 1 - i)));
+	json_decref(a);
+	json_decref(b);
+	http_reply_free(&r);
+	http_reply_free(&o);
+	get("/api/v1/attempts?order=sideways", &r);
+	assert_error(&r, 400, "bad_arg", "order");
+	http_reply_free(&r);
+	get("/api/v1/attempts?until=yesterday", &r);
+	assert_error(&r, 400, "bad_time", "until");
+	http_reply_free(&r);
+}
+
 /* coverage, .csv and .svg print what "moonrange coverage" prints. */
 static void
 test_api_coverage_same_bytes_as_cli(void **state)
@@ -845,8 +921,7 @@ test_api_coverage_same_bytes_as_cli(void **state)
 	static const char *ctype[] = {"application/json",
 	    "text/csv; charset=utf-8; header=present", "image/svg+xml"};
 	struct http_reply r;
-	char path[256], args[512], v[128], *cli;
-	int st;
+	char path[256], args[512], v[128];
 
 	(void)state;
 	for (size_t i = 0; i < 3; i++) {
@@ -857,10 +932,13 @@ test_api_coverage_same_bytes_as_cli(void **state)
 		assert_int_equal(get(path, &r), 200);
 		assert_non_null(http_header(&r, "Content-Type", v, sizeof v));
 		assert_string_equal(v, ctype[i]);
-		cli = run_cli(args, &st);
-		assert_int_equal(st, 0);
-		assert_string_equal(r.body, cli);
-		free(cli);
+		/* The chart may style itself when opened on its own; nothing
+		   else is inline. */
+		assert_non_null(http_header(&r, "Content-Security-Policy", v,
+		    sizeof v));
+		assert_string_equal(v, i == 2 ? "default-src 'self'; style-src "
+		    "'self' 'unsafe-inline'" : "default-src 'self'");
+		assert_cli_prints(&r, args);
 		http_reply_free(&r);
 	}
 	get("/api/v1/coverage?bins=2", &r);
@@ -909,10 +987,7 @@ test_api_windows_same_bytes_as_cli(void **state)
 	snprintf(args, sizeof args, "windows --db '%s' --from "
 	    "2027-03-10T00:00:00Z --to 2027-03-13T00:00:00Z --limit 10 --json",
 	    dbpath);
-	cli = run_cli(args, &st);
-	assert_int_equal(st, 0);
-	assert_string_equal(r.body, cli);
-	free(cli);
+	assert_cli_prints(&r, args);
 	/* A daylight-capable station (max Sun elevation 90 deg) sees the
 	   Moon above 15 deg on most days: three days hold windows. */
 	j = body_json(&r);
@@ -1002,6 +1077,7 @@ main(void)
 		cmocka_unit_test(test_api_attempts_refused),
 		cmocka_unit_test(test_api_body_limit),
 		cmocka_unit_test(test_api_attempts_create_and_list),
+		cmocka_unit_test(test_api_attempts_same_bytes_as_cli),
 		cmocka_unit_test(test_api_coverage_same_bytes_as_cli),
 		cmocka_unit_test(test_api_windows_same_bytes_as_cli),
 		cmocka_unit_test(test_api_plan_cache),

@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* test_web.c: static-file path rules and the listen-address parser of web.c. */
+/* test_web.c: static-file path rules, the listen-address parser and the
+   libmicrohttpd message log of web.c. */
 #define _XOPEN_SOURCE 700	/* realpath, mkdtemp, symlink */
 #include <limits.h>
 #include <setjmp.h>
@@ -10,10 +11,13 @@
 #include <stdlib.h>
 #include <string.h>
 #include <sys/stat.h>
+#include <time.h>
 #include <unistd.h>
 
 #include <cmocka.h>
 
+#include "http_client.h"
+#include "log.h"
 #include "web.h"
 
 static char tmp[PATH_MAX];	/* canonical temp dir: root/ and outside */
@@ -170,6 +174,59 @@ test_web_host_is_local(void **state)
 	assert_false(web_host_is_local(NULL));
 }
 
+/* A storm of refused requests (here: request lines too long for the
+   connection's memory, 414): libmicrohttpd says so once, and the repeats
+   are counted in one more line, not logged one by one. */
+static void
+test_web_log_repeats_counted(void **state)
+{
+	struct api_config cfg;
+	struct web_config wc;
+	struct web_server *srv = NULL;
+	struct api_ctx *ctx;
+	struct http_reply r;
+	size_t len = 200 * 1024;
+	char err[200], line[1024], *raw = malloc(len + 64);
+	FILE *logf = tmpfile();
+	int seen = 0, counted = 0;
+
+	(void)state;
+	assert_non_null(logf);
+	assert_non_null(raw);
+	memcpy(raw, "GET /", 5);
+	memset(raw + 5, 'a', len);
+	strcpy(raw + 5 + len, " HTTP/1.1\r\nHost: 127.0.0.1\r\n\r\n");
+	log_init(LOG_LEVEL_INFO, logf);
+	memset(&cfg, 0, sizeof cfg);
+	ctx = api_new(&cfg);
+	assert_non_null(ctx);
+	memset(&wc, 0, sizeof wc);
+	wc.addr = "127.0.0.1";
+	assert_int_equal(web_start(&wc, ctx, &srv, err, sizeof err),
+	    ERRCODE_OK);
+	for (int i = 0; i < 30; i++) {
+		http_raw(web_port(srv), raw, strlen(raw), &r);
+		assert_int_equal(r.status, 414);
+		http_reply_free(&r);
+	}
+	web_stop(srv, 1.0);
+	api_free(ctx);
+	log_init(LOG_LEVEL_INFO, NULL);
+	rewind(logf);
+	while (fgets(line, sizeof line, logf) != NULL) {
+		if (strstr(line, "414") == NULL)
+			continue;
+		seen++;
+		counted += strstr(line, " more times)") != NULL;
+	}
+	fclose(logf);
+	free(raw);
+	/* The first refusal, then one line counting the other 29 (or two
+	   of each on a machine slower than WEB_LOG_REPEAT_S for 30). */
+	assert_in_range(seen, 2, 4);
+	assert_in_range(counted, 1, 2);
+}
+
 int
 main(void)
 {
@@ -178,6 +235,7 @@ main(void)
 		cmocka_unit_test(test_web_parse_listen),
 		cmocka_unit_test(test_web_is_loopback),
 		cmocka_unit_test(test_web_host_is_local),
+		cmocka_unit_test(test_web_log_repeats_counted),
 	};
 
 	return cmocka_run_group_tests(tests, setup, teardown);

@@ -24,6 +24,20 @@
     return td;
   }
 
+  // A cell whose words never break inside ("2026-12-02", "op-amber" stay
+  // whole when a narrow screen wraps the cell).
+  function wordsCell(text, cls) {
+    const td = document.createElement("td");
+    td.className = "words" + (cls ? " " + cls : "");
+    text.split(" ").forEach(function (word, i) {
+      if (i > 0) td.appendChild(document.createTextNode(" "));
+      const span = document.createElement("span");
+      span.textContent = word;
+      td.appendChild(span);
+    });
+    return td;
+  }
+
   function emptyRow(tbody, cols, text) {
     const tr = document.createElement("tr");
     const td = cell(text, "empty");
@@ -159,10 +173,10 @@
         const tr = document.createElement("tr");
         tr.appendChild(cell(String(x.rank), "rank num"));
         tr.appendChild(cell(x.target));
-        tr.appendChild(cell(fmtLocal(x.start), "time"));
-        tr.appendChild(cell(fmtLocal(x.end), "time"));
-        tr.appendChild(cell(fmtUtc(x.start), "time"));
-        tr.appendChild(cell(fmtUtc(x.end), "time"));
+        tr.appendChild(wordsCell(fmtLocal(x.start), "time"));
+        tr.appendChild(wordsCell(fmtLocal(x.end), "time"));
+        tr.appendChild(wordsCell(fmtUtc(x.start), "time"));
+        tr.appendChild(wordsCell(fmtUtc(x.end), "time"));
         tr.appendChild(cell(deg(x.max_el_deg), "num"));
         tr.appendChild(cell(deg(x.synodic_angle_deg), "num"));
         tr.appendChild(cell(fixed(x.coverage_weight, 2), "num"));
@@ -251,13 +265,13 @@
       const rows = [];
       for (const x of a.attempts) {
         const tr = document.createElement("tr");
-        tr.appendChild(cell(fmtUtc(x.start_utc), "time"));
+        tr.appendChild(wordsCell(fmtUtc(x.start_utc), "time"));
         tr.appendChild(cell(x.target));
         tr.appendChild(cell(x.outcome.replace(/_/g, " ")));
         tr.appendChild(cell(String(x.shots), "num"));
         tr.appendChild(cell(String(x.returns), "num"));
         tr.appendChild(cell(String(x.normal_points), "num"));
-        tr.appendChild(cell(x.operator));
+        tr.appendChild(wordsCell(x.operator));
         tr.appendChild(cell(x.notes, "why"));
         rows.push(tr);
       }

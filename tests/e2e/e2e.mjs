@@ -1,7 +1,9 @@
 // SPDX-License-Identifier: BSD-3-Clause
 // e2e.mjs: the station page in headless Chromium against a real daemon on
-// 127.0.0.1: windows table, now panel, coverage chart, logging an attempt
-// through the form, the recent list and GET /api/v1/attempts; screenshot.
+// 127.0.0.1: windows table, now panel, coverage chart, logging attempts
+// through the form, the recent list and GET /api/v1/attempts; screenshots
+// at 1280 px (SCREENSHOT.png, the README's picture once a plain attempt is
+// logged) and 820 px (SCREENSHOT-820.png, no sideways scrolling).
 //
 // usage: node e2e.mjs MOONRANGE_BINARY [SCREENSHOT.png]
 // Exit 77 (skipped) when playwright-core or Chromium is missing, unless
@@ -67,6 +69,27 @@ function startDaemon() {
   });
 }
 
+// Fill the log form (start and end: as the form offers them unless given;
+// the token only when given), send it and wait for the page's receipt.
+async function logThroughForm(page, f) {
+  await page.selectOption("#f-target", f.target);
+  await page.selectOption("#f-outcome", "ranged");
+  if (f.start) await page.fill("#f-start", f.start);
+  if (f.end) await page.fill("#f-end", f.end);
+  await page.fill("#f-shots", f.shots);
+  await page.fill("#f-returns", f.returns);
+  await page.fill("#f-nps", f.nps);
+  await page.fill("#f-seeing", f.seeing);
+  await page.fill("#f-operator", f.operator);
+  await page.fill("#f-notes", f.notes);
+  if (f.token) await page.fill("#f-token", f.token);
+  await page.click("#f-submit");
+  await page.waitForFunction((t) => {
+    const m = /^Logged attempt \d+ on (\S+)\.$/.exec(document.getElementById("form-status").textContent);
+    return m !== null && m[1] === t;
+  }, f.target, { timeout: 15000 });
+}
+
 try {
   execFileSync(bin, ["init", "--db", db], { stdio: "ignore" });
   writeFileSync(tokenFile, token + "\n");
@@ -118,24 +141,35 @@ try {
     return img.complete && img.naturalWidth > 0;
   }, null, { timeout: 15000 });
 
-  // Log an attempt through the form.  The operator holds markup that must
-  // arrive as text.
+  // Log a plain attempt through the form, at the times the form offers
+  // (the last quarter hour); the page shows it in the recent list.
+  const plainNote = "thin cirrus, steady returns";
+  await logThroughForm(page, { target: "HERON", shots: "18000", returns: "412",
+    nps: "3", seeing: "1.8", operator: "op-cedar", notes: plainNote, token });
+  await page.waitForFunction((n) =>
+    [...document.querySelectorAll("#attempts tbody td")].some((td) => td.textContent === n),
+    plainNote, { timeout: 15000 });
+  // The token is kept for the session: the token field is hidden now.
+  assert.equal(await page.isHidden("#token-row"), true);
+
+  // The picture of the page (the README shows it): a laptop, then a tablet.
+  await page.screenshot({ path: shot, fullPage: true });
+  await page.setViewportSize({ width: 820, height: 1180 });
+  await page.waitForFunction(() =>
+    getComputedStyle(document.querySelector(".grid")).gridTemplateColumns.split(" ").length === 1);
+  const overflow = await page.evaluate(() =>
+    document.documentElement.scrollWidth - document.documentElement.clientWidth);
+  assert.equal(overflow, 0, "no sideways scrolling of the page at 820 px");
+  await page.screenshot({ path: shot.replace(/\.png$/, "") + "-820.png", fullPage: true });
+  await page.setViewportSize({ width: 1280, height: 1500 });
+
+  // A second attempt whose operator holds markup that must arrive as text
+  // (the token is not asked again).
   const note = "e2e note " + Date.now();
   const operator = "op-e2e <img src=x id=injected>";
-  await page.selectOption("#f-target", "PLOVER");
-  await page.selectOption("#f-outcome", "ranged");
-  await page.fill("#f-start", "2027-02-03T04:05:00Z");
-  await page.fill("#f-end", "2027-02-03T04:25:00Z");
-  await page.fill("#f-shots", "15000");
-  await page.fill("#f-returns", "77");
-  await page.fill("#f-nps", "2");
-  await page.fill("#f-operator", operator);
-  await page.fill("#f-notes", note);
-  await page.fill("#f-token", token);
-  await page.click("#f-submit");
-  await page.waitForFunction(() =>
-    /^Logged attempt \d+ on PLOVER\.$/.test(document.getElementById("form-status").textContent),
-    null, { timeout: 15000 });
+  await logThroughForm(page, { target: "PLOVER", start: "2027-02-03T04:05:00Z",
+    end: "2027-02-03T04:25:00Z", shots: "15000", returns: "77", nps: "2",
+    seeing: "", operator, notes: note });
 
   // It shows in the recent list, as text.
   await page.waitForFunction((n) =>
@@ -145,9 +179,6 @@ try {
     (tds, op) => tds.some((td) => td.textContent === op), operator);
   assert.ok(opCell, "the operator is shown verbatim");
   assert.equal(await page.$("#injected"), null, "markup from data was not parsed");
-
-  // The token is kept for the session: the token field is hidden now.
-  assert.equal(await page.isHidden("#token-row"), true);
 
   // And the API has it.
   const res = await fetch(url + "api/v1/attempts?limit=5");
@@ -159,10 +190,23 @@ try {
   assert.equal(row.returns, 77);
   assert.equal(row.operator, operator);
   assert.equal(row.start_utc, "2027-02-03T04:05:00.000Z");
+  const plain = body.attempts.find((a) => a.notes === plainNote);
+  assert.ok(plain, "GET /api/v1/attempts lists the plain attempt");
+  assert.equal(plain.target, "HERON");
+  assert.equal(plain.operator, "op-cedar");
+  assert.equal(plain.seeing_arcsec, 1.8);
 
-  await page.screenshot({ path: shot, fullPage: true });
   assert.deepEqual(foreign, [], "requests outside the daemon");
   assert.deepEqual(problems, [], "console errors (CSP violations included)");
+
+  // The chart opened on its own is a document under the daemon's policy
+  // too: its styling must not be refused.
+  const refused = [];
+  page.on("console", (m) => { if (/Content Security Policy/.test(m.text())) refused.push(m.text()); });
+  await page.goto(url + "api/v1/coverage.svg?horizon=0", { waitUntil: "load" });
+  assert.match(await page.evaluate(() => document.documentElement.nodeName), /^svg$/i);
+  await page.waitForTimeout(300);
+  assert.deepEqual(refused, [], "the chart's own style refused by CSP");
   console.log("e2e: ok (screenshot " + shot + ")");
   await cleanup();
   process.exit(0);
