@@ -633,45 +633,57 @@ synodic_offset(double tt1, double tt2, double target)
 	return eraAnpm(geom_synodic_at(tt1, tt2) - target);
 }
 
-/*
- * Refine a bracketed root of synodic_offset by the Illinois variant of
- * regula falsi; the function is smooth and monotone over a 1-day bracket,
- * so this converges in a handful of steps.  Returns ERRCODE_NO_CONVERGE if
- * 60 steps do not reach 1e-7 d (9 ms).
- */
-static enum errcode
-refine_phase(double tt1, double a, double fa, double b, double fb,
-    double target, double *root)
+enum errcode
+geom_root_illinois(geom_root_fn f, void *ctx, double a, double fa, double b,
+    double fb, double tol, int maxit, double *root)
 {
 	int side = 0;
 
-	for (int i = 0; i < 60; i++) {
-		double c = (fa * b - fb * a) / (fa - fb);
-		double fc = synodic_offset(tt1, c, target);
+	for (int i = 0; i < maxit; i++) {
+		double m, fm;
 
-		if (fabs(b - a) < 1e-7 || fc == 0.0) {
-			*root = c;
+		if (!(b - a > tol)) {
+			*root = 0.5 * (a + b);
 			return ERRCODE_OK;
 		}
-		if ((fc > 0) == (fb > 0)) {
-			b = c;
-			fb = fc;
+		m = (fa * b - fb * a) / (fa - fb);
+		if (!(m > a && m < b))
+			m = 0.5 * (a + b);
+		fm = f(ctx, m);
+		if (fm == 0.0) {
+			*root = m;
+			return ERRCODE_OK;
+		}
+		if ((fm > 0) == (fb > 0)) {
+			b = m;
+			fb = fm;
 			if (side == -1)
 				fa /= 2.0;
 			side = -1;
 		} else {
-			a = c;
-			fa = fc;
+			a = m;
+			fa = fm;
 			if (side == +1)
 				fb /= 2.0;
 			side = +1;
 		}
-		if (fabs(b - a) < 1e-7) {
-			*root = (a + b) / 2.0;
-			return ERRCODE_OK;
-		}
 	}
-	return ERRCODE_NO_CONVERGE;
+	*root = 0.5 * (a + b);
+	return (b - a > tol) ? ERRCODE_NO_CONVERGE : ERRCODE_OK;
+}
+
+/* The synodic angle's offset from a target angle, for geom_root_illinois. */
+struct phase_goal {
+	double tt1;		/* first part of the TT JD */
+	double target;		/* angle sought, rad */
+};
+
+static double
+phase_goal_offset(void *ctx, double tt2)
+{
+	const struct phase_goal *g = ctx;
+
+	return synodic_offset(g->tt1, tt2, g->target);
 }
 
 /*
@@ -726,8 +738,12 @@ geom_phases_find(double from1, double from2, double to1, double to2,
 			if (fa == 0.0) {
 				root = a;
 			} else {
-				r2 = refine_phase(base, a, fa, b, fb, target,
-				    &root);
+				struct phase_goal goal = {base, target};
+
+				/* Smooth and monotone over the half-day
+				   bracket: a handful of steps to 9 ms. */
+				r2 = geom_root_illinois(phase_goal_offset,
+				    &goal, a, fa, b, fb, 1e-7, 60, &root);
 				if (r2 != ERRCODE_OK)
 					return r2;
 			}

@@ -246,36 +246,31 @@ sample_all(const struct ctx *x, double t, double *f)
 	}
 }
 
-/* Root of constraint c bracketed by [a, b] (Illinois regula falsi). */
+/* One constraint of one context, as a function for geom_root_illinois. */
+struct edge_goal {
+	const struct ctx *x;
+	int c;
+};
+
+static double
+edge_goal_value(void *ctx, double t)
+{
+	const struct edge_goal *g = ctx;
+
+	return cfun(g->x, g->c, t);
+}
+
+/* Root of constraint c bracketed by [a, b]; after the step cap, the middle
+   of the last bracket (well inside EDGE_TOL for these smooth functions). */
 static double
 refine(const struct ctx *x, int c, double a, double fa, double b, double fb)
 {
-	int side = 0;
+	struct edge_goal g = {x, c};
+	double root;
 
-	for (int i = 0; i < 80 && b - a > EDGE_TOL; i++) {
-		double m = (fa * b - fb * a) / (fa - fb);
-		double fm;
-
-		if (!(m > a && m < b))
-			m = 0.5 * (a + b);
-		fm = cfun(x, c, m);
-		if (fm == 0.0)
-			return m;
-		if ((fm >= 0) == (fb >= 0)) {
-			b = m;
-			fb = fm;
-			if (side == -1)
-				fa /= 2.0;
-			side = -1;
-		} else {
-			a = m;
-			fa = fm;
-			if (side == +1)
-				fb /= 2.0;
-			side = +1;
-		}
-	}
-	return 0.5 * (a + b);
+	(void)geom_root_illinois(edge_goal_value, &g, a, fa, b, fb, EDGE_TOL,
+	    80, &root);
+	return root;
 }
 
 /*

@@ -204,6 +204,19 @@ double geom_refract(double el, double refa, double refb);
 double geom_wrap_pi(double a);
 double geom_wrap_2pi(double a);
 
+/* A function of one time (days) to search for a root; ctx is the caller's. */
+typedef double (*geom_root_fn)(void *ctx, double t);
+
+/*
+ * Root of f in [a, b] (a < b) where f(a) = fa and f(b) = fb differ in sign,
+ * by the Illinois variant of regula falsi, with a bisection step wherever
+ * an iterate would leave the bracket.  Stops at f = 0 or when the bracket
+ * is no wider than tol.  Sets *root; returns ERRCODE_NO_CONVERGE after
+ * maxit steps, *root then being the middle of the last bracket.
+ */
+enum errcode geom_root_illinois(geom_root_fn f, void *ctx, double a,
+    double fa, double b, double fb, double tol, int maxit, double *root);
+
 /* --- phases --- */
 
 enum geom_phase_kind {

@@ -661,6 +661,43 @@ test_geom_phases_api_limits(void **state)
 	    "last_quarter");
 }
 
+static double
+cos_of(void *ctx, double t)
+{
+	(void)ctx;
+	return cos(t);
+}
+
+static double
+cubic_of(void *ctx, double t)
+{
+	const double *k = ctx;
+
+	return t * t * t - *k;
+}
+
+static void
+test_geom_root_illinois_finds_known_roots(void **state)
+{
+	double root, k = 2.0;
+
+	(void)state;
+	/* cos t = 0 at t = pi/2 (mathematical fact). */
+	assert_int_equal(geom_root_illinois(cos_of, NULL, 1.0, cos(1.0), 2.0,
+	    cos(2.0), 1e-12, 100, &root), ERRCODE_OK);
+	check_near(root, ERFA_DPI / 2.0, 1e-11, "", "root of cos");
+	/* t^3 = 2 at the cube root of 2, 1.2599210498948732 (mathematical
+	   fact: cbrt(2)). */
+	assert_int_equal(geom_root_illinois(cubic_of, &k, 0.0, -2.0, 2.0, 6.0,
+	    1e-12, 100, &root), ERRCODE_OK);
+	check_near(root, cbrt(2.0), 1e-11, "", "cube root of 2");
+	/* Too few steps for the tolerance: reported, with the bracket's
+	   middle as the best estimate. */
+	assert_int_equal(geom_root_illinois(cubic_of, &k, 0.0, -2.0, 2.0, 6.0,
+	    1e-15, 2, &root), ERRCODE_NO_CONVERGE);
+	assert_true(root > 0.0 && root < 2.0);
+}
+
 int
 main(void)
 {
@@ -681,6 +718,7 @@ main(void)
 		cmocka_unit_test(test_geom_instant_at_matches_parts),
 		cmocka_unit_test(test_geom_phases_split_spans),
 		cmocka_unit_test(test_geom_phases_api_limits),
+		cmocka_unit_test(test_geom_root_illinois_finds_known_roots),
 	};
 
 	return cmocka_run_group_tests_name("geom", tests, NULL, NULL);
