@@ -1,11 +1,12 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* main.c: program entry; installs the allocator and runs a subcommand. */
-#include "cli.h"
-#include "mem.h"
+#include "cli/cli.h"
+#include "core/mem.h"
+#include "formats/render.h"
 
 int
 main(int argc, char **argv)
 {
-	mem_install();
+	render_json_setup();
 	return cli_main(argc, argv);
 }

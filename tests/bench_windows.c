@@ -10,11 +10,12 @@
 #include <erfa.h>
 #include <erfam.h>
 
-#include "derive.h"
-#include "import.h"
-#include "mem.h"
-#include "plan.h"
-#include "window.h"
+#include "core/derive.h"
+#include "formats/import.h"
+#include "core/mem.h"
+#include "formats/render.h"
+#include "core/plan.h"
+#include "core/window.h"
 
 /*
  * Not a test: it prints timings.  Run from a Release or RelWithDebInfo
@@ -225,7 +226,7 @@ main(int argc, char **argv)
 	}
 	if (dir == NULL)
 		dir = MOONRANGE_SOURCE_DIR;
-	mem_install();
+	render_json_setup();
 	if (site_load(dir, &l) != 0) {
 		fprintf(stderr, "cannot read %s/sample-site\n", dir);
 		return 1;

@@ -3,8 +3,8 @@
 # cli_ephem.sh: black-box checks of "moonrange ephem" and "moonrange phases":
 # the JSON holds every documented field, bad input exits 2 with one line
 # naming the field, --help exits 0.
-# Exercises: daemon/cmd_ephem.c daemon/cmd_phases.c daemon/cli.c
-#            daemon/render.c
+# Exercises: daemon/cli/cmd_ephem.c daemon/cli/cmd_phases.c daemon/cli/cli.c
+#            daemon/formats/render.c
 set -u
 BIN=${1:-${MOONRANGE_BIN:?set MOONRANGE_BIN or pass the binary}}
 PY=/usr/bin/python3

@@ -3,9 +3,9 @@
 # cli_store.sh: black-box tests of the station database through the
 # moonrange program and the sqlite3 shell, on real files in a temporary
 # directory.
-# Exercises: daemon/store.c, sql/, daemon/cli_store.c, daemon/cmd_init.c,
-# daemon/cmd_log.c, daemon/cmd_np.c, daemon/cmd_eop.c, daemon/cmd_target.c,
-# daemon/cmd_station.c, daemon/cmd_blackout.c, daemon/cmd_ephem.c.
+# Exercises: daemon/store/store.c, sql/, daemon/cli/cli_store.c, daemon/cli/cmd_init.c,
+# daemon/cli/cmd_log.c, daemon/cli/cmd_np.c, daemon/cli/cmd_eop.c, daemon/cli/cmd_target.c,
+# daemon/cli/cmd_station.c, daemon/cli/cmd_blackout.c, daemon/cli/cmd_ephem.c.
 # Usage: cli_store.sh MOONRANGE_BINARY SOURCE_DIR
 set -u
 M=$(cd "$(dirname "$1")" && pwd)/$(basename "$1")

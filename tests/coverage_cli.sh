@@ -3,8 +3,8 @@
 # coverage_cli.sh: "moonrange coverage" on the sample site, end to end:
 # table, JSON, CSV and SVG show the gaps near new and full moon, the fill
 # dates land in empty bins, and bad input exits 2 with one line.
-# Exercises daemon/cmd_coverage.c, daemon/covquery.c, daemon/coverage.c,
-# daemon/render_cov.c.  Usage: coverage_cli.sh MOONRANGE SOURCE_DIR
+# Exercises daemon/cli/cmd_coverage.c, daemon/query/covquery.c, daemon/core/coverage.c,
+# daemon/formats/render_cov.c.  Usage: coverage_cli.sh MOONRANGE SOURCE_DIR
 set -euo pipefail
 
 bin=$1

@@ -3,7 +3,7 @@
 # serve.sh: black-box test of "moonrange serve" on 127.0.0.1 with a
 # temporary database of the sample site: startup refusals, the bound URL,
 # the event log, SIGHUP, a write, and a SIGTERM that lets a request in
-# flight finish.  Exercises daemon/cmd_serve.c, web.c, api.c, log.c.
+# flight finish.  Exercises daemon/cli/cmd_serve.c, daemon/http/web.c, api.c, log.c.
 set -euo pipefail
 
 BIN=${1:?usage: serve.sh MOONRANGE_BINARY}

@@ -14,14 +14,15 @@
 #include <cmocka.h>
 #include <jansson.h>
 
-#include "api.h"
-#include "geom.h"
+#include "http/api.h"
+#include "core/geom.h"
 #include "http_client.h"
-#include "log.h"
-#include "mem.h"
-#include "store.h"
-#include "tscale.h"
-#include "web.h"
+#include "http/log.h"
+#include "core/mem.h"
+#include "formats/render.h"
+#include "store/store.h"
+#include "core/tscale.h"
+#include "http/web.h"
 
 /*
  * The station and targets are the CLI's built-in demonstration station
@@ -1087,6 +1088,6 @@ main(void)
 		cmocka_unit_test(test_api_token_equal),
 	};
 
-	mem_install();
+	render_json_setup();
 	return cmocka_run_group_tests(tests, setup, teardown);
 }

@@ -9,9 +9,9 @@
 #include <libnova/sidereal_time.h>
 
 #include "check.h"
-#include "coverage.h"
-#include "geom.h"
-#include "tscale.h"
+#include "core/coverage.h"
+#include "core/geom.h"
+#include "core/tscale.h"
 
 #define MJD0 2400000.5
 

@@ -8,10 +8,11 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "covquery.h"
-#include "mem.h"
-#include "store.h"
-#include "tscale.h"
+#include "query/covquery.h"
+#include "core/mem.h"
+#include "formats/render.h"
+#include "store/store.h"
+#include "core/tscale.h"
 
 /* An invented station and two invented targets. */
 static struct store *
@@ -321,6 +322,6 @@ main(void)
 		cmocka_unit_test(test_covquery_fill_dates_from_the_planner),
 	};
 
-	mem_install();
+	render_json_setup();
 	return cmocka_run_group_tests_name("covquery", tests, NULL, NULL);
 }

@@ -12,7 +12,7 @@
 #include <erfam.h>
 
 #include "check.h"
-#include "derive.h"
+#include "core/derive.h"
 
 /* An invented station (the built-in demo ridge of cmd_ephem.c). */
 static void

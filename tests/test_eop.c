@@ -8,7 +8,7 @@
 #include <erfam.h>
 
 #include "check.h"
-#include "eop.h"
+#include "core/eop.h"
 
 /* Two daily rows around the leap second at the end of 2016-12-31,
    copied from the IERS EOP 14 C04 series as shipped by Debian's

@@ -3,7 +3,7 @@
 #include <string.h>
 
 #include "check.h"
-#include "errcode.h"
+#include "core/errcode.h"
 
 static void
 test_errcode_every_code_has_own_text(void **state)

@@ -7,7 +7,7 @@
 #include <erfam.h>
 
 #include "check.h"
-#include "geom.h"
+#include "core/geom.h"
 
 #define D2R ERFA_DD2R
 #define R2D ERFA_DR2D

@@ -8,7 +8,7 @@
 #include <libnova/libnova.h>
 
 #include "check.h"
-#include "geom.h"
+#include "core/geom.h"
 
 /*
  * What libnova 0.16 returns (read from its headers and checked by hand

@@ -10,10 +10,10 @@
 #include <erfam.h>
 
 #include "check.h"
-#include "eop.h"
-#include "geom.h"
-#include "import.h"
-#include "mem.h"
+#include "core/eop.h"
+#include "core/geom.h"
+#include "formats/import.h"
+#include "core/mem.h"
 
 #define C04_PATH "/usr/lib/python3/dist-packages/astropy/utils/iers/data/" \
 	"eopc04_IAU2000.62-now"

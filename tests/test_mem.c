@@ -3,7 +3,7 @@
 #include <string.h>
 
 #include "check.h"
-#include "mem.h"
+#include "core/mem.h"
 
 static void
 test_mem_fail_after_counts_and_fails_nth(void **state)

@@ -13,12 +13,12 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "derive.h"
-#include "mem.h"
-#include "plan.h"
-#include "plan_db.h"
-#include "render.h"
-#include "store.h"
+#include "core/derive.h"
+#include "core/mem.h"
+#include "core/plan.h"
+#include "store/plan_db.h"
+#include "formats/render.h"
+#include "store/store.h"
 
 #define D2R ERFA_DD2R
 #define MJD0 2400000.5
@@ -656,7 +656,7 @@ main(void)
 		cmocka_unit_test(test_plan_allocation_failure),
 	};
 
-	mem_install();
+	render_json_setup();
 	return cmocka_run_group_tests_name("plan", tests, setup_dir,
 	    teardown_dir);
 }

@@ -7,7 +7,7 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "render.h"
+#include "formats/render.h"
 
 /* An invented station and two invented targets (test data only). */
 static void
@@ -323,6 +323,6 @@ main(void)
 		cmocka_unit_test(test_render_allocation_failures),
 	};
 
-	mem_install();	/* jansson's allocations go through mem_alloc */
+	render_json_setup();	/* jansson's allocations go through mem_alloc */
 	return cmocka_run_group_tests_name("render", tests, NULL, NULL);
 }

@@ -8,9 +8,10 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "coverage.h"
-#include "mem.h"
-#include "render_cov.h"
+#include "core/coverage.h"
+#include "core/mem.h"
+#include "formats/render.h"
+#include "formats/render_cov.h"
 
 #define MJD0 2400000.5
 
@@ -362,6 +363,6 @@ main(void)
 		cmocka_unit_test(test_render_cov_allocation_failure),
 	};
 
-	mem_install();
+	render_json_setup();
 	return cmocka_run_group_tests_name("render_cov", tests, NULL, NULL);
 }

@@ -7,8 +7,9 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "mem.h"
-#include "render_site.h"
+#include "core/mem.h"
+#include "formats/render.h"
+#include "formats/render_site.h"
 
 static void
 attempt(struct site_attempt *a)
@@ -208,6 +209,6 @@ main(void)
 		cmocka_unit_test(test_render_site_allocation_failure),
 	};
 
-	mem_install();
+	render_json_setup();
 	return cmocka_run_group_tests_name("render_site", tests, NULL, NULL);
 }

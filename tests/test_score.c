@@ -9,7 +9,7 @@
 #include <libnova/airmass.h>
 
 #include "check.h"
-#include "score.h"
+#include "core/score.h"
 
 #define D2R ERFA_DD2R
 #define DAY ERFA_DAYSEC

@@ -8,9 +8,9 @@
 #include <unistd.h>
 
 #include "check.h"
-#include "derive.h"
-#include "mem.h"
-#include "store.h"
+#include "core/derive.h"
+#include "core/mem.h"
+#include "store/store.h"
 
 static char tmpdir[256];
 static int fileno_seq;

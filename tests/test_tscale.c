@@ -5,7 +5,7 @@
 #include <erfam.h>
 
 #include "check.h"
-#include "tscale.h"
+#include "core/tscale.h"
 
 /* Difference b - a of two UTC quasi-JDs in seconds (not valid on a day
    holding a leap second, whose quasi-JD day is 86401 s long). */

@@ -17,8 +17,8 @@
 #include <cmocka.h>
 
 #include "http_client.h"
-#include "log.h"
-#include "web.h"
+#include "http/log.h"
+#include "http/web.h"
 
 static char tmp[PATH_MAX];	/* canonical temp dir: root/ and outside */
 static char root[PATH_MAX + 8];

@@ -14,7 +14,7 @@
 #include <libnova/transform.h>
 
 #include "check.h"
-#include "window.h"
+#include "core/window.h"
 
 #define D2R ERFA_DD2R
 #define DAY ERFA_DAYSEC

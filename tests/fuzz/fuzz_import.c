@@ -4,7 +4,7 @@
 #include <stdint.h>
 #include <string.h>
 
-#include "import.h"
+#include "formats/import.h"
 
 /*
  * Build with clang (see DEVELOPERS.md, "Fuzzing the importers"):

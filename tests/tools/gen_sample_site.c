@@ -9,11 +9,11 @@
 #include <erfa.h>
 #include <erfam.h>
 
-#include "geom.h"
-#include "import.h"
-#include "mem.h"
-#include "site.h"
-#include "tscale.h"
+#include "core/geom.h"
+#include "formats/import.h"
+#include "core/mem.h"
+#include "core/site.h"
+#include "core/tscale.h"
 
 /*
  * Usage: gen_sample_site attempts|crd|eop|keys SITE_DIR > FILE

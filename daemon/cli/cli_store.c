@@ -1,0 +1,600 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cli_store.c: opening the database for a command, loading the site and
+   deriving the stored angles before an insert. */
+#include <errno.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "cli/cli.h"
+#include "cli/cli_store.h"
+#include "core/derive.h"
+#include "formats/render.h"
+
+#define MJD_BASE 2400000.5
+
+int
+cli_store_action(int argc, char **argv, const char *const *actions,
+    void (*usage)(FILE *), int *which)
+{
+	char list[160];
+	size_t len = 0;
+	int n = 0;
+
+	list[0] = '\0';
+	for (n = 0; actions[n] != NULL; n++)
+		len += (size_t)snprintf(list + len, len < sizeof list ?
+		    sizeof list - len : 0, "%s%s", n == 0 ? "" :
+		    actions[n + 1] == NULL ? " or " : ", ", actions[n]);
+	if (argc < 2)
+		return cli_usage_error("%s: an action is required: %s (see "
+		    "'moonrange %s --help')", argv[0], list, argv[0]);
+	if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0) {
+		usage(stdout);
+		return CLI_EXIT_OK;
+	}
+	for (int i = 0; i < n; i++)
+		if (strcmp(argv[1], actions[i]) == 0) {
+			*which = i;
+			return -1;
+		}
+	return cli_usage_error("%s: unknown action '%s' (%s)", argv[0],
+	    argv[1], list);
+}
+
+int
+cli_store_open(struct cli_store *c, const char *db, int flags)
+{
+	char err[512];
+	enum errcode rc;
+
+	memset(c, 0, sizeof *c);
+	if (db == NULL)
+		return cli_usage_error("--db FILE is required");
+	c->path = db;
+	rc = store_open(db, flags, &c->s, err, sizeof err);
+	if (rc != ERRCODE_OK)
+		return rc == ERRCODE_NOT_FOUND ? cli_usage_error("%s", err) :
+		    cli_fail("%s", err);
+	return CLI_EXIT_OK;
+}
+
+int
+cli_store_fail(enum errcode rc, const char *fmt, ...)
+{
+	va_list ap;
+
+	va_start(ap, fmt);
+	cli_vmessage("error", fmt, ap);
+	va_end(ap);
+	return cli_status_of(rc);
+}
+
+int
+cli_store_load(struct cli_store *c)
+{
+	char err[512];
+	enum errcode rc;
+
+	if ((rc = store_station_get(c->s, &c->station, err, sizeof err)) ||
+	    (rc = store_targets_list(c->s, 0, &c->targets, &c->ntargets, err,
+	    sizeof err)) ||
+	    (rc = store_eop_load(c->s, &c->eop, &c->neop, err, sizeof err)))
+		return cli_fail("%s: %s", c->path, err);
+	return CLI_EXIT_OK;
+}
+
+void
+cli_store_close(struct cli_store *c)
+{
+	mem_free(c->targets);
+	mem_free(c->eop);
+	store_close(c->s);
+	memset(c, 0, sizeof *c);
+}
+
+const struct site_target *
+cli_store_target(const struct cli_store *c, const char *id)
+{
+	for (size_t i = 0; i < c->ntargets; i++)
+		if (strcmp(c->targets[i].id, id) == 0)
+			return &c->targets[i];
+	return NULL;
+}
+
+enum eop_source
+cli_store_eop_at(const struct cli_store *c, double mjd, struct geom_eop *out)
+{
+	struct eop_table t;
+
+	t.rows = c->eop;
+	t.n = c->neop;
+	return eop_lookup(&t, mjd, out);
+}
+
+enum errcode
+cli_store_derive_attempt(const struct cli_store *c, struct site_attempt *a,
+    char *errbuf, size_t errlen)
+{
+	const struct site_target *t = cli_store_target(c, a->target);
+	struct geom_eop eop;
+	enum errcode rc;
+
+	if (t == NULL) {
+		snprintf(errbuf, errlen, "field 'target': no target '%s' in "
+		    "the database", a->target);
+		return ERRCODE_NOT_FOUND;
+	}
+	(void)cli_store_eop_at(c, 0.5 * (a->start_mjd + a->end_mjd), &eop);
+	rc = derive_attempt(&c->station, t, &eop, a);
+	if (rc != ERRCODE_OK)
+		snprintf(errbuf, errlen, "field 'start_utc': cannot compute "
+		    "the geometry (%s)", errcode_str(rc));
+	return rc;
+}
+
+enum errcode
+cli_store_derive_np(const struct cli_store *c, struct site_normal_point *np,
+    char *errbuf, size_t errlen)
+{
+	const struct site_target *t = cli_store_target(c, np->target);
+	struct geom_eop eop;
+	enum errcode rc;
+
+	if (t == NULL) {
+		snprintf(errbuf, errlen, "field 'target': no target '%s' in "
+		    "the database", np->target);
+		return ERRCODE_NOT_FOUND;
+	}
+	(void)cli_store_eop_at(c, np->epoch_mjd, &eop);
+	rc = derive_normal_point(&c->station, t, &eop, np);
+	/* The elevation is this station's: unknown for another's points. */
+	if (strcmp(np->station_code, c->station.code) != 0)
+		np->target_el_deg = NAN;
+	if (rc != ERRCODE_OK)
+		snprintf(errbuf, errlen, "field 'epoch': cannot compute the "
+		    "geometry (%s)", errcode_str(rc));
+	return rc;
+}
+
+enum errcode
+cli_store_read_file(const char *path, size_t max, char **out, size_t *len,
+    char *errbuf, size_t errlen)
+{
+	FILE *f;
+	char *buf = NULL, *p;
+	size_t cap = 0, n = 0, got;
+	enum errcode rc = ERRCODE_OK;
+
+	*out = NULL;
+	*len = 0;
+	if ((f = fopen(path, "rb")) == NULL) {
+		int e = errno;
+
+		snprintf(errbuf, errlen, "%s: cannot open: %s", path,
+		    strerror(e));
+		return e == ENOENT || e == ENOTDIR || e == EISDIR ?
+		    ERRCODE_NOT_FOUND : ERRCODE_IO;
+	}
+	for (;;) {
+		if (cap - n < 65536) {
+			cap = cap ? cap * 2 : 65536;
+			if ((p = mem_realloc(buf, cap + 1)) == NULL) {
+				snprintf(errbuf, errlen, "%s: out of memory",
+				    path);
+				rc = ERRCODE_NOMEM;
+				goto out;
+			}
+			buf = p;
+		}
+		got = fread(buf + n, 1, cap - n, f);
+		n += got;
+		if (n > max) {
+			snprintf(errbuf, errlen, "%s: larger than %zu bytes",
+			    path, max);
+			rc = ERRCODE_TOO_LARGE;
+			goto out;
+		}
+		if (got == 0)
+			break;
+	}
+	if (ferror(f)) {
+		int e = errno;
+
+		/* fopen accepts a directory; reading it fails with EISDIR,
+		   which is a wrong file name, not a failing disk. */
+		snprintf(errbuf, errlen, "%s: %s", path, e == EISDIR ?
+		    "is a directory, not a file" : strerror(e));
+		rc = e == EISDIR ? ERRCODE_NOT_FOUND : ERRCODE_IO;
+		goto out;
+	}
+	buf[n] = '\0';
+	*out = buf;
+	*len = n;
+	buf = NULL;
+out:
+	mem_free(buf);
+	fclose(f);
+	return rc;
+}
+
+void
+cli_store_rep_add(struct import_report *rep, size_t line, const char *field,
+    const char *fmt, ...)
+{
+	struct import_error *e;
+	va_list ap;
+
+	rep->bad++;
+	if (rep->nerrors >= IMPORT_MAX_ERRORS)
+		return;
+	e = &rep->errors[rep->nerrors++];
+	e->line = line;
+	snprintf(e->field, sizeof e->field, "%s", field != NULL ? field : "");
+	va_start(ap, fmt);
+	vsnprintf(e->message, sizeof e->message, fmt, ap);
+	va_end(ap);
+}
+
+void
+cli_store_rep_print(const struct import_report *rep, const char *file)
+{
+	char line[400];
+
+	for (size_t i = 0; i < rep->nerrors; i++) {
+		import_error_format(rep, i, file, line, sizeof line);
+		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s", line);
+	}
+	if (rep->bad > rep->nerrors)
+		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s: %zu more bad records "
+		    "not shown", file, rep->bad - rep->nerrors);
+}
+
+enum errcode
+cli_store_parse_bool(const char *s, int *out)
+{
+	static const char *const yes[] = {"yes", "1", "true"};
+	static const char *const no[] = {"no", "0", "false"};
+
+	for (size_t i = 0; i < 3; i++) {
+		if (strcmp(s, yes[i]) == 0) {
+			*out = 1;
+			return ERRCODE_OK;
+		}
+		if (strcmp(s, no[i]) == 0) {
+			*out = 0;
+			return ERRCODE_OK;
+		}
+	}
+	return ERRCODE_BAD_ARG;
+}
+
+int
+cli_store_parse_mjd(const char *opt, const char *s, double *mjd)
+{
+	double u1, u2;
+
+	if (cli_parse_time(opt, s, &u1, &u2) != ERRCODE_OK)
+		return CLI_EXIT_USAGE;
+	*mjd = (u1 - MJD_BASE) + u2;
+	return CLI_EXIT_OK;
+}
+
+const struct site_target *
+cli_store_target_by_alias(const struct cli_store *c, const char *name)
+{
+	for (size_t i = 0; i < c->ntargets; i++)
+		if (c->targets[i].alias[0] != '\0' &&
+		    strcmp(c->targets[i].alias, name) == 0)
+			return &c->targets[i];
+	return cli_store_target(c, name);
+}
+
+/* --- importers ------------------------------------------------------------ */
+
+/* Records between progress lines of a long import (on stderr). */
+#define PROGRESS_EVERY 5000
+#define PROGRESS_BYTES (512u * 1024u)
+
+/* Per-target tallies of a CRD file (its summary). */
+#define CRD_MAX_TALLY 64
+
+struct job {
+	struct cli_store *c;
+	struct import_report *rep;
+	const char *file;
+	struct cli_store_counts *n;
+	int progress;
+	struct {
+		char id[SITE_ID_LEN];
+		size_t added, present;
+	} tally[CRD_MAX_TALLY];
+	size_t ntally;
+};
+
+static void
+job_seen(struct job *j)
+{
+	j->n->read++;
+	if (j->progress && j->n->read % PROGRESS_EVERY == 0)
+		fprintf(stderr, "moonrange: progress: %s: %zu records read\n",
+		    j->file, j->n->read);
+}
+
+/*
+ * The outcome of one insert: counted, reported against its line, or (for
+ * a failure of the database itself) returned to stop the parse.
+ */
+static enum errcode
+job_result(struct job *j, enum errcode rc, size_t line, const char *err)
+{
+	switch (rc) {
+	case ERRCODE_OK:
+		j->n->added++;
+		return ERRCODE_OK;
+	case ERRCODE_EXISTS:
+		j->n->present++;
+		return ERRCODE_OK;
+	case ERRCODE_NOMEM:
+	case ERRCODE_DB:
+	case ERRCODE_IO:
+		cli_store_rep_add(j->rep, line, "", "%s", err);
+		return rc;
+	case ERRCODE_BAD_ARG:
+	case ERRCODE_BAD_TIME:
+	case ERRCODE_CONFIG:
+	case ERRCODE_NOT_FOUND:
+	case ERRCODE_AUTH:
+	case ERRCODE_TOO_LARGE:
+	case ERRCODE_UNSUPPORTED:
+	case ERRCODE_NO_CONVERGE:
+	case ERRCODE_METHOD:
+	case ERRCODE__LAST:
+		break;
+	}
+	cli_store_rep_add(j->rep, line, "", "%s", err);
+	return ERRCODE_OK;
+}
+
+static enum errcode
+one_target(void *ctx, const struct site_target *t, size_t line)
+{
+	struct job *j = ctx;
+	char err[512];
+
+	job_seen(j);
+	return job_result(j, store_target_add(j->c->s, t, err, sizeof err),
+	    line, err);
+}
+
+static enum errcode
+one_attempt(void *ctx, const struct site_attempt *in, size_t line)
+{
+	struct job *j = ctx;
+	struct site_attempt a = *in;
+	char err[512];
+	enum errcode rc;
+
+	job_seen(j);
+	if (cli_store_target(j->c, a.target) == NULL) {
+		cli_store_rep_add(j->rep, line, "target", "no target '%s' in "
+		    "the database", a.target);
+		return ERRCODE_OK;
+	}
+	if ((rc = cli_store_derive_attempt(j->c, &a, err, sizeof err)) ==
+	    ERRCODE_OK)
+		rc = store_attempt_add(j->c->s, &a, err, sizeof err);
+	return job_result(j, rc, line, err);
+}
+
+static enum errcode
+one_np(void *ctx, const struct import_crd_np *in, size_t line)
+{
+	struct job *j = ctx;
+	struct site_normal_point np = in->np;
+	const struct site_target *t;
+	char err[512];
+	enum errcode rc;
+	size_t k;
+	int inserted = 0;
+
+	job_seen(j);
+	if ((t = cli_store_target_by_alias(j->c, in->target_name)) == NULL) {
+		cli_store_rep_add(j->rep, line, "target", "no target has the "
+		    "alias or id '%s'", in->target_name);
+		return ERRCODE_OK;
+	}
+	snprintf(np.target, sizeof np.target, "%s", t->id);
+	if ((rc = cli_store_derive_np(j->c, &np, err, sizeof err)) ==
+	    ERRCODE_OK)
+		rc = store_np_add(j->c->s, &np, &inserted, err, sizeof err);
+	if (rc == ERRCODE_OK && !inserted)
+		rc = ERRCODE_EXISTS;
+	for (k = 0; k < j->ntally; k++)
+		if (strcmp(j->tally[k].id, t->id) == 0)
+			break;
+	if (k == j->ntally && k < CRD_MAX_TALLY) {
+		snprintf(j->tally[k].id, sizeof j->tally[k].id, "%s", t->id);
+		j->ntally++;
+	}
+	if (k < j->ntally) {
+		j->tally[k].added += rc == ERRCODE_OK;
+		j->tally[k].present += rc == ERRCODE_EXISTS;
+	}
+	return job_result(j, rc, line, err);
+}
+
+static enum errcode
+one_eop(void *ctx, const struct site_eop_row *r, size_t line)
+{
+	struct job *j = ctx;
+	char err[512];
+
+	job_seen(j);
+	return job_result(j, store_eop_put(j->c->s, r, err, sizeof err), line,
+	    err);
+}
+
+/* Run a parse with a job; print its errors; a CLI status. */
+static int
+run_job(struct cli_store *c, const char *file, size_t len, int kind,
+    const char *buf, struct cli_store_counts *n, int quiet)
+{
+	struct job *j;
+	struct import_report *rep;
+	enum errcode rc = ERRCODE_NOMEM;
+	int st;
+
+	memset(n, 0, sizeof *n);
+	j = mem_calloc(1, sizeof *j);
+	rep = mem_alloc(sizeof *rep);
+	if (j == NULL || rep == NULL) {
+		mem_free(j);
+		mem_free(rep);
+		return cli_fail("%s: out of memory", file);
+	}
+	import_report_init(rep);
+	j->c = c;
+	j->rep = rep;
+	j->file = file;
+	j->n = n;
+	j->progress = len > PROGRESS_BYTES;
+	switch (kind) {
+	case 't':
+		rc = import_targets_csv(buf, len, one_target, j, rep);
+		break;
+	case 'a':
+		rc = import_attempts_csv(buf, len, one_attempt, j, rep);
+		break;
+	case 'n':
+		rc = import_crd(buf, len, one_np, j, rep);
+		break;
+	case 'e':
+		rc = import_eop_finals(buf, len, one_eop, j, rep);
+		break;
+	case 'c':
+		rc = import_eop_c04(buf, len, one_eop, j, rep);
+		break;
+	default:
+		break;
+	}
+	n->unused = rep->skipped;
+	if (rc == ERRCODE_NOMEM || rc == ERRCODE_DB) {
+		cli_store_rep_print(rep, file);
+		st = cli_fail("%s: the database failed during the import (%s)",
+		    file, errcode_str(rc));
+	} else if (rc != ERRCODE_OK || rep->bad > 0 || rep->nerrors > 0) {
+		cli_store_rep_print(rep, file);
+		st = cli_usage_error("%s: %zu bad record%s; nothing imported",
+		    file, rep->bad, rep->bad == 1 ? "" : "s");
+	} else {
+		st = CLI_EXIT_OK;
+		for (size_t k = 0; kind == 'n' && !quiet && k < j->ntally; k++)
+			printf("%s: target %s: %zu normal point%s added, %zu "
+			    "already present\n", file, j->tally[k].id,
+			    j->tally[k].added, j->tally[k].added == 1 ? "" :
+			    "s", j->tally[k].present);
+	}
+	mem_free(rep);
+	mem_free(j);
+	/* Later files of the same transaction see what this one added. */
+	if (st == CLI_EXIT_OK && (kind == 't' || kind == 'e' || kind == 'c')) {
+		mem_free(c->targets);
+		mem_free(c->eop);
+		c->targets = NULL;
+		c->eop = NULL;
+		st = cli_store_load(c);
+	}
+	return st;
+}
+
+int
+cli_store_import_station(struct cli_store *c, const char *file,
+    const char *buf, size_t len)
+{
+	struct import_report *rep;
+	struct site_station st;
+	char err[512];
+	enum errcode rc;
+	int status = CLI_EXIT_OK;
+
+	if ((rep = mem_alloc(sizeof *rep)) == NULL)
+		return cli_fail("%s: out of memory", file);
+	import_report_init(rep);
+	rc = import_station_ini(buf, len, &st, rep);
+	if (rc != ERRCODE_OK || rep->bad > 0 || rep->nerrors > 0) {
+		cli_store_rep_print(rep, file);
+		status = cli_usage_error("%s: the station file has errors; "
+		    "nothing imported", file);
+	} else if ((rc = store_station_put(c->s, &st, err, sizeof err))) {
+		status = cli_store_fail(rc, "%s: %s", file, err);
+	}
+	mem_free(rep);
+	if (status == CLI_EXIT_OK)
+		c->station = st;
+	return status;
+}
+
+int
+cli_store_import_targets(struct cli_store *c, const char *file,
+    const char *buf, size_t len, struct cli_store_counts *n)
+{
+	return run_job(c, file, len, 't', buf, n, 1);
+}
+
+int
+cli_store_import_attempts(struct cli_store *c, const char *file,
+    const char *buf, size_t len, struct cli_store_counts *n)
+{
+	return run_job(c, file, len, 'a', buf, n, 1);
+}
+
+int
+cli_store_import_crd(struct cli_store *c, const char *file, const char *buf,
+    size_t len, int quiet, struct cli_store_counts *n)
+{
+	return run_job(c, file, len, 'n', buf, n, quiet);
+}
+
+int
+cli_store_import_eop(struct cli_store *c, const char *file, const char *buf,
+    size_t len, int c04, struct cli_store_counts *n)
+{
+	return run_job(c, file, len, c04 ? 'c' : 'e', buf, n, 1);
+}
+
+int
+cli_store_import_file(struct cli_store *c, const char *file, int kind,
+    struct cli_store_counts *n)
+{
+	char *buf = NULL, err[512];
+	size_t len = 0;
+	enum errcode rc;
+	int st;
+
+	memset(n, 0, sizeof *n);
+	if ((rc = cli_store_read_file(file, CLI_STORE_MAX_FILE, &buf, &len, err,
+	    sizeof err)))
+		return cli_store_fail(rc, "%s", err);
+	if ((rc = store_begin(c->s, err, sizeof err))) {
+		mem_free(buf);
+		return cli_fail("%s: %s", c->path, err);
+	}
+	st = run_job(c, file, len, kind, buf, n, 0);
+	if (st == CLI_EXIT_OK && (rc = store_commit(c->s, err, sizeof err)))
+		st = cli_fail("%s: %s", c->path, err);
+	if (st != CLI_EXIT_OK)
+		store_rollback(c->s);
+	mem_free(buf);
+	return st;
+}
+
+void
+cli_store_warn_zone(const struct site_station *st)
+{
+	if (st->time_zone[0] != '\0' && !render_zone_known(st->time_zone))
+		cli_warn("time zone '%s' is not known to this system (is "
+		    "tzdata installed?); local times will not be shown",
+		    st->time_zone);
+}

@@ -1,0 +1,292 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cmd_ephem.c: "moonrange ephem", the geometry of one instant. */
+#include <ctype.h>
+#include <getopt.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <erfam.h>
+
+#include "cli/cli.h"
+#include "cli/cli_store.h"
+#include "core/derive.h"
+#include "core/geom.h"
+#include "formats/render.h"
+
+#define EPHEM_MAX_TARGETS 64
+
+/* The built-in demonstration station (invented): a ridge in a desert
+   range, used when neither --station nor a database is given. */
+#define DEMO_NAME "Kestrel Ridge (demo)"
+#define DEMO_LAT 38.9712
+#define DEMO_LON -114.3098
+#define DEMO_HEIGHT 2950.0
+#define DEMO_TZ "America/Los_Angeles"
+
+static void
+usage(FILE *f)
+{
+	fprintf(f,
+	    "usage: moonrange ephem [--db FILE | --station LAT,LON,HEIGHT_M]\n"
+	    "                       [--target ID=LAT,LON[,HEIGHT_M]]...\n"
+	    "                       [--at UTC] [--dut1 SECONDS] [--tz ZONE]\n"
+	    "                       [--json]\n"
+	    "\n"
+	    "Topocentric position of the Moon and the Sun, the lunar phase and\n"
+	    "librations, and for each target its pointing, range, round-trip\n"
+	    "time and the Sun's elevation at the reflector.\n"
+	    "\n"
+	    "  --db FILE            use the stored station, its active targets\n"
+	    "                       and its Earth orientation table (DUT1 and\n"
+	    "                       polar motion interpolated when the table\n"
+	    "                       covers the instant)\n"
+	    "  --station LAT,LON,H  geodetic latitude, east longitude (deg) and\n"
+	    "                       WGS84 height (m); default: a demo station\n"
+	    "  --target ID=LAT,LON[,H]  selenographic latitude, east longitude\n"
+	    "                       (deg) and height above 1737.4 km (m);\n"
+	    "                       repeat for several targets (at most %d)\n"
+	    "  --at UTC             instant, ISO 8601 with Z (default: now)\n"
+	    "  --dut1 SECONDS       UT1-UTC, |DUT1| <= 0.9 (default: from the\n"
+	    "                       table, else 0; dut1_source says which)\n"
+	    "  --tz ZONE            local time in this IANA zone in the table\n"
+	    "                       (default: the station's zone)\n"
+	    "  --json               machine-readable output (see README)\n"
+	    "  --help               this text\n", EPHEM_MAX_TARGETS);
+}
+
+static int
+valid_id(const char *s, size_t n)
+{
+	if (n == 0 || n > 32)
+		return 0;
+	for (size_t i = 0; i < n; i++)
+		if (!isalnum((unsigned char)s[i]) && s[i] != '_' &&
+		    s[i] != '-' && s[i] != '.')
+			return 0;
+	return 1;
+}
+
+/* Parse "ID=LAT,LON[,H]" into an id (copied into idbuf) and a target. */
+static int
+parse_target(const char *arg, char *idbuf, size_t idlen,
+    struct geom_target *t)
+{
+	const char *eq = strchr(arg, '=');
+	char tmp[128], *f[3];
+	double lat, lon, h = 0.0;
+	int n;
+
+	if (eq == NULL || !valid_id(arg, (size_t)(eq - arg)) ||
+	    (size_t)(eq - arg) >= idlen)
+		return cli_usage_error("--target '%s': expected ID=LAT,LON"
+		    "[,HEIGHT_M] with an ID of 1-32 letters, digits, '_', "
+		    "'-' or '.'", arg);
+	memcpy(idbuf, arg, (size_t)(eq - arg));
+	idbuf[eq - arg] = '\0';
+	if (strlen(eq + 1) >= sizeof tmp)
+		return cli_usage_error("--target '%s': too long", arg);
+	strcpy(tmp, eq + 1);
+	n = cli_split_fields(tmp, f, 3);
+	if (n < 2 || n > 3)
+		return cli_usage_error("--target '%s': expected LAT,LON[,HEIGHT_M]"
+		    " after '='", arg);
+	if (cli_parse_double(f[0], -90, 90, &lat))
+		return cli_usage_error("--target %s: latitude '%s' is not a "
+		    "number in -90..90", idbuf, f[0]);
+	if (cli_parse_double(f[1], -180, 360, &lon))
+		return cli_usage_error("--target %s: longitude '%s' is not a "
+		    "number in -180..360", idbuf, f[1]);
+	if (n == 3 && cli_parse_double(f[2], -20000, 20000, &h))
+		return cli_usage_error("--target %s: height '%s' is not a "
+		    "number of metres in -20000..20000", idbuf, f[2]);
+	if (geom_target_from_selen(lat * ERFA_DD2R, lon * ERFA_DD2R, h, t))
+		return cli_usage_error("--target %s: position out of range",
+		    idbuf);
+	return CLI_EXIT_OK;
+}
+
+/*
+ * From the database: the station (position and weather), its active
+ * targets after any given with --target, and unless eop is NULL (DUT1
+ * given) the Earth orientation at the instant with its source and the
+ * table's last day.
+ */
+static int
+load_db(struct cli_store *cs, const char *db, double utc1, double utc2,
+    char ids[][33], struct geom_target *targets, size_t *ntargets,
+    struct geom_site *site, struct geom_eop *eop, const char **source,
+    char *eop_last)
+{
+	double last;
+	int st;
+
+	if ((st = cli_store_open(cs, db, STORE_OPEN_READONLY)) ||
+	    (st = cli_store_load(cs)))
+		return st;
+	if (derive_site(&cs->station, site))
+		return cli_fail("%s: the stored station is out of range", db);
+	for (size_t i = 0; i < cs->ntargets; i++) {
+		const struct site_target *t = &cs->targets[i];
+
+		if (!t->active)
+			continue;
+		if (*ntargets == EPHEM_MAX_TARGETS)
+			return cli_usage_error("%s: more than %d targets", db,
+			    EPHEM_MAX_TARGETS);
+		snprintf(ids[*ntargets], 33, "%s", t->id);
+		if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &targets[*ntargets]))
+			return cli_fail("%s: target %s is out of range", db,
+			    t->id);
+		(*ntargets)++;
+	}
+	if (cs->neop > 0) {
+		last = cs->eop[cs->neop - 1].mjd;
+		(void)tscale_format_utc(2400000.5, last, 0, eop_last, 40);
+		eop_last[10] = '\0';	/* the day */
+	}
+	if (eop != NULL)
+		*source = eop_source_name(cli_store_eop_at(cs,
+		    (utc1 - 2400000.5) + utc2, eop));
+	return CLI_EXIT_OK;
+}
+
+int
+cmd_ephem(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		{"db", required_argument, NULL, 'D'},
+		{"station", required_argument, NULL, 's'},
+		{"target", required_argument, NULL, 't'},
+		{"at", required_argument, NULL, 'a'},
+		{"dut1", required_argument, NULL, 'd'},
+		{"tz", required_argument, NULL, 'z'},
+		{"json", no_argument, NULL, 'j'},
+		{"help", no_argument, NULL, 'h'},
+		{NULL, 0, NULL, 0}
+	};
+	static char ids[EPHEM_MAX_TARGETS][33];
+	struct geom_target targets[EPHEM_MAX_TARGETS];
+	struct render_target_row rows[EPHEM_MAX_TARGETS];
+	size_t ntargets = 0;
+	double lat = DEMO_LAT, lon = DEMO_LON, h = DEMO_HEIGHT;
+	double utc1 = 0, utc2 = 0, dut1 = 0.0;
+	int have_at = 0, json = 0, demo = 1, c, st;
+	const char *dut1_source = "none", *db = NULL, *tz = NULL;
+	char err[200], eop_last[40];
+	struct cli_store cs;
+	int have_dut1 = 0;
+	struct geom_site site;
+	struct geom_eop eop = {0.0, 0.0, 0.0};
+	struct geom_instant g;
+	struct render_ephem rep;
+	struct mbuf out;
+	enum errcode rc;
+
+	optind = 1;
+	opterr = 0;
+	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		switch (c) {
+		case 'D':
+			db = optarg;
+			break;
+		case 's':
+			if (cli_parse_station(optarg, &lat, &lon, &h, err,
+			    sizeof err))
+				return cli_usage_error("%s", err);
+			demo = 0;
+			break;
+		case 't':
+			if (ntargets == EPHEM_MAX_TARGETS)
+				return cli_usage_error("--target: at most %d "
+				    "targets", EPHEM_MAX_TARGETS);
+			st = parse_target(optarg, ids[ntargets],
+			    sizeof ids[ntargets], &targets[ntargets]);
+			if (st != CLI_EXIT_OK)
+				return st;
+			for (size_t i = 0; i < ntargets; i++)
+				if (strcmp(ids[i], ids[ntargets]) == 0)
+					return cli_usage_error("--target: id "
+					    "'%s' given twice", ids[i]);
+			ntargets++;
+			break;
+		case 'a':
+			if (cli_parse_time("--at", optarg, &utc1, &utc2))
+				return CLI_EXIT_USAGE;
+			have_at = 1;
+			break;
+		case 'd':
+			if (cli_parse_double(optarg, -0.9, 0.9, &dut1))
+				return cli_usage_error("--dut1: '%s' is not a "
+				    "number of seconds in -0.9..0.9", optarg);
+			dut1_source = "option";
+			have_dut1 = 1;
+			break;
+		case 'z':
+			if (!render_zone_known(optarg))
+				return cli_usage_error("--tz: '%s' is not a time "
+				    "zone known to this system (an IANA name such "
+				    "as Europe/Madrid)", optarg);
+			tz = optarg;
+			break;
+		case 'j':
+			json = 1;
+			break;
+		case 'h':
+			usage(stdout);
+			return CLI_EXIT_OK;
+		default:
+			return cli_bad_option("ephem", NULL, argv[optind - 1]);
+		}
+	}
+	if (optind < argc)
+		return cli_extra_argument("ephem", NULL, argv[optind]);
+	if (!have_at)
+		cli_now(&utc1, &utc2);
+	if (db != NULL && !demo)
+		return cli_usage_error("--db and --station exclude each other");
+
+	memset(&cs, 0, sizeof cs);
+	eop_last[0] = '\0';
+	if (db != NULL) {
+		st = load_db(&cs, db, utc1, utc2, ids, targets, &ntargets, &site,
+		    have_dut1 ? NULL : &eop, &dut1_source, eop_last);
+		if (st != CLI_EXIT_OK) {
+			cli_store_close(&cs);
+			return st;
+		}
+		demo = 0;
+	} else if (geom_site_init(&site, lat * ERFA_DD2R, lon * ERFA_DD2R, h,
+	    NULL)) {
+		return cli_usage_error("--station: position out of range");
+	}
+	if (have_dut1 || db == NULL)
+		eop.dut1 = dut1;
+	rc = geom_instant_at(&site, &eop, utc1, utc2, GEOM_PREC_FULL, &g);
+	if (rc != ERRCODE_OK) {
+		cli_store_close(&cs);
+		return cli_usage_error("--at: %s", errcode_str(rc));
+	}
+	for (size_t i = 0; i < ntargets; i++) {
+		rows[i].id = ids[i];
+		geom_target_view(&g, &targets[i], &rows[i].view);
+	}
+	memset(&rep, 0, sizeof rep);
+	rep.g = &g;
+	rep.targets = rows;
+	rep.ntargets = ntargets;
+	rep.dut1_source = dut1_source;
+	rep.station_name = demo ? DEMO_NAME : db != NULL ? cs.station.name :
+	    NULL;
+	rep.time_zone = tz != NULL ? tz : demo ? DEMO_TZ : db != NULL ?
+	    cs.station.time_zone : NULL;
+	rep.eop_last_utc = eop_last[0] ? eop_last : NULL;
+	mbuf_init(&out);
+	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep, &out);
+	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
+	    cli_emit(&out);
+	mbuf_free(&out);
+	cli_store_close(&cs);
+	return st;
+}

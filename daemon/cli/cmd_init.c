@@ -1,0 +1,274 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cmd_init.c: "moonrange init", a new database loaded from a site
+   directory, all or nothing. */
+#include <dirent.h>
+#include <errno.h>
+#include <getopt.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
+
+#include "cli/cli.h"
+#include "cli/cli_store.h"
+
+/*
+ * Where the sample site is looked for when --site is not given: the
+ * installed copy, then the source tree the program was built from (so a
+ * build in a clean checkout works without installing).  Both are set by
+ * CMakeLists.txt.
+ */
+#ifndef MOONRANGE_SITE_INSTALLED
+#define MOONRANGE_SITE_INSTALLED "/usr/local/share/moonrange/sample-site"
+#endif
+#ifndef MOONRANGE_SITE_SOURCE
+#define MOONRANGE_SITE_SOURCE "sample-site"
+#endif
+
+#define INIT_MAX_CRD 64
+
+static void
+usage(FILE *f)
+{
+	fprintf(f,
+	    "usage: moonrange init --db FILE [--site DIR] [--force]\n"
+	    "\n"
+	    "Create a station database and load a site directory into it, all\n"
+	    "or nothing: station.ini, targets.csv, then the Earth orientation\n"
+	    "file (eop.finals, IERS finals columns, or eop.c04), attempts.csv\n"
+	    "and every *.crd normal-point file.  Only station.ini and\n"
+	    "targets.csv are required.  Errors name the file, line and field.\n"
+	    "\n"
+	    "  --db FILE   the database to create (refused if it exists)\n"
+	    "  --site DIR  the site directory (default: the sample site,\n"
+	    "              %s\n"
+	    "              or %s)\n"
+	    "  --force     replace an existing database (only once the new one\n"
+	    "              is complete)\n"
+	    "  --help      this text\n", MOONRANGE_SITE_INSTALLED,
+	    MOONRANGE_SITE_SOURCE);
+}
+
+static int
+is_dir(const char *p)
+{
+	struct stat sb;
+
+	return stat(p, &sb) == 0 && S_ISDIR(sb.st_mode);
+}
+
+static int
+is_file(const char *p)
+{
+	struct stat sb;
+
+	return stat(p, &sb) == 0 && S_ISREG(sb.st_mode);
+}
+
+static int
+cmp_names(const void *a, const void *b)
+{
+	return strcmp(*(char *const *)a, *(char *const *)b);
+}
+
+/* The *.crd files of dir, sorted, as new strings in names[]. */
+static int
+list_crd(const char *dir, char **names, size_t cap, size_t *n)
+{
+	DIR *d = opendir(dir);
+	struct dirent *e;
+
+	*n = 0;
+	if (d == NULL)
+		return cli_fail("%s: cannot read the directory: %s", dir,
+		    strerror(errno));
+	while ((e = readdir(d)) != NULL) {
+		size_t len = strlen(e->d_name);
+
+		if (len < 5 || strcmp(e->d_name + len - 4, ".crd") != 0)
+			continue;
+		if (*n == cap) {
+			closedir(d);
+			return cli_usage_error("%s: more than %zu .crd files",
+			    dir, cap);
+		}
+		if ((names[*n] = mem_strdup(e->d_name)) == NULL) {
+			closedir(d);
+			return cli_fail("out of memory");
+		}
+		(*n)++;
+	}
+	closedir(d);
+	qsort(names, *n, sizeof names[0], cmp_names);
+	return CLI_EXIT_OK;
+}
+
+/* Read a site file into a new buffer; CLI status. */
+static int
+read_site_file(const char *path, char **buf, size_t *len)
+{
+	char err[512];
+	enum errcode rc;
+
+	rc = cli_store_read_file(path, CLI_STORE_MAX_FILE, buf, len, err,
+	    sizeof err);
+	if (rc == ERRCODE_OK)
+		return CLI_EXIT_OK;
+	return cli_store_fail(rc, "%s", err);
+}
+
+/*
+ * Load every file of the site into c inside one transaction; print a
+ * summary to stdout when it all went in.
+ */
+static int
+load_site(struct cli_store *c, const char *dir, const char *name)
+{
+	char path[4096], *buf = NULL, *crd[INIT_MAX_CRD], err[512];
+	size_t len = 0, ncrd = 0, nps = 0, npp = 0;
+	struct cli_store_counts tn, an, en, nn;
+	int st, c04 = 0;
+	enum errcode rc;
+
+	memset(&tn, 0, sizeof tn);
+	an = en = tn;
+	if ((rc = store_begin(c->s, err, sizeof err)))
+		return cli_fail("%s: %s", c->path, err);
+	snprintf(path, sizeof path, "%s/station.ini", dir);
+	if ((st = read_site_file(path, &buf, &len)) ||
+	    (st = cli_store_import_station(c, path, buf, len)))
+		goto out;
+	mem_free(buf);
+	buf = NULL;
+	snprintf(path, sizeof path, "%s/targets.csv", dir);
+	if ((st = read_site_file(path, &buf, &len)) ||
+	    (st = cli_store_import_targets(c, path, buf, len, &tn)))
+		goto out;
+	mem_free(buf);
+	buf = NULL;
+	snprintf(path, sizeof path, "%s/eop.finals", dir);
+	if (!is_file(path)) {
+		snprintf(path, sizeof path, "%s/eop.c04", dir);
+		c04 = 1;
+	}
+	if (is_file(path)) {
+		if ((st = read_site_file(path, &buf, &len)) ||
+		    (st = cli_store_import_eop(c, path, buf, len, c04, &en)))
+			goto out;
+		mem_free(buf);
+		buf = NULL;
+	}
+	snprintf(path, sizeof path, "%s/attempts.csv", dir);
+	if (is_file(path)) {
+		if ((st = read_site_file(path, &buf, &len)) ||
+		    (st = cli_store_import_attempts(c, path, buf, len, &an)))
+			goto out;
+		mem_free(buf);
+		buf = NULL;
+	}
+	if ((st = list_crd(dir, crd, INIT_MAX_CRD, &ncrd)))
+		goto out;
+	for (size_t i = 0; i < ncrd; i++) {
+		snprintf(path, sizeof path, "%s/%s", dir, crd[i]);
+		if ((st = read_site_file(path, &buf, &len)) ||
+		    (st = cli_store_import_crd(c, path, buf, len, 1, &nn)))
+			goto out;
+		nps += nn.added;
+		npp += nn.present;
+		mem_free(buf);
+		buf = NULL;
+	}
+	if ((rc = store_commit(c->s, err, sizeof err))) {
+		st = cli_fail("%s: %s", c->path, err);
+		goto out;
+	}
+	printf("%s: station %s (%s), %zu targets, %zu EOP days, %zu attempts, "
+	    "%zu normal points from %zu CRD file%s (%zu repeated)\n", name,
+	    c->station.code, c->station.name, tn.added, en.added, an.added,
+	    nps, ncrd, ncrd == 1 ? "" : "s", npp);
+	cli_store_warn_zone(&c->station);
+out:
+	if (st != CLI_EXIT_OK)
+		store_rollback(c->s);
+	for (size_t i = 0; i < ncrd; i++)
+		mem_free(crd[i]);
+	mem_free(buf);
+	return st;
+}
+
+/* Remove a database's WAL companions (and with all = 1 the file). */
+static void
+remove_db(const char *path, int all)
+{
+	char p[4300];
+
+	if (all)
+		(void)unlink(path);
+	snprintf(p, sizeof p, "%s-wal", path);
+	(void)unlink(p);
+	snprintf(p, sizeof p, "%s-shm", path);
+	(void)unlink(p);
+}
+
+int
+cmd_init(int argc, char **argv)
+{
+	static const struct option opts[] = {
+		{"db", required_argument, NULL, 'd'},
+		{"site", required_argument, NULL, 's'},
+		{"force", no_argument, NULL, 'f'},
+		{"help", no_argument, NULL, 'h'},
+		{NULL, 0, NULL, 0}
+	};
+	const char *db = NULL, *site = NULL;
+	char tmp[4200];
+	struct cli_store c;
+	int force = 0, ch, st;
+
+	optind = 1;
+	opterr = 0;
+	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
+		switch (ch) {
+		case 'd': db = optarg; break;
+		case 's': site = optarg; break;
+		case 'f': force = 1; break;
+		case 'h':
+			usage(stdout);
+			return CLI_EXIT_OK;
+		default:
+			return cli_bad_option("init", NULL, argv[optind - 1]);
+		}
+	}
+	if (optind < argc)
+		return cli_extra_argument("init", NULL, argv[optind]);
+	if (db == NULL)
+		return cli_usage_error("init: --db FILE is required");
+	if (strlen(db) > 4000)
+		return cli_usage_error("--db: path too long");
+	if (site == NULL)
+		site = is_dir(MOONRANGE_SITE_INSTALLED) ?
+		    MOONRANGE_SITE_INSTALLED : MOONRANGE_SITE_SOURCE;
+	if (!is_dir(site))
+		return cli_usage_error("--site: '%s' is not a directory", site);
+	if (access(db, F_OK) == 0 && !force)
+		return cli_usage_error("--db: '%s' already exists (use --force "
+		    "to replace it)", db);
+	/* Build beside the target and rename it into place when complete,
+	   so a failure leaves any old database untouched. */
+	snprintf(tmp, sizeof tmp, "%s.init-%ld", db, (long)getpid());
+	remove_db(tmp, 1);
+	if ((st = cli_store_open(&c, tmp, STORE_OPEN_CREATE)) != CLI_EXIT_OK)
+		return st;
+	st = load_site(&c, site, db);
+	cli_store_close(&c);
+	if (st == CLI_EXIT_OK) {
+		/* An old WAL must not meet the new file. */
+		remove_db(db, 0);
+		if (rename(tmp, db) != 0)
+			st = cli_fail("--db: cannot rename '%s' to '%s': %s",
+			    tmp, db, strerror(errno));
+	}
+	remove_db(tmp, 1);
+	return st;
+}

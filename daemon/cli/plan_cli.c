@@ -1,0 +1,100 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* plan_cli.c: loading, running and printing a plan for the commands. */
+#include <getopt.h>
+
+#include "cli/cli.h"
+#include "cli/plan_cli.h"
+
+int
+plan_cli_option(int c, const char *arg, struct plan_cli_opts *o)
+{
+	char err[256];
+
+	switch (c) {
+	case 'D':
+		o->db = arg;
+		return CLI_EXIT_OK;
+	case 's':
+		if (cli_parse_station(arg, &o->lat, &o->lon, &o->h, err,
+		    sizeof err) != ERRCODE_OK)
+			return cli_usage_error("%s", err);
+		o->have_station = 1;
+		return CLI_EXIT_OK;
+	case 'z':
+		if (!render_zone_known(arg))
+			return cli_usage_error("--tz: unknown time zone '%s'",
+			    arg);
+		o->tz = arg;
+		return CLI_EXIT_OK;
+	case 'l':
+		if (cli_parse_long(arg, 1, PLAN_MAX_WINDOWS, &o->limit))
+			return cli_usage_error("--limit: '%s' is not a whole "
+			    "number in 1..%d", arg, PLAN_MAX_WINDOWS);
+		return CLI_EXIT_OK;
+	default:
+		return -1;
+	}
+}
+
+int
+plan_cli_opts_check(const struct plan_cli_opts *o, const char *cmd,
+    int argc, char **argv)
+{
+	if (optind < argc)
+		return cli_usage_error("%s: unexpected argument '%s'", cmd,
+		    argv[optind]);
+	if ((o->db == NULL) == (o->have_station == 0))
+		return cli_usage_error("%s: give --db FILE or --station "
+		    "LAT,LON,HEIGHT_M (one of them)", cmd);
+	return CLI_EXIT_OK;
+}
+
+int
+plan_cli_load(const char *db, double lat, double lon, double h,
+    struct plan_query *q, struct plan_db *hold)
+{
+	char err[256];
+	enum errcode rc;
+
+	plan_query_init(q);
+	plan_db_init(hold);
+	if (db == NULL) {
+		q->station.lat_deg = lat;
+		q->station.lon_deg = lon;
+		q->station.height_m = h;
+		return CLI_EXIT_OK;
+	}
+	rc = plan_db_load(db, q, hold, err, sizeof err);
+	if (rc == ERRCODE_OK)
+		return CLI_EXIT_OK;
+	plan_db_free(hold);
+	if (rc == ERRCODE_NOMEM)
+		return cli_fail("%s", errcode_str(rc));
+	return cli_status_of(rc) == CLI_EXIT_USAGE ?
+	    cli_usage_error("--db %s: %s", db, err) :
+	    cli_fail("--db %s: %s", db, err);
+}
+
+int
+plan_cli_run(const struct plan_query *q, struct plan_db *hold,
+    struct render_plan *rp, winquery_render_fn fn)
+{
+	struct mbuf out;
+	char err[256];
+	enum errcode rc;
+	int st;
+
+	mbuf_init(&out);
+	rc = winquery_render(q, rp, fn, &out, NULL, err, sizeof err);
+	plan_db_free(hold);
+	if (rc != ERRCODE_OK) {
+		mbuf_free(&out);
+		if (rc == ERRCODE_NOMEM)
+			return cli_fail("%s", errcode_str(rc));
+		return cli_status_of(rc) == CLI_EXIT_USAGE ?
+		    cli_usage_error("%s", err) : cli_fail("%s", err);
+	}
+	st = cli_emit(&out);
+	mbuf_free(&out);
+	return st;
+}

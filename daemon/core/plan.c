@@ -1,0 +1,509 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* plan.c: the planning query, from site records to ranked windows. */
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <string.h>
+
+#include <erfa.h>
+#include <erfam.h>
+
+#include "core/derive.h"
+#include "core/eop.h"
+#include "core/mem.h"
+#include "core/plan.h"
+#include "core/window.h"
+
+#define MJD0 2400000.5
+
+void
+plan_query_init(struct plan_query *q)
+{
+	memset(q, 0, sizeof *q);
+	q->station.min_el_deg = PLAN_DEFAULT_MIN_EL_DEG;
+	q->station.max_sun_el_deg = PLAN_DEFAULT_MAX_SUN_EL_DEG;
+	q->station.min_sun_sep_deg = PLAN_DEFAULT_MIN_SUN_SEP_DEG;
+	q->station.pressure_hpa = NAN;
+	q->station.temperature_c = NAN;
+	q->station.humidity = NAN;
+	q->station.wavelength_nm = 532.0;
+	q->station.zenith_tau = 0.1;
+	q->station.fire_rate_hz = 10.0;
+	score_settings_default(&q->settings);
+}
+
+void
+plan_result_free(struct plan_result *r)
+{
+	if (r == NULL)
+		return;
+	mem_free(r->models);
+	mem_free(r->w);
+	r->models = NULL;
+	r->w = NULL;
+	r->n = r->nmodels = 0;
+}
+
+const char *
+plan_phase_label(double deg)
+{
+	static const char *names[8] = {"new-moon", "waxing-crescent",
+	    "first-quarter", "waxing-gibbous", "full-moon", "waning-gibbous",
+	    "last-quarter", "waning-crescent"};
+	double a = fmod(deg, 360.0);
+
+	if (a < 0)
+		a += 360.0;
+	return names[(int)floor((a + 22.5) / 45.0) % 8];
+}
+
+static enum errcode
+fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
+    MEM_PRINTFLIKE(4, 5);
+
+/* Write a sentence into errbuf (may be NULL) and return rc. */
+static enum errcode
+fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
+{
+	va_list ap;
+
+	if (errbuf != NULL && errlen > 0) {
+		va_start(ap, fmt);
+		vsnprintf(errbuf, errlen, fmt, ap);
+		va_end(ap);
+	}
+	return rc;
+}
+
+/* Copy a target id (both SITE_ID_LEN). */
+static void
+copy_id(char *dst, const char *src)
+{
+	memcpy(dst, src, SITE_ID_LEN);
+	dst[SITE_ID_LEN - 1] = '\0';
+}
+
+/* UTC MJD of a TT offset on the track. */
+static double
+mjd_of(const struct window_track *tr, double t)
+{
+	struct tscale_instant x;
+
+	if (tscale_from_tt(tr->base1, tr->base2 + t, tr->eop.dut1, &x) !=
+	    ERRCODE_OK)
+		return NAN;
+	return (x.utc1 - MJD0) + x.utc2;
+}
+
+/* TT offset on the track of a UTC MJD. */
+static enum errcode
+offset_of(const struct window_track *tr, double mjd, double *t)
+{
+	struct tscale_instant x;
+	enum errcode rc = tscale_from_utc(MJD0, mjd, tr->eop.dut1, &x);
+
+	if (rc != ERRCODE_OK)
+		return rc;
+	*t = (x.tt1 - tr->base1) + (x.tt2 - tr->base2);
+	return ERRCODE_OK;
+}
+
+static void
+add_reason(struct plan_window *w, const char *fmt, ...) MEM_PRINTFLIKE(2, 3);
+
+static void
+add_reason(struct plan_window *w, const char *fmt, ...)
+{
+	va_list ap;
+
+	if (w->nreasons >= PLAN_MAX_REASONS)
+		return;
+	va_start(ap, fmt);
+	vsnprintf(w->reasons[w->nreasons++], PLAN_REASON_LEN, fmt, ap);
+	va_end(ap);
+}
+
+static void
+explain(struct plan_window *w, const struct plan_target_model *m,
+    const struct score_settings *s, double tau)
+{
+	const struct score_window *f = &w->f;
+	double width = 360.0 / s->nbins;
+	double lo = f->phase_bin * width;
+	char hhmm[40];
+	int y, mo, d, hh, mi;
+	double sec;
+
+	if (s->alpha == 0.0)
+		add_reason(w, "coverage weighting is off (alpha = 0)");
+	else
+		add_reason(w, "%s bin %.0f-%.0f deg has %ld normal points "
+		    "%s against a mean of %.1f (weight %.2f)",
+		    plan_phase_label(lo + width / 2), lo, lo + width,
+		    f->bin_count, s->per_target ? "of this target" :
+		    "of all targets", f->bin_mean, f->coverage_weight);
+	if (f->bins_crossed > 0)
+		add_reason(w, "the window crosses %d bin boundar%s; the weight "
+		    "is the yield-weighted mean", f->bins_crossed,
+		    f->bins_crossed == 1 ? "y" : "ies");
+	snprintf(hhmm, sizeof hhmm, "?");
+	if (tscale_utc_fields(MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
+	    &sec) == ERRCODE_OK)
+		snprintf(hhmm, sizeof hhmm, "%02d:%02d", hh, mi);
+	add_reason(w, "highest elevation %.1f deg at %s UTC; mean airmass %.2f, "
+	    "two-way transmission %.2f at tau %.2f", f->max_el * ERFA_DR2D,
+	    hhmm, f->mean_airmass, f->mean_transmission, tau);
+	if (f->sunlit_fraction <= 0.0)
+		add_reason(w, "in lunar darkness throughout");
+	else
+		add_reason(w, "sunlit for %.0f%% of the window (sunlit factor "
+		    "%.2f)", 100.0 * f->sunlit_fraction, m->y.sunlit_factor);
+	if (m->y.attempts > 0)
+		add_reason(w, "%.3g returns per shot at zenith learned from %ld "
+		    "logged attempts", m->y.rate, m->y.attempts);
+	else
+		add_reason(w, "no usable history: %.3g returns per shot at "
+		    "zenith from strength %.2f", m->y.rate, m->strength);
+}
+
+/*
+ * The yield model of the nt planned targets tg, fitted with every active
+ * target of the query (the planned ones alone when none is active, i.e.
+ * the Moon's centre).  yield[nt] in the order of tg.
+ */
+static enum errcode
+fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
+    struct score_yield *yield, struct score_model *model)
+{
+	struct site_target *act = NULL;
+	struct score_yield *ay = NULL;
+	size_t na = 0;
+	enum errcode rc;
+
+	for (size_t i = 0; i < q->ntargets; i++)
+		na += q->targets[i].active ? 1 : 0;
+	if (na == 0)
+		return score_fit(&q->settings, q->station.zenith_tau, tg, nt,
+		    q->attempts, q->nattempts, yield, model);
+	act = mem_calloc(na, sizeof act[0]);
+	ay = mem_calloc(na, sizeof ay[0]);
+	if (act == NULL || ay == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	na = 0;
+	for (size_t i = 0; i < q->ntargets; i++)
+		if (q->targets[i].active)
+			act[na++] = q->targets[i];
+	rc = score_fit(&q->settings, q->station.zenith_tau, act, na,
+	    q->attempts, q->nattempts, ay, model);
+	if (rc != ERRCODE_OK)
+		goto out;
+	for (size_t j = 0; j < nt; j++) {
+		size_t i = 0;
+
+		while (i < na && strcmp(act[i].id, tg[j].id) != 0)
+			i++;
+		if (i == na) {		/* cannot happen: tg is drawn from act */
+			rc = ERRCODE_NOT_FOUND;
+			goto out;
+		}
+		yield[j] = ay[i];
+	}
+out:
+	mem_free(act);
+	mem_free(ay);
+	return rc;
+}
+
+enum errcode
+plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
+    size_t errlen)
+{
+	const struct site_station *st = &q->station;
+	struct geom_site site;
+	struct geom_weather wx;
+	struct site_station sw_st;
+	struct geom_target bodies[WINDOW_MAX_TARGETS];
+	struct window_target wt[WINDOW_MAX_TARGETS];
+	struct site_target tg[WINDOW_MAX_TARGETS];
+	struct score_yield yield[WINDOW_MAX_TARGETS];
+	long *counts = NULL;	/* (nt + 1) x nbins: per target, then pooled */
+	struct window_node *nodes = NULL;
+	struct window_interval *bo = NULL;
+	struct window *win = NULL;
+	struct score_window *sw = NULL;
+	struct window_track tr;
+	struct window_limits lim;
+	struct tscale_instant a, b;
+	struct geom_eop eop;
+	const char *field;
+	size_t nt = 0, nn, cap, nw = 0, nbo = 0, keep;
+	double span;
+	int nb = q->settings.nbins;
+	enum errcode rc;
+
+	memset(out, 0, sizeof *out);
+	if (score_settings_check(&q->settings, &field) != ERRCODE_OK)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "setting %s is out of range", field);
+	if (!isfinite(st->min_el_deg) || st->min_el_deg < -5 ||
+	    st->min_el_deg > 89)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: must be a number of degrees in -5..89", "min_el");
+	if (!isfinite(st->max_sun_el_deg) || st->max_sun_el_deg < -90 ||
+	    st->max_sun_el_deg > 90)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: must be a number of degrees in -90..90", "max_sun_el");
+	if (!isfinite(st->min_sun_sep_deg) || st->min_sun_sep_deg < 0 ||
+	    st->min_sun_sep_deg > 180)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: must be a number of degrees in 0..180", "min_sun_sep");
+	if (!isfinite(st->zenith_tau) || st->zenith_tau < 0 ||
+	    st->zenith_tau > 5)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: must be in 0..5", "zenith_tau");
+	if (!(st->fire_rate_hz > 0) || st->fire_rate_hz > 1e6)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: must be in 0..1e6 shots per second", "fire_rate_hz");
+
+	/* Standard weather for what the station does not say. */
+	geom_weather_standard(st->height_m, &wx);
+	sw_st = *st;
+	if (!isfinite(sw_st.pressure_hpa))
+		sw_st.pressure_hpa = wx.pressure_hpa;
+	if (!isfinite(sw_st.temperature_c))
+		sw_st.temperature_c = wx.temperature_c;
+	if (!isfinite(sw_st.humidity))
+		sw_st.humidity = wx.humidity;
+	if (!isfinite(sw_st.wavelength_nm))
+		sw_st.wavelength_nm = wx.wavelength_um * 1000.0;
+	if (derive_site(&sw_st, &site) != ERRCODE_OK)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: latitude, longitude, height or weather out of range",
+		    "station");
+
+	/* The targets planned. */
+	for (size_t i = 0; i < q->ntargets; i++) {
+		const struct site_target *t = &q->targets[i];
+
+		if (!t->active || (q->target != NULL &&
+		    strcmp(q->target, t->id) != 0))
+			continue;
+		if (nt == WINDOW_MAX_TARGETS)
+			return fail(errbuf, errlen, ERRCODE_TOO_LARGE,
+			    "targets: more than %d active targets",
+			    WINDOW_MAX_TARGETS);
+		if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &bodies[nt]) !=
+		    ERRCODE_OK)
+			return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+			    "target %s: selenographic position out of range",
+			    t->id);
+		tg[nt] = *t;
+		wt[nt].body = &bodies[nt];
+		wt[nt].dark_only = t->dark_only;
+		nt++;
+	}
+	if (nt == 0) {
+		int any = 0;
+
+		for (size_t i = 0; i < q->ntargets; i++)
+			any |= q->targets[i].active;
+		if (q->target != NULL && (any ||
+		    strcmp(q->target, PLAN_MOON_ID) != 0))
+			return fail(errbuf, errlen, ERRCODE_NOT_FOUND,
+			    "--target: no active target '%s'", q->target);
+		memset(&tg[0], 0, sizeof tg[0]);
+		snprintf(tg[0].id, sizeof tg[0].id, "%s", PLAN_MOON_ID);
+		snprintf(tg[0].name, sizeof tg[0].name, "Moon (centre)");
+		tg[0].strength = 1.0;
+		tg[0].active = 1;
+		wt[0].body = NULL;
+		wt[0].dark_only = 0;
+		nt = 1;
+	}
+
+	/* Span and track. */
+	if (!isfinite(q->from_mjd) || !isfinite(q->to_mjd) ||
+	    !(q->to_mjd > q->from_mjd))
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "%s: the span must end after it starts", "to");
+	/* Earth orientation: the table at the span's middle, else as given. */
+	eop = q->eop;
+	out->dut1_source = (eop.dut1 != 0.0 || eop.xp != 0.0 ||
+	    eop.yp != 0.0) ? "option" : "none";
+	if (q->eop_rows != NULL && q->neop > 0) {
+		struct eop_table et = {q->eop_rows, q->neop};
+		struct geom_eop e2;
+
+		if (eop_lookup(&et, 0.5 * (q->from_mjd + q->to_mjd), &e2) ==
+		    EOP_SOURCE_TABLE) {
+			eop = e2;
+			out->dut1_source = "table";
+		}
+	}
+	if (tscale_from_utc(MJD0, q->from_mjd, eop.dut1, &a) != ERRCODE_OK ||
+	    tscale_from_utc(MJD0, q->to_mjd, eop.dut1, &b) != ERRCODE_OK)
+		return fail(errbuf, errlen, ERRCODE_BAD_TIME,
+		    "%s: outside the convertible range", "from/to");
+	span = tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) / ERFA_DAYSEC;
+	if (span > WINDOW_MAX_SPAN_DAYS)
+		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		    "to: span longer than %.0f days",
+		    WINDOW_MAX_SPAN_DAYS);
+	nn = window_track_nodes(span);
+	nodes = mem_calloc(nn, sizeof nodes[0]);
+	counts = mem_calloc((nt + 1) * (size_t)nb, sizeof counts[0]);
+	out->models = mem_calloc(nt, sizeof out->models[0]);
+	if (q->nblackouts > 0)
+		bo = mem_calloc(q->nblackouts, sizeof bo[0]);
+	if (nodes == NULL || counts == NULL || out->models == NULL ||
+	    (q->nblackouts > 0 && bo == NULL)) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	rc = window_track_init(&tr, &site, &eop, a.tt1, a.tt2, span, nodes,
+	    nn);
+	if (rc != ERRCODE_OK) {
+		fail(errbuf, errlen, rc, "%s: cannot tabulate the span",
+		    "from/to");
+		goto out;
+	}
+	for (size_t i = 0; i < q->nblackouts; i++) {
+		double s0, s1;
+
+		if (offset_of(&tr, q->blackouts[i].start_mjd, &s0) ||
+		    offset_of(&tr, q->blackouts[i].end_mjd, &s1))
+			continue;
+		if (s1 <= 0.0 || s0 >= span || !(s1 > s0))
+			continue;
+		bo[nbo].start = s0;
+		bo[nbo++].end = s1;
+	}
+
+	/* Coverage counts: normal points and the log's normal points. */
+	for (size_t i = 0; i < q->nnps; i++) {
+		const struct site_normal_point *p = &q->nps[i];
+
+		score_bin_add(counts + nt * (size_t)nb, nb, p->synodic_deg, 1);
+		for (size_t j = 0; j < nt; j++)
+			if (strcmp(p->target, tg[j].id) == 0)
+				score_bin_add(counts + j * (size_t)nb, nb,
+				    p->synodic_deg, 1);
+	}
+	for (size_t i = 0; i < q->nattempts; i++) {
+		const struct site_attempt *p = &q->attempts[i];
+
+		score_bin_add(counts + nt * (size_t)nb, nb, p->synodic_deg,
+		    p->normal_points);
+		for (size_t j = 0; j < nt; j++)
+			if (strcmp(p->target, tg[j].id) == 0)
+				score_bin_add(counts + j * (size_t)nb, nb,
+				    p->synodic_deg, p->normal_points);
+	}
+	memcpy(out->pooled, counts + nt * (size_t)nb,
+	    (size_t)nb * sizeof counts[0]);
+
+	/* Yield model, fitted over every active target whatever --target
+	   selects: the pooled base rate and sunlit factor (the priors of
+	   each target) must not depend on which windows are listed. */
+	rc = fit_all(q, tg, nt, yield, &out->model);
+	if (rc != ERRCODE_OK) {
+		if (rc == ERRCODE_BAD_ARG)
+			fail(errbuf, errlen, rc, "%s: a target strength is "
+			    "not positive", "targets");
+		goto out;
+	}
+	out->nmodels = nt;
+	for (size_t j = 0; j < nt; j++) {
+		copy_id(out->models[j].id, tg[j].id);
+		out->models[j].strength = tg[j].strength;
+		out->models[j].y = yield[j];
+	}
+
+	/* Windows: a first guess of the room, then exactly what is needed. */
+	lim.min_el = st->min_el_deg * ERFA_DD2R;
+	lim.max_sun_el = st->max_sun_el_deg * ERFA_DD2R;
+	lim.min_sun_sep = st->min_sun_sep_deg * ERFA_DD2R;
+	cap = (size_t)(span * 2.0 + 8.0) * nt;
+	if (cap > PLAN_MAX_WINDOWS)
+		cap = PLAN_MAX_WINDOWS;
+	for (;;) {
+		win = mem_calloc(cap, sizeof win[0]);
+		if (win == NULL) {
+			rc = ERRCODE_NOMEM;
+			goto out;
+		}
+		rc = window_find(&tr, &lim, wt, nt, bo, nbo, win, cap, &nw);
+		if (rc != ERRCODE_TOO_LARGE || nw > PLAN_MAX_WINDOWS)
+			break;
+		mem_free(win);
+		cap = nw;
+	}
+	if (rc != ERRCODE_OK) {
+		fail(errbuf, errlen, rc, "%s: too many windows; shorten the "
+		    "span", "to");
+		goto out;
+	}
+	sw = mem_calloc(nw, sizeof sw[0]);
+	if (sw == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	{
+		struct score_params sp;
+
+		sp.tr = &tr;
+		sp.s = &q->settings;
+		sp.tau = st->zenith_tau;
+		sp.fire_rate_hz = st->fire_rate_hz;
+		for (size_t i = 0; i < nw; i++) {
+			struct score_target t;
+			size_t j = win[i].target;
+
+			t.body = wt[j].body;
+			t.yield = yield[j];
+			t.counts = q->settings.per_target ?
+			    counts + j * (size_t)nb : counts + nt * (size_t)nb;
+			rc = score_window(&sp, &t, &win[i], &sw[i]);
+			if (rc != ERRCODE_OK)
+				goto out;
+		}
+	}
+	score_rank(sw, nw);
+	keep = (q->limit > 0 && q->limit < nw) ? q->limit : nw;
+	out->total = nw;
+	out->w = mem_calloc(keep, sizeof out->w[0]);
+	if (out->w == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	for (size_t i = 0; i < keep; i++) {
+		struct plan_window *pw = &out->w[i];
+
+		pw->f = sw[i];
+		copy_id(pw->target, tg[sw[i].target].id);
+		pw->start_mjd = mjd_of(&tr, sw[i].start);
+		pw->end_mjd = mjd_of(&tr, sw[i].end);
+		pw->max_el_mjd = mjd_of(&tr, sw[i].max_el_t);
+		explain(pw, &out->models[sw[i].target], &q->settings,
+		    st->zenith_tau);
+	}
+	out->n = keep;
+	out->eop = eop;
+	out->from_mjd = q->from_mjd;
+	out->to_mjd = q->to_mjd;
+	out->station = *st;
+	out->settings = q->settings;
+	rc = ERRCODE_OK;
+out:
+	mem_free(nodes);
+	mem_free(counts);
+	mem_free(bo);
+	mem_free(win);
+	mem_free(sw);
+	if (rc != ERRCODE_OK)
+		plan_result_free(out);
+	return rc;
+}

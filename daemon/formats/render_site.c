@@ -1,0 +1,341 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* render_site.c: station, targets, blackouts and the log as JSON, CSV and
+   text tables. */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include <jansson.h>
+
+#include "formats/render.h"
+#include "formats/render_site.h"
+#include "core/tscale.h"
+
+#define MJD_BASE 2400000.5
+
+/* A UTC MJD as ISO text with ndp decimals, or null. */
+static json_t *
+jtime(double mjd, int ndp)
+{
+	char buf[40];
+
+	if (tscale_format_utc(MJD_BASE, mjd, ndp, buf, sizeof buf))
+		return json_null();
+	return json_string(buf);
+}
+
+static void
+text_time(double mjd, int ndp, char *buf, size_t len)
+{
+	if (tscale_format_utc(MJD_BASE, mjd, ndp, buf, len) != ERRCODE_OK)
+		snprintf(buf, len, "?");
+}
+
+/*
+ * Serialise root (a reference that is consumed) into out with render.c's
+ * render_json_dump (same layout as every moonrange JSON document, written
+ * straight into the mbuf so a failed allocation inside jansson cannot
+ * give a damaged document: test_render_site_allocation_failure); failed
+ * says a member could not be added.
+ */
+static enum errcode
+finish(json_t *root, int failed, struct mbuf *out)
+{
+	if (failed) {
+		json_decref(root);
+		return ERRCODE_NOMEM;
+	}
+	return render_json_dump(root, out);
+}
+
+/* {"key": [items]}; *arr receives the (borrowed) array. */
+static json_t *
+wrapper(const char *key, json_t **arr)
+{
+	json_t *root = json_object(), *a = json_array();
+
+	*arr = NULL;
+	if (root == NULL || a == NULL) {
+		json_decref(root);
+		json_decref(a);
+		return NULL;
+	}
+	/* json_object_set_new takes a even when it fails. */
+	if (json_object_set_new(root, key, a) != 0) {
+		json_decref(root);
+		return NULL;
+	}
+	*arr = a;
+	return root;
+}
+
+/* --- attempts ------------------------------------------------------------- */
+
+static json_t *
+attempt_obj(const struct site_attempt *a)
+{
+	json_t *o = json_pack("{s:I, s:s, s:o, s:o, s:o, s:I, s:I, s:I, s:s, "
+	    "s:s, s:o, s:s, s:o, s:o, s:o, s:o}",
+	    "id", (json_int_t)a->id,
+	    "target", a->target,
+	    "start_utc", jtime(a->start_mjd, 3),
+	    "end_utc", jtime(a->end_mjd, 3),
+	    "duration_s",
+	    render_json_num((a->end_mjd - a->start_mjd) * 86400.0, 3),
+	    "shots", (json_int_t)a->shots,
+	    "returns", (json_int_t)a->returns,
+	    "normal_points", (json_int_t)a->normal_points,
+	    "outcome", site_outcome_name(a->outcome),
+	    "operator", a->operator_name,
+	    "seeing_arcsec", render_json_num(a->seeing_arcsec, 3),
+	    "notes", a->notes,
+	    "synodic_deg", render_json_num(a->synodic_deg, 6),
+	    "mean_elong_deg", render_json_num(a->mean_elong_deg, 6),
+	    "target_el_deg", render_json_num(a->target_el_deg, 6),
+	    "sun_el_target_deg", render_json_num(a->sun_el_target_deg, 6));
+
+	return o;
+}
+
+enum errcode
+render_site_attempts_json(const struct site_attempt *a, size_t n,
+    struct mbuf *out)
+{
+	json_t *arr, *root = wrapper("attempts", &arr);
+	int failed = root == NULL;
+
+	for (size_t i = 0; i < n && !failed; i++)
+		failed = json_array_append_new(arr, attempt_obj(&a[i])) != 0;
+	return finish(root, failed, out);
+}
+
+enum errcode
+render_site_attempt_json(const struct site_attempt *a, struct mbuf *out)
+{
+	return finish(attempt_obj(a), 0, out);
+}
+
+void
+render_site_csv_field(struct mbuf *out, const char *s)
+{
+	size_t n = strlen(s);
+
+	if (strpbrk(s, ",\"\r\n") == NULL && (n == 0 ||
+	    (s[0] != ' ' && s[n - 1] != ' '))) {
+		mbuf_add(out, s, n);
+		return;
+	}
+	mbuf_add(out, "\"", 1);
+	for (const char *p = s; *p; p++) {
+		if (*p == '"')
+			mbuf_add(out, "\"", 1);
+		mbuf_add(out, p, 1);
+	}
+	mbuf_add(out, "\"", 1);
+}
+
+/* A number for CSV: shortest text that reads back to the same double
+   (up to 17 digits), empty when absent. */
+static void
+csv_real(struct mbuf *out, double v)
+{
+	char buf[40];
+
+	if (!isfinite(v))
+		return;
+	for (int prec = 1; prec <= 17; prec++) {
+		snprintf(buf, sizeof buf, "%.*g", prec, v);
+		if (strtod(buf, NULL) == v)
+			break;
+	}
+	mbuf_puts(out, buf);
+}
+
+enum errcode
+render_site_attempts_csv(const struct site_attempt *a, size_t n, int derived,
+    struct mbuf *out)
+{
+	char t0[40], t1[40];
+
+	if (derived)
+		mbuf_puts(out, "id,");
+	mbuf_puts(out, RENDER_SITE_ATTEMPT_CSV_HEADER);
+	if (derived)
+		mbuf_puts(out, ",synodic_deg,mean_elong_deg,target_el_deg,"
+		    "sun_el_target_deg");
+	mbuf_add(out, "\r\n", 2);
+	for (size_t i = 0; i < n; i++) {
+		text_time(a[i].start_mjd, 3, t0, sizeof t0);
+		text_time(a[i].end_mjd, 3, t1, sizeof t1);
+		if (derived)
+			mbuf_printf(out, "%ld,", a[i].id);
+		render_site_csv_field(out, a[i].target);
+		mbuf_printf(out, ",%s,%s,%ld,%ld,%ld,%s,", t0, t1, a[i].shots,
+		    a[i].returns, a[i].normal_points,
+		    site_outcome_name(a[i].outcome));
+		render_site_csv_field(out, a[i].operator_name);
+		mbuf_add(out, ",", 1);
+		csv_real(out, a[i].seeing_arcsec);
+		mbuf_add(out, ",", 1);
+		render_site_csv_field(out, a[i].notes);
+		if (derived) {
+			mbuf_printf(out, ",%.6f,%.6f,%.6f,%.6f",
+			    a[i].synodic_deg, a[i].mean_elong_deg,
+			    a[i].target_el_deg, a[i].sun_el_target_deg);
+		}
+		mbuf_add(out, "\r\n", 2);
+	}
+	return mbuf_status(out);
+}
+
+enum errcode
+render_site_attempts_text(const struct site_attempt *a, size_t n,
+    const char *tz, struct mbuf *out)
+{
+	char t0[40], local[48];
+
+	mbuf_printf(out, "%5s %-10s %-20s %4s %6s %5s %3s %-10s %6s %5s\n",
+	    "id", "target", "start UTC", "min", "shots", "ret", "NP",
+	    "outcome", "synod", "el");
+	for (size_t i = 0; i < n; i++) {
+		text_time(a[i].start_mjd, 0, t0, sizeof t0);
+		mbuf_printf(out, "%5ld %-10.10s %-20s %4.0f %6ld %5ld %3ld "
+		    "%-10s %6.1f %5.1f\n", a[i].id, a[i].target, t0,
+		    (a[i].end_mjd - a[i].start_mjd) * 1440.0, a[i].shots,
+		    a[i].returns, a[i].normal_points,
+		    site_outcome_name(a[i].outcome), a[i].synodic_deg,
+		    a[i].target_el_deg);
+		if (tz != NULL && render_local_time(MJD_BASE,
+		    a[i].start_mjd, tz, local, sizeof local) == ERRCODE_OK)
+			mbuf_printf(out, "%5s %-10s %s local\n", "", "", local);
+	}
+	if (n == 0)
+		mbuf_puts(out, "(no attempts match)\n");
+	else
+		mbuf_printf(out, "%zu attempt%s\n", n, n == 1 ? "" : "s");
+	return mbuf_status(out);
+}
+
+/* --- station -------------------------------------------------------------- */
+
+enum errcode
+render_site_station_json(const struct site_station *st, struct mbuf *out)
+{
+	json_t *root = json_pack("{s:s, s:s, s:o, s:o, s:o, s:s, s:o, s:o, "
+	    "s:o, s:o, s:o, s:o, s:o, s:o, s:o}",
+	    "name", st->name,
+	    "code", st->code,
+	    "lat_deg", render_json_num(st->lat_deg, 7),
+	    "lon_deg", render_json_num(st->lon_deg, 7),
+	    "height_m", render_json_num(st->height_m, 3),
+	    "time_zone", st->time_zone,
+	    "min_el_deg", render_json_num(st->min_el_deg, 4),
+	    "max_sun_el_deg", render_json_num(st->max_sun_el_deg, 4),
+	    "min_sun_sep_deg", render_json_num(st->min_sun_sep_deg, 4),
+	    "pressure_hpa", render_json_num(st->pressure_hpa, 2),
+	    "temperature_c", render_json_num(st->temperature_c, 2),
+	    "humidity", render_json_num(st->humidity, 3),
+	    "wavelength_nm", render_json_num(st->wavelength_nm, 3),
+	    "zenith_tau", render_json_num(st->zenith_tau, 4),
+	    "fire_rate_hz", render_json_num(st->fire_rate_hz, 3));
+
+	return finish(root, 0, out);
+}
+
+enum errcode
+render_site_station_text(const struct site_station *st, struct mbuf *out)
+{
+	mbuf_printf(out, "%s (%s)\n", st->name, st->code);
+	mbuf_printf(out, "  %-22s %.6f, %.6f deg, %.1f m (WGS84)\n", "position",
+	    st->lat_deg, st->lon_deg, st->height_m);
+	mbuf_printf(out, "  %-22s %s\n", "time zone", st->time_zone);
+	mbuf_printf(out, "  %-22s %.1f deg\n", "min target elevation",
+	    st->min_el_deg);
+	mbuf_printf(out, "  %-22s %.1f deg\n", "max sun elevation",
+	    st->max_sun_el_deg);
+	mbuf_printf(out, "  %-22s %.1f deg\n", "min sun-moon separation",
+	    st->min_sun_sep_deg);
+	mbuf_printf(out, "  %-22s %.1f hPa, %.1f C, %.0f %% humidity\n",
+	    "weather defaults", st->pressure_hpa, st->temperature_c,
+	    st->humidity * 100.0);
+	mbuf_printf(out, "  %-22s %.1f nm, %.1f Hz, zenith tau %.3f\n", "laser",
+	    st->wavelength_nm, st->fire_rate_hz, st->zenith_tau);
+	return mbuf_status(out);
+}
+
+/* --- targets -------------------------------------------------------------- */
+
+enum errcode
+render_site_targets_json(const struct site_target *t, size_t n,
+    struct mbuf *out)
+{
+	json_t *arr, *root = wrapper("targets", &arr);
+	int failed = root == NULL;
+
+	for (size_t i = 0; i < n && !failed; i++)
+		failed = json_array_append_new(arr, json_pack("{s:s, s:s, s:s, "
+		    "s:o, s:o, s:o, s:o, s:b, s:b}",
+		    "id", t[i].id,
+		    "name", t[i].name,
+		    "alias", t[i].alias,
+		    "lat_deg", render_json_num(t[i].lat_deg, 6),
+		    "lon_deg", render_json_num(t[i].lon_deg, 6),
+		    "height_m", render_json_num(t[i].height_m, 2),
+		    "strength", render_json_num(t[i].strength, 4),
+		    "dark_only", t[i].dark_only,
+		    "active", t[i].active)) != 0;
+	return finish(root, failed, out);
+}
+
+enum errcode
+render_site_targets_text(const struct site_target *t, size_t n,
+    struct mbuf *out)
+{
+	mbuf_printf(out, "%-12s %-24s %-12s %8s %9s %6s %-5s %s\n", "id",
+	    "name", "alias", "lat", "lon", "str", "dark", "state");
+	for (size_t i = 0; i < n; i++)
+		mbuf_printf(out, "%-12.12s %-24.24s %-12.12s %8.3f %9.3f %6.2f "
+		    "%-5s %s\n", t[i].id, t[i].name, t[i].alias, t[i].lat_deg,
+		    t[i].lon_deg, t[i].strength, t[i].dark_only ? "yes" : "no",
+		    t[i].active ? "active" : "retired");
+	if (n == 0)
+		mbuf_puts(out, "(no targets)\n");
+	return mbuf_status(out);
+}
+
+/* --- blackouts ------------------------------------------------------------ */
+
+enum errcode
+render_site_blackouts_json(const struct site_blackout *b, size_t n,
+    struct mbuf *out)
+{
+	json_t *arr, *root = wrapper("blackouts", &arr);
+	int failed = root == NULL;
+
+	for (size_t i = 0; i < n && !failed; i++)
+		failed = json_array_append_new(arr, json_pack("{s:I, s:o, s:o, "
+		    "s:s}", "id", (json_int_t)b[i].id,
+		    "start_utc", jtime(b[i].start_mjd, 3),
+		    "end_utc", jtime(b[i].end_mjd, 3),
+		    "reason", b[i].reason)) != 0;
+	return finish(root, failed, out);
+}
+
+enum errcode
+render_site_blackouts_text(const struct site_blackout *b, size_t n,
+    struct mbuf *out)
+{
+	char t0[40], t1[40];
+
+	mbuf_printf(out, "%5s %-20s %-20s %s\n", "id", "start UTC", "end UTC",
+	    "reason");
+	for (size_t i = 0; i < n; i++) {
+		text_time(b[i].start_mjd, 0, t0, sizeof t0);
+		text_time(b[i].end_mjd, 0, t1, sizeof t1);
+		mbuf_printf(out, "%5ld %-20s %-20s %s\n", b[i].id, t0, t1,
+		    b[i].reason);
+	}
+	if (n == 0)
+		mbuf_puts(out, "(no blackouts)\n");
+	return mbuf_status(out);
+}

@@ -1,0 +1,656 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* web.c: libmicrohttpd glue: requests to the API and static files, with limits. */
+#define _XOPEN_SOURCE 700	/* realpath */
+#include <arpa/inet.h>
+#include <errno.h>
+#include <limits.h>
+#include <netinet/in.h>
+#include <pthread.h>
+#include <stdatomic.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+#include <sys/socket.h>
+#include <sys/stat.h>
+#include <time.h>
+#include <unistd.h>
+
+#include <microhttpd.h>
+
+#include "http/log.h"
+#include "core/tscale.h"
+#include "http/web.h"
+
+struct web_server {
+	struct MHD_Daemon *d;
+	struct api_ctx *ctx;
+	char root[PATH_MAX];		/* canonical web directory, "" none */
+	unsigned port;
+	int loopback;			/* bound to a loopback address */
+	atomic_int inflight;		/* requests between start and reply */
+	/* libmicrohttpd's messages: a repeat within WEB_LOG_REPEAT_S of
+	   the same text is counted, not logged (a flood of refused
+	   connections must not flood the event log). */
+	pthread_mutex_t log_lock;
+	char log_last[512];
+	double log_last_s;		/* monotonic time of log_last */
+	unsigned long log_repeats;	/* repeats of log_last not logged */
+};
+
+#define WEB_LOG_REPEAT_S 10.0
+
+/* Per-request state, kept in MHD's *con_cls until the request completes. */
+struct web_conn {
+	struct mbuf body;
+	size_t total;			/* bytes received, kept or not */
+	int too_large;			/* over API_BODY_MAX: stop keeping */
+	int started;			/* the first callback has run */
+	struct timespec t0;
+};
+
+/* --- the fixed MIME table --- */
+
+static const struct {
+	const char *ext;
+	const char *type;
+} mime_table[] = {
+	{".html", "text/html; charset=utf-8"},
+	{".css", "text/css; charset=utf-8"},
+	{".js", "text/javascript; charset=utf-8"},
+	{".svg", "image/svg+xml"},
+	{".png", "image/png"},
+	{".ico", "image/x-icon"},
+	{".txt", "text/plain; charset=utf-8"},
+	{".json", "application/json"},
+};
+
+static const char *
+mime_of(const char *path)
+{
+	const char *dot = strrchr(path, '.');
+
+	if (dot == NULL || strchr(dot, '/') != NULL)
+		return NULL;
+	for (size_t i = 0; i < sizeof mime_table / sizeof mime_table[0]; i++)
+		if (strcmp(dot, mime_table[i].ext) == 0)
+			return mime_table[i].type;
+	return NULL;
+}
+
+/* --- helpers --- */
+
+static int
+segment_ok(const char *s, size_t n)
+{
+	if (n == 0 || s[0] == '.')
+		return 0;
+	for (size_t i = 0; i < n; i++) {
+		char c = s[i];
+
+		if (!((c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') ||
+		    (c >= '0' && c <= '9') || c == '.' || c == '_' || c == '-'))
+			return 0;
+	}
+	return 1;
+}
+
+enum errcode
+web_static_resolve(const char *root, const char *url_path, char *out,
+    size_t outlen, const char **mime)
+{
+	char joined[PATH_MAX], canon[PATH_MAX];
+	const char *rel, *p;
+	size_t rootlen = strlen(root);
+	struct stat st;
+	int n;
+
+	if (root[0] != '/' || url_path == NULL || url_path[0] != '/')
+		return ERRCODE_NOT_FOUND;
+	rel = strcmp(url_path, "/") == 0 ? "index.html" : url_path + 1;
+	if (strlen(rel) > 200)
+		return ERRCODE_NOT_FOUND;
+	for (p = rel;;) {
+		const char *slash = strchr(p, '/');
+		size_t len = slash ? (size_t)(slash - p) : strlen(p);
+
+		if (!segment_ok(p, len))
+			return ERRCODE_NOT_FOUND;
+		if (slash == NULL)
+			break;
+		p = slash + 1;
+	}
+	n = snprintf(joined, sizeof joined, "%s/%s", root, rel);
+	if (n < 0 || (size_t)n >= sizeof joined)
+		return ERRCODE_NOT_FOUND;
+	/* Resolve symlinks; the result must still be inside root. */
+	if (realpath(joined, canon) == NULL)
+		return ERRCODE_NOT_FOUND;
+	if (strncmp(canon, root, rootlen) != 0 || canon[rootlen] != '/')
+		return ERRCODE_NOT_FOUND;
+	if (stat(canon, &st) != 0 || !S_ISREG(st.st_mode))
+		return ERRCODE_NOT_FOUND;
+	if ((*mime = mime_of(canon)) == NULL)
+		return ERRCODE_NOT_FOUND;
+	if (strlen(canon) >= outlen)
+		return ERRCODE_NOT_FOUND;
+	strcpy(out, canon);
+	return ERRCODE_OK;
+}
+
+int
+web_is_loopback(const char *addr)
+{
+	struct in_addr a4;
+	struct in6_addr a6;
+
+	if (inet_pton(AF_INET, addr, &a4) == 1)
+		return (ntohl(a4.s_addr) >> 24) == 127;
+	if (inet_pton(AF_INET6, addr, &a6) == 1)
+		return IN6_IS_ADDR_LOOPBACK(&a6);
+	return 0;
+}
+
+enum errcode
+web_parse_listen(const char *s, char *addr, size_t addrlen, unsigned *port,
+    char *errbuf, size_t errlen)
+{
+	const char *colon, *a = s, *pstr;
+	size_t alen;
+	char tmp[64], *end;
+	unsigned long p;
+	struct in_addr a4;
+	struct in6_addr a6;
+
+	if (s == NULL || *s == '\0')
+		goto bad;
+	if (s[0] == '[') {
+		const char *close = strchr(s, ']');
+
+		if (close == NULL || close[1] != ':')
+			goto bad;
+		a = s + 1;
+		alen = (size_t)(close - a);
+		pstr = close + 2;
+	} else {
+		colon = strrchr(s, ':');
+		if (colon == NULL || strchr(s, ':') != colon)
+			goto bad;
+		alen = (size_t)(colon - s);
+		pstr = colon + 1;
+	}
+	if (alen == 0) {
+		a = WEB_DEFAULT_ADDR;
+		alen = strlen(a);
+	}
+	if (alen >= sizeof tmp || alen >= addrlen)
+		goto bad;
+	memcpy(tmp, a, alen);
+	tmp[alen] = '\0';
+	if (inet_pton(AF_INET, tmp, &a4) != 1 &&
+	    inet_pton(AF_INET6, tmp, &a6) != 1) {
+		snprintf(errbuf, errlen, "--listen '%s': '%s' is not a numeric "
+		    "IPv4 or IPv6 address", s, tmp);
+		return ERRCODE_BAD_ARG;
+	}
+	errno = 0;
+	p = strtoul(pstr, &end, 10);
+	if (*pstr == '\0' || *pstr == '-' || *end != '\0' || errno != 0 ||
+	    p > 65535) {
+		snprintf(errbuf, errlen, "--listen '%s': port must be a number "
+		    "in 0..65535", s);
+		return ERRCODE_BAD_ARG;
+	}
+	strcpy(addr, tmp);
+	*port = (unsigned)p;
+	return ERRCODE_OK;
+bad:
+	snprintf(errbuf, errlen, "--listen '%s': expected ADDR:PORT, "
+	    "[IPV6]:PORT or :PORT", s ? s : "");
+	return ERRCODE_BAD_ARG;
+}
+
+int
+web_host_is_local(const char *host)
+{
+	char name[64];
+	const char *end;
+	size_t n;
+
+	if (host == NULL || *host == '\0')
+		return 0;
+	if (host[0] == '[') {			/* [v6]:port */
+		end = strchr(host, ']');
+		if (end == NULL)
+			return 0;
+		n = (size_t)(end - host - 1);
+		host++;
+		end++;
+	} else {
+		end = strchr(host, ':');
+		n = end ? (size_t)(end - host) : strlen(host);
+		end = host + n;
+	}
+	if (*end != '\0' && (*end != ':' || end[1] == '\0' ||
+	    strspn(end + 1, "0123456789") != strlen(end + 1)))
+		return 0;
+	if (n == 0 || n >= sizeof name)
+		return 0;
+	memcpy(name, host, n);
+	name[n] = '\0';
+	return strcasecmp(name, "localhost") == 0 || web_is_loopback(name);
+}
+
+/* --- responses --- */
+
+/*
+ * The policy of every response.  An SVG opened on its own is a document
+ * under this policy too; the chart's fixed <style> block (render_cov.c)
+ * would be refused, so SVG answers also allow inline style (never
+ * script: default-src 'self' still holds).
+ */
+static const char *
+csp_of(const char *ctype)
+{
+	if (ctype != NULL && strncmp(ctype, "image/svg+xml", 13) == 0)
+		return "default-src 'self'; style-src 'self' 'unsafe-inline'";
+	return "default-src 'self'";
+}
+
+static void
+add_common_headers(struct MHD_Response *r, int api, const char *ctype)
+{
+	MHD_add_response_header(r, "Content-Security-Policy", csp_of(ctype));
+	MHD_add_response_header(r, "X-Content-Type-Options", "nosniff");
+	MHD_add_response_header(r, "Referrer-Policy", "no-referrer");
+	MHD_add_response_header(r, "X-Frame-Options", "DENY");
+	MHD_add_response_header(r, "Cache-Control",
+	    api ? "no-store" : "no-cache");
+}
+
+static enum MHD_Result
+send_response(struct MHD_Connection *conn, const struct api_response *ar,
+    int api)
+{
+	struct MHD_Response *r;
+	enum MHD_Result ret;
+
+	r = MHD_create_response_from_buffer(ar->body.len,
+	    ar->body.data ? ar->body.data : (char *)"", MHD_RESPMEM_MUST_COPY);
+	if (r == NULL)
+		return MHD_NO;
+	MHD_add_response_header(r, "Content-Type", ar->content_type);
+	add_common_headers(r, api, ar->content_type);
+	if (ar->location[0] != '\0')
+		MHD_add_response_header(r, "Location", ar->location);
+	if (ar->allow[0] != '\0')
+		MHD_add_response_header(r, "Allow", ar->allow);
+	if (ar->status == 401)
+		MHD_add_response_header(r, "WWW-Authenticate",
+		    "Bearer realm=\"moonrange\"");
+	ret = MHD_queue_response(conn, ar->status, r);
+	MHD_destroy_response(r);
+	return ret;
+}
+
+/* Read a static file into resp (200), or set a 404 JSON error. */
+static void
+serve_static(struct web_server *s, const char *url, struct api_response *ar)
+{
+	char path[PATH_MAX];
+	const char *mime;
+	FILE *f = NULL;
+	struct stat st;
+	char *buf = NULL;
+
+	if (s->root[0] == '\0' ||
+	    web_static_resolve(s->root, url, path, sizeof path, &mime) !=
+	    ERRCODE_OK)
+		goto notfound;
+	if ((f = fopen(path, "rb")) == NULL || fstat(fileno(f), &st) != 0 ||
+	    !S_ISREG(st.st_mode) || st.st_size > WEB_STATIC_MAX)
+		goto notfound;
+	buf = mem_alloc((size_t)st.st_size + 1);
+	if (buf == NULL) {
+		fclose(f);
+		api_error(ar, ERRCODE_NOMEM, NULL, NULL);
+		return;
+	}
+	if (fread(buf, 1, (size_t)st.st_size, f) != (size_t)st.st_size)
+		goto notfound;
+	mbuf_add(&ar->body, buf, (size_t)st.st_size);
+	mem_free(buf);
+	fclose(f);
+	if (mbuf_status(&ar->body) != ERRCODE_OK) {
+		api_error(ar, ERRCODE_NOMEM, NULL, NULL);
+		return;
+	}
+	ar->status = 200;
+	ar->content_type = mime;
+	return;
+notfound:
+	mem_free(buf);
+	if (f != NULL)
+		fclose(f);
+	api_error(ar, ERRCODE_NOT_FOUND, NULL, "no such page");
+}
+
+/* --- request collection --- */
+
+static enum MHD_Result
+collect_param(void *cls, enum MHD_ValueKind kind, const char *key,
+    const char *value)
+{
+	struct api_request *req = cls;
+
+	(void)kind;
+	if (req->nparams == API_MAX_PARAMS) {
+		req->params_overflow = 1;
+		return MHD_NO;
+	}
+	req->params[req->nparams].key = key ? key : "";
+	req->params[req->nparams].value = value ? value : "";
+	req->nparams++;
+	return MHD_YES;
+}
+
+static int
+is_api_path(const char *url)
+{
+	return strcmp(url, "/api") == 0 || strncmp(url, "/api/", 5) == 0;
+}
+
+static double
+ms_since(const struct timespec *t0)
+{
+	struct timespec t;
+
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	return (double)(t.tv_sec - t0->tv_sec) * 1e3 +
+	    (double)(t.tv_nsec - t0->tv_nsec) / 1e6;
+}
+
+static enum MHD_Result
+on_request(void *cls, struct MHD_Connection *conn, const char *url,
+    const char *method, const char *version, const char *upload_data,
+    size_t *upload_data_size, void **con_cls)
+{
+	struct web_server *s = cls;
+	struct web_conn *wc = *con_cls;
+	struct api_request req;
+	struct api_response ar;
+	struct timespec now;
+	enum MHD_Result ret;
+	int api = is_api_path(url);
+
+	(void)version;
+	if (wc == NULL) {
+		const char *cl;
+
+		if ((wc = mem_calloc(1, sizeof *wc)) == NULL)
+			return MHD_NO;
+		mbuf_init(&wc->body);
+		clock_gettime(CLOCK_MONOTONIC, &wc->t0);
+		*con_cls = wc;
+		atomic_fetch_add(&s->inflight, 1);
+		/* A declared length over the cap is refused before reading. */
+		cl = MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+		    MHD_HTTP_HEADER_CONTENT_LENGTH);
+		if (cl != NULL && strtoull(cl, NULL, 10) > API_BODY_MAX)
+			wc->too_large = 1;
+		else
+			return MHD_YES;
+	}
+	if (*upload_data_size != 0) {
+		size_t n = *upload_data_size;
+
+		wc->total += n;
+		if (!wc->too_large && wc->total > API_BODY_MAX) {
+			wc->too_large = 1;
+			mbuf_free(&wc->body);
+		}
+		if (!wc->too_large)
+			mbuf_add(&wc->body, upload_data, n);
+		*upload_data_size = 0;
+		return MHD_YES;
+	}
+
+	memset(&req, 0, sizeof req);
+	req.method = method;
+	req.path = url;
+	MHD_get_connection_values(conn, MHD_GET_ARGUMENT_KIND, collect_param,
+	    &req);
+	req.authorization = MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_AUTHORIZATION);
+	req.content_type = MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_CONTENT_TYPE);
+	req.body = wc->body.data;
+	req.body_len = wc->body.len;
+	req.body_too_large = wc->too_large;
+	clock_gettime(CLOCK_REALTIME, &now);
+	if (tscale_from_posix((double)now.tv_sec + (double)now.tv_nsec / 1e9,
+	    &req.now1, &req.now2) != ERRCODE_OK) {
+		req.now1 = 2451545.0;	/* unreachable for a sane clock */
+		req.now2 = 0.0;
+	}
+	if (mbuf_status(&wc->body) != ERRCODE_OK) {
+		api_response_init(&ar);
+		api_error(&ar, ERRCODE_NOMEM, NULL, NULL);
+	} else if (s->loopback && !web_host_is_local(
+	    MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_HOST))) {
+		/* A page of another site reaching us by a rebound name. */
+		api_response_init(&ar);
+		api_error(&ar, ERRCODE_BAD_ARG, "Host", "a daemon on loopback "
+		    "answers only Host: localhost or a loopback address");
+	} else if (api) {
+		api_handle(s->ctx, &req, &ar);
+	} else if (strcmp(method, "GET") == 0 || strcmp(method, "HEAD") == 0) {
+		api_response_init(&ar);
+		if (req.nparams > 0 || req.body_too_large)
+			api_error(&ar, req.body_too_large ? ERRCODE_TOO_LARGE :
+			    ERRCODE_BAD_ARG, NULL, "pages take no query or body");
+		else
+			serve_static(s, url, &ar);
+	} else {
+		api_response_init(&ar);
+		api_error(&ar, ERRCODE_METHOD, NULL, "pages allow GET and HEAD");
+		snprintf(ar.allow, sizeof ar.allow, "GET, HEAD");
+	}
+	ret = send_response(conn, &ar, api);
+	if (ar.status >= 500)
+		log_error("%s %s -> %u (%.1f ms)", method, url, ar.status,
+		    ms_since(&wc->t0));
+	else if (ar.status >= 400 || strcmp(method, "GET") != 0)
+		log_info("%s %s -> %u (%.1f ms)", method, url, ar.status,
+		    ms_since(&wc->t0));
+	else
+		log_debug("%s %s -> %u (%.1f ms)", method, url, ar.status,
+		    ms_since(&wc->t0));
+	api_response_free(&ar);
+	return ret;
+}
+
+static void
+on_completed(void *cls, struct MHD_Connection *conn, void **con_cls,
+    enum MHD_RequestTerminationCode toe)
+{
+	struct web_server *s = cls;
+	struct web_conn *wc = *con_cls;
+
+	(void)conn;
+	(void)toe;
+	if (wc == NULL)
+		return;
+	mbuf_free(&wc->body);
+	mem_free(wc);
+	*con_cls = NULL;
+	atomic_fetch_sub(&s->inflight, 1);
+}
+
+/* Say how many repeats of the last message were not logged. */
+static void
+mhd_log_flush(struct web_server *s)
+{
+	unsigned long n;
+	char last[sizeof s->log_last];
+
+	pthread_mutex_lock(&s->log_lock);
+	n = s->log_repeats;
+	s->log_repeats = 0;
+	memcpy(last, s->log_last, sizeof last);
+	pthread_mutex_unlock(&s->log_lock);
+	if (n > 0)
+		log_warn("http: %s (%lu more times)", last, n);
+}
+
+/* libmicrohttpd's own messages, routed into the event log. */
+static void mhd_logger(void *cls, const char *fmt, va_list ap)
+    MEM_PRINTFLIKE(2, 0);
+
+static void
+mhd_logger(void *cls, const char *fmt, va_list ap)
+{
+	struct web_server *s = cls;
+	struct timespec t;
+	char msg[sizeof s->log_last], prev[sizeof s->log_last];
+	unsigned long repeats;
+	double now;
+	size_t n;
+
+	vsnprintf(msg, sizeof msg, fmt, ap);
+	n = strlen(msg);
+	while (n > 0 && (msg[n - 1] == '\n' || msg[n - 1] == '\r'))
+		msg[--n] = '\0';
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	now = (double)t.tv_sec + (double)t.tv_nsec / 1e9;
+	pthread_mutex_lock(&s->log_lock);
+	if (strcmp(msg, s->log_last) == 0 &&
+	    now - s->log_last_s < WEB_LOG_REPEAT_S) {
+		s->log_repeats++;
+		pthread_mutex_unlock(&s->log_lock);
+		return;
+	}
+	repeats = s->log_repeats;
+	memcpy(prev, s->log_last, sizeof prev);
+	memcpy(s->log_last, msg, n + 1);
+	s->log_last_s = now;
+	s->log_repeats = 0;
+	pthread_mutex_unlock(&s->log_lock);
+	if (repeats > 0)
+		log_warn("http: %s (%lu more times)", prev, repeats);
+	log_warn("http: %s", msg);
+}
+
+/* --- start and stop --- */
+
+enum errcode
+web_start(const struct web_config *cfg, struct api_ctx *ctx,
+    struct web_server **out, char *errbuf, size_t errlen)
+{
+	struct web_server *s;
+	struct sockaddr_in sa4;
+	struct sockaddr_in6 sa6;
+	struct sockaddr *sa;
+	const union MHD_DaemonInfo *info;
+	unsigned flags = MHD_USE_AUTO_INTERNAL_THREAD | MHD_USE_ITC |
+	    MHD_USE_ERROR_LOG;
+	const char *addr = cfg->addr ? cfg->addr : WEB_DEFAULT_ADDR;
+
+	*out = NULL;
+	if ((s = mem_calloc(1, sizeof *s)) == NULL)
+		return ERRCODE_NOMEM;
+	s->ctx = ctx;
+	atomic_init(&s->inflight, 0);
+	if (pthread_mutex_init(&s->log_lock, NULL) != 0) {
+		mem_free(s);
+		return ERRCODE_NOMEM;
+	}
+	if (cfg->web_dir != NULL) {
+		struct stat st;
+
+		if (realpath(cfg->web_dir, s->root) == NULL ||
+		    stat(s->root, &st) != 0 || !S_ISDIR(st.st_mode)) {
+			snprintf(errbuf, errlen, "--web '%s': not a directory",
+			    cfg->web_dir);
+			pthread_mutex_destroy(&s->log_lock);
+			mem_free(s);
+			return ERRCODE_IO;
+		}
+	}
+	memset(&sa4, 0, sizeof sa4);
+	memset(&sa6, 0, sizeof sa6);
+	if (inet_pton(AF_INET, addr, &sa4.sin_addr) == 1) {
+		sa4.sin_family = AF_INET;
+		sa4.sin_port = htons((uint16_t)cfg->port);
+		sa = (struct sockaddr *)&sa4;
+	} else if (inet_pton(AF_INET6, addr, &sa6.sin6_addr) == 1) {
+		sa6.sin6_family = AF_INET6;
+		sa6.sin6_port = htons((uint16_t)cfg->port);
+		sa = (struct sockaddr *)&sa6;
+		flags |= MHD_USE_IPv6;
+	} else {
+		snprintf(errbuf, errlen, "'%s' is not a numeric address", addr);
+		pthread_mutex_destroy(&s->log_lock);
+		mem_free(s);
+		return ERRCODE_BAD_ARG;
+	}
+	s->d = MHD_start_daemon(flags, (uint16_t)cfg->port, NULL, NULL,
+	    on_request, s,
+	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, s,
+	    MHD_OPTION_SOCK_ADDR, sa,
+	    MHD_OPTION_THREAD_POOL_SIZE,
+	    (unsigned)(cfg->threads ? cfg->threads : 4),
+	    MHD_OPTION_CONNECTION_LIMIT,
+	    (unsigned)(cfg->connection_limit ? cfg->connection_limit : 64),
+	    MHD_OPTION_PER_IP_CONNECTION_LIMIT,
+	    (unsigned)(cfg->per_ip_limit ? cfg->per_ip_limit : 32),
+	    MHD_OPTION_CONNECTION_TIMEOUT,
+	    (unsigned)(cfg->timeout_s ? cfg->timeout_s : 15),
+	    MHD_OPTION_CONNECTION_MEMORY_LIMIT,
+	    (size_t)(cfg->memory_limit ? cfg->memory_limit : 128 * 1024),
+	    MHD_OPTION_NOTIFY_COMPLETED, on_completed, s,
+	    MHD_OPTION_END);
+	if (s->d == NULL) {
+		snprintf(errbuf, errlen, "cannot listen on %s port %u: %s",
+		    addr, cfg->port, errno ? strerror(errno) :
+		    "libmicrohttpd refused the options");
+		pthread_mutex_destroy(&s->log_lock);
+		mem_free(s);
+		return ERRCODE_IO;
+	}
+	s->loopback = web_is_loopback(addr);
+	info = MHD_get_daemon_info(s->d, MHD_DAEMON_INFO_BIND_PORT);
+	s->port = info != NULL ? info->port : cfg->port;
+	*out = s;
+	return ERRCODE_OK;
+}
+
+unsigned
+web_port(const struct web_server *s)
+{
+	return s->port;
+}
+
+void
+web_stop(struct web_server *s, double grace_s)
+{
+	struct timespec t0, tick = {0, 20 * 1000 * 1000};
+	MHD_socket fd;
+
+	if (s == NULL)
+		return;
+	fd = MHD_quiesce_daemon(s->d);
+	if (fd != MHD_INVALID_SOCKET)
+		close(fd);
+	clock_gettime(CLOCK_MONOTONIC, &t0);
+	while (atomic_load(&s->inflight) > 0 && ms_since(&t0) < grace_s * 1e3)
+		nanosleep(&tick, NULL);
+	if (atomic_load(&s->inflight) > 0)
+		log_warn("stopping with %d request(s) still open",
+		    atomic_load(&s->inflight));
+	MHD_stop_daemon(s->d);
+	mhd_log_flush(s);
+	pthread_mutex_destroy(&s->log_lock);
+	mem_free(s);
+}

@@ -1,0 +1,145 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* cli_store.h: what the commands working on the station database share:
+   opening it, loading the site, deriving angles before an insert, files. */
+#ifndef MOONRANGE_CLI_STORE_H
+#define MOONRANGE_CLI_STORE_H
+
+#include <stddef.h>
+#include <stdio.h>
+
+#include "core/eop.h"
+#include "core/geom.h"
+#include "formats/import.h"
+#include "core/mem.h"
+#include "core/site.h"
+#include "store/store.h"
+
+/*
+ * A command's view of the database: the connection, and once loaded the
+ * station, every target and the EOP table (for derive.h).  Functions
+ * returning int return a CLI_EXIT_* status and have already printed the
+ * one-line error.
+ */
+struct cli_store {
+	struct store *s;
+	const char *path;
+	struct site_station station;
+	struct site_target *targets;	/* all, active or not */
+	size_t ntargets;
+	struct site_eop_row *eop;
+	size_t neop;
+};
+
+/*
+ * The action word of a command with actions ("log add"): argv[1] must be
+ * one of actions[] (NULL-ended).  Returns -1 with *which set (index into
+ * actions) to go on, or an exit status: CLI_EXIT_OK after printing the
+ * usage for --help, CLI_EXIT_USAGE (error printed) for a missing or
+ * unknown action.
+ */
+int cli_store_action(int argc, char **argv, const char *const *actions,
+    void (*usage)(FILE *), int *which);
+
+/* Open --db (NULL: error "--db FILE is required"); flags of store_open. */
+int cli_store_open(struct cli_store *c, const char *db, int flags);
+
+/* Print "moonrange: error: ..." and return the exit status of rc
+   (CLI_EXIT_USAGE for bad input, CLI_EXIT_FAIL otherwise). */
+int cli_store_fail(enum errcode rc, const char *fmt, ...)
+    MEM_PRINTFLIKE(2, 3);
+
+/* Load station, targets and EOP table (the station must exist). */
+int cli_store_load(struct cli_store *c);
+
+/* Free what was loaded and close; c may be half-filled or zeroed. */
+void cli_store_close(struct cli_store *c);
+
+/* The loaded target with this id, or NULL. */
+const struct site_target *cli_store_target(const struct cli_store *c,
+    const char *id);
+
+/* Earth orientation at a UTC MJD from the loaded table (eop_lookup). */
+enum eop_source cli_store_eop_at(const struct cli_store *c, double mjd,
+    struct geom_eop *out);
+
+/*
+ * Fill the derived angles of an attempt (its target must be loaded) or a
+ * normal point.  ERRCODE_NOT_FOUND for an unknown target; errbuf names
+ * the field.
+ */
+enum errcode cli_store_derive_attempt(const struct cli_store *c,
+    struct site_attempt *a, char *errbuf, size_t errlen);
+enum errcode cli_store_derive_np(const struct cli_store *c,
+    struct site_normal_point *np, char *errbuf, size_t errlen);
+
+/*
+ * Read a whole file into a new NUL-terminated buffer (free with
+ * mem_free).  Files over max bytes are refused (ERRCODE_TOO_LARGE).
+ * errbuf names the file.
+ */
+#define CLI_STORE_MAX_FILE (256u * 1024u * 1024u)
+enum errcode cli_store_read_file(const char *path, size_t max, char **out,
+    size_t *len, char *errbuf, size_t errlen);
+
+/*
+ * Add a bad record to an import report (errors of the store, unknown
+ * targets) so that it is printed with the parser's, by line.
+ */
+void cli_store_rep_add(struct import_report *rep, size_t line,
+    const char *field, const char *fmt, ...) MEM_PRINTFLIKE(4, 5);
+
+/* Print every kept error of rep as "moonrange: error: FILE:LINE: ..."
+   and a count of those not kept. */
+void cli_store_rep_print(const struct import_report *rep, const char *file);
+
+/*
+ * Importers of whole files into an open, loaded store, inside the
+ * caller's transaction (so init can load a site all or nothing).  Each
+ * parses buf with import.h, derives the stored angles and inserts; every
+ * bad record is reported (with the parser's) by file and line, and then
+ * the status is CLI_EXIT_USAGE and the caller must roll back.  Records
+ * already stored are counted as present and left alone.  Long files get
+ * progress lines on stderr.  Targets and EOP rows reload the site so that
+ * later files see them.
+ */
+struct cli_store_counts {
+	size_t read;			/* good records in the file */
+	size_t added;			/* stored now */
+	size_t present;			/* already stored, skipped */
+	size_t unused;			/* record types not used (CRD) */
+};
+
+int cli_store_import_station(struct cli_store *c, const char *file,
+    const char *buf, size_t len);
+int cli_store_import_targets(struct cli_store *c, const char *file,
+    const char *buf, size_t len, struct cli_store_counts *n);
+int cli_store_import_attempts(struct cli_store *c, const char *file,
+    const char *buf, size_t len, struct cli_store_counts *n);
+/* CRD normal points; prints one summary line per target to stdout
+   unless quiet. */
+int cli_store_import_crd(struct cli_store *c, const char *file,
+    const char *buf, size_t len, int quiet, struct cli_store_counts *n);
+/* IERS finals (c04 = 0) or C04 (c04 = 1). */
+int cli_store_import_eop(struct cli_store *c, const char *file,
+    const char *buf, size_t len, int c04, struct cli_store_counts *n);
+
+/* Read a file and run one of the above in its own transaction.
+   kind: 'a' attempts, 'n' CRD, 'e' finals, 'c' C04. */
+int cli_store_import_file(struct cli_store *c, const char *file, int kind,
+    struct cli_store_counts *n);
+
+/* The loaded target whose alias is name, else whose id is name. */
+const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
+    const char *name);
+
+/* Warn (stderr) when the station's time zone is not in this system's
+   zone database: its tables then show UTC only. */
+void cli_store_warn_zone(const struct site_station *st);
+
+/* A yes/no option value ("yes", "no", "1", "0", "true", "false"). */
+enum errcode cli_store_parse_bool(const char *s, int *out);
+
+/* A UTC option ("now" or ISO 8601) as an MJD; prints the error. */
+int cli_store_parse_mjd(const char *opt, const char *s, double *mjd);
+
+#endif

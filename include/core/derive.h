@@ -1,0 +1,78 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* derive.h: the angles stored with each attempt and normal point, computed
+   by the geometry core (pure). */
+#ifndef MOONRANGE_DERIVE_H
+#define MOONRANGE_DERIVE_H
+
+#include "core/errcode.h"
+#include "core/geom.h"
+#include "core/site.h"
+
+/*
+ * The store records, beside each attempt (at its mid-time) and each normal
+ * point (at its epoch), the phase and pointing it was taken at, so that
+ * coverage audits never depend on recomputing.  Everything here is pure:
+ * the caller passes the station, the target and the Earth orientation
+ * (from eop_lookup, or zeros when no table covers the instant).
+ */
+
+struct derive_angles {
+	double synodic_deg;		/* Moon - Sun apparent ecliptic
+					   longitude, 0 <= x < 360 */
+	double mean_elong_deg;		/* Delaunay D, 0 <= x < 360 */
+	double target_el_deg;		/* geometric elevation of the target
+					   at the station, -90..90 */
+	double sun_el_target_deg;	/* Sun above the target's lunar
+					   horizon, -90..90 */
+};
+
+/*
+ * The geometry core's station from a station record (degrees to radians,
+ * the record's weather and wavelength for refraction).
+ * ERRCODE_BAD_ARG when the position or the weather is out of range.
+ */
+enum errcode derive_site(const struct site_station *st, struct geom_site *out);
+
+/*
+ * Angles of target t seen from station st at a UTC MJD.
+ *
+ * Given:
+ *   st       site_station    WGS84 station and its weather
+ *   t        site_target     selenographic position (deg, m)
+ *   eop      geom_eop        UT1-UTC (s) and polar motion (rad); NULL = 0
+ *   utc_mjd  double          UTC MJD (quasi-JD minus 2400000.5)
+ * Returned:
+ *   out      derive_angles   degrees, see above
+ * Returned (function value):
+ *   ERRCODE_OK; ERRCODE_BAD_ARG for a station or target out of range;
+ *   ERRCODE_BAD_TIME when ERFA cannot convert the time.
+ * Notes:
+ *   1) Computed with geom_instant_at at full precision (IAU 2006/2000A):
+ *      the Moon from eraMoon98, the Sun from eraEpv00, the lunar frame
+ *      from the IAU WGCCRE model (see geom.h for accuracy).
+ *   2) The elevation is geometric (airless); refraction is not applied,
+ *      so the stored value does not depend on the weather of the night.
+ *   3) The synodic angle and D depend on time only; the two elevations on
+ *      station and target too.
+ * References:
+ *   Archinal et al. 2011, Celest. Mech. Dyn. Astr. 109, 101 (lunar
+ *   orientation); IERS Conventions 2003 (Delaunay D).
+ * Called:
+ *   geom_site_init, geom_instant_at, geom_target_from_selen,
+ *   geom_target_view
+ */
+enum errcode derive_at(const struct site_station *st,
+    const struct site_target *t, const struct geom_eop *eop, double utc_mjd,
+    struct derive_angles *out);
+
+/* derive_at at the mid-time of an attempt; fills a's derived fields. */
+enum errcode derive_attempt(const struct site_station *st,
+    const struct site_target *t, const struct geom_eop *eop,
+    struct site_attempt *a);
+
+/* derive_at at the epoch of a normal point; fills np's derived fields. */
+enum errcode derive_normal_point(const struct site_station *st,
+    const struct site_target *t, const struct geom_eop *eop,
+    struct site_normal_point *np);
+
+#endif

@@ -1,0 +1,245 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* geom.h: topocentric geometry of the Moon, the Sun and lunar targets. */
+#ifndef MOONRANGE_GEOM_H
+#define MOONRANGE_GEOM_H
+
+#include <stddef.h>
+
+#include "core/errcode.h"
+#include "core/tscale.h"
+
+/*
+ * The pure geometry core.  Angles are radians, distances metres, times
+ * two-part JDs, unless a name says otherwise.  Nothing here allocates,
+ * reads a clock or does I/O.
+ *
+ * Work is split by what it depends on, so that callers evaluating many
+ * instants or many targets do each part once:
+ *
+ *   geom_site_init      station only          (once per station)
+ *   geom_bodies_at      TT only               (Moon, Sun, synodic angle)
+ *   geom_earth_at       TT, UT1, polar motion (Earth orientation)
+ *   geom_instant_make   the three above       (everything shared by targets)
+ *   geom_target_view    one instant, one target
+ *
+ * geom_instant_at() chains the first four for a single UTC instant.
+ */
+
+#define GEOM_MOON_RADIUS 1737400.0	/* IAU mean radius, m */
+#define GEOM_C 299792458.0		/* speed of light, m/s */
+
+/* --- station --- */
+
+/* Weather for refraction. */
+struct geom_weather {
+	double pressure_hpa;	/* at the station, hPa */
+	double temperature_c;	/* ambient, deg C */
+	double humidity;	/* relative, 0..1 */
+	double wavelength_um;	/* laser wavelength, micrometres */
+};
+
+struct geom_site {
+	double lat;		/* WGS84 geodetic latitude, rad, north + */
+	double lon;		/* longitude, rad, east + */
+	double height;		/* above the WGS84 ellipsoid, m */
+	struct geom_weather wx;	/* for apparent elevation */
+	/* Filled by geom_site_init: */
+	double itrs[3];		/* ITRS position, m */
+	double enu[3][3];	/* rows: east, north, up unit vectors (ITRS) */
+	double refa, refb;	/* eraRefco constants for wx, rad */
+};
+
+/*
+ * Standard weather at a height: pressure from an isothermal atmosphere
+ * (ERFA atco13 note 4), 15 C less 6.5 C per km, 50 % humidity, 532 nm.
+ */
+void geom_weather_standard(double height_m, struct geom_weather *wx);
+
+/* Validate and initialise a station; ERRCODE_BAD_ARG names no field, the
+   caller does (lat outside +-90 deg, height outside -500..10000 m, ...). */
+enum errcode geom_site_init(struct geom_site *site, double lat_rad,
+    double lon_rad, double height_m, const struct geom_weather *wx);
+
+/* --- Earth orientation --- */
+
+struct geom_eop {
+	double dut1;		/* UT1-UTC, s */
+	double xp, yp;		/* polar motion, rad */
+};
+
+enum geom_precision {
+	GEOM_PREC_FULL,		/* IAU 2006/2000A (eraPnm06a, eraGst06) */
+	GEOM_PREC_FAST		/* IAU 2000B (eraPnm00b, eraGst00b): < 1 mas
+				   from FULL over 1995-2050 */
+};
+
+struct geom_earth {
+	double rbpn[3][3];	/* GCRS -> true equator and equinox of date */
+	double rc2t[3][3];	/* GCRS -> ITRS */
+};
+
+void geom_earth_at(double tt1, double tt2, double ut11, double ut12,
+    const struct geom_eop *eop, enum geom_precision prec,
+    struct geom_earth *out);
+
+/* --- bodies (geocentric, depend on TT only) --- */
+
+struct geom_bodies {
+	double tt1, tt2;	/* TT of validity */
+	double moon_p[3];	/* Moon, GCRS, geometric, m */
+	double moon_v[3];	/* its velocity, m/s */
+	double sun_p[3];	/* Sun, GCRS, apparent (annual aberration), m */
+	double synodic;		/* apparent ecliptic longitude Moon - Sun,
+				   0..2pi, rad */
+	double mean_elong;	/* Delaunay D (IERS 2003), 0..2pi, rad */
+};
+
+enum errcode geom_bodies_at(double tt1, double tt2, struct geom_bodies *out);
+
+/*
+ * Synodic angle only, at TT (the cheap path for phase searches).
+ * Returns radians in 0..2pi.
+ */
+double geom_synodic_at(double tt1, double tt2);
+
+/* --- the instant --- */
+
+struct geom_moon_view {
+	double az, el;		/* topocentric, az from north through east;
+				   el geometric (airless) */
+	double el_apparent;	/* refracted with the site's weather */
+	double ha;		/* local hour angle, -pi..pi, west + */
+	double ra, dec;		/* topocentric apparent, true equator and
+				   equinox of date */
+	double range;		/* station to Moon centre, m */
+	double geocentric_range; /* m */
+	double phase_angle;	/* Sun-Moon-station angle */
+	double illuminated_fraction; /* (1 + cos i) / 2 */
+	double elongation;	/* Sun-Moon angle seen from the station */
+	double synodic;		/* see geom_bodies */
+	double mean_elong;	/* see geom_bodies */
+	double parallax;	/* horizontal parallax asin(Re / r), Re WGS84 */
+};
+
+struct geom_sun_view {
+	double az, el;		/* topocentric, geometric */
+	double separation;	/* Sun-Moon angle seen from the station */
+};
+
+struct geom_libration {
+	double geo_lon, geo_lat;	/* sub-Earth point, selenographic */
+	double topo_lon, topo_lat;	/* sub-station point */
+	double subsolar_lon, subsolar_lat; /* sub-solar point */
+	double colongitude;		/* 90 deg - subsolar_lon, 0..2pi */
+};
+
+struct geom_instant {
+	struct geom_site site;	/* copy of the station */
+	struct tscale_instant t;
+	struct geom_bodies b;
+	struct geom_earth e;
+	double site_gcrs[3];	/* station, GCRS, m */
+	double light_time;	/* one way, station to Moon centre, s */
+	double moon_topo[3];	/* Moon centre from station, GCRS, retarded, m */
+	double sun_topo[3];	/* Sun from station, GCRS, m */
+	double moon_ret[3];	/* geocentric Moon at t - light_time, m */
+	double lunar_rot[3][3];	/* GCRS -> lunar body-fixed (IAU 2009),
+				   at t - light_time */
+	struct geom_moon_view moon;
+	struct geom_sun_view sun;
+	struct geom_libration lib;
+};
+
+/*
+ * Combine station, time, bodies and Earth orientation into an instant.
+ * b and e must be valid for t (or interpolated to it by the caller).
+ */
+void geom_instant_make(const struct geom_site *site,
+    const struct tscale_instant *t, const struct geom_bodies *b,
+    const struct geom_earth *e, struct geom_instant *out);
+
+/* The whole chain for one UTC instant. */
+enum errcode geom_instant_at(const struct geom_site *site,
+    const struct geom_eop *eop, double utc1, double utc2,
+    enum geom_precision prec, struct geom_instant *out);
+
+/* --- lunar targets --- */
+
+struct geom_target {
+	double body[3];		/* lunar body-fixed (IAU mean-Earth approx.), m */
+};
+
+/* From selenographic latitude, east longitude (rad) and height above the
+   1737.4 km mean radius (m).  ERRCODE_BAD_ARG if out of range. */
+enum errcode geom_target_from_selen(double lat, double lon, double height,
+    struct geom_target *out);
+
+/* From body-fixed x, y, z in metres (norm within 1500..2000 km). */
+enum errcode geom_target_from_xyz(double x, double y, double z,
+    struct geom_target *out);
+
+struct geom_target_view {
+	double az, el;		/* topocentric, geometric */
+	double el_apparent;	/* refracted */
+	double range;		/* station to target, m */
+	double round_trip;	/* two-way light time, s (geometric, no
+				   atmosphere or relativity) */
+	double offset_ra;	/* (ra_t - ra_c) cos(dec_c), rad */
+	double offset_dec;	/* dec_t - dec_c, rad */
+	double sun_elevation;	/* Sun above the target's local horizon
+				   (sphere), rad */
+	int sunlit;		/* sun_elevation > 0 */
+	double earth_elevation;	/* station above the local horizon, rad */
+};
+
+void geom_target_view(const struct geom_instant *g,
+    const struct geom_target *t, struct geom_target_view *out);
+
+/* --- helpers shared with other modules --- */
+
+/* Apparent (refracted) elevation from geometric, eraRefco constants. */
+double geom_refract(double el, double refa, double refb);
+
+/* Angle wrapped into -pi..pi and 0..2pi. */
+double geom_wrap_pi(double a);
+double geom_wrap_2pi(double a);
+
+/* A function of one time (days) to search for a root; ctx is the caller's. */
+typedef double (*geom_root_fn)(void *ctx, double t);
+
+/*
+ * Root of f in [a, b] (a < b) where f(a) = fa and f(b) = fb differ in sign,
+ * by the Illinois variant of regula falsi, with a bisection step wherever
+ * an iterate would leave the bracket.  Stops at f = 0 or when the bracket
+ * is no wider than tol.  Sets *root; returns ERRCODE_NO_CONVERGE after
+ * maxit steps, *root then being the middle of the last bracket.
+ */
+enum errcode geom_root_illinois(geom_root_fn f, void *ctx, double a,
+    double fa, double b, double fb, double tol, int maxit, double *root);
+
+/* --- phases --- */
+
+enum geom_phase_kind {
+	GEOM_PHASE_NEW = 0,
+	GEOM_PHASE_FIRST_QUARTER,
+	GEOM_PHASE_FULL,
+	GEOM_PHASE_LAST_QUARTER
+};
+
+struct geom_phase_event {
+	enum geom_phase_kind kind;
+	double tt1, tt2;	/* TT of the event, to < 0.1 s */
+};
+
+/* "new", "first_quarter", "full", "last_quarter". */
+const char *geom_phase_name(enum geom_phase_kind kind);
+
+/*
+ * Every principal phase with TT in [from, to).  Writes at most cap events
+ * to out and sets *n to the number found (which may exceed cap: then the
+ * first cap are written and ERRCODE_TOO_LARGE returned).
+ */
+enum errcode geom_phases_find(double from1, double from2, double to1,
+    double to2, struct geom_phase_event *out, size_t cap, size_t *n);
+
+#endif

@@ -1,0 +1,211 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* score.h: the yield model learned from the log, coverage weights and the
+   ranking of observing windows (pure core). */
+#ifndef MOONRANGE_SCORE_H
+#define MOONRANGE_SCORE_H
+
+#include <stddef.h>
+
+#include "core/errcode.h"
+#include "core/geom.h"
+#include "core/site.h"
+#include "core/window.h"
+
+/*
+ * Expected yield rate of target j at time t (returns per second):
+ *
+ *   R_j(t) = q * r_j * exp(-2 tau X(h(t))) * (f_j if sunlit else 1)
+ *
+ * q the fire rate (shots/s), r_j returns per shot at the zenith in
+ * lunar darkness, f_j the sunlit/dark factor, tau the zenith optical
+ * depth (one way), X the Kasten & Young airmass at the target's
+ * elevation h.  Coverage weight of synodic-angle bin b:
+ *
+ *   W(b) = ((nbar + k) / (n_b + k))^alpha
+ *
+ * n_b the normal points in b (of the target, or pooled), nbar their mean
+ * over the bins.  Score of a window = integral of R_j(t) W(b(t)) dt.
+ * README ("Windows and ranking") writes out the estimators.
+ */
+
+#define SCORE_BINS_MIN 4
+#define SCORE_BINS_MAX 72
+
+struct score_settings {
+	int nbins;		/* synodic-angle bins, SCORE_BINS_MIN..MAX */
+	double alpha;		/* coverage-weight exponent, 0..4; 0 = off */
+	double k;		/* smoothing count, > 0 */
+	int per_target;		/* 1: n_b of the target; 0: pooled */
+	double prior_rate;	/* returns per shot at zenith, dark, for
+				   strength 1 with no history */
+	double prior_sunlit;	/* sunlit/dark factor with no history */
+	double prior_exposure;	/* prior weight, transmission-weighted shots */
+	double step_s;		/* quadrature step inside a window, s */
+};
+
+/* Defaults: 12 bins, alpha 1, k 1, pooled, prior rate 1e-3, prior
+   sunlit factor 0.5, prior exposure 2e4 shots, step 120 s. */
+void score_settings_default(struct score_settings *s);
+
+/* ERRCODE_BAD_ARG when a field is out of range; *field names it. */
+enum errcode score_settings_check(const struct score_settings *s,
+    const char **field);
+
+/* --- atmosphere --- */
+
+/*
+ * Relative optical airmass.
+ *
+ * Given:
+ *   el_rad  double  elevation of the target, rad (geometric)
+ * Returned (function value):
+ *   X, dimensionless; X(90 deg) = 1; elevations below 0 are taken as 0
+ *   (X = 38.1)
+ * Notes:
+ *   Kasten & Young's interpolation formula, within 0.1 % of their
+ *   tabulated model atmosphere (ISO 2533) to the horizon:
+ *     X = 1 / (sin h + 0.50572 (h + 6.07995)^-1.6364), h in degrees.
+ * References:
+ *   F. Kasten and A. T. Young, "Revised optical air mass tables and
+ *   approximation formula", Applied Optics 28, 4735-4738 (1989), eq. (3).
+ */
+double score_airmass(double el_rad);
+
+/* Two-way transmission exp(-2 tau X(el)). */
+double score_transmission(double tau, double el_rad);
+
+/* --- the yield model --- */
+
+struct score_yield {
+	double rate;		/* r_j, returns per shot at zenith, dark */
+	double sunlit_factor;	/* f_j */
+	double prior_rate;	/* the prior mean of r_j (strength x base) */
+	double dark_returns, dark_exposure;	/* sums over the log */
+	double lit_returns, lit_exposure;
+	long attempts;		/* attempts used */
+};
+
+struct score_model {
+	double base_rate;	/* pooled rate per unit strength */
+	double base_sunlit;	/* pooled sunlit factor */
+	long attempts_used, attempts_skipped;
+};
+
+/*
+ * Learn r_j and f_j for each target from the log.
+ *
+ * Given:
+ *   s          settings (priors)
+ *   tau        zenith optical depth at the laser wavelength, one way
+ *   targets    nt targets (their strength sets the prior)
+ *   att        na attempts (target_el_deg and sun_el_target_deg at the
+ *              mid-time, as the store computes them)
+ * Returned:
+ *   yield      nt entries, in the order of targets
+ *   model      the pooled quantities
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (tau < 0 or a strength <= 0)
+ * Notes:
+ *   1. Attempts used: outcome ranged or no_returns, shots > 0, target
+ *      elevation above 0; others (weather, technical, safety, other) say
+ *      nothing about the target and are skipped.  Exposure of an attempt
+ *      E = shots exp(-2 tau X(h)); it is dark when the Sun is below the
+ *      target's horizon, else sunlit.
+ *   2. Gamma-Poisson shrinkage, prior weight E0 = prior_exposure:
+ *        base = (prior_rate E0 + sum R_dark) / (E0 + sum s_j E_dark,j)
+ *        r_j  = (s_j base E0 + R_dark,j) / (E0 + E_dark,j)
+ *        fbase = (prior_sunlit E0 + sum R_lit,j / r_j) / (E0 + sum E_lit,j)
+ *        f_j  = (fbase E0 + R_lit,j / r_j) / (E0 + E_lit,j)
+ *      Each is the posterior mean of a Poisson rate under a gamma prior
+ *      with that mean and E0 shots of weight; as exposure grows the
+ *      estimate tends to the observed rate.
+ * Called:
+ *   score_transmission
+ */
+enum errcode score_fit(const struct score_settings *s, double tau,
+    const struct site_target *targets, size_t nt,
+    const struct site_attempt *att, size_t na, struct score_yield *yield,
+    struct score_model *model);
+
+/* --- coverage weights --- */
+
+/* Bin of a synodic angle in degrees (wrapped into 0..360). */
+int score_bin_of(double synodic_deg, int nbins);
+
+/* Add weight points at a synodic angle to counts[nbins] (NaN: ignored). */
+void score_bin_add(long *counts, int nbins, double synodic_deg, long weight);
+
+/* Mean of counts[nbins]. */
+double score_bin_mean(const long *counts, int nbins);
+
+/* ((nbar + k) / (n + k))^alpha. */
+double score_coverage_weight(long n, double nbar, double k, double alpha);
+
+/* --- scoring a window --- */
+
+struct score_target {
+	const struct geom_target *body;	/* NULL: the Moon's centre (lit/dark
+					   then taken at selenographic 0, 0) */
+	struct score_yield yield;
+	const long *counts;		/* nbins counts used for W */
+};
+
+struct score_window {
+	size_t rank;			/* 1 = best, after score_rank */
+	size_t target;			/* index of the caller's target */
+	double start, end;		/* TT offsets on the track, days */
+	double duration_s;
+	double max_el;			/* rad */
+	double max_el_t;		/* TT offset, days */
+	double synodic;			/* at the middle, rad 0..2pi */
+	int phase_bin;			/* bin at the middle */
+	long bin_count;			/* n_b of that bin */
+	double bin_mean;		/* nbar */
+	int bins_crossed;		/* bin boundaries inside the window */
+	double coverage_weight;		/* score / expected_returns (W of the
+					   bin when none is crossed) */
+	double sunlit_fraction;		/* share of the time sunlit */
+	double mean_airmass;		/* time mean of X */
+	double mean_transmission;	/* time mean of exp(-2 tau X) */
+	double expected_returns;	/* integral of R dt */
+	double score;			/* integral of R W dt */
+};
+
+struct score_params {
+	const struct window_track *tr;
+	const struct score_settings *s;
+	double tau;			/* zenith optical depth, one way */
+	double fire_rate_hz;		/* shots per second */
+};
+
+/*
+ * Score one window.
+ *
+ * Given:
+ *   p      track, settings, tau, fire rate
+ *   t      the target, its yield and counts
+ *   w      the window (target index, start, end)
+ * Returned:
+ *   out    every factor (rank left 0)
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (end before start, bad settings)
+ * Notes:
+ *   The window is cut at bin boundaries of the synodic angle (found by
+ *   bisection on the track to 0.1 s); each piece is integrated by the
+ *   midpoint rule with steps of at most s->step_s.  The maximum
+ *   elevation is refined by golden section around the best sample.
+ * Called:
+ *   window_track_instant, window_track_synodic, geom_target_view,
+ *   score_transmission, score_coverage_weight
+ */
+enum errcode score_window(const struct score_params *p,
+    const struct score_target *t, const struct window *w,
+    struct score_window *out);
+
+/*
+ * Rank windows together: by score (descending), then start, then target
+ * index; sets rank 1..n.
+ */
+void score_rank(struct score_window *w, size_t n);
+
+#endif

@@ -1,0 +1,194 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* window.h: observing windows of lunar targets under a station's limits
+   (pure core). */
+#ifndef MOONRANGE_WINDOW_H
+#define MOONRANGE_WINDOW_H
+
+#include <stddef.h>
+
+#include "core/errcode.h"
+#include "core/geom.h"
+
+/*
+ * A window is a maximal interval of TT in which every constraint of the
+ * station holds for one target:
+ *
+ *   target elevation (geometric)     >= min_el
+ *   Sun elevation at the station     <= max_sun_el
+ *   Sun-Moon separation (topocentric) >= min_sun_sep
+ *   outside every blackout
+ *   dark_only targets: Sun below the target's local lunar horizon
+ *
+ * Work is in two steps.  window_track_init tabulates the geocentric
+ * Moon and Sun and the Earth's orientation once per WINDOW_NODE_DAYS over
+ * the span into caller-provided nodes; window_track_instant rebuilds any
+ * instant from the nodes (cubic Hermite for the Moon, linear for the
+ * Sun, rotation about the pole for the Earth) for a fraction of the cost
+ * of the full ERFA chain.  window_find then samples every constraint on
+ * a WINDOW_GRID_DAYS grid, brackets sign changes and extrema, and refines
+ * each edge by root finding.
+ *
+ * Times inside this module are TT in days since the track's base (the
+ * start of the span), so one double holds them to ~1e-11 d.  Nothing
+ * here allocates; the caller owns nodes and output arrays.
+ */
+
+#define WINDOW_NODE_DAYS 0.25		/* node spacing: 6 h */
+#define WINDOW_GRID_DAYS (20.0 / 1440.0) /* constraint grid: 20 min */
+#define WINDOW_EDGE_TOL_S 0.2		/* edges refined to this, s */
+#define WINDOW_MAX_TARGETS 64		/* targets in one search */
+#define WINDOW_MAX_SPAN_DAYS 3660.0	/* longest span, days */
+
+/* --- the track: tabulated ephemeris over a span --- */
+
+struct window_node {
+	double moon_p[3], moon_v[3];	/* geocentric Moon, GCRS, m, m/s */
+	double sun_p[3];		/* apparent geocentric Sun, GCRS, m */
+	double synodic, mean_elong;	/* rad, unwrapped along the track */
+	double rbpn[3][3], rc2t[3][3];	/* Earth orientation (IAU 2000B) */
+	double tt_utc;			/* TT - UTC at the node, days */
+};
+
+struct window_track {
+	struct geom_site site;		/* the station (copy) */
+	struct geom_eop eop;		/* held constant over the span */
+	double base1, base2;		/* TT JD of offset 0 (span start) */
+	double span;			/* span length, days */
+	double t0;			/* offset of node 0, days (< 0) */
+	double step;			/* node spacing, days */
+	const struct window_node *nodes;
+	size_t n;
+};
+
+/* Nodes needed for a span of this many days (margins included). */
+size_t window_track_nodes(double span_days);
+
+/*
+ * Tabulate the span [tt, tt + span_days] for a station.
+ *
+ * Given:
+ *   site       initialised station (geom_site_init)
+ *   eop        UT1-UTC and polar motion, constant over the span; NULL: 0
+ *   tt1, tt2   TT JD of the span start
+ *   span_days  length, 0 < span_days <= WINDOW_MAX_SPAN_DAYS
+ *   nodes, cap caller storage, cap >= window_track_nodes(span_days)
+ * Returned:
+ *   tr         the track (borrows nodes: keep them alive while tr is used)
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (span out of range), ERRCODE_TOO_LARGE
+ *   (cap too small), ERRCODE_BAD_TIME (span outside ERFA's range)
+ * Notes:
+ *   1. Nodes hold geom_bodies_at and geom_earth_at (GEOM_PREC_FAST, IAU
+ *      2000B: < 1 mas from IAU 2006/2000A) every WINDOW_NODE_DAYS, from
+ *      one grid step before the span to two after it.
+ *   2. A constant DUT1 over a year moves the Earth by at most ~1 s of
+ *      rotation (15"), i.e. well under 1 s in a window edge; callers that
+ *      have a table may pass the value at the span's middle.
+ * Called:
+ *   geom_bodies_at, geom_earth_at, tscale_from_tt
+ */
+enum errcode window_track_init(struct window_track *tr,
+    const struct geom_site *site, const struct geom_eop *eop, double tt1,
+    double tt2, double span_days, struct window_node *nodes, size_t cap);
+
+/*
+ * The instant at offset t (TT days since the base) from the track.
+ *
+ * Notes:
+ *   1. Moon: cubic Hermite on position and velocity between nodes 6 h
+ *      apart; the largest short-period terms of the lunar orbit (periods
+ *      >= 9 d, amplitude < 400 km) leave < 1 m, i.e. < 0.001".  Sun:
+ *      linear (chord error < 200 km at 1 au, < 0.3").  Synodic angle and
+ *      D: linear (< 0.003 deg).
+ *   2. Earth: the nearer node's GCRS->ITRS matrix turned about the pole
+ *      by the sidereal angle elapsed (<= 3 h); precession-nutation drift
+ *      and the polar-motion commutator stay below 0.2".  Window edges
+ *      agree with the full IAU 2006/2000A chain to ~0.1 s.
+ *   3. t is clamped into the tabulated range.
+ *   4. out->t carries TT exactly and UTC/UT1 from the node's TT-UTC (a
+ *      leap second inside a node interval shifts UTC there by 1 s).
+ * Called:
+ *   geom_instant_make
+ */
+void window_track_instant(const struct window_track *tr, double t,
+    struct geom_instant *out);
+
+/* Synodic angle at offset t, rad, unwrapped (increasing along the track). */
+double window_track_synodic(const struct window_track *tr, double t);
+
+/* --- the search --- */
+
+struct window_limits {
+	double min_el;		/* target elevation >= this, rad (geometric) */
+	double max_sun_el;	/* Sun at the station <= this, rad; >= pi/2
+				   switches the constraint off */
+	double min_sun_sep;	/* Sun-Moon separation >= this, rad; <= 0
+				   switches it off */
+};
+
+struct window_target {
+	const struct geom_target *body;	/* NULL: the Moon's centre */
+	int dark_only;			/* 1: Sun below the target's local
+					   horizon (ignored for the centre) */
+};
+
+/* An interval of TT offsets (days since the track base), start < end. */
+struct window_interval {
+	double start, end;
+};
+
+struct window {
+	size_t target;		/* index into the targets given */
+	double start, end;	/* TT offsets, days since the track base */
+};
+
+/*
+ * Every window of every target in the track's span.
+ *
+ * Given:
+ *   tr          the track
+ *   lim         the station's limits
+ *   targets     ntargets (1..WINDOW_MAX_TARGETS) targets
+ *   blackouts   nblackouts intervals (any order, may overlap; NULL if 0)
+ *   cap         room in out
+ * Returned:
+ *   out         windows in order of their end (then target index)
+ *   n           the number found (may exceed cap)
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (no or too many targets, limits not
+ *   finite), ERRCODE_TOO_LARGE (more than cap windows: the first cap are
+ *   written, *n counts all)
+ * Notes:
+ *   1. Each constraint is sampled every WINDOW_GRID_DAYS (plus one step
+ *      of margin at both ends).  A sign change between neighbours is
+ *      refined by the Illinois variant of regula falsi to
+ *      WINDOW_EDGE_TOL_S.  A sample that is a local extremum of the
+ *      wrong sign (a maximum still below the limit, a minimum still above
+ *      it) starts a golden-section search over its two neighbouring
+ *      cells; when the extremum crosses the limit its two roots are
+ *      refined the same way.  So a window a few minutes long at
+ *      culmination is found.  Three roots of one constraint inside one
+ *      20 min cell are not resolved (none of these functions turns that
+ *      fast for a station below |lat| 89 deg).
+ *   2. Windows are clipped at the span's ends and at blackouts.
+ *   3. Elevations are geometric (airless): refraction raises a target at
+ *      20 deg by about 2.6'.
+ * References:
+ *   Press et al., Numerical Recipes in C, 2nd ed. (1992), 9.2 (false
+ *   position) and 10.1 (golden section).
+ * Called:
+ *   window_track_instant, geom_target_view
+ */
+enum errcode window_find(const struct window_track *tr,
+    const struct window_limits *lim, const struct window_target *targets,
+    size_t ntargets, const struct window_interval *blackouts,
+    size_t nblackouts, struct window *out, size_t cap, size_t *n);
+
+/*
+ * Every constraint at one instant, for checks and reports: 1 when all
+ * hold (outside blackouts is the caller's business), else 0.
+ */
+int window_constraints_hold(const struct geom_instant *g,
+    const struct window_limits *lim, const struct window_target *target);
+
+#endif

@@ -1,0 +1,47 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* render_cov.h: the coverage audit as JSON, CSV, a text table and an SVG
+   chart, shared by the CLI and the HTTP API. */
+#ifndef MOONRANGE_RENDER_COV_H
+#define MOONRANGE_RENDER_COV_H
+
+#include "core/coverage.h"
+#include "core/errcode.h"
+#include "core/mem.h"
+
+/*
+ * What a coverage report shows.  fill may be NULL (no gap-filling dates
+ * were asked for, or no station to plan for); fill_note then says why in a
+ * sentence ("" or NULL for nothing).  Everything is borrowed for the call.
+ * The renderers append to out and return ERRCODE_OK or ERRCODE_NOMEM;
+ * they read no clock, so the same data give the same bytes.
+ */
+struct render_cov {
+	const struct coverage_result *r;
+	const struct coverage_fill *fill;
+	const char *fill_note;
+	const char *station_name;	/* for titles, may be NULL */
+	const char *time_zone;		/* IANA zone for local times in the
+					   text table, or NULL */
+};
+
+/* JSON: the field names are documented in README ("Coverage audit"). */
+enum errcode render_cov_json(const struct render_cov *c, struct mbuf *out);
+
+/* CSV (RFC 4180, CRLF): one row per (scope, key, bin). */
+enum errcode render_cov_csv(const struct render_cov *c, struct mbuf *out);
+
+/* A table for people, 80 columns for up to five targets. */
+enum errcode render_cov_text(const struct render_cov *c, struct mbuf *out);
+
+/*
+ * SVG 1.1 chart: the cycle as a ring of bars, one per bin, with its count
+ * as a label; quarter marks; one dashed, marked line per target with a
+ * legend; gaps hatched.  Well-formed XML; all text escaped.
+ */
+enum errcode render_cov_svg(const struct render_cov *c, struct mbuf *out);
+
+/* Append s to out with &, <, >, " and ' escaped for XML text or
+   attributes. */
+void render_cov_xml_escape(struct mbuf *out, const char *s);
+
+#endif
