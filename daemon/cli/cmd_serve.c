@@ -109,6 +109,27 @@ load_site(struct store *db, struct api_site *site, char *err, size_t errlen)
 	return rc;
 }
 
+/*
+ * The SIGHUP reload: the site read on a read-only connection of its own,
+ * opened and closed here.  The daemon's shared connection belongs to the
+ * request handlers (under the API's lock); reading it from this thread
+ * raced them (a use-after-free inside SQLite under concurrent POSTs).
+ */
+static enum errcode
+reload_site(const char *db_path, struct api_site *site, char *err,
+    size_t errlen)
+{
+	struct store *ro = NULL;
+	enum errcode rc;
+
+	memset(site, 0, sizeof *site);
+	rc = store_open(db_path, STORE_OPEN_READONLY, &ro, err, errlen);
+	if (rc == ERRCODE_OK)
+		rc = load_site(ro, site, err, errlen);
+	store_close(ro);
+	return rc;
+}
+
 static void
 utc_now(double *u1, double *u2)
 {
@@ -287,7 +308,7 @@ cmd_serve(int argc, char **argv)
 			break;
 		}
 		if (sig == SIGHUP) {
-			rc = load_site(db, &site, err, sizeof err);
+			rc = reload_site(db_path, &site, err, sizeof err);
 			if (rc != ERRCODE_OK) {
 				log_error("SIGHUP: site not reloaded, keeping "
 				    "the old one: %s", err);

@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* mem.c: allocation wrapper with a failure switch, and text buffers. */
+#include <stdatomic.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -10,14 +11,16 @@
  * The failure switch is the one piece of mutable file-scope state outside
  * main.c.  It exists for tests only and is never set in normal runs.
  */
-static long fail_countdown;
-static long alloc_count;
+static atomic_long fail_countdown;
+static atomic_long alloc_count;	/* atomic: the daemon allocates from
+				   several threads at once */
 
 static int
 should_fail(void)
 {
-	alloc_count++;
-	if (fail_countdown > 0 && --fail_countdown == 0)
+	atomic_fetch_add_explicit(&alloc_count, 1, memory_order_relaxed);
+	if (atomic_load_explicit(&fail_countdown, memory_order_relaxed) > 0 &&
+	    atomic_fetch_sub(&fail_countdown, 1) == 1)
 		return 1;
 	return 0;
 }
@@ -25,10 +28,9 @@ should_fail(void)
 long
 mem_fail_after(long n)
 {
-	long c = alloc_count;
+	long c = atomic_exchange(&alloc_count, 0);
 
-	fail_countdown = n > 0 ? n : 0;
-	alloc_count = 0;
+	atomic_store(&fail_countdown, n > 0 ? n : 0);
 	return c;
 }
 

@@ -595,6 +595,8 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		mem_free(s);
 		return ERRCODE_BAD_ARG;
 	}
+	/* Set before the server's threads start: they read it. */
+	s->loopback = web_is_loopback(addr);
 	s->d = MHD_start_daemon(flags, (uint16_t)cfg->port, NULL, NULL,
 	    on_request, s,
 	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, s,
@@ -619,7 +621,6 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		mem_free(s);
 		return ERRCODE_IO;
 	}
-	s->loopback = web_is_loopback(addr);
 	info = MHD_get_daemon_info(s->d, MHD_DAEMON_INFO_BIND_PORT);
 	s->port = info != NULL ? info->port : cfg->port;
 	*out = s;
