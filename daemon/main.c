@@ -2,7 +2,7 @@
 /* main.c: program entry; installs the allocator and runs a subcommand. */
 #include "cli/cli.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 
 int
 main(int argc, char **argv)

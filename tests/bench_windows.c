@@ -13,7 +13,7 @@
 #include "core/derive.h"
 #include "formats/import.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 #include "core/plan.h"
 #include "core/window.h"
 

@@ -19,7 +19,7 @@
 #include "http_client.h"
 #include "http/log.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 #include "store/store.h"
 #include "core/tscale.h"
 #include "http/web.h"

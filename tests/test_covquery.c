@@ -10,7 +10,7 @@
 #include "check.h"
 #include "query/covquery.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 #include "store/store.h"
 #include "core/tscale.h"
 

@@ -17,7 +17,8 @@
 #include "core/mem.h"
 #include "core/plan.h"
 #include "store/plan_db.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
+#include "formats/render_plan.h"
 #include "store/store.h"
 
 #define D2R ERFA_DD2R

@@ -7,7 +7,9 @@
 #include <jansson.h>
 
 #include "check.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
+#include "formats/render_ephem.h"
+#include "formats/render_phases.h"
 
 /* An invented station and two invented targets (test data only). */
 static void

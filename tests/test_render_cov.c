@@ -10,7 +10,7 @@
 #include "check.h"
 #include "core/coverage.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 #include "formats/render_cov.h"
 
 #define MJD0 2400000.5

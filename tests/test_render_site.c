@@ -8,7 +8,7 @@
 
 #include "check.h"
 #include "core/mem.h"
-#include "formats/render.h"
+#include "formats/render_json.h"
 #include "formats/render_site.h"
 
 static void

@@ -10,7 +10,7 @@
 #include "cli/cli.h"
 #include "cli/cli_store.h"
 #include "core/derive.h"
-#include "formats/render.h"
+#include "formats/render_time.h"
 
 #define MJD_BASE 2400000.5
 

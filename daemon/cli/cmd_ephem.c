@@ -12,7 +12,8 @@
 #include "cli/cli_store.h"
 #include "core/derive.h"
 #include "core/geom.h"
-#include "formats/render.h"
+#include "formats/render_time.h"
+#include "formats/render_ephem.h"
 
 #define EPHEM_MAX_TARGETS 64
 

@@ -6,7 +6,8 @@
 #include "cli/cli.h"
 #include "cli/cli_store.h"
 #include "core/geom.h"
-#include "formats/render.h"
+#include "formats/render_time.h"
+#include "formats/render_phases.h"
 
 #define PHASES_MAX 5000		/* ~100 years of phases */
 

@@ -11,7 +11,8 @@
 #include "core/geom.h"
 #include "core/plan.h"
 #include "cli/plan_cli.h"
-#include "formats/render.h"
+#include "formats/render_time.h"
+#include "formats/render_plan.h"
 
 #define MJD0 2400000.5
 

@@ -8,7 +8,8 @@
 #include "cli/cli.h"
 #include "core/plan.h"
 #include "cli/plan_cli.h"
-#include "formats/render.h"
+#include "formats/render_time.h"
+#include "formats/render_plan.h"
 #include "core/window.h"
 
 #define MJD0 2400000.5

@@ -4,6 +4,7 @@
 
 #include "cli/cli.h"
 #include "cli/plan_cli.h"
+#include "formats/render_time.h"
 
 int
 plan_cli_option(int c, const char *arg, struct plan_cli_opts *o)

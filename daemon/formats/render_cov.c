@@ -6,7 +6,8 @@
 
 #include <jansson.h>
 
-#include "formats/render.h"
+#include "formats/render_json.h"
+#include "formats/render_time.h"
 #include "formats/render_cov.h"
 #include "formats/render_site.h"
 #include "core/tscale.h"

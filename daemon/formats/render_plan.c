@@ -9,7 +9,10 @@
 #include <erfam.h>
 #include <jansson.h>
 
-#include "formats/render.h"
+#include "core/tscale.h"
+#include "formats/render_json.h"
+#include "formats/render_plan.h"
+#include "formats/render_time.h"
 #include "formats/render_site.h"
 
 #define MJD0 2400000.5

@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* store.c: the station database on SQLite (the only file that speaks SQL). */
+/* store.c: the station database on SQLite: opening, the schema and its
+   migrations, transactions, the statement helpers and the settings. */
 #include <math.h>
 #include <pthread.h>
 #include <stdarg.h>
@@ -13,11 +14,11 @@
 
 #include "core/derive.h"
 #include "core/mem.h"
+#include "core/text.h"
 #include "store/store.h"
+#include "store/store_db.h"
 #include "store/store_sql.h"
 #include "core/tscale.h"
-
-#define MJD_BASE 2400000.5
 
 /* --- SQLite's allocations go through mem.h (so tests can fail them) --- */
 
@@ -132,33 +133,6 @@ sqlite_setup(void)
 	" AND (?2 IS NULL OR epoch_mjd < ?2) AND (?3 IS NULL OR target_id = ?3)" \
 	" AND (?6 IS NULL OR station_code = ?6)"
 
-enum stmt_id {
-	ST_STATION_GET,
-	ST_STATION_PUT,
-	ST_TARGET_ADD,
-	ST_TARGET_UPDATE,
-	ST_TARGET_GET,
-	ST_TARGET_ALIAS,
-	ST_TARGETS_LIST,
-	ST_BLACKOUT_ADD,
-	ST_BLACKOUT_REMOVE,
-	ST_BLACKOUTS_LIST,
-	ST_ATTEMPT_ADD,
-	ST_ATTEMPT_GET,
-	ST_ATTEMPTS_LIST,
-	ST_ATTEMPTS_COUNT,
-	ST_NP_ADD,
-	ST_NPS_LIST,
-	ST_NPS_COUNT,
-	ST_EOP_PUT,
-	ST_EOP_LOAD,
-	ST_EOP_SPAN,
-	ST_EOP_AROUND,
-	ST_SETTING_GET,
-	ST_SETTING_SET,
-	ST__COUNT
-};
-
 static const char *const stmt_sql[ST__COUNT] = {
 	[ST_STATION_GET] = "SELECT " STATION_COLS " FROM station WHERE id = 1",
 	[ST_STATION_PUT] = "INSERT INTO station (id, " STATION_COLS ") VALUES "
@@ -224,16 +198,10 @@ static const char *const stmt_sql[ST__COUNT] = {
 	    "ON CONFLICT (key) DO UPDATE SET value = excluded.value",
 };
 
-struct store {
-	sqlite3 *db;
-	int in_tx;			/* store_begin was called */
-	sqlite3_stmt *stmt[ST__COUNT];	/* prepared on first use */
-};
-
 /* --- errors --------------------------------------------------------------- */
 
-static void MEM_PRINTFLIKE(3, 4)
-seterr(char *errbuf, size_t errlen, const char *fmt, ...)
+void MEM_PRINTFLIKE(3, 4)
+store_seterr(char *errbuf, size_t errlen, const char *fmt, ...)
 {
 	va_list ap;
 
@@ -244,13 +212,8 @@ seterr(char *errbuf, size_t errlen, const char *fmt, ...)
 	va_end(ap);
 }
 
-/*
- * Turn a failed step into a code and a sentence.  what names the table
- * (and row) for the message.  Constraint messages of SQLite end with the
- * constraint name, which the schema makes the column name.
- */
-static enum errcode
-db_error(struct store *s, int rc, const char *what, char *errbuf,
+enum errcode
+store_db_error(struct store *s, int rc, const char *what, char *errbuf,
     size_t errlen)
 {
 	const char *msg = sqlite3_errmsg(s->db);
@@ -264,43 +227,51 @@ db_error(struct store *s, int rc, const char *what, char *errbuf,
 		col = dot + 1;
 	switch (rc) {
 	case SQLITE_CONSTRAINT_CHECK:
-		seterr(errbuf, errlen, "%s: field '%s': value refused by the "
+		store_seterr(errbuf, errlen,
+		    "%s: field '%s': value refused by the "
 		    "database (out of range or malformed)", what, col);
 		return ERRCODE_BAD_ARG;
 	case SQLITE_CONSTRAINT_NOTNULL:
-		seterr(errbuf, errlen, "%s: field '%s': a value is required",
+		store_seterr(errbuf, errlen,
+		    "%s: field '%s': a value is required",
 		    what, col);
 		return ERRCODE_BAD_ARG;
 	case SQLITE_CONSTRAINT_UNIQUE:
 	case SQLITE_CONSTRAINT_PRIMARYKEY:
-		seterr(errbuf, errlen, "%s: already stored (%s)", what, msg);
+		store_seterr(errbuf, errlen, "%s: already stored (%s)", what,
+		    msg);
 		return ERRCODE_EXISTS;
 	case SQLITE_CONSTRAINT_FOREIGNKEY:
-		seterr(errbuf, errlen, "%s: field 'target': no such target",
+		store_seterr(errbuf, errlen,
+		    "%s: field 'target': no such target",
 		    what);
 		return ERRCODE_NOT_FOUND;
 	case SQLITE_CONSTRAINT_DATATYPE:
-		seterr(errbuf, errlen, "%s: a value has the wrong type (%s)",
+		store_seterr(errbuf, errlen,
+		    "%s: a value has the wrong type (%s)",
 		    what, msg);
 		return ERRCODE_BAD_ARG;
 	case SQLITE_NOMEM:
-		seterr(errbuf, errlen, "%s: out of memory", what);
+		store_seterr(errbuf, errlen, "%s: out of memory", what);
 		return ERRCODE_NOMEM;
 	case SQLITE_BUSY:
 	case SQLITE_LOCKED:
-		seterr(errbuf, errlen, "%s: the database stayed locked by "
+		store_seterr(errbuf, errlen,
+		    "%s: the database stayed locked by "
 		    "another process for over %d s", what, STORE_BUSY_MS / 1000);
 		return ERRCODE_DB;
 	default:
-		seterr(errbuf, errlen, "%s: database error: %s", what, msg);
+		store_seterr(errbuf, errlen, "%s: database error: %s", what,
+		    msg);
 		return (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
 }
 
 /* --- statement helpers ---------------------------------------------------- */
 
-static enum errcode
-stmt_get(struct store *s, enum stmt_id id, sqlite3_stmt **out, char *errbuf,
+enum errcode
+store_stmt_get(struct store *s, enum store_stmt_id id, sqlite3_stmt **out,
+    char *errbuf,
     size_t errlen)
 {
 	int rc;
@@ -310,7 +281,8 @@ stmt_get(struct store *s, enum stmt_id id, sqlite3_stmt **out, char *errbuf,
 		    SQLITE_PREPARE_PERSISTENT, &s->stmt[id], NULL);
 		if (rc != SQLITE_OK) {
 			s->stmt[id] = NULL;
-			return db_error(s, rc, "preparing a query", errbuf,
+			return store_db_error(s, rc, "preparing a query",
+			    errbuf,
 			    errlen);
 		}
 	}
@@ -318,23 +290,21 @@ stmt_get(struct store *s, enum stmt_id id, sqlite3_stmt **out, char *errbuf,
 	return ERRCODE_OK;
 }
 
-/* Reset a statement after use (clears bindings too). */
-static void
-stmt_done(sqlite3_stmt *st)
+void
+store_stmt_done(sqlite3_stmt *st)
 {
 	sqlite3_reset(st);
 	sqlite3_clear_bindings(st);
 }
 
-static void
-bind_text(sqlite3_stmt *st, int i, const char *v)
+void
+store_bind_text(sqlite3_stmt *st, int i, const char *v)
 {
 	sqlite3_bind_text(st, i, v, -1, SQLITE_STATIC);
 }
 
-/* NULL for NaN and for an empty or NULL string. */
-static void
-bind_real_or_null(sqlite3_stmt *st, int i, double v)
+void
+store_bind_real_or_null(sqlite3_stmt *st, int i, double v)
 {
 	if (isnan(v))
 		sqlite3_bind_null(st, i);
@@ -342,43 +312,44 @@ bind_real_or_null(sqlite3_stmt *st, int i, double v)
 		sqlite3_bind_double(st, i, v);
 }
 
-static void
-bind_text_or_null(sqlite3_stmt *st, int i, const char *v)
+void
+store_bind_text_or_null(sqlite3_stmt *st, int i, const char *v)
 {
 	if (v == NULL || *v == '\0')
 		sqlite3_bind_null(st, i);
 	else
-		bind_text(st, i, v);
+		store_bind_text(st, i, v);
 }
 
-static void
-col_text(sqlite3_stmt *st, int i, char *buf, size_t len)
+void
+store_col_text(sqlite3_stmt *st, int i, char *buf, size_t len)
 {
 	const unsigned char *t = sqlite3_column_text(st, i);
 
 	snprintf(buf, len, "%s", t != NULL ? (const char *)t : "");
 }
 
-static double
-col_real_or_nan(sqlite3_stmt *st, int i)
+double
+store_col_real_or_nan(sqlite3_stmt *st, int i)
 {
 	if (sqlite3_column_type(st, i) == SQLITE_NULL)
 		return NAN;
 	return sqlite3_column_double(st, i);
 }
 
-/* Run a statement that returns no rows. */
-static enum errcode
-step_done(struct store *s, sqlite3_stmt *st, const char *what, char *errbuf,
+enum errcode
+store_step_done(struct store *s, sqlite3_stmt *st, const char *what,
+    char *errbuf,
     size_t errlen)
 {
 	int rc = sqlite3_step(st);
 	enum errcode e = ERRCODE_OK;
 
 	if (rc != SQLITE_DONE && rc != SQLITE_ROW)
-		e = db_error(s, sqlite3_extended_errcode(s->db), what, errbuf,
+		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
+		    errbuf,
 		    errlen);
-	stmt_done(st);
+	store_stmt_done(st);
 	return e;
 }
 
@@ -392,7 +363,7 @@ exec_sql(struct store *s, const char *sql, const char *what, char *errbuf,
 	enum errcode e = ERRCODE_OK;
 
 	if (rc != SQLITE_OK) {
-		seterr(errbuf, errlen, "%s: %s", what,
+		store_seterr(errbuf, errlen, "%s: %s", what,
 		    msg != NULL ? msg : sqlite3_errstr(rc));
 		e = (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
@@ -414,14 +385,8 @@ pragma_int(struct store *s, const char *sql, int *out)
 	return rc;
 }
 
-/*
- * Read every row of a bound statement into a new array of elements of
- * size esz, each filled by fn.  The statement is reset afterwards.
- */
-typedef void (*row_fn)(sqlite3_stmt *st, void *dst);
-
-static enum errcode
-collect(struct store *s, sqlite3_stmt *st, size_t esz, row_fn fn,
+enum errcode
+store_collect(struct store *s, sqlite3_stmt *st, size_t esz, store_row_fn fn,
     void **out, size_t *n, const char *what, char *errbuf, size_t errlen)
 {
 	unsigned char *arr = NULL, *p;
@@ -435,7 +400,8 @@ collect(struct store *s, sqlite3_stmt *st, size_t esz, row_fn fn,
 
 			if (ncap > SIZE_MAX / esz ||
 			    (p = mem_realloc(arr, ncap * esz)) == NULL) {
-				seterr(errbuf, errlen, "%s: out of memory", what);
+				store_seterr(errbuf, errlen,
+				    "%s: out of memory", what);
 				e = ERRCODE_NOMEM;
 				goto out;
 			}
@@ -447,10 +413,11 @@ collect(struct store *s, sqlite3_stmt *st, size_t esz, row_fn fn,
 		cnt++;
 	}
 	if (rc != SQLITE_DONE)
-		e = db_error(s, sqlite3_extended_errcode(s->db), what, errbuf,
+		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
+		    errbuf,
 		    errlen);
 out:
-	stmt_done(st);
+	store_stmt_done(st);
 	if (e != ERRCODE_OK) {
 		mem_free(arr);
 		arr = NULL;
@@ -459,6 +426,40 @@ out:
 	*out = arr;
 	*n = cnt;
 	return e;
+}
+
+enum errcode
+store_fetch_one(struct store *s, sqlite3_stmt *st, store_row_fn fn, void *dst,
+    const char *what, char *errbuf, size_t errlen)
+{
+	int rc = sqlite3_step(st);
+	enum errcode e = ERRCODE_OK;
+
+	if (rc == SQLITE_ROW) {
+		fn(st, dst);
+	} else if (rc == SQLITE_DONE) {
+		store_seterr(errbuf, errlen, "%s: not found", what);
+		e = ERRCODE_NOT_FOUND;
+	} else {
+		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
+		    errbuf,
+		    errlen);
+	}
+	store_stmt_done(st);
+	return e;
+}
+
+enum errcode
+store_canon(double *mjd, int ndp, char *buf, size_t len, const char *what,
+    const char *field, char *errbuf, size_t errlen)
+{
+	if (store_time_canon(*mjd, ndp, buf, len, mjd) != ERRCODE_OK) {
+		store_seterr(errbuf, errlen,
+		    "%s: field '%s': not a valid UTC time",
+		    what, field);
+		return ERRCODE_BAD_TIME;
+	}
+	return ERRCODE_OK;
 }
 
 /* --- times ---------------------------------------------------------------- */
@@ -470,10 +471,10 @@ store_time_canon(double mjd, int ndp, char *buf, size_t len,
 	double u1, u2;
 
 	if (!isfinite(mjd) || mjd < 0 || mjd > 300000 ||
-	    tscale_format_utc(MJD_BASE, mjd, ndp, buf, len) != ERRCODE_OK ||
+	    tscale_format_utc(TEXT_MJD0, mjd, ndp, buf, len) != ERRCODE_OK ||
 	    tscale_parse_utc(buf, &u1, &u2, NULL, 0) != ERRCODE_OK)
 		return ERRCODE_BAD_TIME;
-	*canon_mjd = (u1 - MJD_BASE) + u2;
+	*canon_mjd = (u1 - TEXT_MJD0) + u2;
 	return ERRCODE_OK;
 }
 
@@ -497,7 +498,7 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (version < 1 || version > (int)store_sql_nmigrations) {
-		seterr(errbuf, errlen, "schema version %d is not one of "
+		store_seterr(errbuf, errlen, "schema version %d is not one of "
 		    "1..%zu", version, store_sql_nmigrations);
 		return ERRCODE_BAD_ARG;
 	}
@@ -506,20 +507,23 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 		return e;
 	if ((v = store_schema_version(s)) < 0 ||
 	    pragma_int(s, "SELECT count(*) FROM sqlite_schema", &objects)) {
-		seterr(errbuf, errlen, "cannot read the schema version: %s",
+		store_seterr(errbuf, errlen,
+		    "cannot read the schema version: %s",
 		    sqlite3_errmsg(s->db));
 		e = ERRCODE_DB;
 		goto out;
 	}
 	if (v > version) {
-		seterr(errbuf, errlen, "the database has schema version %d, "
+		store_seterr(errbuf, errlen,
+		    "the database has schema version %d, "
 		    "newer than %d (this program knows up to %d)", v, version,
 		    STORE_SCHEMA_VERSION);
 		e = ERRCODE_DB;
 		goto out;
 	}
 	if (v == 0 && objects > 0) {
-		seterr(errbuf, errlen, "the file holds tables but no moonrange "
+		store_seterr(errbuf, errlen,
+		    "the file holds tables but no moonrange "
 		    "schema version; it is not a moonrange database");
 		e = ERRCODE_DB;
 		goto out;
@@ -560,24 +564,26 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 
 	*out = NULL;
 	if (path == NULL || *path == '\0') {
-		seterr(errbuf, errlen, "no database file given");
+		store_seterr(errbuf, errlen, "no database file given");
 		return ERRCODE_BAD_ARG;
 	}
 	pthread_once(&sqlite_once, sqlite_setup);
 	/* A no-op once it has succeeded; retried after a failure. */
 	if ((rc = sqlite3_initialize()) != SQLITE_OK) {
-		seterr(errbuf, errlen, "SQLite failed to start: %s",
+		store_seterr(errbuf, errlen, "SQLite failed to start: %s",
 		    sqlite3_errstr(rc));
 		return (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
 	memory = strcmp(path, ":memory:") == 0;
 	if (!memory && !(flags & STORE_OPEN_CREATE) && access(path, F_OK) != 0) {
-		seterr(errbuf, errlen, "database '%s' does not exist (create it "
+		store_seterr(errbuf, errlen,
+		    "database '%s' does not exist (create it "
 		    "with 'moonrange init --db %s')", path, path);
 		return ERRCODE_NOT_FOUND;
 	}
 	if ((s = mem_calloc(1, sizeof *s)) == NULL) {
-		seterr(errbuf, errlen, "opening '%s': out of memory", path);
+		store_seterr(errbuf, errlen, "opening '%s': out of memory",
+		    path);
 		return ERRCODE_NOMEM;
 	}
 	oflags = (flags & STORE_OPEN_READONLY) ? SQLITE_OPEN_READONLY :
@@ -585,7 +591,8 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 	    SQLITE_OPEN_CREATE : 0);
 	if (sqlite3_open_v2(path, &s->db, oflags | SQLITE_OPEN_NOMUTEX, NULL) !=
 	    SQLITE_OK) {
-		seterr(errbuf, errlen, "cannot open database '%s': %s", path,
+		store_seterr(errbuf, errlen, "cannot open database '%s': %s",
+		    path,
 		    s->db != NULL ? sqlite3_errmsg(s->db) : "out of memory");
 		e = s->db != NULL ? ERRCODE_DB : ERRCODE_NOMEM;
 		goto out;
@@ -601,12 +608,14 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		/* A WAL database is read through its -shm file, which SQLite
 		   must be able to create beside it. */
 		if ((sqlite3_extended_errcode(s->db) & 0xff) == SQLITE_READONLY)
-			seterr(errbuf, errlen, "cannot read database '%s': "
+			store_seterr(errbuf, errlen,
+			    "cannot read database '%s': "
 			    "SQLite needs to create '%s-shm' beside it (is its "
 			    "directory read-only?): %s", path, path,
 			    sqlite3_errmsg(s->db));
 		else
-			seterr(errbuf, errlen, "'%s' is not a readable SQLite "
+			store_seterr(errbuf, errlen,
+			    "'%s' is not a readable SQLite "
 			    "database: %s", path, sqlite3_errmsg(s->db));
 		e = ERRCODE_DB;
 		goto out;
@@ -621,19 +630,21 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 
 		if ((e = store_migrate(s, STORE_SCHEMA_VERSION, msg,
 		    sizeof msg)) != ERRCODE_OK) {
-			seterr(errbuf, errlen, "%s: %s", path, msg);
+			store_seterr(errbuf, errlen, "%s: %s", path, msg);
 			goto out;
 		}
 	}
 	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
-		seterr(errbuf, errlen, "%s: the database has schema version %d, "
+		store_seterr(errbuf, errlen,
+		    "%s: the database has schema version %d, "
 		    "newer than this program knows (up to %d)", path, v,
 		    STORE_SCHEMA_VERSION);
 		e = ERRCODE_DB;
 		goto out;
 	}
 	if ((flags & STORE_OPEN_READONLY) && v != STORE_SCHEMA_VERSION) {
-		seterr(errbuf, errlen, "%s: schema version %d, this program needs "
+		store_seterr(errbuf, errlen,
+		    "%s: schema version %d, this program needs "
 		    "%d (open it once for writing to migrate it)", path, v,
 		    STORE_SCHEMA_VERSION);
 		e = ERRCODE_DB;
@@ -727,10 +738,10 @@ store_integrity_check(struct store *s, char *errbuf, size_t errlen)
 		if (r != NULL && strcmp(r, "ok") == 0)
 			e = ERRCODE_OK;
 		else
-			seterr(errbuf, errlen, "integrity check: %s",
+			store_seterr(errbuf, errlen, "integrity check: %s",
 			    r != NULL ? r : "no answer");
 	} else {
-		seterr(errbuf, errlen, "integrity check: %s",
+		store_seterr(errbuf, errlen, "integrity check: %s",
 		    sqlite3_errmsg(s->db));
 	}
 	sqlite3_finalize(st);
@@ -745,7 +756,7 @@ store_begin(struct store *s, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (s->in_tx) {
-		seterr(errbuf, errlen, "a transaction is already open");
+		store_seterr(errbuf, errlen, "a transaction is already open");
 		return ERRCODE_DB;
 	}
 	e = exec_sql(s, "BEGIN IMMEDIATE", "starting a transaction", errbuf,
@@ -761,7 +772,7 @@ store_commit(struct store *s, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (!s->in_tx) {
-		seterr(errbuf, errlen, "no transaction is open");
+		store_seterr(errbuf, errlen, "no transaction is open");
 		return ERRCODE_DB;
 	}
 	e = exec_sql(s, "COMMIT", "committing", errbuf, errlen);
@@ -779,682 +790,6 @@ store_rollback(struct store *s)
 	if (!sqlite3_get_autocommit(s->db))
 		(void)sqlite3_exec(s->db, "ROLLBACK", NULL, NULL, NULL);
 	s->in_tx = 0;
-}
-
-/* --- station -------------------------------------------------------------- */
-
-static void
-row_station(sqlite3_stmt *st, void *dst)
-{
-	struct site_station *o = dst;
-
-	col_text(st, 0, o->name, sizeof o->name);
-	col_text(st, 1, o->code, sizeof o->code);
-	o->lat_deg = sqlite3_column_double(st, 2);
-	o->lon_deg = sqlite3_column_double(st, 3);
-	o->height_m = sqlite3_column_double(st, 4);
-	col_text(st, 5, o->time_zone, sizeof o->time_zone);
-	o->min_el_deg = sqlite3_column_double(st, 6);
-	o->max_sun_el_deg = sqlite3_column_double(st, 7);
-	o->min_sun_sep_deg = sqlite3_column_double(st, 8);
-	o->pressure_hpa = sqlite3_column_double(st, 9);
-	o->temperature_c = sqlite3_column_double(st, 10);
-	o->humidity = sqlite3_column_double(st, 11);
-	o->wavelength_nm = sqlite3_column_double(st, 12);
-	o->zenith_tau = sqlite3_column_double(st, 13);
-	o->fire_rate_hz = sqlite3_column_double(st, 14);
-}
-
-/* Fetch at most one row; ERRCODE_NOT_FOUND when there is none. */
-static enum errcode
-fetch_one(struct store *s, sqlite3_stmt *st, row_fn fn, void *dst,
-    const char *what, char *errbuf, size_t errlen)
-{
-	int rc = sqlite3_step(st);
-	enum errcode e = ERRCODE_OK;
-
-	if (rc == SQLITE_ROW) {
-		fn(st, dst);
-	} else if (rc == SQLITE_DONE) {
-		seterr(errbuf, errlen, "%s: not found", what);
-		e = ERRCODE_NOT_FOUND;
-	} else {
-		e = db_error(s, sqlite3_extended_errcode(s->db), what, errbuf,
-		    errlen);
-	}
-	stmt_done(st);
-	return e;
-}
-
-enum errcode
-store_station_get(struct store *s, struct site_station *out, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_STATION_GET, &st, errbuf, errlen)))
-		return e;
-	memset(out, 0, sizeof *out);
-	e = fetch_one(s, st, row_station, out, "station", errbuf, errlen);
-	if (e == ERRCODE_NOT_FOUND)
-		seterr(errbuf, errlen, "the database holds no station (load "
-		    "one with 'moonrange init')");
-	return e;
-}
-
-enum errcode
-store_station_put(struct store *s, const struct site_station *o,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_STATION_PUT, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, o->name);
-	bind_text(st, 2, o->code);
-	sqlite3_bind_double(st, 3, o->lat_deg);
-	sqlite3_bind_double(st, 4, o->lon_deg);
-	sqlite3_bind_double(st, 5, o->height_m);
-	bind_text(st, 6, o->time_zone);
-	bind_real_or_null(st, 7, o->min_el_deg);
-	bind_real_or_null(st, 8, o->max_sun_el_deg);
-	bind_real_or_null(st, 9, o->min_sun_sep_deg);
-	bind_real_or_null(st, 10, o->pressure_hpa);
-	bind_real_or_null(st, 11, o->temperature_c);
-	bind_real_or_null(st, 12, o->humidity);
-	bind_real_or_null(st, 13, o->wavelength_nm);
-	bind_real_or_null(st, 14, o->zenith_tau);
-	bind_real_or_null(st, 15, o->fire_rate_hz);
-	return step_done(s, st, "station", errbuf, errlen);
-}
-
-/* --- targets -------------------------------------------------------------- */
-
-static void
-row_target(sqlite3_stmt *st, void *dst)
-{
-	struct site_target *o = dst;
-
-	col_text(st, 0, o->id, sizeof o->id);
-	col_text(st, 1, o->name, sizeof o->name);
-	col_text(st, 2, o->alias, sizeof o->alias);
-	o->lat_deg = sqlite3_column_double(st, 3);
-	o->lon_deg = sqlite3_column_double(st, 4);
-	o->height_m = sqlite3_column_double(st, 5);
-	o->strength = sqlite3_column_double(st, 6);
-	o->dark_only = sqlite3_column_int(st, 7);
-	o->active = sqlite3_column_int(st, 8);
-}
-
-static void
-bind_target(sqlite3_stmt *st, const struct site_target *t)
-{
-	bind_text(st, 1, t->id);
-	bind_text(st, 2, t->name);
-	bind_text(st, 3, t->alias);
-	bind_real_or_null(st, 4, t->lat_deg);
-	bind_real_or_null(st, 5, t->lon_deg);
-	bind_real_or_null(st, 6, t->height_m);
-	bind_real_or_null(st, 7, t->strength);
-	sqlite3_bind_int(st, 8, t->dark_only);
-	sqlite3_bind_int(st, 9, t->active);
-}
-
-enum errcode
-store_target_add(struct store *s, const struct site_target *t, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char what[SITE_ID_LEN + 16];
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_TARGET_ADD, &st, errbuf, errlen)))
-		return e;
-	snprintf(what, sizeof what, "target '%s'", t->id);
-	bind_target(st, t);
-	return step_done(s, st, what, errbuf, errlen);
-}
-
-enum errcode
-store_target_update(struct store *s, const struct site_target *t,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char what[SITE_ID_LEN + 16];
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_TARGET_UPDATE, &st, errbuf, errlen)))
-		return e;
-	snprintf(what, sizeof what, "target '%s'", t->id);
-	bind_target(st, t);
-	if ((e = step_done(s, st, what, errbuf, errlen)))
-		return e;
-	if (sqlite3_changes(s->db) == 0) {
-		seterr(errbuf, errlen, "no target '%s'", t->id);
-		return ERRCODE_NOT_FOUND;
-	}
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_target_get(struct store *s, const char *id, struct site_target *out,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_TARGET_GET, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, id);
-	memset(out, 0, sizeof *out);
-	e = fetch_one(s, st, row_target, out, "target", errbuf, errlen);
-	if (e == ERRCODE_NOT_FOUND)
-		seterr(errbuf, errlen, "no target '%s'", id);
-	return e;
-}
-
-enum errcode
-store_target_by_alias(struct store *s, const char *name,
-    struct site_target *out, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_TARGET_ALIAS, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, name);
-	memset(out, 0, sizeof *out);
-	e = fetch_one(s, st, row_target, out, "target", errbuf, errlen);
-	if (e == ERRCODE_NOT_FOUND)
-		seterr(errbuf, errlen, "no target has the alias or id '%s'",
-		    name);
-	return e;
-}
-
-enum errcode
-store_targets_list(struct store *s, int active_only, struct site_target **out,
-    size_t *n, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = stmt_get(s, ST_TARGETS_LIST, &st, errbuf, errlen)))
-		return e;
-	sqlite3_bind_int(st, 1, active_only ? 1 : 0);
-	return collect(s, st, sizeof **out, row_target, (void **)out, n,
-	    "targets", errbuf, errlen);
-}
-
-/* --- blackouts ------------------------------------------------------------ */
-
-static void
-row_blackout(sqlite3_stmt *st, void *dst)
-{
-	struct site_blackout *o = dst;
-
-	o->id = (long)sqlite3_column_int64(st, 0);
-	o->start_mjd = sqlite3_column_double(st, 1);
-	o->end_mjd = sqlite3_column_double(st, 2);
-	col_text(st, 3, o->reason, sizeof o->reason);
-}
-
-/* Canonical text and MJD of a record's time, or a BAD_TIME sentence. */
-static enum errcode
-canon(double *mjd, int ndp, char *buf, size_t len, const char *what,
-    const char *field, char *errbuf, size_t errlen)
-{
-	if (store_time_canon(*mjd, ndp, buf, len, mjd) != ERRCODE_OK) {
-		seterr(errbuf, errlen, "%s: field '%s': not a valid UTC time",
-		    what, field);
-		return ERRCODE_BAD_TIME;
-	}
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_blackout_add(struct store *s, struct site_blackout *b, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char t0[40], t1[40];
-	enum errcode e;
-
-	if ((e = canon(&b->start_mjd, STORE_TIME_NDP, t0, sizeof t0,
-	    "blackout", "start", errbuf, errlen)) ||
-	    (e = canon(&b->end_mjd, STORE_TIME_NDP, t1, sizeof t1, "blackout",
-	    "end", errbuf, errlen)))
-		return e;
-	if ((e = stmt_get(s, ST_BLACKOUT_ADD, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, t0);
-	sqlite3_bind_double(st, 2, b->start_mjd);
-	bind_text(st, 3, t1);
-	sqlite3_bind_double(st, 4, b->end_mjd);
-	bind_text(st, 5, b->reason);
-	if ((e = step_done(s, st, "blackout", errbuf, errlen)))
-		return e;
-	b->id = (long)sqlite3_last_insert_rowid(s->db);
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_blackout_remove(struct store *s, long id, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_BLACKOUT_REMOVE, &st, errbuf, errlen)))
-		return e;
-	sqlite3_bind_int64(st, 1, id);
-	if ((e = step_done(s, st, "blackout", errbuf, errlen)))
-		return e;
-	if (sqlite3_changes(s->db) == 0) {
-		seterr(errbuf, errlen, "no blackout with id %ld", id);
-		return ERRCODE_NOT_FOUND;
-	}
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_blackouts_list(struct store *s, double from_mjd, double to_mjd,
-    struct site_blackout **out, size_t *n, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = stmt_get(s, ST_BLACKOUTS_LIST, &st, errbuf, errlen)))
-		return e;
-	bind_real_or_null(st, 1, from_mjd);
-	bind_real_or_null(st, 2, to_mjd);
-	return collect(s, st, sizeof **out, row_blackout, (void **)out, n,
-	    "blackouts", errbuf, errlen);
-}
-
-/* --- queries -------------------------------------------------------------- */
-
-void
-store_query_init(struct store_query *q)
-{
-	memset(q, 0, sizeof *q);
-	q->since_mjd = NAN;
-	q->until_mjd = NAN;
-}
-
-static void
-bind_query(sqlite3_stmt *st, const struct store_query *q, int with_station)
-{
-	bind_real_or_null(st, 1, q->since_mjd);
-	bind_real_or_null(st, 2, q->until_mjd);
-	bind_text_or_null(st, 3, q->target);
-	sqlite3_bind_int(st, 4, q->newest_first ? 1 : 0);
-	sqlite3_bind_int64(st, 5, q->limit > 0 && q->limit < INT64_MAX ?
-	    (sqlite3_int64)q->limit : -1);
-	if (with_station)
-		bind_text_or_null(st, 6, q->station_code);
-}
-
-static enum errcode
-count_rows(struct store *s, enum stmt_id id, const struct store_query *q,
-    int with_station, size_t *n, const char *what, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-	int rc;
-
-	*n = 0;
-	if ((e = stmt_get(s, id, &st, errbuf, errlen)))
-		return e;
-	bind_query(st, q, with_station);
-	if ((rc = sqlite3_step(st)) == SQLITE_ROW)
-		*n = (size_t)sqlite3_column_int64(st, 0);
-	else
-		e = db_error(s, sqlite3_extended_errcode(s->db), what, errbuf,
-		    errlen);
-	stmt_done(st);
-	return e;
-}
-
-/* --- attempts ------------------------------------------------------------- */
-
-static void
-row_attempt(sqlite3_stmt *st, void *dst)
-{
-	struct site_attempt *o = dst;
-	char outcome[SITE_OUTCOME_LEN];
-	int oc;
-
-	o->id = (long)sqlite3_column_int64(st, 0);
-	col_text(st, 1, o->target, sizeof o->target);
-	o->start_mjd = sqlite3_column_double(st, 2);
-	o->end_mjd = sqlite3_column_double(st, 3);
-	o->shots = (long)sqlite3_column_int64(st, 4);
-	o->returns = (long)sqlite3_column_int64(st, 5);
-	o->normal_points = (long)sqlite3_column_int64(st, 6);
-	col_text(st, 7, outcome, sizeof outcome);
-	oc = site_outcome_parse(outcome);
-	o->outcome = oc >= 0 ? (enum site_outcome)oc : SITE_OUTCOME_OTHER;
-	col_text(st, 8, o->operator_name, sizeof o->operator_name);
-	o->seeing_arcsec = col_real_or_nan(st, 9);
-	col_text(st, 10, o->notes, sizeof o->notes);
-	o->synodic_deg = sqlite3_column_double(st, 11);
-	o->mean_elong_deg = sqlite3_column_double(st, 12);
-	o->target_el_deg = sqlite3_column_double(st, 13);
-	o->sun_el_target_deg = sqlite3_column_double(st, 14);
-}
-
-enum errcode
-store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char t0[40], t1[40], what[SITE_ID_LEN + 80];
-	enum errcode e;
-
-	snprintf(what, sizeof what, "attempt on '%s'", a->target);
-	if ((e = canon(&a->start_mjd, STORE_TIME_NDP, t0, sizeof t0, what,
-	    "start", errbuf, errlen)) ||
-	    (e = canon(&a->end_mjd, STORE_TIME_NDP, t1, sizeof t1, what, "end",
-	    errbuf, errlen)))
-		return e;
-	snprintf(what, sizeof what, "attempt on '%s' at %s", a->target, t0);
-	if ((e = stmt_get(s, ST_ATTEMPT_ADD, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, a->target);
-	bind_text(st, 2, t0);
-	sqlite3_bind_double(st, 3, a->start_mjd);
-	bind_text(st, 4, t1);
-	sqlite3_bind_double(st, 5, a->end_mjd);
-	sqlite3_bind_int64(st, 6, a->shots);
-	sqlite3_bind_int64(st, 7, a->returns);
-	sqlite3_bind_int64(st, 8, a->normal_points);
-	if ((unsigned)a->outcome < SITE_OUTCOME__COUNT)
-		bind_text(st, 9, site_outcome_name(a->outcome));
-	else
-		bind_text(st, 9, "?");
-	bind_text(st, 10, a->operator_name);
-	bind_real_or_null(st, 11, a->seeing_arcsec);
-	bind_text(st, 12, a->notes);
-	bind_real_or_null(st, 13, a->synodic_deg);
-	bind_real_or_null(st, 14, a->mean_elong_deg);
-	bind_real_or_null(st, 15, a->target_el_deg);
-	bind_real_or_null(st, 16, a->sun_el_target_deg);
-	e = step_done(s, st, what, errbuf, errlen);
-	if (e == ERRCODE_EXISTS)
-		seterr(errbuf, errlen, "%s: target '%s' already has an attempt "
-		    "starting at %s", what, a->target, t0);
-	if (e != ERRCODE_OK)
-		return e;
-	a->id = (long)sqlite3_last_insert_rowid(s->db);
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_attempt_log(struct store *s, struct site_attempt *a, char *errbuf,
-    size_t errlen)
-{
-	struct site_station station;
-	struct site_target t;
-	struct geom_eop eop;
-	enum errcode e;
-
-	if ((e = store_station_get(s, &station, errbuf, errlen)) ||
-	    (e = store_target_get(s, a->target, &t, errbuf, errlen)))
-		return e;
-	if (!(a->end_mjd > a->start_mjd)) {
-		seterr(errbuf, errlen, "attempt on '%s': field 'end_utc': not "
-		    "after the start", a->target);
-		return ERRCODE_BAD_ARG;
-	}
-	if ((e = store_eop_at(s, 0.5 * (a->start_mjd + a->end_mjd), &eop, NULL,
-	    errbuf, errlen)))
-		return e;
-	if ((e = derive_attempt(&station, &t, &eop, a)) != ERRCODE_OK) {
-		seterr(errbuf, errlen, "attempt on '%s': field 'start_utc': "
-		    "cannot compute the geometry (%s)", a->target,
-		    errcode_str(e));
-		return e;
-	}
-	return store_attempt_add(s, a, errbuf, errlen);
-}
-
-enum errcode
-store_attempt_get(struct store *s, long id, struct site_attempt *out,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	if ((e = stmt_get(s, ST_ATTEMPT_GET, &st, errbuf, errlen)))
-		return e;
-	sqlite3_bind_int64(st, 1, id);
-	memset(out, 0, sizeof *out);
-	e = fetch_one(s, st, row_attempt, out, "attempt", errbuf, errlen);
-	if (e == ERRCODE_NOT_FOUND)
-		seterr(errbuf, errlen, "no attempt with id %ld", id);
-	return e;
-}
-
-enum errcode
-store_attempts_list(struct store *s, const struct store_query *q,
-    struct site_attempt **out, size_t *n, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = stmt_get(s, ST_ATTEMPTS_LIST, &st, errbuf, errlen)))
-		return e;
-	bind_query(st, q, 0);
-	return collect(s, st, sizeof **out, row_attempt, (void **)out, n,
-	    "attempts", errbuf, errlen);
-}
-
-enum errcode
-store_attempts_count(struct store *s, const struct store_query *q, size_t *n,
-    char *errbuf, size_t errlen)
-{
-	return count_rows(s, ST_ATTEMPTS_COUNT, q, 0, n, "attempts", errbuf,
-	    errlen);
-}
-
-/* --- normal points -------------------------------------------------------- */
-
-static void
-row_np(sqlite3_stmt *st, void *dst)
-{
-	struct site_normal_point *o = dst;
-
-	o->id = (long)sqlite3_column_int64(st, 0);
-	col_text(st, 1, o->target, sizeof o->target);
-	col_text(st, 2, o->station_code, sizeof o->station_code);
-	o->epoch_mjd = sqlite3_column_double(st, 3);
-	o->tof_s = sqlite3_column_double(st, 4);
-	o->photons = (long)sqlite3_column_int64(st, 5);
-	o->rms_ps = col_real_or_nan(st, 6);
-	o->synodic_deg = sqlite3_column_double(st, 7);
-	o->mean_elong_deg = sqlite3_column_double(st, 8);
-	o->target_el_deg = col_real_or_nan(st, 9);
-	o->sun_el_target_deg = sqlite3_column_double(st, 10);
-}
-
-enum errcode
-store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char t0[40], what[SITE_ID_LEN + SITE_CODE_LEN + 80];
-	enum errcode e;
-
-	if (inserted != NULL)
-		*inserted = 0;
-	snprintf(what, sizeof what, "normal point of '%s'", np->target);
-	if ((e = canon(&np->epoch_mjd, STORE_NP_TIME_NDP, t0, sizeof t0, what,
-	    "epoch", errbuf, errlen)))
-		return e;
-	snprintf(what, sizeof what, "normal point of '%s' at %s", np->target,
-	    t0);
-	if ((e = stmt_get(s, ST_NP_ADD, &st, errbuf, errlen)))
-		return e;
-	bind_text(st, 1, np->target);
-	bind_text(st, 2, np->station_code);
-	bind_text(st, 3, t0);
-	sqlite3_bind_double(st, 4, np->epoch_mjd);
-	bind_real_or_null(st, 5, np->tof_s);
-	sqlite3_bind_int64(st, 6, np->photons);
-	bind_real_or_null(st, 7, np->rms_ps);
-	bind_real_or_null(st, 8, np->synodic_deg);
-	bind_real_or_null(st, 9, np->mean_elong_deg);
-	bind_real_or_null(st, 10, np->target_el_deg);
-	bind_real_or_null(st, 11, np->sun_el_target_deg);
-	if ((e = step_done(s, st, what, errbuf, errlen)))
-		return e;
-	if (sqlite3_changes(s->db) > 0) {
-		np->id = (long)sqlite3_last_insert_rowid(s->db);
-		if (inserted != NULL)
-			*inserted = 1;
-	}
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_nps_list(struct store *s, const struct store_query *q,
-    struct site_normal_point **out, size_t *n, char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = stmt_get(s, ST_NPS_LIST, &st, errbuf, errlen)))
-		return e;
-	bind_query(st, q, 1);
-	return collect(s, st, sizeof **out, row_np, (void **)out, n,
-	    "normal points", errbuf, errlen);
-}
-
-enum errcode
-store_nps_count(struct store *s, const struct store_query *q, size_t *n,
-    char *errbuf, size_t errlen)
-{
-	return count_rows(s, ST_NPS_COUNT, q, 1, n, "normal points", errbuf,
-	    errlen);
-}
-
-/* --- Earth orientation ---------------------------------------------------- */
-
-static void
-row_eop(sqlite3_stmt *st, void *dst)
-{
-	struct site_eop_row *o = dst;
-
-	o->mjd = (double)sqlite3_column_int64(st, 0);
-	o->dut1_s = sqlite3_column_double(st, 1);
-	o->xp_arcsec = sqlite3_column_double(st, 2);
-	o->yp_arcsec = sqlite3_column_double(st, 3);
-}
-
-enum errcode
-store_eop_put(struct store *s, const struct site_eop_row *r, char *errbuf,
-    size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	char what[48];
-	enum errcode e;
-
-	if (!isfinite(r->mjd) || r->mjd != floor(r->mjd) ||
-	    fabs(r->mjd) > 1e7) {
-		seterr(errbuf, errlen, "EOP row: field 'mjd': not a whole day");
-		return ERRCODE_BAD_ARG;
-	}
-	snprintf(what, sizeof what, "EOP row of MJD %.0f", r->mjd);
-	if ((e = stmt_get(s, ST_EOP_PUT, &st, errbuf, errlen)))
-		return e;
-	sqlite3_bind_int64(st, 1, (sqlite3_int64)r->mjd);
-	bind_real_or_null(st, 2, r->dut1_s);
-	bind_real_or_null(st, 3, r->xp_arcsec);
-	bind_real_or_null(st, 4, r->yp_arcsec);
-	return step_done(s, st, what, errbuf, errlen);
-}
-
-enum errcode
-store_eop_load(struct store *s, struct site_eop_row **out, size_t *n,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = stmt_get(s, ST_EOP_LOAD, &st, errbuf, errlen)))
-		return e;
-	return collect(s, st, sizeof **out, row_eop, (void **)out, n,
-	    "EOP table", errbuf, errlen);
-}
-
-enum errcode
-store_eop_at(struct store *s, double utc_mjd, struct geom_eop *out,
-    enum eop_source *source, char *errbuf, size_t errlen)
-{
-	struct site_eop_row *rows = NULL;
-	struct eop_table t;
-	sqlite3_stmt *st = NULL;
-	size_t n = 0;
-	enum eop_source src;
-	enum errcode e;
-
-	memset(out, 0, sizeof *out);
-	if (source != NULL)
-		*source = EOP_SOURCE_NONE;
-	if (!isfinite(utc_mjd))
-		return ERRCODE_BAD_TIME;
-	if ((e = stmt_get(s, ST_EOP_AROUND, &st, errbuf, errlen)))
-		return e;
-	sqlite3_bind_double(st, 1, floor(utc_mjd));
-	if ((e = collect(s, st, sizeof *rows, row_eop, (void **)&rows, &n,
-	    "EOP table", errbuf, errlen)))
-		return e;
-	t.rows = rows;
-	t.n = n;
-	src = eop_lookup(&t, utc_mjd, out);
-	if (source != NULL)
-		*source = src;
-	mem_free(rows);
-	return ERRCODE_OK;
-}
-
-enum errcode
-store_eop_span(struct store *s, double *first_mjd, double *last_mjd,
-    char *errbuf, size_t errlen)
-{
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-	int rc;
-
-	if ((e = stmt_get(s, ST_EOP_SPAN, &st, errbuf, errlen)))
-		return e;
-	if ((rc = sqlite3_step(st)) != SQLITE_ROW) {
-		e = db_error(s, sqlite3_extended_errcode(s->db), "EOP table",
-		    errbuf, errlen);
-	} else if (sqlite3_column_int64(st, 2) == 0) {
-		seterr(errbuf, errlen, "the EOP table is empty (load one with "
-		    "'moonrange eop import')");
-		e = ERRCODE_NOT_FOUND;
-	} else {
-		if (first_mjd != NULL)
-			*first_mjd = (double)sqlite3_column_int64(st, 0);
-		if (last_mjd != NULL)
-			*last_mjd = (double)sqlite3_column_int64(st, 1);
-	}
-	stmt_done(st);
-	return e;
 }
 
 /* --- settings ------------------------------------------------------------- */
@@ -1538,21 +873,23 @@ store_setting_get(struct store *s, const char *key, char *buf, size_t len,
 	int rc;
 
 	if (d == NULL) {
-		seterr(errbuf, errlen, "unknown setting '%s'", key ? key : "");
+		store_seterr(errbuf, errlen, "unknown setting '%s'",
+		    key ? key : "");
 		return ERRCODE_BAD_ARG;
 	}
-	if ((e = stmt_get(s, ST_SETTING_GET, &st, errbuf, errlen)))
+	if ((e = store_stmt_get(s, ST_SETTING_GET, &st, errbuf, errlen)))
 		return e;
-	bind_text(st, 1, key);
+	store_bind_text(st, 1, key);
 	rc = sqlite3_step(st);
 	if (rc == SQLITE_ROW)
-		col_text(st, 0, buf, len);
+		store_col_text(st, 0, buf, len);
 	else if (rc == SQLITE_DONE)
 		snprintf(buf, len, "%s", d->info.def);
 	else
-		e = db_error(s, sqlite3_extended_errcode(s->db), "settings",
+		e = store_db_error(s, sqlite3_extended_errcode(s->db),
+		    "settings",
 		    errbuf, errlen);
-	stmt_done(st);
+	store_stmt_done(st);
 	return e;
 }
 
@@ -1567,20 +904,22 @@ store_setting_set(struct store *s, const char *key, const char *value,
 	enum errcode e;
 
 	if (d == NULL) {
-		seterr(errbuf, errlen, "unknown setting '%s'", key ? key : "");
+		store_seterr(errbuf, errlen, "unknown setting '%s'",
+		    key ? key : "");
 		return ERRCODE_BAD_ARG;
 	}
 	if (!setting_valid(d, value, &num)) {
-		seterr(errbuf, errlen, "setting '%s': '%s' is not valid: %s",
+		store_seterr(errbuf, errlen,
+		    "setting '%s': '%s' is not valid: %s",
 		    key, value ? value : "", d->info.help);
 		return ERRCODE_BAD_ARG;
 	}
 	snprintf(what, sizeof what, "setting '%s'", key);
-	if ((e = stmt_get(s, ST_SETTING_SET, &st, errbuf, errlen)))
+	if ((e = store_stmt_get(s, ST_SETTING_SET, &st, errbuf, errlen)))
 		return e;
-	bind_text(st, 1, key);
-	bind_text(st, 2, value);
-	return step_done(s, st, what, errbuf, errlen);
+	store_bind_text(st, 1, key);
+	store_bind_text(st, 2, value);
+	return store_step_done(s, st, what, errbuf, errlen);
 }
 
 enum errcode
@@ -1598,7 +937,8 @@ store_settings_get(struct store *s, struct store_settings *out, char *errbuf,
 		    errlen)))
 			return e;
 		if (!setting_valid(d, v, &num)) {
-			seterr(errbuf, errlen, "setting '%s' holds '%s', which "
+			store_seterr(errbuf, errlen,
+			    "setting '%s' holds '%s', which "
 			    "is not valid", d->info.key, v);
 			return ERRCODE_DB;
 		}

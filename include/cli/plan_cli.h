@@ -7,7 +7,7 @@
 #include "core/plan.h"
 #include "store/plan_db.h"
 #include "query/winquery.h"
-#include "formats/render.h"
+#include "formats/render_plan.h"
 
 /*
  * Start a query: plan_query_init, then the station and data of database

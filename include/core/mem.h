@@ -16,7 +16,7 @@
 
 /*
  * Every heap allocation of moonrange (and of jansson, see
- * render_json_setup in formats/render.h)
+ * render_json_setup in formats/render_json.h)
  * goes through these, so that tests can count allocations and make the
  * n-th one fail.  They return NULL on failure and never abort; mem_free
  * accepts NULL.

@@ -9,7 +9,7 @@
 #include "core/errcode.h"
 #include "core/mem.h"
 #include "core/plan.h"
-#include "formats/render.h"
+#include "formats/render_plan.h"
 
 /* A renderer of a plan: render_windows_json, _csv, _ics, _text, ... */
 typedef enum errcode (*winquery_render_fn)(const struct render_plan *p,

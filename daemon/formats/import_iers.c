@@ -1,0 +1,387 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* import_iers.c: IERS Earth-orientation tables, finals (standard and
+   2000A) and C04. */
+#include <ctype.h>
+#include <errno.h>
+#include <limits.h>
+#include <math.h>
+#include <stdarg.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <erfa.h>
+#include <erfam.h>
+
+#include "core/geom.h"
+#include "core/mem.h"
+#include "core/tscale.h"
+#include "formats/import.h"
+#include "formats/import_util.h"
+
+#define LINE_MAX_EOP 512	/* an IERS line, bytes */
+
+/* ------------------------------------------------------------------ */
+/* IERS Earth orientation                                              */
+/* ------------------------------------------------------------------ */
+
+#define EOP_MAX_PM 2.0		/* |polar motion|, arcsec */
+#define EOP_MAX_DUT1 1.0	/* |UT1-UTC|, s (IERS keeps it < 0.9) */
+
+/* Columns first..last (1-based, inclusive) of a line, trimmed, into out;
+   "" where the line is shorter. */
+static const char *
+column(const char *s, size_t n, size_t first, size_t last, char *out,
+    size_t cap)
+{
+	char tmp[64];
+	size_t a = first - 1, b = last;
+
+	if (a >= n) {
+		out[0] = '\0';
+		return out;
+	}
+	if (b > n)
+		b = n;
+	if (b - a >= sizeof tmp)
+		b = a + sizeof tmp - 1;
+	memcpy(tmp, s + a, b - a);
+	tmp[b - a] = '\0';
+	return import_trim(tmp, out, cap);
+}
+
+/* Check a row against the calendar date, order and ranges; emit it. */
+static enum errcode
+eop_row(int y, int m, int d, double mjd, double x, double yp, double dut1,
+    double *prev_mjd, size_t line, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	struct site_eop_row r;
+	double d1, d2;
+
+	if (eraCal2jd(y, m, d, &d1, &d2) != 0) {
+		import_err(rep, line, "date",
+		    "%04d-%02d-%02d is not a calendar "
+		    "date", y, m, d);
+		rep->bad++;
+		return ERRCODE_OK;
+	}
+	if (fabs(d2 - mjd) > 1e-6) {
+		import_err(rep, line, "MJD", "MJD %.2f is not the date "
+		    "%04d-%02d-%02d (MJD %.0f)", mjd, y, m, d, d2);
+		rep->bad++;
+		return ERRCODE_OK;
+	}
+	if (!isnan(*prev_mjd) && !(mjd > *prev_mjd)) {
+		import_err(rep, line, "MJD", "MJD %.0f does not follow the "
+		    "previous row's %.0f", mjd, *prev_mjd);
+		rep->bad++;
+		return ERRCODE_OK;
+	}
+	if (fabs(x) > EOP_MAX_PM || fabs(yp) > EOP_MAX_PM) {
+		import_err(rep, line, fabs(x) > EOP_MAX_PM ? "x" : "y",
+		    "polar motion %g arcsec is beyond %g", fabs(x) >
+		    EOP_MAX_PM ? x : yp, EOP_MAX_PM);
+		rep->bad++;
+		return ERRCODE_OK;
+	}
+	if (fabs(dut1) >= EOP_MAX_DUT1) {
+		import_err(rep, line, "UT1-UTC", "%g s is beyond the 1 s that "
+		    "UTC allows", dut1);
+		rep->bad++;
+		return ERRCODE_OK;
+	}
+	*prev_mjd = mjd;
+	r.mjd = mjd;
+	r.xp_arcsec = x;
+	r.yp_arcsec = yp;
+	r.dut1_s = dut1;
+	rep->records++;
+	return fn(ctx, &r, line);
+}
+
+/* A fixed-column number: 0 ok, -1 not a number. */
+static int
+col_real(const char *s, size_t n, size_t first, size_t last, double *v,
+    int *empty)
+{
+	char f[64];
+
+	column(s, n, first, last, f, sizeof f);
+	*empty = f[0] == '\0';
+	if (*empty)
+		return -1;
+	return import_parse_real(f, v);
+}
+
+enum errcode
+import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	struct import_lines it;
+	const char *ln;
+	size_t n;
+	int term;
+	double prev = NAN;
+	enum errcode rc;
+
+	import_report_init(rep);
+	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+		return rc;
+	it.p = buf + import_bom_len(buf, len);
+	it.end = buf + len;
+	it.line = 0;
+	while (import_lines_next(&it, &ln, &n, &term)) {
+		double mjd, x, y, dut1;
+		long yy, mm, dd;
+		char f[16], pmflag[4], utflag[4];
+		int e1, e2, e3;
+
+		if (import_blank(ln, n) || ln[0] == '#')
+			continue;
+		if (n > LINE_MAX_EOP) {
+			import_err(rep, it.line, "",
+			    "line longer than %d bytes",
+			    LINE_MAX_EOP);
+			rep->bad++;
+			continue;
+		}
+		if (import_parse_int(column(ln, n, 1, 2, f, sizeof f), 0, 99,
+		    &yy) || import_parse_int(column(ln, n, 3, 4, f, sizeof f),
+		    1, 12, &mm) || import_parse_int(column(ln, n, 5, 6, f,
+		    sizeof f), 1, 31, &dd)) {
+			import_err(rep, it.line, "date",
+			    "columns 1-6 are not a "
+			    "YYMMDD date");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 8, 15, &mjd, &e1) != 0 ||
+		    mjd != floor(mjd) || mjd < 0.0 || mjd > 200000.0) {
+			import_err(rep, it.line, "MJD",
+			    "columns 8-15 are not a "
+			    "whole MJD");
+			rep->bad++;
+			continue;
+		}
+		column(ln, n, 17, 17, pmflag, sizeof pmflag);
+		column(ln, n, 58, 58, utflag, sizeof utflag);
+		col_real(ln, n, 19, 27, &x, &e1);
+		col_real(ln, n, 38, 46, &y, &e2);
+		col_real(ln, n, 59, 68, &dut1, &e3);
+		if (e1 && e2 && e3 && pmflag[0] == '\0' && utflag[0] == '\0') {
+			rep->skipped++;	/* a date beyond the predictions */
+			continue;
+		}
+		if (n < 68) {
+			import_err(rep, it.line, "UT1-UTC", "the line ends at "
+			    "column %zu, before UT1-UTC (columns 59-68): "
+			    "truncated?", n);
+			rep->bad++;
+			continue;
+		}
+		if ((pmflag[0] != 'I' && pmflag[0] != 'P') ||
+		    (utflag[0] != 'I' && utflag[0] != 'P')) {
+			import_err(rep, it.line, pmflag[0] != 'I' &&
+			    pmflag[0] != 'P' ? "PM_flag" : "UT1_flag",
+			    "flag is not I (IERS) or P (prediction)");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 19, 27, &x, &e1) != 0) {
+			import_err(rep, it.line, "PM_x",
+			    "columns 19-27 are not "
+			    "a number of arcseconds");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 38, 46, &y, &e2) != 0) {
+			import_err(rep, it.line, "PM_y",
+			    "columns 38-46 are not "
+			    "a number of arcseconds");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 59, 68, &dut1, &e3) != 0) {
+			import_err(rep, it.line, "UT1-UTC",
+			    "columns 59-68 are "
+			    "not a number of seconds");
+			rep->bad++;
+			continue;
+		}
+		rc = eop_row((int)(yy + (mjd <= 51543.0 ? 1900 : 2000)),
+		    (int)mm, (int)dd, mjd, x, y, dut1, &prev, it.line, fn, ctx,
+		    rep);
+		if (rc != ERRCODE_OK)
+			return rc;
+	}
+	if (rep->records == 0 && rep->bad == 0) {
+		import_err(rep, 0, "", "no Earth-orientation rows found");
+		rep->bad++;
+	}
+	return import_status(rep);
+}
+
+enum errcode
+import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	struct import_lines it;
+	const char *ln;
+	size_t n;
+	int term, data = 0;
+	double prev = NAN;
+	enum errcode rc;
+
+	import_report_init(rep);
+	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+		return rc;
+	it.p = buf + import_bom_len(buf, len);
+	it.end = buf + len;
+	it.line = 0;
+	while (import_lines_next(&it, &ln, &n, &term)) {
+		double mjd, x, y, dut1;
+		long yy, mm, dd;
+		char f[16];
+		size_t i = 0;
+		int e;
+
+		if (import_blank(ln, n) || ln[0] == '#')
+			continue;
+		while (i < n && ln[i] == ' ')
+			i++;
+		if (!isdigit((unsigned char)ln[i])) {
+			if (data) {
+				import_err(rep, it.line, "",
+				    "text among the data "
+				    "rows");
+				rep->bad++;
+			}
+			continue;	/* the header */
+		}
+		data = 1;
+		if (n > LINE_MAX_EOP) {
+			import_err(rep, it.line, "",
+			    "line longer than %d bytes",
+			    LINE_MAX_EOP);
+			rep->bad++;
+			continue;
+		}
+		if (n < 53) {
+			import_err(rep, it.line, "UT1-UTC", "the line ends at "
+			    "column %zu, before the end of UT1-UTC (column "
+			    "53): truncated?", n);
+			rep->bad++;
+			continue;
+		}
+		if (import_parse_int(column(ln, n, 1, 4, f, sizeof f), 1900,
+		    2999, &yy) || import_parse_int(column(ln, n, 5, 8, f,
+		    sizeof f), 1, 12, &mm) || import_parse_int(column(ln, n, 9,
+		    12, f, sizeof f), 1, 31, &dd)) {
+			import_err(rep, it.line, "date",
+			    "columns 1-12 are not "
+			    "a year, month and day");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 13, 19, &mjd, &e) != 0 ||
+		    mjd != floor(mjd)) {
+			import_err(rep, it.line, "MJD",
+			    "columns 13-19 are not "
+			    "a whole MJD");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 20, 30, &x, &e) != 0) {
+			import_err(rep, it.line, "x",
+			    "columns 20-30 are not a "
+			    "number of arcseconds");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 31, 41, &y, &e) != 0) {
+			import_err(rep, it.line, "y",
+			    "columns 31-41 are not a "
+			    "number of arcseconds");
+			rep->bad++;
+			continue;
+		}
+		if (col_real(ln, n, 42, 53, &dut1, &e) != 0) {
+			import_err(rep, it.line, "UT1-UTC",
+			    "columns 42-53 are "
+			    "not a number of seconds");
+			rep->bad++;
+			continue;
+		}
+		rc = eop_row((int)yy, (int)mm, (int)dd, mjd, x, y, dut1, &prev,
+		    it.line, fn, ctx, rep);
+		if (rc != ERRCODE_OK)
+			return rc;
+	}
+	if (rep->records == 0 && rep->bad == 0) {
+		import_err(rep, 0, "", "no Earth-orientation rows found");
+		rep->bad++;
+	}
+	return import_status(rep);
+}
+
+enum import_eop_format
+import_eop_detect(const char *buf, size_t len)
+{
+	struct import_lines it;
+	const char *ln;
+	size_t n;
+	int term;
+
+	if (buf == NULL)
+		return IMPORT_EOP_UNKNOWN;
+	it.p = buf + import_bom_len(buf, len);
+	it.end = buf + len;
+	it.line = 0;
+	while (import_lines_next(&it, &ln, &n, &term)) {
+		size_t i = 0, d = 0;
+
+		if (import_blank(ln, n) || ln[0] == '#')
+			continue;
+		/* C04 opens with a text header; finals with data rows */
+		while (i < n && ln[i] == ' ')
+			i++;
+		if (i < n && !isdigit((unsigned char)ln[i]))
+			return IMPORT_EOP_C04;
+		/* a finals row: YYMMDD, a blank, the MJD as F8.2 in columns
+		   8-15; a C04 row: a four-digit year, the MJD as I7 in
+		   columns 13-19 */
+		if (n >= 15 && ln[6] == ' ' && ln[12] == '.')
+			return IMPORT_EOP_FINALS;
+		for (i = 0; i < n && i < 4 && isdigit((unsigned char)ln[i]);
+		    i++)
+			d++;
+		if (d == 4 && n >= 19 && isdigit((unsigned char)ln[18]))
+			return IMPORT_EOP_C04;
+		return IMPORT_EOP_UNKNOWN;
+	}
+	return IMPORT_EOP_UNKNOWN;
+}
+
+enum errcode
+import_eop(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	enum errcode rc;
+
+	import_report_init(rep);
+	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+		return rc;
+	switch (import_eop_detect(buf, len)) {
+	case IMPORT_EOP_FINALS:
+		return import_eop_finals(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_C04:
+		return import_eop_c04(buf, len, fn, ctx, rep);
+	case IMPORT_EOP_UNKNOWN:
+		break;
+	}
+	import_err(rep, 0, "", "neither the IERS finals2000A nor the EOP 14 "
+	    "C04 format");
+	rep->bad++;
+	return ERRCODE_UNSUPPORTED;
+}

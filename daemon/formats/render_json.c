@@ -1,0 +1,69 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* render_json.c: what the JSON renderers share: rounded numbers, ISO
+   times, dumping into an mbuf, and jansson's allocator. */
+#include <math.h>
+
+#include <jansson.h>
+
+#include "core/mem.h"
+#include "core/tscale.h"
+#include "formats/render_json.h"
+
+json_t *
+render_json_num(double v, int decimals)
+{
+	double s = pow(10.0, decimals);
+
+	if (!isfinite(v))
+		return json_null();
+	return json_real(round(v * s) / s);
+}
+
+/* json_dump_callback sink: append to the mbuf, fail once it has failed. */
+static int
+mbuf_sink(const char *buf, size_t size, void *data)
+{
+	struct mbuf *b = data;
+
+	mbuf_add(b, buf, size);
+	return mbuf_status(b) == ERRCODE_OK ? 0 : -1;
+}
+
+enum errcode
+render_json_dump(json_t *root, struct mbuf *out)
+{
+	size_t mark = out->len;
+	int rc;
+
+	if (root == NULL)
+		return ERRCODE_NOMEM;
+	rc = json_dump_callback(root, mbuf_sink, out,
+	    JSON_INDENT(2) | JSON_REAL_PRECISION(15));
+	json_decref(root);
+	if (rc != 0) {
+		/* Drop a partial document (when the mbuf itself is intact). */
+		if (mbuf_status(out) == ERRCODE_OK && out->data != NULL) {
+			out->len = mark;
+			out->data[mark] = '\0';
+		}
+		return ERRCODE_NOMEM;
+	}
+	mbuf_puts(out, "\n");
+	return mbuf_status(out);
+}
+
+json_t *
+render_json_iso(double utc1, double utc2)
+{
+	char buf[40];
+
+	if (tscale_format_utc(utc1, utc2, 0, buf, sizeof buf) != ERRCODE_OK)
+		return json_null();
+	return json_string(buf);
+}
+
+void
+render_json_setup(void)
+{
+	json_set_alloc_funcs(mem_alloc, mem_free);
+}

@@ -1,0 +1,309 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* api_plan.c: the planning handlers: phases, windows (and .ics), coverage
+   (and .csv, .svg), and the daemon's plan refresh. */
+#include <math.h>
+#include <pthread.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+
+#include <erfam.h>
+#include <jansson.h>
+
+#include "http/api.h"
+#include "http/api_int.h"
+#include "query/winquery.h"
+#include "query/covquery.h"
+#include "core/derive.h"
+#include "core/eop.h"
+#include "core/geom.h"
+#include "core/plan.h"
+#include "store/plan_db.h"
+#include "formats/render_time.h"
+#include "formats/render_phases.h"
+#include "formats/render_plan.h"
+#include "formats/render_site.h"
+#include "store/store.h"
+#include "core/tscale.h"
+
+void
+api_h_phases(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	struct geom_phase_event *ev;
+	struct tscale_instant a, b;
+	struct render_phases rp;
+	size_t n = 0;
+	enum errcode rc;
+
+	(void)ctx;
+	memset(&rp, 0, sizeof rp);
+	if (api_param_span(req, 30.0, SPAN_MAX_DAYS, &rp.from1, &rp.from2,
+	    &rp.to1, &rp.to2, &a,
+	    &b, resp))
+		return;
+	ev = mem_calloc(PHASES_CAP, sizeof *ev);
+	if (ev == NULL) {
+		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
+		return;
+	}
+	rc = geom_phases_find(a.tt1, a.tt2, b.tt1, b.tt2, ev, PHASES_CAP, &n);
+	if (rc == ERRCODE_OK) {
+		rp.ev = ev;
+		rp.n = n;
+		rc = render_phases_json(&rp, &resp->body);
+	}
+	api_ok_or_error(resp, rc, 200, "application/json");
+	mem_free(ev);
+}
+
+/*
+ * Under the lock: 0 if the daemon has no database (503 set); 1 if the
+ * plan cache answered (cache is the plan's bytes, used when want); 2 to
+ * compute the answer.
+ */
+static int
+cache_or_compute(struct api_ctx *ctx, const struct mbuf *cache, int want,
+    struct api_response *resp)
+{
+	int r = 2;
+
+	pthread_mutex_lock(&ctx->lock);
+	if (!api_store_open_ok(ctx, resp)) {
+		r = 0;
+	} else if (want && ctx->planned && cache->len > 0 &&
+	    mbuf_status(cache) == ERRCODE_OK) {
+		/* The plan cache: the coming days as of the last refresh. */
+		mbuf_add(&resp->body, cache->data, cache->len);
+		api_ok_or_error(resp, ERRCODE_OK, 200, "application/json");
+		r = 1;
+	}
+	pthread_mutex_unlock(&ctx->lock);
+	return r;
+}
+
+/*
+ * Ranked windows of [from, to) from the open database, rendered as JSON
+ * or iCalendar: the planner's query filled by plan_db_fill, then run and
+ * rendered by winquery_render, as "moonrange windows" does.
+ */
+static enum errcode
+windows_render(struct store *db, double from_mjd, double to_mjd,
+    const char *target, size_t limit, int ics, double now_mjd,
+    struct mbuf *out, size_t *nwindows, char *err, size_t errlen)
+{
+	struct plan_query q;
+	struct plan_db hold;
+	struct render_plan rp;
+	enum errcode rc;
+
+	plan_query_init(&q);
+	plan_db_init(&hold);
+	rc = plan_db_fill(db, &q, &hold, err, errlen);
+	if (rc != ERRCODE_OK)
+		goto out;
+	q.from_mjd = from_mjd;
+	q.to_mjd = to_mjd;
+	q.target = target;
+	q.limit = limit;
+	memset(&rp, 0, sizeof rp);
+	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
+	rp.time_zone = q.station.time_zone[0] != '\0' &&
+	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
+	rp.now_mjd = now_mjd;
+	rc = winquery_render(&q, &rp, ics ? render_windows_ics :
+	    render_windows_json, out, nwindows, err, errlen);
+out:
+	plan_db_free(&hold);
+	return rc;
+}
+
+static void
+windows_common(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, int ics)
+{
+	struct tscale_instant a, b;
+	struct store *db;
+	double f1, f2, t1, t2;
+	size_t limit = 0;
+	char err[300];
+	int locked;
+	enum errcode rc;
+
+	if (cache_or_compute(ctx, &ctx->plan_windows, !ics &&
+	    req->nparams == 0, resp) != 2)
+		return;
+	if (api_param_span(req, WINDOWS_DAYS_DEFAULT, WINDOWS_DAYS_MAX, &f1,
+	    &f2,
+	    &t1, &t2, &a, &b, resp))
+		return;
+	if (api_param_count(req, "limit", 1, PLAN_MAX_WINDOWS, &limit, resp))
+		return;
+	err[0] = '\0';
+	db = api_read_store(ctx, &locked);
+	rc = windows_render(db, (f1 - ERFA_DJM0) + f2,
+	    (t1 - ERFA_DJM0) + t2, api_param(req, "target"), limit, ics,
+	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
+	    sizeof err);
+	api_release_store(ctx, db, locked);
+	if (rc == ERRCODE_OK)
+		api_ok_or_error(resp, rc, 200,
+		    ics ? "text/calendar; charset=utf-8" :
+		    "application/json");
+	else if (rc == ERRCODE_NOT_FOUND)	/* the target */
+		api_error(resp, ERRCODE_BAD_ARG, "target", err[0] ? err : NULL);
+	else if (rc == ERRCODE_TOO_LARGE)	/* the span's windows */
+		api_error(resp, ERRCODE_BAD_ARG, "to", err[0] ? err :
+		    "too many windows: shorten the span or set a limit");
+	else
+		api_error(resp, rc, NULL, err[0] ? err : NULL);
+}
+
+void
+api_h_windows(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	windows_common(ctx, req, resp, 0);
+}
+
+void
+api_h_windows_ics(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	windows_common(ctx, req, resp, 1);
+}
+
+/* coverage, coverage.csv, coverage.svg: the CLI's query path. */
+static void
+coverage_common(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, enum covquery_format fmt, const char *ctype)
+{
+	struct covquery_params p;
+	struct store *db;
+	char err[300];
+	int locked;
+	enum errcode rc;
+
+	if (cache_or_compute(ctx, &ctx->plan_coverage, fmt == COVQUERY_JSON &&
+	    req->nparams == 0, resp) != 2)
+		return;
+	covquery_params_init(&p);
+	for (size_t i = 0; i < req->nparams; i++) {
+		err[0] = '\0';
+		rc = covquery_param_set(&p, req->params[i].key,
+		    req->params[i].value, err, sizeof err);
+		if (rc != ERRCODE_OK) {
+			api_error(resp, rc == ERRCODE_NOT_FOUND ?
+			    ERRCODE_BAD_ARG : rc, req->params[i].key,
+			    err[0] ? err : NULL);
+			return;
+		}
+	}
+	p.now_mjd = (req->now1 - ERFA_DJM0) + req->now2;
+	err[0] = '\0';
+	db = api_read_store(ctx, &locked);
+	rc = covquery_run(db, &p, fmt, &resp->body, err, sizeof err);
+	api_release_store(ctx, db, locked);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc == ERRCODE_NOT_FOUND ? ERRCODE_BAD_ARG : rc,
+		    rc == ERRCODE_NOT_FOUND ? "target" : NULL,
+		    err[0] ? err : NULL);
+		return;
+	}
+	api_ok_or_error(resp, rc, 200, ctype);
+}
+
+void
+api_h_coverage(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_JSON, "application/json");
+}
+
+void
+api_h_coverage_csv(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_CSV,
+	    "text/csv; charset=utf-8; header=present");
+}
+
+void
+api_h_coverage_svg(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	coverage_common(ctx, req, resp, COVQUERY_SVG, "image/svg+xml");
+}
+
+
+enum errcode
+api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
+    size_t errlen)
+{
+	struct store_settings set;
+	struct covquery_params p;
+	struct store *db;
+	struct mbuf w, c;
+	double now_mjd = (now1 - ERFA_DJM0) + now2, days;
+	size_t n = 0;
+	int locked;
+	enum errcode rc;
+
+	mbuf_init(&w);
+	mbuf_init(&c);
+	/* A write from now on asks for the next plan: this one may not
+	   see it. */
+	pthread_mutex_lock(&ctx->lock);
+	ctx->replan = 0;
+	db = ctx->db;
+	pthread_mutex_unlock(&ctx->lock);
+	if (db == NULL) {
+		snprintf(errbuf, errlen, "no database open");
+		return ERRCODE_CONFIG;
+	}
+	/* Computed on a connection of its own: requests go on meanwhile. */
+	db = api_read_store(ctx, &locked);
+	rc = store_settings_get(db, &set, errbuf, errlen);
+	if (rc == ERRCODE_OK) {
+		days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
+		rc = windows_render(db, now_mjd, now_mjd + days, NULL, 0, 0,
+		    now_mjd, &w, &n, errbuf, errlen);
+	}
+	if (rc == ERRCODE_OK) {
+		covquery_params_init(&p);
+		p.now_mjd = now_mjd;
+		rc = covquery_run(db, &p, COVQUERY_JSON, &c, errbuf, errlen);
+	}
+	api_release_store(ctx, db, locked);
+	if (rc == ERRCODE_OK) {
+		pthread_mutex_lock(&ctx->lock);
+		mbuf_free(&ctx->plan_windows);
+		mbuf_free(&ctx->plan_coverage);
+		ctx->plan_windows = w;
+		ctx->plan_coverage = c;
+		mbuf_init(&w);
+		mbuf_init(&c);
+		ctx->plan_nwindows = n;
+		ctx->plan_days_used = days;
+		ctx->planned = 1;
+		ctx->plan_utc1 = now1;
+		ctx->plan_utc2 = now2;
+		pthread_mutex_unlock(&ctx->lock);
+	}
+	mbuf_free(&w);
+	mbuf_free(&c);
+	return rc;
+}
+
+int
+api_replan_wanted(struct api_ctx *ctx)
+{
+	int w;
+
+	pthread_mutex_lock(&ctx->lock);
+	w = ctx->replan;
+	ctx->replan = 0;
+	pthread_mutex_unlock(&ctx->lock);
+	return w;
+}

@@ -1,0 +1,195 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* api_site.c: the handlers of the station and the sky now: status, site,
+   targets, now. */
+#include <math.h>
+#include <pthread.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <strings.h>
+
+#include <erfam.h>
+#include <jansson.h>
+
+#include "http/api.h"
+#include "http/api_int.h"
+#include "query/winquery.h"
+#include "query/covquery.h"
+#include "core/derive.h"
+#include "core/eop.h"
+#include "core/geom.h"
+#include "core/plan.h"
+#include "store/plan_db.h"
+#include "formats/render_json.h"
+#include "formats/render_ephem.h"
+#include "formats/render_site.h"
+#include "store/store.h"
+#include "core/tscale.h"
+
+/* --- handlers --- */
+
+void
+api_h_status(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	json_t *root = json_object(), *o;
+	const struct api_site *s = &ctx->site;
+	double now_mjd = (req->now1 - ERFA_DJM0) + req->now2;
+	double up = tscale_to_posix(req->now1, req->now2) - ctx->start_posix;
+	double su1, su2;
+	size_t active = 0;
+	int bad = root == NULL;
+
+	if (bad)
+		goto out;
+	for (size_t i = 0; i < s->ntargets; i++)
+		active += s->targets[i].active != 0;
+	if (tscale_from_posix(ctx->start_posix, &su1, &su2) != ERRCODE_OK)
+		su1 = su2 = NAN;
+	bad |= json_object_set_new(root, "version",
+	    json_string(MOONRANGE_VERSION));
+	bad |= json_object_set_new(root, "api", json_string("v1"));
+	bad |= json_object_set_new(root, "now_utc",
+	    api_iso_or_null(req->now1, req->now2));
+	bad |= json_object_set_new(root, "started_utc", api_iso_or_null(su1,
+	    su2));
+	bad |= json_object_set_new(root, "uptime_s",
+	    json_integer((json_int_t)(up > 0 ? floor(up) : 0)));
+	bad |= json_object_set_new(root, "database",
+	    ctx->db_path ? json_string(ctx->db_path) : json_null());
+	bad |= json_object_set_new(root, "station",
+	    s->station.name[0] ? json_string(s->station.name) : json_null());
+	bad |= json_object_set_new(root, "targets_active",
+	    json_integer((json_int_t)active));
+	bad |= json_object_set_new(root, "writes_enabled",
+	    json_boolean(ctx->token_len > 0));
+
+	o = json_object();
+	bad |= json_object_set_new(root, "plan", o);
+	if (o != NULL) {
+		bad |= json_object_set_new(o, "last_utc", ctx->planned ?
+		    api_iso_or_null(ctx->plan_utc1,
+		    ctx->plan_utc2) : json_null());
+		bad |= json_object_set_new(o, "refresh_s",
+		    render_json_num(ctx->refresh_s, 0));
+		bad |= json_object_set_new(o, "days", ctx->planned ?
+		    render_json_num(ctx->plan_days_used, 3) : json_null());
+		bad |= json_object_set_new(o, "windows", ctx->planned ?
+		    json_integer((json_int_t)ctx->plan_nwindows) : json_null());
+	}
+
+	o = json_object();
+	bad |= json_object_set_new(root, "eop", o);
+	if (o != NULL) {
+		int covers = s->neop > 0 && now_mjd >= s->eop[0].mjd &&
+		    now_mjd <= s->eop[s->neop - 1].mjd;
+
+		bad |= json_object_set_new(o, "rows",
+		    json_integer((json_int_t)s->neop));
+		bad |= json_object_set_new(o, "first_utc", s->neop ?
+		    api_iso_of_mjd(s->eop[0].mjd) : json_null());
+		bad |= json_object_set_new(o, "last_utc", s->neop ?
+		    api_iso_of_mjd(s->eop[s->neop - 1].mjd) : json_null());
+		bad |= json_object_set_new(o, "covers_now",
+		    json_boolean(covers));
+	}
+out:
+	api_json_reply(resp, root, bad);
+}
+
+/* The station and the targets: the renderers of "station show --json"
+   and "target list --json". */
+void
+api_h_site(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	enum errcode rc;
+
+	(void)req;
+	if (!api_site_loaded(ctx, resp))
+		return;
+	rc = render_site_station_json(&ctx->site.station, &resp->body);
+	api_ok_or_error(resp, rc, 200, "application/json");
+}
+
+void
+api_h_targets(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	enum errcode rc;
+
+	(void)req;
+	rc = render_site_targets_json(ctx->site.targets, ctx->site.ntargets,
+	    &resp->body);
+	api_ok_or_error(resp, rc, 200, "application/json");
+}
+
+void
+api_h_now(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	const struct site_station *st = &ctx->site.station;
+	struct render_target_row *rows = NULL;
+	struct geom_site site;
+	struct geom_eop eop = {0.0, 0.0, 0.0};
+	struct geom_instant *g = NULL;
+	struct render_ephem rep;
+	enum eop_source src;
+	double u1 = req->now1, u2 = req->now2;
+	char last[40];
+	size_t n = 0;
+	enum errcode rc;
+
+	if (!api_site_loaded(ctx, resp))
+		return;
+	if (api_param(req, "at") && api_param_time(req, "at", &u1, &u2, resp))
+		return;
+	if (derive_site(st, &site) != ERRCODE_OK) {
+		api_error(resp, ERRCODE_CONFIG, NULL,
+		    "the station's position is out of range");
+		return;
+	}
+	src = api_site_eop_at(&ctx->site, (u1 - ERFA_DJM0) + u2, &eop);
+	/* The table's last day, as "ephem --db" reports it. */
+	if (ctx->site.neop == 0 || tscale_format_utc(ERFA_DJM0,
+	    ctx->site.eop[ctx->site.neop - 1].mjd, 0, last, sizeof last))
+		last[0] = '\0';
+	last[10] = '\0';
+	g = mem_alloc(sizeof *g);
+	rows = mem_calloc(ctx->site.ntargets + 1, sizeof *rows);
+	if (g == NULL || rows == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	rc = geom_instant_at(&site, &eop, u1, u2, GEOM_PREC_FULL, g);
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, "at",
+		    "at: the instant cannot be converted");
+		goto done;
+	}
+	for (size_t i = 0; i < ctx->site.ntargets; i++) {
+		const struct site_target *t = &ctx->site.targets[i];
+		struct geom_target gt;
+
+		if (!t->active || geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &gt) != ERRCODE_OK)
+			continue;
+		rows[n].id = t->id;
+		geom_target_view(g, &gt, &rows[n].view);
+		n++;
+	}
+	memset(&rep, 0, sizeof rep);
+	rep.g = g;
+	rep.targets = rows;
+	rep.ntargets = n;
+	rep.dut1_source = eop_source_name(src);
+	rep.eop_last_utc = last[0] ? last : NULL;
+	rep.station_name = st->name;
+	rep.time_zone = st->time_zone[0] ? st->time_zone : NULL;
+	rc = render_ephem_json(&rep, &resp->body);
+out:
+	api_ok_or_error(resp, rc, 200, "application/json");
+done:
+	mem_free(rows);
+	mem_free(g);
+}

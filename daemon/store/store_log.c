@@ -1,0 +1,295 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* store_log.c: the ranging log in the database: attempts and normal points,
+   and the filters of their listings. */
+#include <math.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <sqlite3.h>
+
+#include "core/derive.h"
+#include "core/mem.h"
+#include "core/text.h"
+#include "core/tscale.h"
+#include "store/store.h"
+#include "store/store_db.h"
+
+/* --- queries -------------------------------------------------------------- */
+
+void
+store_query_init(struct store_query *q)
+{
+	memset(q, 0, sizeof *q);
+	q->since_mjd = NAN;
+	q->until_mjd = NAN;
+}
+
+static void
+bind_query(sqlite3_stmt *st, const struct store_query *q, int with_station)
+{
+	store_bind_real_or_null(st, 1, q->since_mjd);
+	store_bind_real_or_null(st, 2, q->until_mjd);
+	store_bind_text_or_null(st, 3, q->target);
+	sqlite3_bind_int(st, 4, q->newest_first ? 1 : 0);
+	sqlite3_bind_int64(st, 5, q->limit > 0 && q->limit < INT64_MAX ?
+	    (sqlite3_int64)q->limit : -1);
+	if (with_station)
+		store_bind_text_or_null(st, 6, q->station_code);
+}
+
+static enum errcode
+count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
+    int with_station, size_t *n, const char *what, char *errbuf,
+    size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+	int rc;
+
+	*n = 0;
+	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+		return e;
+	bind_query(st, q, with_station);
+	if ((rc = sqlite3_step(st)) == SQLITE_ROW)
+		*n = (size_t)sqlite3_column_int64(st, 0);
+	else
+		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
+		    errbuf,
+		    errlen);
+	store_stmt_done(st);
+	return e;
+}
+
+/* --- attempts ------------------------------------------------------------- */
+
+static void
+row_attempt(sqlite3_stmt *st, void *dst)
+{
+	struct site_attempt *o = dst;
+	char outcome[SITE_OUTCOME_LEN];
+	int oc;
+
+	o->id = (long)sqlite3_column_int64(st, 0);
+	store_col_text(st, 1, o->target, sizeof o->target);
+	o->start_mjd = sqlite3_column_double(st, 2);
+	o->end_mjd = sqlite3_column_double(st, 3);
+	o->shots = (long)sqlite3_column_int64(st, 4);
+	o->returns = (long)sqlite3_column_int64(st, 5);
+	o->normal_points = (long)sqlite3_column_int64(st, 6);
+	store_col_text(st, 7, outcome, sizeof outcome);
+	oc = site_outcome_parse(outcome);
+	o->outcome = oc >= 0 ? (enum site_outcome)oc : SITE_OUTCOME_OTHER;
+	store_col_text(st, 8, o->operator_name, sizeof o->operator_name);
+	o->seeing_arcsec = store_col_real_or_nan(st, 9);
+	store_col_text(st, 10, o->notes, sizeof o->notes);
+	o->synodic_deg = sqlite3_column_double(st, 11);
+	o->mean_elong_deg = sqlite3_column_double(st, 12);
+	o->target_el_deg = sqlite3_column_double(st, 13);
+	o->sun_el_target_deg = sqlite3_column_double(st, 14);
+}
+
+enum errcode
+store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
+    size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	char t0[40], t1[40], what[SITE_ID_LEN + 80];
+	enum errcode e;
+
+	snprintf(what, sizeof what, "attempt on '%s'", a->target);
+	if ((e = store_canon(&a->start_mjd, STORE_TIME_NDP, t0, sizeof t0, what,
+	    "start", errbuf, errlen)) ||
+	    (e = store_canon(&a->end_mjd, STORE_TIME_NDP, t1, sizeof t1, what,
+	    "end",
+	    errbuf, errlen)))
+		return e;
+	snprintf(what, sizeof what, "attempt on '%s' at %s", a->target, t0);
+	if ((e = store_stmt_get(s, ST_ATTEMPT_ADD, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, a->target);
+	store_bind_text(st, 2, t0);
+	sqlite3_bind_double(st, 3, a->start_mjd);
+	store_bind_text(st, 4, t1);
+	sqlite3_bind_double(st, 5, a->end_mjd);
+	sqlite3_bind_int64(st, 6, a->shots);
+	sqlite3_bind_int64(st, 7, a->returns);
+	sqlite3_bind_int64(st, 8, a->normal_points);
+	if ((unsigned)a->outcome < SITE_OUTCOME__COUNT)
+		store_bind_text(st, 9, site_outcome_name(a->outcome));
+	else
+		store_bind_text(st, 9, "?");
+	store_bind_text(st, 10, a->operator_name);
+	store_bind_real_or_null(st, 11, a->seeing_arcsec);
+	store_bind_text(st, 12, a->notes);
+	store_bind_real_or_null(st, 13, a->synodic_deg);
+	store_bind_real_or_null(st, 14, a->mean_elong_deg);
+	store_bind_real_or_null(st, 15, a->target_el_deg);
+	store_bind_real_or_null(st, 16, a->sun_el_target_deg);
+	e = store_step_done(s, st, what, errbuf, errlen);
+	if (e == ERRCODE_EXISTS)
+		store_seterr(errbuf, errlen,
+		    "%s: target '%s' already has an attempt "
+		    "starting at %s", what, a->target, t0);
+	if (e != ERRCODE_OK)
+		return e;
+	a->id = (long)sqlite3_last_insert_rowid(s->db);
+	return ERRCODE_OK;
+}
+
+enum errcode
+store_attempt_log(struct store *s, struct site_attempt *a, char *errbuf,
+    size_t errlen)
+{
+	struct site_station station;
+	struct site_target t;
+	struct geom_eop eop;
+	enum errcode e;
+
+	if ((e = store_station_get(s, &station, errbuf, errlen)) ||
+	    (e = store_target_get(s, a->target, &t, errbuf, errlen)))
+		return e;
+	if (!(a->end_mjd > a->start_mjd)) {
+		store_seterr(errbuf, errlen,
+		    "attempt on '%s': field 'end_utc': not "
+		    "after the start", a->target);
+		return ERRCODE_BAD_ARG;
+	}
+	if ((e = store_eop_at(s, 0.5 * (a->start_mjd + a->end_mjd), &eop, NULL,
+	    errbuf, errlen)))
+		return e;
+	if ((e = derive_attempt(&station, &t, &eop, a)) != ERRCODE_OK) {
+		store_seterr(errbuf, errlen,
+		    "attempt on '%s': field 'start_utc': "
+		    "cannot compute the geometry (%s)", a->target,
+		    errcode_str(e));
+		return e;
+	}
+	return store_attempt_add(s, a, errbuf, errlen);
+}
+
+enum errcode
+store_attempt_get(struct store *s, long id, struct site_attempt *out,
+    char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_ATTEMPT_GET, &st, errbuf, errlen)))
+		return e;
+	sqlite3_bind_int64(st, 1, id);
+	memset(out, 0, sizeof *out);
+	e = store_fetch_one(s, st, row_attempt, out, "attempt", errbuf, errlen);
+	if (e == ERRCODE_NOT_FOUND)
+		store_seterr(errbuf, errlen, "no attempt with id %ld", id);
+	return e;
+}
+
+enum errcode
+store_attempts_list(struct store *s, const struct store_query *q,
+    struct site_attempt **out, size_t *n, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	*out = NULL;
+	*n = 0;
+	if ((e = store_stmt_get(s, ST_ATTEMPTS_LIST, &st, errbuf, errlen)))
+		return e;
+	bind_query(st, q, 0);
+	return store_collect(s, st, sizeof **out, row_attempt, (void **)out, n,
+	    "attempts", errbuf, errlen);
+}
+
+enum errcode
+store_attempts_count(struct store *s, const struct store_query *q, size_t *n,
+    char *errbuf, size_t errlen)
+{
+	return count_rows(s, ST_ATTEMPTS_COUNT, q, 0, n, "attempts", errbuf,
+	    errlen);
+}
+
+/* --- normal points -------------------------------------------------------- */
+
+static void
+row_np(sqlite3_stmt *st, void *dst)
+{
+	struct site_normal_point *o = dst;
+
+	o->id = (long)sqlite3_column_int64(st, 0);
+	store_col_text(st, 1, o->target, sizeof o->target);
+	store_col_text(st, 2, o->station_code, sizeof o->station_code);
+	o->epoch_mjd = sqlite3_column_double(st, 3);
+	o->tof_s = sqlite3_column_double(st, 4);
+	o->photons = (long)sqlite3_column_int64(st, 5);
+	o->rms_ps = store_col_real_or_nan(st, 6);
+	o->synodic_deg = sqlite3_column_double(st, 7);
+	o->mean_elong_deg = sqlite3_column_double(st, 8);
+	o->target_el_deg = store_col_real_or_nan(st, 9);
+	o->sun_el_target_deg = sqlite3_column_double(st, 10);
+}
+
+enum errcode
+store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
+    char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	char t0[40], what[SITE_ID_LEN + SITE_CODE_LEN + 80];
+	enum errcode e;
+
+	if (inserted != NULL)
+		*inserted = 0;
+	snprintf(what, sizeof what, "normal point of '%s'", np->target);
+	if ((e = store_canon(&np->epoch_mjd, STORE_NP_TIME_NDP, t0, sizeof t0,
+	    what,
+	    "epoch", errbuf, errlen)))
+		return e;
+	snprintf(what, sizeof what, "normal point of '%s' at %s", np->target,
+	    t0);
+	if ((e = store_stmt_get(s, ST_NP_ADD, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, np->target);
+	store_bind_text(st, 2, np->station_code);
+	store_bind_text(st, 3, t0);
+	sqlite3_bind_double(st, 4, np->epoch_mjd);
+	store_bind_real_or_null(st, 5, np->tof_s);
+	sqlite3_bind_int64(st, 6, np->photons);
+	store_bind_real_or_null(st, 7, np->rms_ps);
+	store_bind_real_or_null(st, 8, np->synodic_deg);
+	store_bind_real_or_null(st, 9, np->mean_elong_deg);
+	store_bind_real_or_null(st, 10, np->target_el_deg);
+	store_bind_real_or_null(st, 11, np->sun_el_target_deg);
+	if ((e = store_step_done(s, st, what, errbuf, errlen)))
+		return e;
+	if (sqlite3_changes(s->db) > 0) {
+		np->id = (long)sqlite3_last_insert_rowid(s->db);
+		if (inserted != NULL)
+			*inserted = 1;
+	}
+	return ERRCODE_OK;
+}
+
+enum errcode
+store_nps_list(struct store *s, const struct store_query *q,
+    struct site_normal_point **out, size_t *n, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	*out = NULL;
+	*n = 0;
+	if ((e = store_stmt_get(s, ST_NPS_LIST, &st, errbuf, errlen)))
+		return e;
+	bind_query(st, q, 1);
+	return store_collect(s, st, sizeof **out, row_np, (void **)out, n,
+	    "normal points", errbuf, errlen);
+}
+
+enum errcode
+store_nps_count(struct store *s, const struct store_query *q, size_t *n,
+    char *errbuf, size_t errlen)
+{
+	return count_rows(s, ST_NPS_COUNT, q, 1, n, "normal points", errbuf,
+	    errlen);
+}

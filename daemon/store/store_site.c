@@ -1,0 +1,281 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* store_site.c: the site in the database: the station, the targets and the
+   blackouts. */
+#include <math.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+
+#include <sqlite3.h>
+
+#include "core/derive.h"
+#include "core/mem.h"
+#include "core/text.h"
+#include "core/tscale.h"
+#include "store/store.h"
+#include "store/store_db.h"
+
+/* --- station -------------------------------------------------------------- */
+
+static void
+row_station(sqlite3_stmt *st, void *dst)
+{
+	struct site_station *o = dst;
+
+	store_col_text(st, 0, o->name, sizeof o->name);
+	store_col_text(st, 1, o->code, sizeof o->code);
+	o->lat_deg = sqlite3_column_double(st, 2);
+	o->lon_deg = sqlite3_column_double(st, 3);
+	o->height_m = sqlite3_column_double(st, 4);
+	store_col_text(st, 5, o->time_zone, sizeof o->time_zone);
+	o->min_el_deg = sqlite3_column_double(st, 6);
+	o->max_sun_el_deg = sqlite3_column_double(st, 7);
+	o->min_sun_sep_deg = sqlite3_column_double(st, 8);
+	o->pressure_hpa = sqlite3_column_double(st, 9);
+	o->temperature_c = sqlite3_column_double(st, 10);
+	o->humidity = sqlite3_column_double(st, 11);
+	o->wavelength_nm = sqlite3_column_double(st, 12);
+	o->zenith_tau = sqlite3_column_double(st, 13);
+	o->fire_rate_hz = sqlite3_column_double(st, 14);
+}
+
+enum errcode
+store_station_get(struct store *s, struct site_station *out, char *errbuf,
+    size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_STATION_GET, &st, errbuf, errlen)))
+		return e;
+	memset(out, 0, sizeof *out);
+	e = store_fetch_one(s, st, row_station, out, "station", errbuf, errlen);
+	if (e == ERRCODE_NOT_FOUND)
+		store_seterr(errbuf, errlen,
+		    "the database holds no station (load "
+		    "one with 'moonrange init')");
+	return e;
+}
+
+enum errcode
+store_station_put(struct store *s, const struct site_station *o,
+    char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_STATION_PUT, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, o->name);
+	store_bind_text(st, 2, o->code);
+	sqlite3_bind_double(st, 3, o->lat_deg);
+	sqlite3_bind_double(st, 4, o->lon_deg);
+	sqlite3_bind_double(st, 5, o->height_m);
+	store_bind_text(st, 6, o->time_zone);
+	store_bind_real_or_null(st, 7, o->min_el_deg);
+	store_bind_real_or_null(st, 8, o->max_sun_el_deg);
+	store_bind_real_or_null(st, 9, o->min_sun_sep_deg);
+	store_bind_real_or_null(st, 10, o->pressure_hpa);
+	store_bind_real_or_null(st, 11, o->temperature_c);
+	store_bind_real_or_null(st, 12, o->humidity);
+	store_bind_real_or_null(st, 13, o->wavelength_nm);
+	store_bind_real_or_null(st, 14, o->zenith_tau);
+	store_bind_real_or_null(st, 15, o->fire_rate_hz);
+	return store_step_done(s, st, "station", errbuf, errlen);
+}
+
+/* --- targets -------------------------------------------------------------- */
+
+static void
+row_target(sqlite3_stmt *st, void *dst)
+{
+	struct site_target *o = dst;
+
+	store_col_text(st, 0, o->id, sizeof o->id);
+	store_col_text(st, 1, o->name, sizeof o->name);
+	store_col_text(st, 2, o->alias, sizeof o->alias);
+	o->lat_deg = sqlite3_column_double(st, 3);
+	o->lon_deg = sqlite3_column_double(st, 4);
+	o->height_m = sqlite3_column_double(st, 5);
+	o->strength = sqlite3_column_double(st, 6);
+	o->dark_only = sqlite3_column_int(st, 7);
+	o->active = sqlite3_column_int(st, 8);
+}
+
+static void
+bind_target(sqlite3_stmt *st, const struct site_target *t)
+{
+	store_bind_text(st, 1, t->id);
+	store_bind_text(st, 2, t->name);
+	store_bind_text(st, 3, t->alias);
+	store_bind_real_or_null(st, 4, t->lat_deg);
+	store_bind_real_or_null(st, 5, t->lon_deg);
+	store_bind_real_or_null(st, 6, t->height_m);
+	store_bind_real_or_null(st, 7, t->strength);
+	sqlite3_bind_int(st, 8, t->dark_only);
+	sqlite3_bind_int(st, 9, t->active);
+}
+
+enum errcode
+store_target_add(struct store *s, const struct site_target *t, char *errbuf,
+    size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	char what[SITE_ID_LEN + 16];
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_TARGET_ADD, &st, errbuf, errlen)))
+		return e;
+	snprintf(what, sizeof what, "target '%s'", t->id);
+	bind_target(st, t);
+	return store_step_done(s, st, what, errbuf, errlen);
+}
+
+enum errcode
+store_target_update(struct store *s, const struct site_target *t,
+    char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	char what[SITE_ID_LEN + 16];
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_TARGET_UPDATE, &st, errbuf, errlen)))
+		return e;
+	snprintf(what, sizeof what, "target '%s'", t->id);
+	bind_target(st, t);
+	if ((e = store_step_done(s, st, what, errbuf, errlen)))
+		return e;
+	if (sqlite3_changes(s->db) == 0) {
+		store_seterr(errbuf, errlen, "no target '%s'", t->id);
+		return ERRCODE_NOT_FOUND;
+	}
+	return ERRCODE_OK;
+}
+
+enum errcode
+store_target_get(struct store *s, const char *id, struct site_target *out,
+    char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_TARGET_GET, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, id);
+	memset(out, 0, sizeof *out);
+	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
+	if (e == ERRCODE_NOT_FOUND)
+		store_seterr(errbuf, errlen, "no target '%s'", id);
+	return e;
+}
+
+enum errcode
+store_target_by_alias(struct store *s, const char *name,
+    struct site_target *out, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_TARGET_ALIAS, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, name);
+	memset(out, 0, sizeof *out);
+	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
+	if (e == ERRCODE_NOT_FOUND)
+		store_seterr(errbuf, errlen,
+		    "no target has the alias or id '%s'",
+		    name);
+	return e;
+}
+
+enum errcode
+store_targets_list(struct store *s, int active_only, struct site_target **out,
+    size_t *n, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	*out = NULL;
+	*n = 0;
+	if ((e = store_stmt_get(s, ST_TARGETS_LIST, &st, errbuf, errlen)))
+		return e;
+	sqlite3_bind_int(st, 1, active_only ? 1 : 0);
+	return store_collect(s, st, sizeof **out, row_target, (void **)out, n,
+	    "targets", errbuf, errlen);
+}
+
+/* --- blackouts ------------------------------------------------------------ */
+
+static void
+row_blackout(sqlite3_stmt *st, void *dst)
+{
+	struct site_blackout *o = dst;
+
+	o->id = (long)sqlite3_column_int64(st, 0);
+	o->start_mjd = sqlite3_column_double(st, 1);
+	o->end_mjd = sqlite3_column_double(st, 2);
+	store_col_text(st, 3, o->reason, sizeof o->reason);
+}
+
+enum errcode
+store_blackout_add(struct store *s, struct site_blackout *b, char *errbuf,
+    size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	char t0[40], t1[40];
+	enum errcode e;
+
+	if ((e = store_canon(&b->start_mjd, STORE_TIME_NDP, t0, sizeof t0,
+	    "blackout", "start", errbuf, errlen)) ||
+	    (e = store_canon(&b->end_mjd, STORE_TIME_NDP, t1, sizeof t1,
+	    "blackout",
+	    "end", errbuf, errlen)))
+		return e;
+	if ((e = store_stmt_get(s, ST_BLACKOUT_ADD, &st, errbuf, errlen)))
+		return e;
+	store_bind_text(st, 1, t0);
+	sqlite3_bind_double(st, 2, b->start_mjd);
+	store_bind_text(st, 3, t1);
+	sqlite3_bind_double(st, 4, b->end_mjd);
+	store_bind_text(st, 5, b->reason);
+	if ((e = store_step_done(s, st, "blackout", errbuf, errlen)))
+		return e;
+	b->id = (long)sqlite3_last_insert_rowid(s->db);
+	return ERRCODE_OK;
+}
+
+enum errcode
+store_blackout_remove(struct store *s, long id, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, ST_BLACKOUT_REMOVE, &st, errbuf, errlen)))
+		return e;
+	sqlite3_bind_int64(st, 1, id);
+	if ((e = store_step_done(s, st, "blackout", errbuf, errlen)))
+		return e;
+	if (sqlite3_changes(s->db) == 0) {
+		store_seterr(errbuf, errlen, "no blackout with id %ld", id);
+		return ERRCODE_NOT_FOUND;
+	}
+	return ERRCODE_OK;
+}
+
+enum errcode
+store_blackouts_list(struct store *s, double from_mjd, double to_mjd,
+    struct site_blackout **out, size_t *n, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	*out = NULL;
+	*n = 0;
+	if ((e = store_stmt_get(s, ST_BLACKOUTS_LIST, &st, errbuf, errlen)))
+		return e;
+	store_bind_real_or_null(st, 1, from_mjd);
+	store_bind_real_or_null(st, 2, to_mjd);
+	return store_collect(s, st, sizeof **out, row_blackout, (void **)out, n,
+	    "blackouts", errbuf, errlen);
+}

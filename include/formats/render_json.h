@@ -1,0 +1,35 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* render_json.h: what the JSON renderers of formats/ share (numbers, ISO
+   times, the dump into an mbuf) and jansson's allocator. */
+#ifndef MOONRANGE_RENDER_JSON_H
+#define MOONRANGE_RENDER_JSON_H
+
+#include "core/errcode.h"
+#include "core/mem.h"
+
+struct json_t;
+
+/* A real rounded to decimals, so the JSON reads cleanly; null when not
+   finite.  A new reference (NULL when out of memory). */
+struct json_t *render_json_num(double v, int decimals);
+
+/* ISO 8601 UTC text (0 decimals) of a two-part UTC JD, or null when it
+   cannot be formatted.  A new reference. */
+struct json_t *render_json_iso(double utc1, double utc2);
+
+/*
+ * Dump root (consumed: its reference is dropped) with a newline into
+ * out.  Serialises straight into the mbuf, not with json_dumps: with
+ * jansson 2.14, json_dumps was seen to return a document with an object
+ * key missing when an allocation inside it failed (test_render's fault
+ * loop), i.e. a wrong document reported as success.  The mbuf's failure
+ * flag is sticky, so any failed append is seen at the end; a partial
+ * document is dropped.  ERRCODE_OK or ERRCODE_NOMEM.
+ */
+enum errcode render_json_dump(struct json_t *root, struct mbuf *out);
+
+/* Route jansson's allocations through mem_alloc/mem_free.  Call once at
+   start, before any JSON value exists. */
+void render_json_setup(void);
+
+#endif

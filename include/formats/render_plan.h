@@ -1,0 +1,43 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* render_plan.h: planned windows (moonrange windows / tonight, GET
+   /api/v1/windows) as JSON, CSV, iCalendar and text. */
+#ifndef MOONRANGE_RENDER_PLAN_H
+#define MOONRANGE_RENDER_PLAN_H
+
+#include "core/errcode.h"
+#include "core/mem.h"
+#include "core/plan.h"
+
+/*
+ * The planner's result and what the renderers show around it, borrowed
+ * for the call.  Renderers append to a caller-owned mbuf and return
+ * ERRCODE_OK or ERRCODE_NOMEM; JSON field names are a documented, stable
+ * contract (README, "windows").
+ */
+struct render_plan {
+	const struct plan_result *r;
+	const char *station_name;	/* NULL for an ad-hoc station */
+	const char *time_zone;		/* IANA zone for local times, or NULL */
+	double now_mjd;			/* UTC: DTSTAMP of iCalendar, "now" of
+					   tonight */
+	double now_synodic_deg;		/* tonight: the phase now */
+};
+
+/* {"windows":[...]} and metadata; field names in README "windows". */
+enum errcode render_windows_json(const struct render_plan *p,
+    struct mbuf *out);
+/* RFC 4180: header row, CRLF, quoted where needed; reasons joined by
+   "; ". */
+enum errcode render_windows_csv(const struct render_plan *p,
+    struct mbuf *out);
+/* RFC 5545: one VEVENT per window, folded at 75 octets, CRLF. */
+enum errcode render_windows_ics(const struct render_plan *p,
+    struct mbuf *out);
+/* A table with UTC and station local time side by side. */
+enum errcode render_windows_text(const struct render_plan *p,
+    struct mbuf *out);
+/* The operator's view of the coming night, 80 columns. */
+enum errcode render_tonight_text(const struct render_plan *p,
+    struct mbuf *out);
+
+#endif

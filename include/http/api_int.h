@@ -1,0 +1,145 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* api_int.h: what the files of the HTTP API share (the context, the
+   handlers the route table names, the parameter and reply helpers);
+   internal to http/, the daemon uses http/api.h. */
+#ifndef MOONRANGE_API_INT_H
+#define MOONRANGE_API_INT_H
+
+#include <pthread.h>
+#include <stddef.h>
+
+#include <jansson.h>
+
+#include "core/eop.h"
+#include "core/geom.h"
+#include "core/tscale.h"
+#include "http/api.h"
+#include "store/store.h"
+
+#define PHASES_CAP 5000		/* ~100 years of principal phases */
+#define SPAN_MAX_DAYS 36600.0	/* as the CLI */
+#define ATTEMPTS_LIMIT_DEFAULT 50
+#define ATTEMPTS_LIMIT_MAX 1000
+#define ATTEMPT_MAX_DAYS 1.0	/* longest attempt accepted, days */
+#define WINDOWS_DAYS_DEFAULT 3.0	/* as the CLI */
+#define WINDOWS_DAYS_MAX 3660.0
+
+/* The daemon's state: made by api_new, freed by api_free; the store is
+   borrowed (the daemon closes it). */
+struct api_ctx {
+	pthread_mutex_t lock;		/* serialises handlers and replans */
+	char *db_path;
+	char token[API_TOKEN_MAX + 1];
+	size_t token_len;		/* 0: writes are refused */
+	double plan_days, refresh_s, start_posix;
+	struct api_site site;
+	struct store *db;		/* borrowed */
+	/* the plan cache: GET windows and coverage without parameters */
+	int planned;			/* a plan has been computed */
+	double plan_utc1, plan_utc2;	/* when */
+	int replan;			/* a write asked for a new plan */
+	struct mbuf plan_windows;	/* render_windows_json of the plan */
+	struct mbuf plan_coverage;	/* coverage JSON, default query */
+	size_t plan_nwindows;
+	double plan_days_used;
+};
+
+/* --- handlers (the route table of api.c names them) --- */
+
+void api_h_status(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_site(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_targets(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_now(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_phases(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_windows(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_windows_ics(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_coverage(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_coverage_csv(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_coverage_svg(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_attempts_list(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_attempt_get(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+
+/* --- helpers (api.c) --- */
+
+/* A handler's normal ending: 200 with what a renderer produced. */
+void api_ok_or_error(struct api_response *r, enum errcode rc, unsigned status,
+    const char *ctype);
+
+/* Is key one of the comma-separated names in list? */
+int api_param_listed(const char *list, const char *key);
+
+/* Refuse unknown, repeated or too many query parameters (400 naming it). */
+int api_params_check(const struct api_request *req, const char *allowed,
+    struct api_response *resp);
+
+/* The value of query parameter key, or NULL when absent. */
+const char *api_param(const struct api_request *req, const char *key);
+
+/* A UTC time parameter: "now" or ISO 8601.  0, or -1 with the error set. */
+int api_param_time(const struct api_request *req, const char *key, double *u1,
+    double *u2, struct api_response *resp);
+
+/* A number parameter in [min, max]; *out untouched when absent. */
+int api_param_number(const struct api_request *req, const char *key,
+    double min, double max, double *out, struct api_response *resp);
+
+/* A whole-number parameter in [min, max]; *out untouched when absent. */
+int api_param_count(const struct api_request *req, const char *key,
+    double min, double max, size_t *out, struct api_response *resp);
+
+/*
+ * The span of from/to/days, with the CLI's rules: from defaults to now,
+ * to to from + days, days to defdays; to and days exclude each other.
+ */
+int api_param_span(const struct api_request *req, double defdays,
+    double maxdays, double *f1, double *f2, double *t1, double *t2,
+    struct tscale_instant *a, struct tscale_instant *b,
+    struct api_response *resp);
+
+/* 1 when the daemon has a database; else 0 with a 503 set. */
+int api_store_open_ok(struct api_ctx *ctx, struct api_response *resp);
+
+/*
+ * A database to read for one slow request (windows, coverage) without
+ * holding ctx->lock, so that /now, /status and writes go on meanwhile:
+ * a read-only connection of its own to the daemon's file (WAL lets it
+ * read beside the shared one).  Where that cannot be had (no path, or
+ * the open fails), the shared connection under the lock; *locked says
+ * which, for api_release_store.
+ */
+struct store *api_read_store(struct api_ctx *ctx, int *locked);
+
+/* Give back what api_read_store returned. */
+void api_release_store(struct api_ctx *ctx, struct store *db, int locked);
+
+/* ISO 8601 UTC text of a two-part UTC JD, or JSON null. */
+json_t *api_iso_or_null(double utc1, double utc2);
+
+/* ISO 8601 UTC text of a UTC MJD, or JSON null (NaN too). */
+json_t *api_iso_of_mjd(double mjd);
+
+/* 200 with root dumped (root is consumed), or 500 when bad. */
+void api_json_reply(struct api_response *resp, json_t *root, int bad);
+
+/* 1 when a station is loaded; else 0 with a 503 set. */
+int api_site_loaded(struct api_ctx *ctx, struct api_response *resp);
+
+/* Earth orientation at a UTC MJD from the site's table (zeros if none). */
+enum eop_source api_site_eop_at(const struct api_site *s, double mjd,
+    struct geom_eop *out);
+
+#endif
