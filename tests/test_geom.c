@@ -374,7 +374,8 @@ test_geom_identity_target_offsets(void **state)
 			   (cos theta > R / D implies range < D) */
 			if (v.earth_elevation > 0.0)
 				assert_true(v.range < g.moon.range);
-			assert_int_equal(v.sunlit, v.sun_elevation > 0.0);
+			assert_int_equal(v.sunlit, v.sun_elevation > 0.0 &&
+			    v.shadow != ECLIPSE_SHADOW_UMBRA);
 		}
 	}
 }

@@ -577,8 +577,11 @@ geom_target_from_xyz(double x, double y, double z, struct geom_target *out)
  *      terrain).  Sunlit means the Sun's centre is above it.
  *   3. Round trip is geometric 2 * range / c: no troposphere, no
  *      relativistic delay, no station or reflector motion during flight.
+ *   4. The Earth's shadow at the target (eclipse_point_at, Danjon's
+ *      rule): sunlit is false in the umbra; dark_margin > 0 exactly when
+ *      the target is dark (Sun below its horizon, or in the umbra).
  * Called:
- *   eraTrxp, eraPpp, eraPmp, eraPdp, eraPn, eraC2s, eraSepp
+ *   geom_refract, eclipse_point_at, eraAnpm
  */
 void
 geom_target_view(const struct geom_instant *g, const struct geom_target *t,
@@ -587,6 +590,7 @@ geom_target_view(const struct geom_instant *g, const struct geom_target *t,
 	double radial[3], pos[3], topo[3], itrs[3], nrm[3], u[3], r;
 	double tod[3], ra, dec;
 	const struct geom_moon_view *m = &g->moon;
+	struct eclipse_point ep;
 
 	mtxv(g->lunar_rot, t->body, radial);
 	vaxpy(g->moon_ret, 1.0, radial, pos);
@@ -605,9 +609,14 @@ geom_target_view(const struct geom_instant *g, const struct geom_target *t,
 	vscale(1.0 / r, radial, nrm);
 	diff_unit(g->b.sun_p, pos, u);
 	out->sun_elevation = asin(fmax(-1.0, fmin(1.0, vdot(nrm, u))));
-	out->sunlit = out->sun_elevation > 0.0;
 	diff_unit(g->site_gcrs, pos, u);
 	out->earth_elevation = asin(fmax(-1.0, fmin(1.0, vdot(nrm, u))));
+	eclipse_point_at(g->b.sun_p, pos, &ep);
+	out->shadow = ep.shadow;
+	out->sun_visible = ep.sun_visible;
+	out->sunlit = out->sun_elevation > 0.0 &&
+	    ep.shadow != ECLIPSE_SHADOW_UMBRA;
+	out->dark_margin = fmax(-out->sun_elevation, ep.umbra_margin);
 }
 
 const char *

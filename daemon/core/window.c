@@ -209,7 +209,7 @@ cval(const struct ctx *x, int c, const struct geom_instant *g)
 	geom_target_view(g, x->tg[j].body, &v);
 	if ((c - C_SHARED) % 2 == 0)
 		return v.el - x->lim->min_el;
-	return -v.sun_elevation;
+	return v.dark_margin;
 }
 
 static double
@@ -242,7 +242,7 @@ sample_all(const struct ctx *x, double t, double *f)
 		geom_target_view(&g, x->tg[j].body, &v);
 		f[C_EL(j)] = v.el - x->lim->min_el;
 		if (x->active[C_DARK(j)])
-			f[C_DARK(j)] = -v.sun_elevation;
+			f[C_DARK(j)] = v.dark_margin;
 	}
 }
 
@@ -579,7 +579,7 @@ window_constraints_hold(const struct geom_instant *g,
 	if (target->body != NULL) {
 		geom_target_view(g, target->body, &v);
 		el = v.el;
-		if (target->dark_only && v.sun_elevation >= 0.0)
+		if (target->dark_only && !(v.dark_margin > 0.0))
 			return 0;
 	}
 	return el >= lim->min_el;

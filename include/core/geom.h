@@ -5,6 +5,7 @@
 
 #include <stddef.h>
 
+#include "core/eclipse.h"
 #include "core/errcode.h"
 #include "core/tscale.h"
 
@@ -188,8 +189,13 @@ struct geom_target_view {
 	double offset_dec;	/* dec_t - dec_c, rad */
 	double sun_elevation;	/* Sun above the target's local horizon
 				   (sphere), rad */
-	int sunlit;		/* sun_elevation > 0 */
+	int sunlit;		/* sun_elevation > 0 and not in the umbra */
 	double earth_elevation;	/* station above the local horizon, rad */
+	enum eclipse_shadow shadow; /* the target in the Earth's shadow */
+	double sun_visible;	/* visible fraction of the solar disc (1 out
+				   of the shadow, 0 in the umbra) */
+	double dark_margin;	/* rad, > 0 when dark: max(-sun_elevation,
+				   umbra margin), continuous for searches */
 };
 
 void geom_target_view(const struct geom_instant *g,

@@ -17,7 +17,9 @@
  *   Sun elevation at the station     <= max_sun_el
  *   Sun-Moon separation (topocentric) >= min_sun_sep
  *   outside every blackout
- *   dark_only targets: Sun below the target's local lunar horizon
+ *   dark_only targets: Sun below the target's local lunar horizon, or
+ *                    the target in the Earth's umbra (geom_target_view's
+ *                    dark_margin > 0)
  *
  * Work is in two steps.  window_track_init tabulates the geocentric
  * Moon and Sun and the Earth's orientation once per WINDOW_NODE_DAYS over
