@@ -61,18 +61,6 @@ dot3(const double a[3], const double b[3])
 	return a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
 }
 
-/* Angle between two vectors, robust near 0 and pi. */
-static double
-sep3(const double a[3], const double b[3])
-{
-	double c[3];
-
-	c[0] = a[1] * b[2] - a[2] * b[1];
-	c[1] = a[2] * b[0] - a[0] * b[2];
-	c[2] = a[0] * b[1] - a[1] * b[0];
-	return atan2(sqrt(dot3(c, c)), dot3(a, b));
-}
-
 void
 eclipse_geo_at(const double sun[3], const double moon[3],
     struct eclipse_geo *out)
@@ -83,7 +71,7 @@ eclipse_geo_at(const double sun[3], const double moon[3],
 	double pis = asin(EARTH_SHADOW_A / rs);
 	double ss = asin(SUN_RADIUS / rs);
 
-	out->sigma = sep3(moon, anti);
+	out->sigma = geom_sep(moon, anti);
 	out->umbra = pim + pis - ss;
 	out->penumbra = pim + pis + ss;
 	out->moon_sd = asin(MOON_RADIUS / rm);
@@ -127,7 +115,7 @@ eclipse_point_at(const double sun[3], const double point[3],
 	re = sqrt(dot3(de, de));
 	s = asin(fmin(1.0, SUN_RADIUS / rs));
 	e = asin(fmin(1.0, EARTH_SHADOW_A / re));
-	theta = sep3(ds, de);
+	theta = geom_sep(ds, de);
 	out->umbra_margin = e - s - theta;
 	if (theta + s <= e) {
 		out->shadow = ECLIPSE_SHADOW_UMBRA;

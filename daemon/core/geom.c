@@ -83,9 +83,8 @@ mtxv(const double (*r)[3], const double a[3], double out[3])
 	memcpy(out, t, sizeof t);
 }
 
-/* Angle between two vectors (robust near 0 and pi, as eraSepp). */
-static double
-vsep(const double a[3], const double b[3])
+double
+geom_sep(const double a[3], const double b[3])
 {
 	double c[3];
 
@@ -492,9 +491,9 @@ geom_instant_make(const struct geom_site *site,
 
 	vsub(b->sun_p, out->moon_ret, tmp);
 	vscale(-1.0, out->moon_topo, v);
-	m->phase_angle = vsep(tmp, v);
+	m->phase_angle = geom_sep(tmp, v);
 	m->illuminated_fraction = (1.0 + cos(m->phase_angle)) / 2.0;
-	m->elongation = vsep(out->moon_topo, out->sun_topo);
+	m->elongation = geom_sep(out->moon_topo, out->sun_topo);
 	m->synodic = b->synodic;
 	m->mean_elong = b->mean_elong;
 

@@ -206,6 +206,10 @@ void geom_target_view(const struct geom_instant *g,
 /* Apparent (refracted) elevation from geometric, eraRefco constants. */
 double geom_refract(double el, double refa, double refb);
 
+/* Angle between two vectors, rad (atan2 of cross and dot: robust near 0
+   and pi, as eraSepp). */
+double geom_sep(const double a[3], const double b[3]);
+
 /* Angle wrapped into -pi..pi and 0..2pi. */
 double geom_wrap_pi(double a);
 double geom_wrap_2pi(double a);
