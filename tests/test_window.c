@@ -439,8 +439,10 @@ test_window_bad_input(void **state)
 	assert_int_equal(window_track_nodes(0.0), 0);
 	assert_int_equal(window_track_nodes(-1.0), 0);
 	assert_int_equal(window_track_nodes(WINDOW_MAX_SPAN_DAYS + 1), 0);
+	/* One node short of what the span needs. */
 	assert_int_equal(window_track_init(&tr, &fx.site, NULL, fx.tr.base1,
-	    fx.tr.base2, 1.0, nd, 4), ERRCODE_TOO_LARGE);
+	    fx.tr.base2, 1.0, nd, window_track_nodes(1.0) - 1),
+	    ERRCODE_TOO_LARGE);
 	assert_int_equal(window_track_init(&tr, &fx.site, NULL, fx.tr.base1,
 	    fx.tr.base2, -1.0, nd, 4), ERRCODE_BAD_ARG);
 	fixture_close(&fx);

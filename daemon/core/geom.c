@@ -285,22 +285,30 @@ sun_apparent_au(double tt1, double tt2, double sun[3])
 }
 
 double
-geom_synodic_at(double tt1, double tt2)
+geom_synodic_of(double tt1, double tt2, const double moon_p[3],
+    const double moon_v[3], const double sun_p[3])
 {
-	double pv[2][3], sun[3], moon[3], rm[3][3], em[3], es[3], tau;
-	double lm, ls, r;
+	double moon[3], sun[3], rm[3][3], em[3], es[3], tau, lm, ls, r;
 
-	eraMoon98(tt1, tt2, pv);
-	sun_apparent_au(tt1, tt2, sun);
-	/* Light time from the Moon (about 1.3 s), in days. */
-	tau = eraPm(pv[0]) * ERFA_AULT / ERFA_DAYSEC;
-	eraPpsp(pv[0], -tau, pv[1], moon);
+	/* Light time from the Moon (about 1.3 s), in seconds. */
+	tau = vnorm(moon_p) / GEOM_C;
+	vaxpy(moon_p, -tau, moon_v, moon);
+	memcpy(sun, sun_p, sizeof sun);
 	eraEcm06(tt1, tt2, rm);
 	eraRxp(rm, moon, em);
 	eraRxp(rm, sun, es);
 	eraC2s(em, &lm, &r);
 	eraC2s(es, &ls, &r);
 	return eraAnp(lm - ls);
+}
+
+double
+geom_synodic_at(double tt1, double tt2)
+{
+	struct geom_bodies b;
+
+	(void)geom_bodies_at(tt1, tt2, &b);
+	return b.synodic;
 }
 
 /*
@@ -320,15 +328,14 @@ geom_synodic_at(double tt1, double tt2)
  *   2. Sun: minus ERFA's heliocentric Earth (eraEpv00, VSOP2000 fit,
  *      1900-2100), with annual aberration (eraAb) so that it is the
  *      apparent place; light deflection is nil at the Sun itself.
- *   3. Synodic angle: apparent ecliptic longitude of the Moon (with 1.3 s
- *      of light time) minus that of the Sun, on the ecliptic of date
- *      (eraEcm06); nutation in longitude cancels in the difference.
+ *   3. Synodic angle: geom_synodic_of on the Moon and Sun just computed
+ *      (each theory is evaluated once).
  *   4. D: IERS Conventions (2003) fundamental argument (eraFad03).
  * References:
  *   Meeus, Astronomical Algorithms, 2nd ed. (1998), ch. 47 and 49;
  *   IERS Conventions (2003), 5.7.
  * Called:
- *   eraMoon98, eraEpv00, eraAb, eraEcm06, eraFad03
+ *   eraMoon98, eraEpv00, eraAb, geom_synodic_of, eraFad03
  */
 enum errcode
 geom_bodies_at(double tt1, double tt2, struct geom_bodies *out)
@@ -344,27 +351,15 @@ geom_bodies_at(double tt1, double tt2, struct geom_bodies *out)
 	eraSxp(ERFA_DAU / ERFA_DAYSEC, pv[1], out->moon_v);
 	sun_apparent_au(tt1, tt2, out->sun_p);
 	eraSxp(ERFA_DAU, out->sun_p, out->sun_p);
-	out->synodic = geom_synodic_at(tt1, tt2);
+	out->synodic = geom_synodic_of(tt1, tt2, out->moon_p, out->moon_v,
+	    out->sun_p);
 	t = ((tt1 - ERFA_DJ00) + tt2) / ERFA_DJC;
 	out->mean_elong = eraAnp(eraFad03(t));
 	return ERRCODE_OK;
 }
 
-/*
- * Lunar orientation: GCRS -> body-fixed rotation.
- *
- * Notes:
- *   IAU WGCCRE 2009 model of the Moon: pole right ascension and
- *   declination and prime meridian W with the periodic terms E1..E13.
- *   Its body-fixed frame approximates the mean-Earth/polar-axis frame to
- *   about 150 m on the surface.  Evaluated at TT - light time.
- * References:
- *   Archinal et al. (2011), Celest. Mech. Dyn. Astr. 109, 101, table 2.
- * Called:
- *   eraIr, eraRz, eraRx
- */
-static void
-lunar_rotation(double tt1, double tt2, double r[3][3])
+void
+geom_lunar_angles(double tt1, double tt2, double ang[3])
 {
 	double d = (tt1 - ERFA_DJ00) + tt2;
 	double t = d / 36525.0;
@@ -393,17 +388,24 @@ lunar_rotation(double tt1, double tt2, double r[3][3])
 	dec = 66.5392 + 0.0130 * t + 1.5419 * cos(e[1]) + 0.0239 * cos(e[2]) -
 	    0.0278 * cos(e[3]) + 0.0068 * cos(e[4]) - 0.0029 * cos(e[6]) +
 	    0.0009 * cos(e[7]) + 0.0008 * cos(e[10]) - 0.0009 * cos(e[13]);
-	w = fmod(38.3213 + 13.17635815 * d - 1.4e-12 * d * d, 360.0) +
+	w = 38.3213 + 13.17635815 * d - 1.4e-12 * d * d +
 	    3.5610 * sin(e[1]) + 0.1208 * sin(e[2]) - 0.0642 * sin(e[3]) +
 	    0.0158 * sin(e[4]) + 0.0252 * sin(e[5]) - 0.0066 * sin(e[6]) -
 	    0.0047 * sin(e[7]) - 0.0046 * sin(e[8]) + 0.0028 * sin(e[9]) +
 	    0.0052 * sin(e[10]) + 0.0040 * sin(e[11]) + 0.0019 * sin(e[12]) -
 	    0.0044 * sin(e[13]);
+	ang[0] = ra * DEG;
+	ang[1] = dec * DEG;
+	ang[2] = w * DEG;
+}
 
+void
+geom_lunar_matrix(const double ang[3], double r[3][3])
+{
 	eraIr(r);
-	eraRz(ra * DEG + ERFA_DPI / 2.0, r);
-	eraRx(ERFA_DPI / 2.0 - dec * DEG, r);
-	eraRz(w * DEG, r);
+	eraRz(ang[0] + ERFA_DPI / 2.0, r);
+	eraRx(ERFA_DPI / 2.0 - ang[1], r);
+	eraRz(fmod(ang[2], ERFA_D2PI), r);
 }
 
 /* Azimuth and elevation of a GCRS topocentric vector. */
@@ -455,7 +457,7 @@ selenographic(const double (*rot)[3], const double v[3], double *lon,
  *   4. Librations and the sub-solar point use the IAU 2009 rotation of
  *      the Moon at t - tau.
  * Called:
- *   eraTrxp, eraRxp, eraC2s, eraSepp, eraPm
+ *   geom_lunar_angles, geom_lunar_matrix, geom_refract
  */
 void
 geom_instant_make(const struct geom_site *site,
@@ -477,7 +479,12 @@ geom_instant_make(const struct geom_site *site,
 	vaxpy(b->moon_p, -tau, b->moon_v, out->moon_ret);
 	vsub(out->moon_ret, out->site_gcrs, out->moon_topo);
 	vsub(b->sun_p, out->site_gcrs, out->sun_topo);
-	lunar_rotation(t->tt1, t->tt2 - tau / ERFA_DAYSEC, out->lunar_rot);
+	{
+		double ang[3];
+
+		geom_lunar_angles(t->tt1, t->tt2 - tau / ERFA_DAYSEC, ang);
+		geom_lunar_matrix(ang, out->lunar_rot);
+	}
 
 	horizon(site, e->rc2t, out->moon_topo, &m->az, &m->el, itrs);
 	m->el_apparent = geom_refract(m->el, site->refa, site->refb);

@@ -8,10 +8,9 @@
 
 #include "core/window.h"
 
-/* Earth's sidereal rotation, rad per (UT1 ~ TT) day (IERS ERA rate). */
-#define SIDEREAL_RATE (ERFA_D2PI * 1.00273781191135448)
 #define EDGE_TOL (WINDOW_EDGE_TOL_S / ERFA_DAYSEC)
 #define EXT_TOL (1.0 / ERFA_DAYSEC)	/* golden section to 1 s */
+#define MARGIN (2.0 * WINDOW_GRID_DAYS + 2.0 * WINDOW_NODE_DAYS)
 
 /* Constraint slots: two shared by all targets, two per target. */
 enum { C_SUN = 0, C_SEP = 1, C_SHARED = 2 };
@@ -19,14 +18,16 @@ enum { C_SUN = 0, C_SEP = 1, C_SHARED = 2 };
 #define C_DARK(j) (C_SHARED + 2 * (int)(j) + 1)
 #define C_MAX (C_SHARED + 2 * WINDOW_MAX_TARGETS)
 
+/* The nodes are handed to the fast path as its segments. */
+_Static_assert(sizeof(struct window_node) == sizeof(struct fast_seg),
+    "a window node is one fitted segment");
+
 size_t
 window_track_nodes(double span_days)
 {
-	double margin = 2.0 * WINDOW_GRID_DAYS + 2.0 * WINDOW_NODE_DAYS;
-
 	if (!(span_days > 0.0) || span_days > WINDOW_MAX_SPAN_DAYS)
 		return 0;
-	return (size_t)ceil((span_days + 2.0 * margin) / WINDOW_NODE_DAYS) + 2;
+	return fast_track_segments(-MARGIN, span_days + MARGIN);
 }
 
 enum errcode
@@ -34,7 +35,6 @@ window_track_init(struct window_track *tr, const struct geom_site *site,
     const struct geom_eop *eop, double tt1, double tt2, double span_days,
     struct window_node *nodes, size_t cap)
 {
-	double margin = 2.0 * WINDOW_GRID_DAYS + 2.0 * WINDOW_NODE_DAYS;
 	size_t need = window_track_nodes(span_days);
 	struct geom_eop e0 = {0.0, 0.0, 0.0};
 
@@ -48,134 +48,21 @@ window_track_init(struct window_track *tr, const struct geom_site *site,
 	tr->base1 = tt1;
 	tr->base2 = tt2;
 	tr->span = span_days;
-	tr->t0 = -margin;
-	tr->step = WINDOW_NODE_DAYS;
-	tr->nodes = nodes;
-	tr->n = need;
-	for (size_t k = 0; k < need; k++) {
-		struct window_node *nd = &nodes[k];
-		double t = tr->t0 + (double)k * tr->step;
-		struct tscale_instant ti;
-		struct geom_bodies b;
-		struct geom_earth e;
-		enum errcode rc;
-
-		rc = tscale_from_tt(tt1, tt2 + t, tr->eop.dut1, &ti);
-		if (rc != ERRCODE_OK)
-			return rc;
-		rc = geom_bodies_at(tt1, tt2 + t, &b);
-		if (rc != ERRCODE_OK)
-			return rc;
-		geom_earth_at(ti.tt1, ti.tt2, ti.ut11, ti.ut12, &tr->eop,
-		    GEOM_PREC_FAST, &e);
-		memcpy(nd->moon_p, b.moon_p, sizeof nd->moon_p);
-		memcpy(nd->moon_v, b.moon_v, sizeof nd->moon_v);
-		memcpy(nd->sun_p, b.sun_p, sizeof nd->sun_p);
-		memcpy(nd->rbpn, e.rbpn, sizeof nd->rbpn);
-		memcpy(nd->rc2t, e.rc2t, sizeof nd->rc2t);
-		nd->tt_utc = (ti.tt1 - ti.utc1) + (ti.tt2 - ti.utc2);
-		nd->synodic = b.synodic;
-		nd->mean_elong = b.mean_elong;
-		if (k > 0) {	/* unwrap along the track */
-			nd->synodic = nodes[k - 1].synodic +
-			    eraAnpm(b.synodic - nodes[k - 1].synodic);
-			nd->mean_elong = nodes[k - 1].mean_elong +
-			    eraAnpm(b.mean_elong - nodes[k - 1].mean_elong);
-		}
-	}
-	return ERRCODE_OK;
-}
-
-/* Node interval holding t (clamped) and the fraction s in it. */
-static size_t
-locate(const struct window_track *tr, double *t, double *s)
-{
-	double x, lo = tr->t0, hi = tr->t0 + (double)(tr->n - 1) * tr->step;
-	size_t k;
-
-	if (*t < lo)
-		*t = lo;
-	if (*t > hi)
-		*t = hi;
-	x = (*t - tr->t0) / tr->step;
-	k = (size_t)floor(x);
-	if (k >= tr->n - 1)
-		k = tr->n - 2;
-	*s = x - (double)k;
-	return k;
+	return fast_track_init(&tr->ft, site, &tr->eop, tt1, tt2, -MARGIN,
+	    span_days + MARGIN, (struct fast_seg *)(void *)nodes, cap);
 }
 
 double
 window_track_synodic(const struct window_track *tr, double t)
 {
-	double s;
-	size_t k = locate(tr, &t, &s);
-
-	return tr->nodes[k].synodic +
-	    s * (tr->nodes[k + 1].synodic - tr->nodes[k].synodic);
+	return fast_synodic(&tr->ft, t);
 }
 
 void
 window_track_instant(const struct window_track *tr, double t,
     struct geom_instant *out)
 {
-	double s, s2, s3, h, h00, h10, h01, h11, d00, d10, d01, d11;
-	double dt, c, sn;
-	size_t k = locate(tr, &t, &s);
-	const struct window_node *a = &tr->nodes[k], *b = &tr->nodes[k + 1];
-	const struct window_node *nr = s < 0.5 ? a : b;
-	struct tscale_instant ti;
-	struct geom_bodies bo;
-	struct geom_earth e;
-
-	h = tr->step * ERFA_DAYSEC;
-	s2 = s * s;
-	s3 = s2 * s;
-	h00 = 2 * s3 - 3 * s2 + 1;
-	h10 = s3 - 2 * s2 + s;
-	h01 = -2 * s3 + 3 * s2;
-	h11 = s3 - s2;
-	d00 = 6 * s2 - 6 * s;
-	d10 = 3 * s2 - 4 * s + 1;
-	d01 = -6 * s2 + 6 * s;
-	d11 = 3 * s2 - 2 * s;
-	for (int i = 0; i < 3; i++) {
-		bo.moon_p[i] = h00 * a->moon_p[i] + h10 * h * a->moon_v[i] +
-		    h01 * b->moon_p[i] + h11 * h * b->moon_v[i];
-		bo.moon_v[i] = (d00 * a->moon_p[i] + d10 * h * a->moon_v[i] +
-		    d01 * b->moon_p[i] + d11 * h * b->moon_v[i]) / h;
-		bo.sun_p[i] = a->sun_p[i] + s * (b->sun_p[i] - a->sun_p[i]);
-	}
-	bo.tt1 = tr->base1;
-	bo.tt2 = tr->base2 + t;
-	bo.synodic = eraAnp(a->synodic + s * (b->synodic - a->synodic));
-	bo.mean_elong = eraAnp(a->mean_elong +
-	    s * (b->mean_elong - a->mean_elong));
-
-	/* Earth: the nearer node, turned about the pole (ITRS z). */
-	dt = t - (tr->t0 + (double)(nr == a ? k : k + 1) * tr->step);
-	c = cos(SIDEREAL_RATE * dt);
-	sn = sin(SIDEREAL_RATE * dt);
-	memcpy(e.rbpn, nr->rbpn, sizeof e.rbpn);
-	for (int j = 0; j < 3; j++) {
-		double r0 = nr->rc2t[0][j], r1 = nr->rc2t[1][j];
-
-		e.rc2t[0][j] = c * r0 + sn * r1;
-		e.rc2t[1][j] = -sn * r0 + c * r1;
-		e.rc2t[2][j] = nr->rc2t[2][j];
-	}
-
-	memset(&ti, 0, sizeof ti);
-	ti.tt1 = tr->base1;
-	ti.tt2 = tr->base2 + t;
-	ti.tai1 = ti.tt1;
-	ti.tai2 = ti.tt2 - 32.184 / ERFA_DAYSEC;
-	ti.utc1 = ti.tt1;
-	ti.utc2 = ti.tt2 - nr->tt_utc;
-	ti.dut1 = tr->eop.dut1;
-	ti.ut11 = ti.utc1;
-	ti.ut12 = ti.utc2 + tr->eop.dut1 / ERFA_DAYSEC;
-	geom_instant_make(&tr->site, &ti, &bo, &e, out);
+	fast_instant(&tr->ft, t, out);
 }
 
 /* --- the search --- */
@@ -190,59 +77,77 @@ struct ctx {
 	struct window *out;
 	size_t cap, count;
 	int active[C_MAX];
+	unsigned need;		/* frame contents for all active constraints */
 };
 
-/* Value of constraint c at an instant: >= 0 where it holds. */
-static double
-cval(const struct ctx *x, int c, const struct geom_instant *g)
+/* What a frame must hold for constraint c. */
+static unsigned
+needs(const struct ctx *x, int c)
 {
-	struct geom_target_view v;
+	size_t j;
+
+	if (c < C_SHARED)
+		return FAST_SUN;
+	j = (size_t)(c - C_SHARED) / 2;
+	if (x->tg[j].body == NULL)
+		return 0;
+	return (c - C_SHARED) % 2 == 0 ? FAST_LUNAR : FAST_LUNAR | FAST_SUN;
+}
+
+/* Value of constraint c in a frame: >= 0 where it holds. */
+static double
+cval(const struct ctx *x, int c, const struct fast_frame *f)
+{
+	const struct fast_track *ft = &x->tr->ft;
+	double dark;
 	size_t j;
 
 	if (c == C_SUN)
-		return x->lim->max_sun_el - g->sun.el;
+		return x->lim->max_sun_el - fast_elevation(ft, f->sun_itrs);
 	if (c == C_SEP)
-		return g->sun.separation - x->lim->min_sun_sep;
+		return fast_separation(f) - x->lim->min_sun_sep;
 	j = (size_t)(c - C_SHARED) / 2;
-	if (x->tg[j].body == NULL)
-		return g->moon.el - x->lim->min_el;	/* C_EL of the centre */
-	geom_target_view(g, x->tg[j].body, &v);
+	if (x->tg[j].body == NULL)	/* C_EL of the centre */
+		return fast_elevation(ft, f->moon_itrs) - x->lim->min_el;
 	if ((c - C_SHARED) % 2 == 0)
-		return v.el - x->lim->min_el;
-	return v.dark_margin;
+		return fast_target_el(ft, f, x->tg[j].body, NULL, NULL) -
+		    x->lim->min_el;
+	(void)fast_target_el(ft, f, x->tg[j].body, NULL, &dark);
+	return dark;
 }
 
 static double
 cfun(const struct ctx *x, int c, double t)
 {
-	struct geom_instant g;
+	struct fast_frame f;
 
-	window_track_instant(x->tr, t, &g);
-	return cval(x, c, &g);
+	fast_frame_at(&x->tr->ft, t, needs(x, c), &f);
+	return cval(x, c, &f);
 }
 
-/* Every active constraint at one grid time. */
+/* Every active constraint at one grid time, from one frame. */
 static void
 sample_all(const struct ctx *x, double t, double *f)
 {
-	struct geom_instant g;
+	const struct fast_track *ft = &x->tr->ft;
+	struct fast_frame fr;
 
-	window_track_instant(x->tr, t, &g);
+	fast_frame_at(ft, t, x->need, &fr);
 	if (x->active[C_SUN])
-		f[C_SUN] = x->lim->max_sun_el - g.sun.el;
+		f[C_SUN] = cval(x, C_SUN, &fr);
 	if (x->active[C_SEP])
-		f[C_SEP] = g.sun.separation - x->lim->min_sun_sep;
+		f[C_SEP] = cval(x, C_SEP, &fr);
 	for (size_t j = 0; j < x->nt; j++) {
-		struct geom_target_view v;
+		double dark;
 
 		if (x->tg[j].body == NULL) {
-			f[C_EL(j)] = g.moon.el - x->lim->min_el;
+			f[C_EL(j)] = cval(x, C_EL(j), &fr);
 			continue;
 		}
-		geom_target_view(&g, x->tg[j].body, &v);
-		f[C_EL(j)] = v.el - x->lim->min_el;
+		f[C_EL(j)] = fast_target_el(ft, &fr, x->tg[j].body, NULL,
+		    x->active[C_DARK(j)] ? &dark : NULL) - x->lim->min_el;
 		if (x->active[C_DARK(j)])
-			f[C_DARK(j)] = v.dark_margin;
+			f[C_DARK(j)] = dark;
 	}
 }
 
@@ -461,6 +366,9 @@ window_find(const struct window_track *tr, const struct window_limits *lim,
 		x.active[C_DARK(j)] = targets[j].dark_only &&
 		    targets[j].body != NULL;
 	}
+	for (int c = 0; c < nc; c++)
+		if (x.active[c])
+			x.need |= needs(&x, c);
 	for (int c = 0; c < nc; c++) {
 		f[0][c] = f[1][c] = f[2][c] = 1.0;	/* inactive: holds */
 		ntrp[c] = ntrc[c] = 0;

@@ -98,10 +98,56 @@ struct geom_bodies {
 enum errcode geom_bodies_at(double tt1, double tt2, struct geom_bodies *out);
 
 /*
- * Synodic angle only, at TT (the cheap path for phase searches).
+ * Synodic angle only, at TT (geom_bodies_at, then its synodic field).
  * Returns radians in 0..2pi.
  */
 double geom_synodic_at(double tt1, double tt2);
+
+/*
+ * Synodic angle of given bodies.
+ *
+ * Given:
+ *   tt1,tt2  double     TT JD of the bodies
+ *   moon_p   double[3]  geocentric Moon, GCRS, geometric, m
+ *   moon_v   double[3]  its velocity, m/s
+ *   sun_p    double[3]  apparent geocentric Sun, GCRS, m
+ * Returned (function value):
+ *   apparent ecliptic longitude of the Moon (1.3 s of light time) minus
+ *   that of the Sun, on the ecliptic of date, 0..2pi rad
+ * Notes:
+ *   Nutation in longitude cancels in the difference, so the mean
+ *   ecliptic and equinox of date (eraEcm06) serve.
+ * Called:
+ *   eraEcm06, eraRxp, eraC2s, eraAnp
+ */
+double geom_synodic_of(double tt1, double tt2, const double moon_p[3],
+    const double moon_v[3], const double sun_p[3]);
+
+/*
+ * Orientation of the Moon (IAU WGCCRE 2009).
+ *
+ * Given:
+ *   tt1,tt2  double  TT JD
+ * Returned:
+ *   ang      right ascension and declination of the lunar pole and the
+ *            prime meridian angle W (not wrapped, so it is smooth in
+ *            time), GCRS, rad
+ * Notes:
+ *   The model's periodic terms E1..E13; its body-fixed frame
+ *   approximates the mean-Earth/polar-axis frame to about 150 m on the
+ *   surface.
+ * References:
+ *   Archinal et al. (2011), Celest. Mech. Dyn. Astr. 109, 101, table 2.
+ */
+void geom_lunar_angles(double tt1, double tt2, double ang[3]);
+
+/*
+ * GCRS -> lunar body-fixed rotation from geom_lunar_angles' angles.
+ *
+ * Called:
+ *   eraIr, eraRz, eraRx
+ */
+void geom_lunar_matrix(const double ang[3], double r[3][3]);
 
 /* --- the instant --- */
 

@@ -7,6 +7,7 @@
 #include <stddef.h>
 
 #include "core/errcode.h"
+#include "core/fastpath.h"
 #include "core/geom.h"
 
 /*
@@ -21,34 +22,30 @@
  *                    the target in the Earth's umbra (geom_target_view's
  *                    dark_margin > 0)
  *
- * Work is in two steps.  window_track_init tabulates the geocentric
- * Moon and Sun and the Earth's orientation once per WINDOW_NODE_DAYS over
- * the span into caller-provided nodes; window_track_instant rebuilds any
- * instant from the nodes (cubic Hermite for the Moon, linear for the
- * Sun, rotation about the pole for the Earth) for a fraction of the cost
- * of the full ERFA chain.  window_find then samples every constraint on
- * a WINDOW_GRID_DAYS grid, brackets sign changes and extrema, and refines
- * each edge by root finding.
+ * Work is in two steps.  window_track_init fits the Moon, the Sun and
+ * the Earth's orientation over the span (core/fastpath.h: Chebyshev
+ * series per segment fitted to the same ERFA models); window_track_instant
+ * rebuilds any instant from the fit.  window_find samples every
+ * constraint on a WINDOW_GRID_DAYS grid through light frames that compute
+ * only what the constraint reads, brackets sign changes and extrema, and
+ * refines each edge by root finding.
  *
  * Times inside this module are TT in days since the track's base (the
  * start of the span), so one double holds them to ~1e-11 d.  Nothing
  * here allocates; the caller owns nodes and output arrays.
  */
 
-#define WINDOW_NODE_DAYS 0.25		/* node spacing: 6 h */
+#define WINDOW_NODE_DAYS 0.25		/* margin unit of the fit, days */
 #define WINDOW_GRID_DAYS (20.0 / 1440.0) /* constraint grid: 20 min */
 #define WINDOW_EDGE_TOL_S 0.2		/* edges refined to this, s */
 #define WINDOW_MAX_TARGETS 64		/* targets in one search */
 #define WINDOW_MAX_SPAN_DAYS 3660.0	/* longest span, days */
 
-/* --- the track: tabulated ephemeris over a span --- */
+/* --- the track: the fitted ephemeris over a span --- */
 
+/* Storage of the track: one fitted segment (FAST_SEG_DAYS) each. */
 struct window_node {
-	double moon_p[3], moon_v[3];	/* geocentric Moon, GCRS, m, m/s */
-	double sun_p[3];		/* apparent geocentric Sun, GCRS, m */
-	double synodic, mean_elong;	/* rad, unwrapped along the track */
-	double rbpn[3][3], rc2t[3][3];	/* Earth orientation (IAU 2000B) */
-	double tt_utc;			/* TT - UTC at the node, days */
+	struct fast_seg seg;
 };
 
 struct window_track {
@@ -56,10 +53,7 @@ struct window_track {
 	struct geom_eop eop;		/* held constant over the span */
 	double base1, base2;		/* TT JD of offset 0 (span start) */
 	double span;			/* span length, days */
-	double t0;			/* offset of node 0, days (< 0) */
-	double step;			/* node spacing, days */
-	const struct window_node *nodes;
-	size_t n;
+	struct fast_track ft;		/* the fit (borrows the nodes) */
 };
 
 /* Nodes needed for a span of this many days (margins included). */
@@ -80,14 +74,14 @@ size_t window_track_nodes(double span_days);
  *   ERRCODE_OK, ERRCODE_BAD_ARG (span out of range), ERRCODE_TOO_LARGE
  *   (cap too small), ERRCODE_BAD_TIME (span outside ERFA's range)
  * Notes:
- *   1. Nodes hold geom_bodies_at and geom_earth_at (GEOM_PREC_FAST, IAU
- *      2000B: < 1 mas from IAU 2006/2000A) every WINDOW_NODE_DAYS, from
- *      one grid step before the span to two after it.
+ *   1. The fit covers the span with a margin of two grid steps and two
+ *      WINDOW_NODE_DAYS on each side (fast_track_init; directions within
+ *      0.01" of the direct IAU 2006/2000A chain).
  *   2. A constant DUT1 over a year moves the Earth by at most ~1 s of
  *      rotation (15"), i.e. well under 1 s in a window edge; callers that
  *      have a table may pass the value at the span's middle.
  * Called:
- *   geom_bodies_at, geom_earth_at, tscale_from_tt
+ *   fast_track_segments, fast_track_init
  */
 enum errcode window_track_init(struct window_track *tr,
     const struct geom_site *site, const struct geom_eop *eop, double tt1,
@@ -97,20 +91,14 @@ enum errcode window_track_init(struct window_track *tr,
  * The instant at offset t (TT days since the base) from the track.
  *
  * Notes:
- *   1. Moon: cubic Hermite on position and velocity between nodes 6 h
- *      apart; the largest short-period terms of the lunar orbit (periods
- *      >= 9 d, amplitude < 400 km) leave < 1 m, i.e. < 0.001".  Sun:
- *      linear (chord error < 200 km at 1 au, < 0.3").  Synodic angle and
- *      D: linear (< 0.003 deg).
- *   2. Earth: the nearer node's GCRS->ITRS matrix turned about the pole
- *      by the sidereal angle elapsed (<= 3 h); precession-nutation drift
- *      and the polar-motion commutator stay below 0.2".  Window edges
- *      agree with the full IAU 2006/2000A chain to ~0.1 s.
- *   3. t is clamped into the tabulated range.
- *   4. out->t carries TT exactly and UTC/UT1 from the node's TT-UTC (a
- *      leap second inside a node interval shifts UTC there by 1 s).
+ *   1. fast_instant: every field as geom_instant_make builds it, from the
+ *      fitted Moon, Sun and Earth orientation.
+ *   2. t is clamped into the fitted range.
+ *   3. out->t carries TT exactly and UT1 as the direct path; UTC is
+ *      UT1 - DUT1 (on a leap-second day it may differ from ERFA's
+ *      quasi-JD by a fraction of that second).
  * Called:
- *   geom_instant_make
+ *   fast_instant
  */
 void window_track_instant(const struct window_track *tr, double t,
     struct geom_instant *out);
@@ -179,7 +167,8 @@ struct window {
  *   Press et al., Numerical Recipes in C, 2nd ed. (1992), 9.2 (false
  *   position) and 10.1 (golden section).
  * Called:
- *   window_track_instant, geom_target_view
+ *   fast_frame_at, fast_elevation, fast_separation, fast_target_el,
+ *   geom_root_illinois
  */
 enum errcode window_find(const struct window_track *tr,
     const struct window_limits *lim, const struct window_target *targets,
