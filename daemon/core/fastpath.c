@@ -517,13 +517,7 @@ fast_elevation(const struct fast_track *ft, const double v[3])
 double
 fast_separation(const struct fast_frame *f)
 {
-	const double *a = f->moon_itrs, *b = f->sun_itrs;
-	double c[3];
-
-	c[0] = a[1] * b[2] - a[2] * b[1];
-	c[1] = a[2] * b[0] - a[0] * b[2];
-	c[2] = a[0] * b[1] - a[1] * b[0];
-	return atan2(vnorm(c), a[0] * b[0] + a[1] * b[1] + a[2] * b[2]);
+	return geom_sep(f->moon_itrs, f->sun_itrs);
 }
 
 double
