@@ -951,6 +951,21 @@ test_api_coverage_same_bytes_as_cli(void **state)
 	get("/api/v1/coverage.svg?colour=red", &r);
 	assert_error(&r, 400, "bad_arg", "colour");
 	http_reply_free(&r);
+	/* The chart's theme: dark for the page, light (the default) for
+	   paper; the JSON has no theme to choose. */
+	assert_int_equal(get("/api/v1/coverage.svg?horizon=0&theme=dark", &r),
+	    200);
+	assert_non_null(strstr(r.body, "class=\"theme-dark\""));
+	http_reply_free(&r);
+	assert_int_equal(get("/api/v1/coverage.svg?horizon=0", &r), 200);
+	assert_non_null(strstr(r.body, "class=\"theme-light\""));
+	http_reply_free(&r);
+	get("/api/v1/coverage.svg?theme=grey", &r);
+	assert_error(&r, 400, "bad_arg", "theme");
+	http_reply_free(&r);
+	get("/api/v1/coverage?theme=dark", &r);
+	assert_error(&r, 400, "bad_arg", "theme");
+	http_reply_free(&r);
 }
 
 /* Drop the lines starting with prefix (DTSTAMP: the moment of the call). */

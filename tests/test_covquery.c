@@ -193,6 +193,15 @@ test_covquery_bad_parameters(void **state)
 	    sizeof err), ERRCODE_BAD_ARG);
 	assert_int_equal(covquery_param_set(&p, "colour", "red", err,
 	    sizeof err), ERRCODE_NOT_FOUND);
+	assert_int_equal(covquery_param_set(&p, "theme", "grey", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_non_null(strstr(err, "theme"));
+	assert_int_equal(covquery_param_set(&p, "theme", "dark", err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(p.theme, RENDER_COV_DARK);
+	assert_int_equal(covquery_param_set(&p, "theme", "light", err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(p.theme, RENDER_COV_LIGHT);
 
 	/* An unknown target is named. */
 	assert_int_equal(covquery_param_set(&p, "target", "west", err,

@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* test_render_cov.c: the coverage audit's JSON, CSV, text and SVG. */
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -98,7 +99,7 @@ static void
 test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, "Test & <station>", NULL};
+	struct render_cov c = {r, NULL, NULL, "Test & <station>", NULL, RENDER_COV_LIGHT};
 	char key[64];
 	struct mbuf b;
 
@@ -126,16 +127,112 @@ test_render_cov_svg_is_xml_with_one_mark_per_bin(void **state)
 		p = strstr(b.data, key) + strlen(key);
 		assert_int_equal(strtol(p, NULL, 10), sample_counts[k]);
 	}
-	/* Gaps hatched: bins 0, 5, 6, 7 and 11. */
+	/* Empty bins: bins 0, 5, 6, 7 and 11 (sample_counts), each a
+	   full-height hatched band with a cross beneath and the word. */
 	assert_int_equal(count_of(b.data, "<path class=\"bin gap\""), 5);
-	/* Quarter marks and one line per target, each in the legend. */
-	assert_non_null(strstr(b.data, "new moon (0)"));
-	assert_non_null(strstr(b.data, "first quarter (90)"));
-	assert_non_null(strstr(b.data, "full moon (180)"));
-	assert_non_null(strstr(b.data, "last quarter (270)"));
+	assert_int_equal(count_of(b.data, ">empty</text>"), 5);
+	for (int k = 0; k < 12; k++) {
+		snprintf(key, sizeof key, "class=\"gap-mark\" data-bin=\"%d\"",
+		    k);
+		assert_int_equal(count_of(b.data, key),
+		    sample_counts[k] == 0 ? 1 : 0);
+	}
+	/* The quarters named along the line, the pooled mean as a line,
+	   and one small chart per target. */
+	assert_int_equal(count_of(b.data, "class=\"quarter\">new moon<"), 1);
+	assert_int_equal(count_of(b.data, "class=\"quarter\">first quarter<"),
+	    1);
+	assert_int_equal(count_of(b.data, "class=\"quarter\">full moon<"), 1);
+	assert_int_equal(count_of(b.data, "class=\"quarter\">last quarter<"),
+	    1);
+	assert_int_equal(count_of(b.data, "<path class=\"mean\""), 1);
 	assert_int_equal(count_of(b.data, "<g class=\"target\""), 3);
-	assert_int_equal(count_of(b.data, "<g class=\"legend-target\""), 3);
+	/* Every target's chart has one mark per bin: a bar or a gap. */
+	assert_int_equal(count_of(b.data, "<rect class=\"tbin\"") +
+	    count_of(b.data, "class=\"gap-mark small\""), 3 * 12);
+	/* No text smaller than 14 units of the 400-unit width (12 px when
+	   the chart is shown 343 px wide). */
+	assert_non_null(strstr(b.data, "viewBox=\"0 0 400 "));
+	for (const char *p = strstr(b.data, "font-size=\""); p != NULL;
+	    p = strstr(p + 1, "font-size=\""))
+		assert_true(strtol(p + 11, NULL, 10) >= 14);
+	assert_int_equal(count_of(b.data, "<text "),
+	    count_of(b.data, "font-size=\""));
 	mbuf_free(&b);
+	free(r);
+}
+
+/* Relative luminance (WCAG 2) of the first "#rrggbb" after key in hay. */
+static double
+luminance_after(const char *hay, const char *key)
+{
+	const char *p = strstr(hay, key);
+	double c[3];
+	unsigned v;
+
+	assert_non_null(p);
+	p = strchr(p + strlen(key), '#');
+	assert_non_null(p);
+	assert_int_equal(sscanf(p, "#%6x", &v), 1);
+	for (int i = 0; i < 3; i++) {
+		double x = (double)((v >> (16 - 8 * i)) & 0xff) / 255.0;
+
+		c[i] = x <= 0.03928 ? x / 12.92 : pow((x + 0.055) / 1.055, 2.4);
+	}
+	return 0.2126 * c[0] + 0.7152 * c[1] + 0.0722 * c[2];
+}
+
+/* WCAG 2 contrast ratio of two luminances. */
+static double
+contrast(double a, double b)
+{
+	return a > b ? (a + 0.05) / (b + 0.05) : (b + 0.05) / (a + 0.05);
+}
+
+/* Both themes: the dark one on a dark ground (for the night page), the
+   light one on a light ground (for paper); in each the empty bins' ink
+   has a higher contrast with the ground than any other mark's (the
+   formula is WCAG 2.x's relative luminance and contrast ratio). */
+static void
+test_render_cov_svg_themes(void **state)
+{
+	struct coverage_result *r = sample_result();
+	static const char *const others[] = {
+		"<path class=\"mean\" stroke=\"",
+		"<path class=\"bin\" data-bin=\"1\" data-count=\"1\" fill=\"",
+		"class=\"sparse-mark\" data-bin=\"-1\" fill=\"none\" "
+		    "stroke=\"",
+	};
+
+	(void)state;
+	for (int t = 0; t < 2; t++) {
+		struct render_cov c = {r, NULL, NULL, NULL, NULL,
+		    t ? RENDER_COV_DARK : RENDER_COV_LIGHT};
+		double ground, gap;
+		struct mbuf b;
+
+		mbuf_init(&b);
+		assert_int_equal(render_cov_svg(&c, &b), ERRCODE_OK);
+		assert_well_formed(&b);
+		assert_non_null(strstr(b.data, t ? "class=\"theme-dark\"" :
+		    "class=\"theme-light\""));
+		ground = luminance_after(b.data, "<rect class=\"ground\" "
+		    "width=\"400\" height=\"");
+		if (t)
+			assert_true(ground < 0.05);
+		else
+			assert_true(ground > 0.9);
+		gap = luminance_after(b.data, "class=\"gap-mark\" data-bin="
+		    "\"0\" fill=\"none\" stroke=\"");
+		for (size_t i = 0; i < 3; i++)
+			assert_true(contrast(gap, ground) >
+			    contrast(luminance_after(b.data, others[i]),
+			    ground));
+		/* The bars' edge: the stroke after the first bar's fill. */
+		assert_true(contrast(gap, ground) > contrast(luminance_after(
+		    strstr(b.data, others[1]), " stroke=\""), ground));
+		mbuf_free(&b);
+	}
 	free(r);
 }
 
@@ -151,7 +248,7 @@ test_render_cov_empty_and_bin_limits(void **state)
 	(void)state;
 	assert_non_null(r);
 	for (int k = 0; k < 3; k++) {
-		struct render_cov c = {r, NULL, NULL, NULL, NULL};
+		struct render_cov c = {r, NULL, NULL, NULL, NULL, RENDER_COV_LIGHT};
 		struct coverage_spec s;
 		json_error_t jerr;
 		json_t *root, *m;
@@ -189,7 +286,7 @@ test_render_cov_json_fields(void **state)
 {
 	struct coverage_result *r = sample_result();
 	struct coverage_fill fill;
-	struct render_cov c = {r, &fill, NULL, NULL, NULL};
+	struct render_cov c = {r, &fill, NULL, NULL, NULL, RENDER_COV_LIGHT};
 	json_t *root, *pooled, *m, *counts;
 	json_error_t jerr;
 	struct mbuf b;
@@ -246,7 +343,7 @@ static void
 test_render_cov_csv_rows(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, NULL, NULL};
+	struct render_cov c = {r, NULL, NULL, NULL, NULL, RENDER_COV_LIGHT};
 	struct mbuf b;
 
 	(void)state;
@@ -267,7 +364,7 @@ static void
 test_render_cov_text_table(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, "fill dates: none here", NULL, NULL};
+	struct render_cov c = {r, NULL, "fill dates: none here", NULL, NULL, RENDER_COV_LIGHT};
 	struct coverage_fill fill;
 	struct mbuf b;
 
@@ -316,7 +413,7 @@ static void
 test_render_cov_allocation_failure(void **state)
 {
 	struct coverage_result *r = sample_result();
-	struct render_cov c = {r, NULL, NULL, "station", NULL};
+	struct render_cov c = {r, NULL, NULL, "station", NULL, RENDER_COV_LIGHT};
 	enum errcode (*fn[4])(const struct render_cov *, struct mbuf *) = {
 		render_cov_json, render_cov_csv, render_cov_text, render_cov_svg
 	};
@@ -356,6 +453,7 @@ main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_render_cov_counts_of_sample),
 		cmocka_unit_test(test_render_cov_svg_is_xml_with_one_mark_per_bin),
+		cmocka_unit_test(test_render_cov_svg_themes),
 		cmocka_unit_test(test_render_cov_empty_and_bin_limits),
 		cmocka_unit_test(test_render_cov_json_fields),
 		cmocka_unit_test(test_render_cov_csv_rows),

@@ -477,112 +477,133 @@ render_cov_xml_escape(struct mbuf *out, const char *s)
 	}
 }
 
-/* Geometry of the chart, in SVG user units. */
-#define SVG_W 900.0
-#define SVG_H 650.0
-#define SVG_CX 360.0
-#define SVG_CY 332.0
-#define SVG_R0 62.0		/* inner radius: the hub */
-#define SVG_R1 205.0		/* bar length at the largest count */
-#define SVG_GAP_R 16.0		/* visible depth of an empty bin */
-#define SVG_STYLES 6
+/*
+ * The chart: the axis angle along a line from 0 to 360 degrees, one bar
+ * per bin, the pooled mean as a dashed line, and beneath it one small
+ * chart per target on a common scale.  Its user units are sized so that
+ * the smallest text (14 units) stays at least 12 px when the 400-unit
+ * width is shown in a 350 px phone column.  Empty (below min_count) bins
+ * are the loudest marks: a hatched band the full height of the plot with
+ * a cross beneath and the word "empty" (or "gap") in it, in the ink of
+ * greatest contrast after the text; sparse bins get a hollow triangle.
+ * Every text carries its own size and fill as presentation attributes
+ * (no <style>), so the chart looks the same embedded in any page.
+ */
+#define SVG_W 400.0
+#define SVG_X0 44.0		/* the line's 0 degrees */
+#define SVG_X1 388.0		/* its 360 degrees */
+#define SVG_PY0 110.0		/* top of the pooled plot */
+#define SVG_PY1 240.0		/* its baseline */
+#define SVG_FONT 14		/* every text but the heading */
+#define SVG_HEAD 16
+#define SVG_MULT_H 56.0		/* one target's block */
+#define SVG_MULT_PLOT 32.0	/* its bars' full height */
 #define SVG_MAX_LINES 16	/* targets drawn; the rest are counted */
+#define SVG_LABEL_MIN_W 24.0	/* bin width that takes a count label */
 
-/* Stroke dashes, markers and inks of target lines: dash and marker alone
-   tell the targets apart; the ink helps where colour is seen. */
-static const char *const svg_dash[SVG_STYLES] = {
-	"none", "7 4", "2 3", "9 3 2 3", "1 6", "12 5"
-};
-static const char *const svg_ink[SVG_STYLES] = {
-	"#1d3557", "#8a3b12", "#2f6b3a", "#6a2c70", "#7a6a00", "#0b6e6e"
+/* The two themes' inks.  Contrast against the ground (WCAG 2 formula),
+   the empty-bin ink highest of the marks: dark 8.3 (sparse 6.2, mean
+   5.4, bar edge 5.7), light 6.5 (sparse 4.0, mean 3.4, bar edge 3.7). */
+struct svg_ink {
+	const char *ground, *ink, *dim, *rule;
+	const char *bar, *bar_edge, *sparse, *gap, *gap_band, *mean;
+	const char *lit, *unlit;	/* the Moon glyphs */
 };
 
-/* Point at angle deg (clockwise from the top) and radius rad. */
-static void
-polar(double deg, double rad, double *x, double *y)
+static const struct svg_ink svg_dark = {
+	"#1f1a16", "#e9e2d4", "#b3a998", "#4a3f36",
+	"#5f7d69", "#7d9c86", "#b8924e", "#ff9a70", "#3a1d14", "#7f93a6",
+	"#d8cfbf", "#1f1a16"
+};
+
+static const struct svg_ink svg_light = {
+	"#ffffff", "#1d2329", "#4d5760", "#c9ced2",
+	"#a9bfb0", "#6f8c79", "#9a7b2c", "#b3261e", "#fbe9e6", "#6f8fae",
+	"#ffffff", "#4d5760"
+};
+
+const char *
+render_cov_theme_name(enum render_cov_theme t)
 {
-	double a = deg * 3.14159265358979323846 / 180.0;
-
-	*x = SVG_CX + rad * sin(a);
-	*y = SVG_CY - rad * cos(a);
+	return t == RENDER_COV_DARK ? "dark" : "light";
 }
 
-/* Radius of a bar of count n: the sector's area (from the hub) grows in
-   proportion to the count, so that small bins stay visible and the eye
-   compares areas fairly. */
+int
+render_cov_theme_parse(const char *s)
+{
+	if (s != NULL && strcmp(s, "light") == 0)
+		return RENDER_COV_LIGHT;
+	if (s != NULL && strcmp(s, "dark") == 0)
+		return RENDER_COV_DARK;
+	return -1;
+}
+
+/* x of an angle on the line. */
 static double
-bar_radius(double n, double max)
+svg_x(double deg)
 {
-	return sqrt(SVG_R0 * SVG_R0 + (SVG_R1 * SVG_R1 - SVG_R0 * SVG_R0) *
-	    n / max);
+	return SVG_X0 + (SVG_X1 - SVG_X0) * deg / 360.0;
 }
 
-/* Marker shape k centred at x, y. */
-static void
-svg_marker(struct mbuf *out, int k, double x, double y, const char *ink)
-{
-	switch (k % SVG_STYLES) {
-	case 0:
-		mbuf_printf(out, "<circle cx=\"%.1f\" cy=\"%.1f\" r=\"3.6\" "
-		    "fill=\"%s\"/>", x, y, ink);
-		break;
-	case 1:
-		mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"6.4\" "
-		    "height=\"6.4\" fill=\"#ffffff\" stroke=\"%s\" "
-		    "stroke-width=\"1.6\"/>", x - 3.2, y - 3.2, ink);
-		break;
-	case 2:
-		mbuf_printf(out, "<path d=\"M%.1f %.1fL%.1f %.1fL%.1f %.1fZ\" "
-		    "fill=\"%s\"/>", x, y - 4.2, x + 3.8, y + 2.6, x - 3.8,
-		    y + 2.6, ink);
-		break;
-	case 3:
-		mbuf_printf(out, "<path d=\"M%.1f %.1fL%.1f %.1fL%.1f %.1fL%.1f "
-		    "%.1fZ\" fill=\"#ffffff\" stroke=\"%s\" "
-		    "stroke-width=\"1.6\"/>", x, y - 4.4, x + 4.0, y, x,
-		    y + 4.4, x - 4.0, y, ink);
-		break;
-	case 4:
-		mbuf_printf(out, "<path d=\"M%.1f %.1fL%.1f %.1fM%.1f %.1fL%.1f "
-		    "%.1f\" stroke=\"%s\" stroke-width=\"2\"/>", x - 3.6,
-		    y - 3.6, x + 3.6, y + 3.6, x - 3.6, y + 3.6, x + 3.6,
-		    y - 3.6, ink);
-		break;
-	default:
-		mbuf_printf(out, "<path d=\"M%.1f %.1fL%.1f %.1fM%.1f %.1fL%.1f "
-		    "%.1f\" stroke=\"%s\" stroke-width=\"2\"/>", x - 4.2, y,
-		    x + 4.2, y, x, y - 4.2, x, y + 4.2, ink);
-		break;
-	}
-}
-
-/* One bin's bar: a ring sector from the hub to radius rad. */
-static void
-svg_sector(struct mbuf *out, const struct coverage_result *r, int b,
-    double rad, const char *cls, const char *fill)
-{
-	double a0 = edge(r, b) + 0.6, a1 = edge(r, b + 1) - 0.6;
-	double x0, y0, x1, y1, x2, y2, x3, y3;
-
-	polar(a0, SVG_R0, &x0, &y0);
-	polar(a0, rad, &x1, &y1);
-	polar(a1, rad, &x2, &y2);
-	polar(a1, SVG_R0, &x3, &y3);
-	mbuf_printf(out, "<path class=\"%s\" data-bin=\"%d\" data-count=\"%ld\" "
-	    "fill=\"%s\" stroke=\"#3c4a52\" stroke-width=\"0.8\" "
-	    "d=\"M%.2f %.2fL%.2f %.2fA%.2f %.2f 0 0 1 %.2f %.2fL%.2f %.2f"
-	    "A%.2f %.2f 0 0 0 %.2f %.2fZ\"/>\n", cls, b, r->pooled.n[b], fill,
-	    x0, y0, x1, y1, rad, rad, x2, y2, x3, y3, SVG_R0, SVG_R0, x0, y0);
-}
-
+/* Text at x, y in ink of size px; attrs ("" for none) go in as they are. */
 static void
 svg_text(struct mbuf *out, double x, double y, const char *anchor,
-    const char *attrs, const char *text)
+    int px, const char *ink, const char *attrs, const char *text)
 {
-	mbuf_printf(out, "<text x=\"%.1f\" y=\"%.1f\" text-anchor=\"%s\"%s%s>",
-	    x, y, anchor, attrs[0] ? " " : "", attrs);
+	mbuf_printf(out, "<text x=\"%.1f\" y=\"%.1f\" text-anchor=\"%s\" "
+	    "font-size=\"%d\" fill=\"%s\"%s%s>", x, y, anchor, px, ink,
+	    attrs[0] ? " " : "", attrs);
 	render_cov_xml_escape(out, text);
 	mbuf_puts(out, "</text>\n");
+}
+
+static int
+svg_is_sparse(const struct coverage_metrics *m, int b)
+{
+	for (int i = 0; i < m->nsparse; i++)
+		if (m->sparse[i] == b)
+			return 1;
+	return 0;
+}
+
+/* The cross under an empty bin, centred at x, y, half size h. */
+static void
+svg_cross(struct mbuf *out, double x, double y, double h, const char *ink,
+    int b)
+{
+	mbuf_printf(out, "<path class=\"gap-mark\" data-bin=\"%d\" "
+	    "fill=\"none\" stroke=\"%s\" stroke-width=\"3\" "
+	    "stroke-linecap=\"round\" d=\"M%.1f %.1fL%.1f %.1fM%.1f %.1f"
+	    "L%.1f %.1f\"/>\n", b, ink, x - h, y - h, x + h, y + h, x - h,
+	    y + h, x + h, y - h);
+}
+
+/* The hollow triangle under a sparse bin. */
+static void
+svg_triangle(struct mbuf *out, double x, double y, double h, const char *ink,
+    int b)
+{
+	mbuf_printf(out, "<path class=\"sparse-mark\" data-bin=\"%d\" "
+	    "fill=\"none\" stroke=\"%s\" stroke-width=\"2\" "
+	    "stroke-linejoin=\"round\" d=\"M%.1f %.1fL%.1f %.1fL%.1f %.1fZ\"/>\n",
+	    b, ink, x, y - h, x + h, y + h * 0.8, x - h, y + h * 0.8);
+}
+
+/* A Moon at quarter q of the synodic axis, lit part in k->lit. */
+static void
+svg_moon(struct mbuf *out, const struct svg_ink *k, double x, double y,
+    int q)
+{
+	const double r = 6.0;
+
+	mbuf_printf(out, "<circle cx=\"%.1f\" cy=\"%.1f\" r=\"%.1f\" "
+	    "fill=\"%s\" stroke=\"%s\" stroke-width=\"1.2\"/>", x, y, r,
+	    q == 2 ? k->lit : k->unlit, k->dim);
+	if (q == 1 || q == 3)	/* the lit half: right waxing, left waning */
+		mbuf_printf(out, "<path fill=\"%s\" d=\"M%.1f %.1fA%.1f %.1f 0 0 "
+		    "%d %.1f %.1fZ\"/>", k->lit, x, y - r, r, r, q == 1 ? 1 : 0,
+		    x, y + r);
+	mbuf_puts(out, "\n");
 }
 
 static void
@@ -598,12 +619,13 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 	    "normal points", r->spec.nbins);
 	render_cov_xml_escape(out, buf);
 	render_cov_xml_escape(out, coverage_axis_label(r->spec.axis));
-	mbuf_printf(out, ", %.4g degrees each, drawn clockwise from the top "
-	    "(0 degrees, %s). Bar area is proportional to the pooled "
-	    "count; bins below %ld are hatched, bins under half the mean "
-	    "dotted. Pooled counts by bin:",
+	mbuf_printf(out, ", %.4g degrees each, as bars along a line from 0 "
+	    "(%s) to 360 degrees, with the quarters marked and the pooled "
+	    "mean of %.1f per bin as a dashed line. Bins below %ld are "
+	    "crossed and hatched over the full height; bins under half the "
+	    "mean carry a triangle. Pooled counts by bin:",
 	    r->bin_width_deg, coverage_axis_mark(r->spec.axis, 0),
-	    r->spec.min_count);
+	    (double)m->total / r->spec.nbins, r->spec.min_count);
 	for (int b = 0; b < r->spec.nbins; b++)
 		mbuf_printf(out, "%s %ld", b ? "," : "", r->pooled.n[b]);
 	mbuf_printf(out, ". Total %ld; %d of %d bins filled; longest empty "
@@ -612,8 +634,8 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 	for (size_t i = 0; i < r->ntargets; i++) {
 		mbuf_puts(out, " Target ");
 		render_cov_xml_escape(out, r->targets[i].id);
-		mbuf_printf(out, " (line style %zu, scaled to its own fullest "
-		    "bin):", i % SVG_STYLES + 1);
+		mbuf_puts(out, " (a small chart beneath, on one scale for all "
+		    "targets):");
 		for (int b = 0; b < r->spec.nbins; b++)
 			mbuf_printf(out, "%s %ld", b ? "," : "",
 			    r->targets[i].c.n[b]);
@@ -622,62 +644,218 @@ svg_desc(struct mbuf *out, const struct render_cov *c)
 	mbuf_puts(out, "</desc>\n");
 }
 
-/* Legend, to the right of the ring. */
+/* Quarter names above the plot (0 and 180 on one row, 90 and 270 on the
+   next, so that long names do not meet), guide lines at every quarter
+   and the degrees beneath. */
 static void
-svg_legend(struct mbuf *out, const struct coverage_result *r)
+svg_axis(struct mbuf *out, const struct coverage_result *r,
+    const struct svg_ink *k)
 {
-	double x = 712.0, y = 96.0;
+	static const char *const anchor[4] = {
+		"start", "middle", "middle", "middle"
+	};
+	char buf[32];
+
+	for (int q = 0; q < 4; q++) {
+		double x = svg_x(90.0 * q);
+
+		svg_text(out, q == 0 ? x - 20.0 : x, q % 2 ? 84.0 : 66.0,
+		    anchor[q], SVG_FONT, k->ink, "class=\"quarter\"",
+		    coverage_axis_mark(r->spec.axis, q));
+	}
+	mbuf_printf(out, "<g class=\"guides\" stroke=\"%s\" stroke-width=\"1\" "
+	    "stroke-dasharray=\"3 3\">\n", k->rule);
+	for (int q = 0; q <= 4; q++)
+		mbuf_printf(out, "<path d=\"M%.1f %.1fV%.1f\"/>\n",
+		    svg_x(90.0 * q), SVG_PY0 - 6.0, SVG_PY1);
+	mbuf_puts(out, "</g>\n");
+	if (r->spec.axis == COVERAGE_AXIS_SYNODIC)
+		for (int q = 0; q <= 4; q++)
+			svg_moon(out, k, svg_x(90.0 * q), SVG_PY0 - 12.0, q % 4);
+	mbuf_printf(out, "<path stroke=\"%s\" stroke-width=\"1.5\" "
+	    "d=\"M%.1f %.1fH%.1f\"/>\n", k->dim, SVG_X0, SVG_PY1, SVG_X1);
+	for (int q = 0; q <= 4; q++) {
+		snprintf(buf, sizeof buf, "%d\xc2\xb0", 90 * q);
+		svg_text(out, svg_x(90.0 * q), SVG_PY1 + 34.0, q == 0 ? "start" :
+		    q == 4 ? "end" : "middle", SVG_FONT, k->dim, "", buf);
+	}
+}
+
+/* The pooled bars, the marks of empty and sparse bins, the counts and
+   the mean. */
+static void
+svg_pooled(struct mbuf *out, const struct coverage_result *r,
+    const struct svg_ink *k, long max)
+{
+	const struct coverage_spec *s = &r->spec;
+	const struct coverage_metrics *m = &r->pooled.m;
+	double w = (SVG_X1 - SVG_X0) / s->nbins, span = SVG_PY1 - SVG_PY0 - 22.0;
+	double mean = (double)m->total / s->nbins;
+	int label = w >= SVG_LABEL_MIN_W;
+	char buf[64];
+
+	mbuf_puts(out, "<g class=\"bins\">\n");
+	for (int b = 0; b < s->nbins; b++) {
+		long n = r->pooled.n[b];
+		double x = SVG_X0 + b * w + 1.0, h = span * (double)n / (double)max;
+
+		if (n < s->min_count) {
+			/* A band the full height: the gap is the chart's
+			   loudest mark, whatever the scale. */
+			mbuf_printf(out, "<path class=\"bin gap\" data-bin=\"%d\" "
+			    "data-count=\"%ld\" fill=\"url(#cov-gap)\" "
+			    "stroke=\"%s\" stroke-width=\"1.5\" "
+			    "d=\"M%.1f %.1fH%.1fV%.1fH%.1fZ\"/>\n", b, n, k->gap,
+			    x, SVG_PY1, x + w - 2.0, SVG_PY0, x);
+			svg_cross(out, x + w / 2.0 - 1.0, SVG_PY1 + 13.0,
+			    w >= 16.0 ? 6.0 : w / 2.0 - 1.0, k->gap, b);
+			if (w >= 16.0) {
+				char attrs[96];
+
+				snprintf(attrs, sizeof attrs, "class=\"gap-label\" "
+				    "font-weight=\"bold\" transform=\"rotate(-90 "
+				    "%.1f %.1f)\"", x + w / 2.0 + 4.0,
+				    SVG_PY1 - 8.0);
+				svg_text(out, x + w / 2.0 + 4.0, SVG_PY1 - 8.0,
+				    "start", SVG_FONT, k->gap, attrs,
+				    s->min_count > 1 ? "gap" : "empty");
+			}
+		} else {
+			mbuf_printf(out, "<path class=\"bin%s\" data-bin=\"%d\" "
+			    "data-count=\"%ld\" fill=\"%s\" stroke=\"%s\" "
+			    "stroke-width=\"1\" d=\"M%.1f %.1fH%.1fV%.1fH%.1fZ\"/>\n",
+			    svg_is_sparse(m, b) ? " sparse" : "", b, n, k->bar,
+			    k->bar_edge, x, SVG_PY1, x + w - 2.0, SVG_PY1 - h, x);
+			if (svg_is_sparse(m, b))
+				svg_triangle(out, x + w / 2.0 - 1.0,
+				    SVG_PY1 + 13.0, w >= 16.0 ? 6.0 :
+				    w / 2.0 - 1.0, k->sparse, b);
+		}
+		if (label) {
+			char attrs[64];
+
+			snprintf(buf, sizeof buf, "%ld", n);
+			snprintf(attrs, sizeof attrs, "%sclass=\"count\" "
+			    "data-bin=\"%d\"", n < s->min_count ?
+			    "font-weight=\"bold\" " : "", b);
+			svg_text(out, x + w / 2.0 - 1.0, n < s->min_count ?
+			    SVG_PY0 + 16.0 : SVG_PY1 - h - 5.0, "middle",
+			    SVG_FONT, n < s->min_count ? k->gap : k->ink,
+			    attrs, buf);
+		}
+	}
+	mbuf_puts(out, "</g>\n");
+	if (m->total > 0) {
+		double y = SVG_PY1 - span * mean / (double)max;
+
+		mbuf_printf(out, "<path class=\"mean\" stroke=\"%s\" "
+		    "stroke-width=\"2\" stroke-dasharray=\"8 4\" "
+		    "d=\"M%.1f %.1fH%.1f\"/>\n", k->mean, SVG_X0, y, SVG_X1);
+	}
+	snprintf(buf, sizeof buf, "%ld", max);
+	svg_text(out, SVG_X0 - 6.0, SVG_PY1 - span + 5.0, "end", SVG_FONT,
+	    k->dim, "", buf);
+	svg_text(out, SVG_X0 - 6.0, SVG_PY1, "end", SVG_FONT, k->dim, "", "0");
+}
+
+/* What the marks mean, beneath the degrees. */
+static double
+svg_legend(struct mbuf *out, const struct coverage_result *r,
+    const struct svg_ink *k, double y)
+{
 	char buf[80];
 
-	svg_text(out, x, y, "start", "class=\"head\"", "Legend");
+	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"14\" "
+	    "height=\"16\" fill=\"url(#cov-gap)\" stroke=\"%s\" "
+	    "stroke-width=\"1.5\"/>\n", SVG_X0 - 36.0, y - 13.0, k->gap);
+	svg_cross(out, SVG_X0 - 10.0, y - 5.0, 5.0, k->gap, -1);
+	if (r->spec.min_count > 1)
+		snprintf(buf, sizeof buf, "gap: fewer than %ld in the bin",
+		    r->spec.min_count);
+	else
+		snprintf(buf, sizeof buf, "empty: nothing in the bin");
+	svg_text(out, SVG_X0 + 4.0, y, "start", SVG_FONT, k->ink, "", buf);
 	y += 22.0;
-	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"18\" height=\"12\" "
-	    "fill=\"#c8d3c0\" stroke=\"#3c4a52\" stroke-width=\"0.8\"/>\n", x,
-	    y - 10.0);
-	svg_text(out, x + 26.0, y, "start", "", "all targets (bar)");
+	svg_triangle(out, SVG_X0 - 10.0, y - 5.0, 6.0, k->sparse, -1);
+	svg_text(out, SVG_X0 + 4.0, y, "start", SVG_FONT, k->ink, "",
+	    "sparse: under half the mean");
 	y += 22.0;
-	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"18\" height=\"12\" "
-	    "fill=\"url(#cov-gap)\" stroke=\"#3c4a52\" stroke-width=\"0.8\"/>\n",
-	    x, y - 10.0);
-	snprintf(buf, sizeof buf, "below %ld (gap)", r->spec.min_count);
-	svg_text(out, x + 26.0, y, "start", "", buf);
-	y += 22.0;
-	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"18\" height=\"12\" "
-	    "fill=\"url(#cov-sparse)\" stroke=\"#3c4a52\" stroke-width=\"0.8\"/>\n",
-	    x, y - 10.0);
-	svg_text(out, x + 26.0, y, "start", "", "under half the mean");
-	svg_text(out, x + 26.0, y + 14.0, "start", "", "(sparse)");
-	y += 14.0;
-	size_t nlines = r->ntargets < SVG_MAX_LINES ? r->ntargets :
+	mbuf_printf(out, "<path stroke=\"%s\" stroke-width=\"2\" "
+	    "stroke-dasharray=\"8 4\" d=\"M%.1f %.1fH%.1f\"/>\n", k->mean,
+	    SVG_X0 - 36.0, y - 5.0, SVG_X0 - 2.0);
+	snprintf(buf, sizeof buf, "mean: %.1f per bin, all targets",
+	    (double)r->pooled.m.total / r->spec.nbins);
+	svg_text(out, SVG_X0 + 4.0, y, "start", SVG_FONT, k->ink, "", buf);
+	return y;
+}
+
+/* One small chart per target on a common scale, from y down; returns
+   the y beneath the last. */
+static double
+svg_multiples(struct mbuf *out, const struct coverage_result *r,
+    const struct svg_ink *k, double y)
+{
+	const struct coverage_spec *s = &r->spec;
+	size_t nshow = r->ntargets < SVG_MAX_LINES ? r->ntargets :
 	    SVG_MAX_LINES;
+	double w = (SVG_X1 - SVG_X0) / s->nbins;
+	long tmax = 1;
+	char buf[96];
 
-	for (size_t i = 0; i < nlines; i++) {
-		int k = (int)(i % SVG_STYLES);
+	if (r->ntargets == 0)
+		return y;
+	for (size_t i = 0; i < r->ntargets; i++)
+		for (int b = 0; b < s->nbins; b++)
+			if (r->targets[i].c.n[b] > tmax)
+				tmax = r->targets[i].c.n[b];
+	snprintf(buf, sizeof buf, "By target, one scale (largest bin %ld)",
+	    tmax);
+	svg_text(out, SVG_X0 - 36.0, y, "start", SVG_FONT, k->ink,
+	    "font-weight=\"bold\"", buf);
+	y += 8.0;
+	for (size_t i = 0; i < nshow; i++) {
+		const struct coverage_counts *tc = &r->targets[i].c;
+		double base = y + SVG_MULT_H - 8.0;
 
-		y += 22.0;
-		mbuf_printf(out, "<g class=\"legend-target\" data-target=\"");
+		mbuf_puts(out, "<g class=\"target\" data-target=\"");
 		render_cov_xml_escape(out, r->targets[i].id);
-		mbuf_printf(out, "\"><path d=\"M%.1f %.1fH%.1f\" fill=\"none\" "
-		    "stroke=\"%s\" stroke-width=\"1.8\" stroke-dasharray=\"%s\"/>",
-		    x - 4.0, y - 4.0, x + 22.0, svg_ink[k], svg_dash[k]);
-		svg_marker(out, (int)i, x + 9.0, y - 4.0, svg_ink[k]);
+		mbuf_puts(out, "\">\n");
+		snprintf(buf, sizeof buf, "%s: %ld, %d of %d bins",
+		    r->targets[i].id, tc->m.total, tc->m.filled_bins, s->nbins);
+		svg_text(out, SVG_X0, y + 16.0, "start", SVG_FONT, k->dim, "",
+		    buf);
+		mbuf_printf(out, "<path stroke=\"%s\" stroke-width=\"1\" "
+		    "d=\"M%.1f %.1fH%.1f\"/>\n", k->rule, SVG_X0, base, SVG_X1);
+		for (int b = 0; b < s->nbins; b++) {
+			long n = tc->n[b];
+			double x = SVG_X0 + b * w + 1.0;
+
+			if (n < s->min_count)
+				mbuf_printf(out, "<path class=\"gap-mark small\" "
+				    "data-bin=\"%d\" stroke=\"%s\" "
+				    "stroke-width=\"3\" d=\"M%.1f %.1fH%.1f\"/>\n",
+				    b, k->gap, x + 1.0, base + 3.0,
+				    x + w - 3.0);
+			else
+				mbuf_printf(out, "<rect class=\"tbin\" "
+				    "data-bin=\"%d\" data-count=\"%ld\" "
+				    "x=\"%.1f\" y=\"%.1f\" width=\"%.1f\" "
+				    "height=\"%.1f\" fill=\"%s\"/>\n", b, n, x,
+				    base - SVG_MULT_PLOT * (double)n / (double)tmax,
+				    w - 2.0, SVG_MULT_PLOT * (double)n / (double)tmax,
+				    k->bar);
+		}
 		mbuf_puts(out, "</g>\n");
-		snprintf(buf, sizeof buf, "%s (%ld)", r->targets[i].id,
-		    r->targets[i].c.m.total);
-		svg_text(out, x + 30.0, y, "start", "", buf);
+		y += SVG_MULT_H;
 	}
-	if (r->ntargets > nlines) {
-		y += 22.0;
-		snprintf(buf, sizeof buf, "%zu more targets not drawn",
-		    r->ntargets - nlines);
-		svg_text(out, x - 4.0, y, "start", "", buf);
+	if (r->ntargets > nshow) {
+		snprintf(buf, sizeof buf, "%zu more targets: see the CSV",
+		    r->ntargets - nshow);
+		svg_text(out, SVG_X0, y + 10.0, "start", SVG_FONT, k->dim, "",
+		    buf);
+		y += 24.0;
 	}
-	if (r->ntargets > 0) {
-		svg_text(out, x - 4.0, y + 24.0, "start", "", "Each line is one");
-		svg_text(out, x - 4.0, y + 38.0, "start", "",
-		    "target, scaled to its");
-		svg_text(out, x - 4.0, y + 52.0, "start", "", "own fullest bin.");
-	}
+	return y;
 }
 
 enum errcode
@@ -686,19 +864,28 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	const struct coverage_result *r = c->r;
 	const struct coverage_spec *s = &r->spec;
 	const struct coverage_metrics *m = &r->pooled.m;
+	const struct svg_ink *k = c->theme == RENDER_COV_DARK ? &svg_dark :
+	    &svg_light;
+	size_t nshow = r->ntargets < SVG_MAX_LINES ? r->ntargets :
+	    SVG_MAX_LINES;
+	double h, y;
 	long max = 1;
 	char buf[200];
-	double x, y;
 
 	for (int b = 0; b < s->nbins; b++)
 		if (r->pooled.n[b] > max)
 			max = r->pooled.n[b];
+	h = SVG_PY1 + 140.0 + (r->ntargets ? 8.0 : 0.0) +
+	    (double)nshow * SVG_MULT_H + (r->ntargets > nshow ? 24.0 : 0.0) +
+	    56.0;
 
 	mbuf_printf(out, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n"
 	    "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" "
 	    "width=\"%.0f\" height=\"%.0f\" viewBox=\"0 0 %.0f %.0f\" "
-	    "role=\"img\" aria-labelledby=\"cov-title cov-desc\">\n",
-	    SVG_W, SVG_H, SVG_W, SVG_H);
+	    "role=\"img\" aria-labelledby=\"cov-title cov-desc\" "
+	    "class=\"theme-%s\" font-family=\"DejaVu Sans, Noto Sans, "
+	    "sans-serif\">\n", SVG_W, h, SVG_W, h,
+	    render_cov_theme_name(c->theme));
 	snprintf(buf, sizeof buf, "Coverage of %s by %s",
 	    s->source == COVERAGE_SOURCE_ATTEMPTS ? "attempts" :
 	    "normal points", coverage_axis_label(s->axis));
@@ -710,140 +897,43 @@ render_cov_svg(const struct render_cov *c, struct mbuf *out)
 	}
 	mbuf_puts(out, "</title>\n");
 	svg_desc(out, c);
-	mbuf_puts(out,
-	    "<defs><pattern id=\"cov-gap\" width=\"6\" height=\"6\" "
-	    "patternUnits=\"userSpaceOnUse\" patternTransform=\"rotate(45)\">"
-	    "<rect width=\"6\" height=\"6\" fill=\"#fbf1e4\"/>"
-	    "<path d=\"M0 0V6\" stroke=\"#b4532a\" stroke-width=\"2.2\"/>"
-	    "</pattern>"
-	    "<pattern id=\"cov-sparse\" width=\"5\" height=\"5\" "
-	    "patternUnits=\"userSpaceOnUse\">"
-	    "<rect width=\"5\" height=\"5\" fill=\"#eef0e2\"/>"
-	    "<circle cx=\"2.5\" cy=\"2.5\" r=\"1.1\" fill=\"#7d6a2e\"/>"
-	    "</pattern></defs>\n"
-	    "<style>text{font-family:sans-serif;font-size:12px;fill:#24313a}"
-	    ".head{font-size:15px;font-weight:bold}.count{font-size:11px}"
-	    ".dense .count{font-size:8px}"
-	    ".mark{font-size:12px;font-style:italic}</style>\n");
-	mbuf_printf(out, "<rect width=\"%.0f\" height=\"%.0f\" "
-	    "fill=\"#fdfcf8\"/>\n", SVG_W, SVG_H);
-	svg_text(out, 24.0, 30.0, "start", "class=\"head\"", buf);
-	snprintf(buf, sizeof buf, "%d bins of %.4g deg, clockwise from the "
-	    "top; %ld in all, largest bar %ld", s->nbins, r->bin_width_deg,
-	    m->total, max);
-	svg_text(out, 24.0, 48.0, "start", "", buf);
-
-	/* Guide rings at quarters of the largest count. */
-	mbuf_puts(out, "<g class=\"guides\" fill=\"none\" stroke=\"#b9c2c7\" "
-	    "stroke-width=\"0.6\">\n");
-	for (int q = 1; q <= 4; q++)
-		mbuf_printf(out, "<circle cx=\"%.0f\" cy=\"%.0f\" r=\"%.2f\"/>\n",
-		    SVG_CX, SVG_CY, bar_radius(q, 4.0));
-	for (int q = 0; q < 4; q++) {
-		double x0, y0, x1, y1;
-
-		polar(90.0 * q, SVG_R0 - 8.0, &x0, &y0);
-		polar(90.0 * q, SVG_R1 + 30.0, &x1, &y1);
-		mbuf_printf(out, "<path d=\"M%.2f %.2fL%.2f %.2f\" "
-		    "stroke-dasharray=\"3 3\"/>\n", x0, y0, x1, y1);
-	}
-	mbuf_puts(out, "</g>\n");
-
-	/* The bars: one mark per bin. */
-	mbuf_puts(out, "<g class=\"bins\">\n");
-	for (int b = 0; b < s->nbins; b++) {
-		long n = r->pooled.n[b];
-		double rad = bar_radius((double)n, (double)max);
-
-		int sparse = 0;
-
-		for (int i = 0; i < m->nsparse; i++)
-			sparse |= m->sparse[i] == b;
-		if (n < s->min_count) {
-			if (rad < SVG_R0 + SVG_GAP_R)
-				rad = SVG_R0 + SVG_GAP_R;
-			svg_sector(out, r, b, rad, "bin gap", "url(#cov-gap)");
-		} else if (sparse) {
-			if (rad < SVG_R0 + SVG_GAP_R)
-				rad = SVG_R0 + SVG_GAP_R;
-			svg_sector(out, r, b, rad, "bin sparse",
-			    "url(#cov-sparse)");
-		} else {
-			svg_sector(out, r, b, rad, "bin", "#c8d3c0");
-		}
-	}
-	mbuf_puts(out, "</g>\n");
-
-	/* Count labels just outside the ring. */
-	mbuf_puts(out, s->nbins > 24 ? "<g class=\"counts dense\">\n" :
-	    "<g class=\"counts\">\n");
-	for (int b = 0; b < s->nbins; b++) {
-		char attrs[48];
-
-		polar(edge(r, b) + 0.5 * r->bin_width_deg, SVG_R1 + 14.0, &x,
-		    &y);
-		snprintf(buf, sizeof buf, "%ld", r->pooled.n[b]);
-		snprintf(attrs, sizeof attrs, "class=\"count\" data-bin=\"%d\"",
-		    b);
-		svg_text(out, x, y + 4.0, "middle", attrs, buf);
-	}
-	mbuf_puts(out, "</g>\n");
-
-	/* Per-target lines through the bin centres, each scaled to its own
-	   fullest bin so that every target's shape over the cycle shows. */
-	for (size_t i = 0; i < r->ntargets && i < SVG_MAX_LINES; i++) {
-		const long *tn = r->targets[i].c.n;
-		int k = (int)(i % SVG_STYLES);
-		long tmax = 1;
-
-		for (int b = 0; b < s->nbins; b++)
-			if (tn[b] > tmax)
-				tmax = tn[b];
-		mbuf_puts(out, "<g class=\"target\" data-target=\"");
-		render_cov_xml_escape(out, r->targets[i].id);
-		mbuf_printf(out, "\"><path fill=\"none\" stroke=\"%s\" "
-		    "stroke-width=\"1.8\" stroke-dasharray=\"%s\" d=\"",
-		    svg_ink[k], svg_dash[k]);
-		for (int b = 0; b < s->nbins; b++) {
-			polar(edge(r, b) + 0.5 * r->bin_width_deg,
-			    bar_radius((double)tn[b], (double)tmax), &x, &y);
-			mbuf_printf(out, "%s%.2f %.2f", b ? "L" : "M", x, y);
-		}
-		mbuf_puts(out, "Z\"/>");
-		for (int b = 0; b < s->nbins; b++) {
-			polar(edge(r, b) + 0.5 * r->bin_width_deg,
-			    bar_radius((double)tn[b], (double)tmax), &x, &y);
-			svg_marker(out, (int)i, x, y, svg_ink[k]);
-		}
-		mbuf_puts(out, "</g>\n");
-	}
-
-	/* Quarter labels outside the counts. */
-	for (int q = 0; q < 4; q++) {
-		static const char *const anchor[4] = {
-			"middle", "start", "middle", "end"
-		};
-
-		polar(90.0 * q, SVG_R1 + 40.0, &x, &y);
-		snprintf(buf, sizeof buf, "%s (%d)",
-		    coverage_axis_mark(s->axis, q), 90 * q);
-		svg_text(out, x, y + (q == 2 ? 10.0 : q == 0 ? -2.0 : 4.0),
-		    anchor[q], "class=\"mark\"", buf);
-	}
-	snprintf(buf, sizeof buf, "%s", coverage_axis_name(s->axis));
-	svg_text(out, SVG_CX, SVG_CY + 4.0, "middle", "class=\"mark\"", buf);
-
-	svg_legend(out, r);
-
-	/* The numbers under the chart. */
+	mbuf_printf(out, "<defs><pattern id=\"cov-gap\" width=\"6\" "
+	    "height=\"6\" patternUnits=\"userSpaceOnUse\" "
+	    "patternTransform=\"rotate(45)\"><rect width=\"6\" height=\"6\" "
+	    "fill=\"%s\"/><path d=\"M0 0V6\" stroke=\"%s\" "
+	    "stroke-width=\"1.6\"/></pattern></defs>\n", k->gap_band, k->gap);
+	mbuf_printf(out, "<rect class=\"ground\" width=\"%.0f\" height=\"%.0f\" "
+	    "fill=\"%s\"/>\n", SVG_W, h, k->ground);
+	snprintf(buf, sizeof buf, "%s by %s",
+	    s->source == COVERAGE_SOURCE_ATTEMPTS ? "Attempts" :
+	    "Normal points", coverage_axis_label(s->axis));
+	svg_text(out, 8.0, 22.0, "start", SVG_HEAD, k->ink,
+	    "font-weight=\"bold\"", buf);
 	if (m->total > 0)
-		snprintf(buf, sizeof buf, "filled %d/%d bins, longest empty "
-		    "arc %.4g deg, entropy %.3f, chi-square %.1f (%d dof, "
-		    "p %.3g)", m->filled_bins, s->nbins, m->longest_gap_deg,
-		    m->entropy, m->chi2, m->chi2_dof, m->chi2_p);
+		snprintf(buf, sizeof buf, "%ld in %d bins of %.4g\xc2\xb0: "
+		    "%d %s, %d sparse", m->total, s->nbins, r->bin_width_deg,
+		    s->nbins - m->filled_bins, s->min_count > 1 ? "gaps" :
+		    "empty", m->nsparse);
 	else
 		snprintf(buf, sizeof buf, "no records match the query");
-	svg_text(out, 24.0, SVG_H - 20.0, "start", "", buf);
+	svg_text(out, 8.0, 42.0, "start", SVG_FONT, k->dim, "", buf);
+
+	svg_axis(out, r, k);
+	svg_pooled(out, r, k, max);
+	y = svg_legend(out, r, k, SVG_PY1 + 62.0);
+	y = svg_multiples(out, r, k, y + 32.0);
+
+	/* The numbers under the chart, on two lines to fit the width. */
+	if (m->total > 0) {
+		snprintf(buf, sizeof buf, "filled %d of %d bins; longest empty "
+		    "arc %.4g\xc2\xb0", m->filled_bins, s->nbins,
+		    m->longest_gap_deg);
+		svg_text(out, 8.0, y + 22.0, "start", SVG_FONT, k->dim, "", buf);
+		snprintf(buf, sizeof buf, "entropy %.3f; chi-square %.1f, "
+		    "%d dof, p %.3g", m->entropy, m->chi2, m->chi2_dof,
+		    m->chi2_p);
+		svg_text(out, 8.0, y + 42.0, "start", SVG_FONT, k->dim, "", buf);
+	}
 	mbuf_puts(out, "</svg>\n");
 	return mbuf_status(out);
 }

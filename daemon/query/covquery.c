@@ -132,6 +132,11 @@ covquery_param_set(struct covquery_params *p, const char *name,
 			return bad(errbuf, errlen, name, value,
 			    "is not a whole number of days in 0..366");
 		p->horizon_days = (double)v;
+	} else if (strcmp(name, "theme") == 0) {
+		if ((k = render_cov_theme_parse(value)) < 0)
+			return bad(errbuf, errlen, name, value,
+			    "is not light or dark");
+		p->theme = (enum render_cov_theme)k;
 	} else {
 		if (errbuf != NULL && errlen > 0)
 			snprintf(errbuf, errlen, "unknown parameter '%.40s'",
@@ -300,6 +305,7 @@ covquery_run(struct store *db, const struct covquery_params *p,
 	rc.r = res;
 	rc.station_name = have_station ? st.name : NULL;
 	rc.time_zone = have_station ? st.time_zone : NULL;
+	rc.theme = p->theme;
 	if (p->horizon_days > 0 && !have_station) {
 		rc.fill_note = "No gap-filling dates: the database has no "
 		    "station to plan for.";

@@ -15,6 +15,17 @@
  * The renderers append to out and return ERRCODE_OK or ERRCODE_NOMEM;
  * they read no clock, so the same data give the same bytes.
  */
+/* The chart's palette: light for paper (the default), dark for a night
+   page. */
+enum render_cov_theme {
+	RENDER_COV_LIGHT = 0,
+	RENDER_COV_DARK
+};
+
+/* "light", "dark"; the parser gives -1 for anything else. */
+const char *render_cov_theme_name(enum render_cov_theme t);
+int render_cov_theme_parse(const char *s);
+
 struct render_cov {
 	const struct coverage_result *r;
 	const struct coverage_fill *fill;
@@ -22,6 +33,7 @@ struct render_cov {
 	const char *station_name;	/* for titles, may be NULL */
 	const char *time_zone;		/* IANA zone for local times in the
 					   text table, or NULL */
+	enum render_cov_theme theme;	/* the SVG's palette */
 };
 
 /* JSON: the field names are documented in README ("Coverage audit"). */
@@ -34,9 +46,13 @@ enum errcode render_cov_csv(const struct render_cov *c, struct mbuf *out);
 enum errcode render_cov_text(const struct render_cov *c, struct mbuf *out);
 
 /*
- * SVG 1.1 chart: the cycle as a ring of bars, one per bin, with its count
- * as a label; quarter marks; one dashed, marked line per target with a
- * legend; gaps hatched.  Well-formed XML; all text escaped.
+ * SVG 1.1 chart: the axis from 0 to 360 degrees along a line with its
+ * quarters named, one bar per bin (its count above it when there is
+ * room), the pooled mean as a dashed line, empty bins as full-height
+ * hatched bands with a cross and a word, sparse bins with a triangle,
+ * and one small chart per target beneath on a common scale.  Title and
+ * description for screen readers; well-formed XML; all text escaped;
+ * text at least 14 of 400 units wide.
  */
 enum errcode render_cov_svg(const struct render_cov *c, struct mbuf *out);
 

@@ -9,6 +9,7 @@
 #include "core/coverage.h"
 #include "core/errcode.h"
 #include "core/mem.h"
+#include "formats/render_cov.h"
 
 struct store;
 
@@ -33,6 +34,7 @@ struct covquery_params {
 	struct coverage_spec spec;
 	double horizon_days;
 	double now_mjd;
+	enum render_cov_theme theme;	/* the SVG's palette (light) */
 };
 
 void covquery_params_init(struct covquery_params *p);
@@ -40,7 +42,8 @@ void covquery_params_init(struct covquery_params *p);
 /*
  * Set one parameter from text, by the name the HTTP API uses (the CLI's
  * option without "--", with '-' as '_'): source, axis, bins, min_count,
- * since, until, target, station, horizon.  ERRCODE_BAD_ARG (a sentence
+ * since, until, target, station, horizon, theme (light or dark;
+ * the SVG only).  ERRCODE_BAD_ARG (a sentence
  * naming the parameter in errbuf) for a bad value, ERRCODE_NOT_FOUND for
  * an unknown name.  Times are ISO 8601 UTC.
  */
