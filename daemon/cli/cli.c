@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* cli.c: subcommand table, dispatch and shared option helpers. */
+/* cli.c: the table of commands, dispatch to a command or action, and the
+   helpers the commands share (messages, exit statuses, output). */
 #include <ctype.h>
 #include <errno.h>
 #include <math.h>
@@ -10,94 +11,149 @@
 #include <time.h>
 
 #include "cli/cli.h"
+#include "core/text.h"
 #include "core/tscale.h"
 
-const struct cli_command cli_commands[] = {
-	{"ephem", "positions of the Moon, the Sun and each target at an instant",
-	    cmd_ephem},
-	{"phases", "new moon, quarters and full moon in a time span",
-	    cmd_phases},
-	{"windows", "observing windows in a span, ranked by yield and phase "
-	    "coverage", cmd_windows},
-	{"tonight", "the coming night: ranked windows, best target now",
-	    cmd_tonight},
-	{"coverage", "how the normal points spread over the lunar cycle",
-	    cmd_coverage},
-	{"init", "create a station database from a site directory",
-	    cmd_init},
-	{"station", "show or change the stored station", cmd_station},
-	{"target", "the lunar targets: add, list, set, retire", cmd_target},
-	{"blackout", "spans without ranging: add, list, remove", cmd_blackout},
-	{"setting", "settings of the planner and the audit", cmd_setting},
-	{"log", "the observation log: add, list, import, export attempts",
-	    cmd_log},
-	{"np", "normal points: import CRD files, count them", cmd_np},
-	{"eop", "the Earth orientation table: import IERS files", cmd_eop},
-	{"serve", "run the daemon: JSON API and station page over HTTP",
-	    cmd_serve},
-	{"demo", "create a demo database from sample-site/ and serve it",
-	    cmd_demo},
-	{NULL, NULL, NULL}
+const struct cli_command *const cli_commands[] = {
+#define CLI_COMMAND(name) &cmd_##name,
+#include "cli/commands.def"
+#undef CLI_COMMAND
+	NULL
 };
 
-static void
-print_usage(FILE *f)
+/* An unknown command or action word: say so, with the nearest. */
+static int
+unknown_word(const char *what, const char *path,
+    const struct cli_command *const *table, const char *word)
 {
-	fprintf(f,
-	    "usage: moonrange COMMAND [OPTIONS]\n"
-	    "\n"
-	    "Planning aid for lunar laser ranging. Commands:\n");
-	for (const struct cli_command *c = cli_commands; c->name; c++)
-		fprintf(f, "  %-10s %s\n", c->name, c->summary);
-	fprintf(f,
-	    "\n"
-	    "Run 'moonrange COMMAND --help' for the options of a command.\n"
-	    "Times are UTC in ISO 8601, e.g. 2027-03-01T04:00:00Z.\n"
-	    "moonrange is a planning aid only: it never replaces the station's\n"
-	    "laser-safety programme, aircraft and satellite avoidance or sun\n"
-	    "interlocks.\n");
+	const char *near;
+	size_t n = 0;
+	char list[200];
+	size_t len = 0;
+
+	while (table[n] != NULL)
+		n++;
+	{
+		const char *names[64] = {NULL};
+
+		for (size_t i = 0; i < n && i < 64; i++)
+			names[i] = table[i]->name;
+		near = cli_nearest(word, names, n < 64 ? n : 64,
+		    sizeof names[0]);
+	}
+	if (path == NULL)
+		return near != NULL ? cli_usage_error("unknown command '%s'; "
+		    "did you mean '%s'? (try 'moonrange --help')", word, near) :
+		    cli_usage_error("unknown command '%s' (try 'moonrange "
+		    "--help')", word);
+	list[0] = '\0';
+	for (size_t i = 0; i < n; i++)
+		len += (size_t)snprintf(list + len, len < sizeof list ?
+		    sizeof list - len : 0, "%s%s", i == 0 ? "" : i + 1 == n ?
+		    " or " : ", ", table[i]->name);
+	if (near != NULL)
+		return cli_usage_error("%s: unknown %s '%s'; did you mean "
+		    "'%s'? (%s)", path, what, word, near, list);
+	return cli_usage_error("%s: unknown %s '%s' (%s)", path, what, word,
+	    list);
+}
+
+/* Run cmd (the word argv[0], at path) or one of its actions. */
+static int
+run_command(const struct cli_command *c, const char *path, int argc,
+    char **argv)
+{
+	struct cli_args a;
+	char sub[96];
+	int st;
+
+	if (c->actions != NULL) {
+		const struct cli_command *act;
+		char list[200];
+		size_t len = 0;
+
+		if (argc >= 2 && (strcmp(argv[1], "--help") == 0 ||
+		    strcmp(argv[1], "-h") == 0)) {
+			cli_help(stdout, c, path);
+			return CLI_EXIT_OK;
+		}
+		if (argc < 2) {
+			list[0] = '\0';
+			for (size_t i = 0; c->actions[i] != NULL; i++)
+				len += (size_t)snprintf(list + len, len <
+				    sizeof list ? sizeof list - len : 0,
+				    "%s%s", i == 0 ? "" : c->actions[i + 1] ==
+				    NULL ? " or " : ", ", c->actions[i]->name);
+			return cli_usage_error("%s: an action is required: %s "
+			    "(see 'moonrange %s --help')", path, list, path);
+		}
+		if ((act = cli_find(c->actions, argv[1])) == NULL)
+			return unknown_word("action", path, c->actions,
+			    argv[1]);
+		snprintf(sub, sizeof sub, "%s %s", path, act->name);
+		return run_command(act, sub, argc - 1, argv + 1);
+	}
+	if ((st = cli_args_parse(c, path, argc, argv, &a)) >= 0)
+		return st;
+	st = c->run(&a);
+	cli_args_free(&a);
+	return st;
+}
+
+int
+cli_run(int argc, char **argv)
+{
+	const struct cli_command *c = cli_find(cli_commands, argv[0]);
+
+	if (c == NULL)
+		return unknown_word("command", NULL, cli_commands, argv[0]);
+	return run_command(c, c->name, argc, argv);
+}
+
+/* "moonrange help [COMMAND [ACTION]]" */
+static int
+help_command(int argc, char **argv)
+{
+	const struct cli_command *c, *act;
+	char path[96];
+
+	if (argc < 1) {
+		cli_help_main(stdout);
+		return CLI_EXIT_OK;
+	}
+	if ((c = cli_find(cli_commands, argv[0])) == NULL)
+		return unknown_word("command", NULL, cli_commands, argv[0]);
+	if (argc >= 2 && c->actions != NULL) {
+		if ((act = cli_find(c->actions, argv[1])) == NULL)
+			return unknown_word("action", c->name, c->actions,
+			    argv[1]);
+		snprintf(path, sizeof path, "%s %s", c->name, act->name);
+		cli_help(stdout, act, path);
+		return CLI_EXIT_OK;
+	}
+	cli_help(stdout, c, c->name);
+	return CLI_EXIT_OK;
 }
 
 int
 cli_main(int argc, char **argv)
 {
 	if (argc < 2) {
-		print_usage(stderr);
+		cli_help_main(stderr);
 		return CLI_EXIT_USAGE;
 	}
-	if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0 ||
-	    strcmp(argv[1], "help") == 0) {
-		print_usage(stdout);
-		return CLI_EXIT_OK;
-	}
+	if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0)
+		return help_command(0, NULL);
+	if (strcmp(argv[1], "help") == 0)
+		return help_command(argc - 2, argv + 2);
 	if (strcmp(argv[1], "--version") == 0) {
 		printf("moonrange %s\n", MOONRANGE_VERSION);
 		return CLI_EXIT_OK;
 	}
-	for (const struct cli_command *c = cli_commands; c->name; c++)
-		if (strcmp(argv[1], c->name) == 0)
-			return c->run(argc - 1, argv + 1);
-	return cli_usage_error("unknown command '%s' (try 'moonrange --help')",
-	    argv[1]);
+	return cli_run(argc - 1, argv + 1);
 }
 
 #define CLI_MSG_MAX 512	/* bytes of a message; longer ones end in "..." */
-
-/* Length of a well-formed UTF-8 sequence at p (lead and continuation
-   bytes only; 0 if malformed). */
-static size_t
-utf8_len(const unsigned char *p)
-{
-	size_t n = *p >= 0xF0 && *p <= 0xF4 ? 4 : *p >= 0xE0 ? 3 :
-	    *p >= 0xC2 ? 2 : 0;
-
-	if (*p >= 0xF5)
-		return 0;
-	for (size_t i = 1; i < n; i++)
-		if ((p[i] & 0xC0) != 0x80)
-			return 0;
-	return n;
-}
 
 void
 cli_vmessage(const char *kind, const char *fmt, va_list ap)
@@ -116,8 +172,8 @@ cli_vmessage(const char *kind, const char *fmt, va_list ap)
 		k = 1;
 		if (c < 0x20 || c == 0x7F)
 			buf[i] = '?';
-		else if (c >= 0x80 && ((k = utf8_len((unsigned char *)buf +
-		    i)) == 0 || i + k > len)) {
+		else if (c >= 0x80 && (k = text_utf8_seq((unsigned char *)buf +
+		    i, len - i)) == 0) {
 			buf[i] = '?';
 			k = 1;
 		}
@@ -186,54 +242,19 @@ cli_status_of(enum errcode rc)
 	return CLI_EXIT_FAIL;
 }
 
-/* Plain decimal: [+-]digits[.digits] or [+-].digits, nothing else (no
-   spaces, hex, exponent, inf or nan, which strtod would take). */
-static int
-plain_decimal(const char *s)
-{
-	int digits = 0;
-
-	if (*s == '+' || *s == '-')
-		s++;
-	for (; isdigit((unsigned char)*s); s++)
-		digits++;
-	if (*s == '.')
-		for (s++; isdigit((unsigned char)*s); s++)
-			digits++;
-	return digits > 0 && *s == '\0';
-}
-
 enum errcode
 cli_parse_double(const char *s, double min, double max, double *out)
 {
-	char *end;
-	double v;
-
-	if (s == NULL || *s == '\0' || !plain_decimal(s))
+	/* The command line has always taken plain decimals only. */
+	if (s == NULL || strpbrk(s, "eE") != NULL)
 		return ERRCODE_BAD_ARG;
-	errno = 0;
-	v = strtod(s, &end);
-	if (errno != 0 || *end != '\0' || end == s || !isfinite(v) ||
-	    v < min || v > max)
-		return ERRCODE_BAD_ARG;
-	*out = v;
-	return ERRCODE_OK;
+	return text_parse_real(s, min, max, out);
 }
 
 enum errcode
 cli_parse_long(const char *s, long min, long max, long *out)
 {
-	char *end;
-	long v;
-
-	if (s == NULL || *s == '\0')
-		return ERRCODE_BAD_ARG;
-	errno = 0;
-	v = strtol(s, &end, 10);
-	if (errno != 0 || *end != '\0' || end == s || v < min || v > max)
-		return ERRCODE_BAD_ARG;
-	*out = v;
-	return ERRCODE_OK;
+	return text_parse_long(s, min, max, out);
 }
 
 enum errcode
@@ -332,21 +353,6 @@ cli_emit(struct mbuf *b)
 	if (fflush(stdout) != 0)
 		return cli_fail("cannot write output");
 	return CLI_EXIT_OK;
-}
-
-int
-cli_bad_option(const char *cmd, const char *action, const char *opt)
-{
-	return cli_usage_error("%s%s%s: unknown or incomplete option '%s' (see "
-	    "'moonrange %s --help')", cmd, action ? " " : "",
-	    action ? action : "", opt, cmd);
-}
-
-int
-cli_extra_argument(const char *cmd, const char *action, const char *arg)
-{
-	return cli_usage_error("%s%s%s: unexpected argument '%s'", cmd,
-	    action ? " " : "", action ? action : "", arg);
 }
 
 int

@@ -15,35 +15,6 @@
 #define MJD_BASE 2400000.5
 
 int
-cli_store_action(int argc, char **argv, const char *const *actions,
-    void (*usage)(FILE *), int *which)
-{
-	char list[160];
-	size_t len = 0;
-	int n = 0;
-
-	list[0] = '\0';
-	for (n = 0; actions[n] != NULL; n++)
-		len += (size_t)snprintf(list + len, len < sizeof list ?
-		    sizeof list - len : 0, "%s%s", n == 0 ? "" :
-		    actions[n + 1] == NULL ? " or " : ", ", actions[n]);
-	if (argc < 2)
-		return cli_usage_error("%s: an action is required: %s (see "
-		    "'moonrange %s --help')", argv[0], list, argv[0]);
-	if (strcmp(argv[1], "--help") == 0 || strcmp(argv[1], "-h") == 0) {
-		usage(stdout);
-		return CLI_EXIT_OK;
-	}
-	for (int i = 0; i < n; i++)
-		if (strcmp(argv[1], actions[i]) == 0) {
-			*which = i;
-			return -1;
-		}
-	return cli_usage_error("%s: unknown action '%s' (%s)", argv[0],
-	    argv[1], list);
-}
-
-int
 cli_store_open(struct cli_store *c, const char *db, int flags)
 {
 	char err[512];
@@ -249,36 +220,6 @@ cli_store_rep_print(const struct import_report *rep, const char *file)
 	if (rep->bad > rep->nerrors)
 		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s: %zu more bad records "
 		    "not shown", file, rep->bad - rep->nerrors);
-}
-
-enum errcode
-cli_store_parse_bool(const char *s, int *out)
-{
-	static const char *const yes[] = {"yes", "1", "true"};
-	static const char *const no[] = {"no", "0", "false"};
-
-	for (size_t i = 0; i < 3; i++) {
-		if (strcmp(s, yes[i]) == 0) {
-			*out = 1;
-			return ERRCODE_OK;
-		}
-		if (strcmp(s, no[i]) == 0) {
-			*out = 0;
-			return ERRCODE_OK;
-		}
-	}
-	return ERRCODE_BAD_ARG;
-}
-
-int
-cli_store_parse_mjd(const char *opt, const char *s, double *mjd)
-{
-	double u1, u2;
-
-	if (cli_parse_time(opt, s, &u1, &u2) != ERRCODE_OK)
-		return CLI_EXIT_USAGE;
-	*mjd = (u1 - MJD_BASE) + u2;
-	return CLI_EXIT_OK;
 }
 
 const struct site_target *

@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_coverage.c: "moonrange coverage", the audit of phase coverage. */
-#include <getopt.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -8,44 +7,6 @@
 #include "cli/cli.h"
 #include "query/covquery.h"
 #include "store/store.h"
-
-static void
-usage(FILE *f)
-{
-	fprintf(f,
-	    "usage: moonrange coverage --db FILE [--source normal_points|attempts]\n"
-	    "                          [--since UTC] [--until UTC] [--target ID]\n"
-	    "                          [--station CODE] [--axis AXIS] [--bins N]\n"
-	    "                          [--min-count M] [--horizon DAYS]\n"
-	    "                          [--json | --csv | --svg FILE]\n"
-	    "\n"
-	    "How the normal points (or attempts) are spread over the lunar\n"
-	    "cycle: counts per bin, per target, pooled and per year; the\n"
-	    "emptiest bins, the share of bins filled, the longest empty arc,\n"
-	    "normalised entropy and a chi-square test against a uniform\n"
-	    "spread; and the coming windows that would fill the gaps.\n"
-	    "\n"
-	    "  --db FILE        the station database (moonrange init)\n"
-	    "  --source S       normal_points (default: imported points and\n"
-	    "                   those logged with attempts) or attempts\n"
-	    "  --since UTC      only records at or after this time (ISO 8601)\n"
-	    "  --until UTC      only records before this time\n"
-	    "  --target ID      one target only\n"
-	    "  --station CODE   one station only (imported files carry other\n"
-	    "                   stations' codes: omit it for the network)\n"
-	    "  --axis AXIS      synodic (default: 0 new moon, 180 full),\n"
-	    "                   anomaly (mean anomaly l, 0 perigee), latitude\n"
-	    "                   (argument of latitude F, 0 ascending node) or\n"
-	    "                   hour_angle (of the Moon at this station)\n"
-	    "  --bins N         bins of the circle, 4..72 (default 12)\n"
-	    "  --min-count M    a bin is filled at M or more (default 1)\n"
-	    "  --horizon DAYS   days searched for gap-filling windows, 0..366\n"
-	    "                   (default 60; 0 = none)\n"
-	    "  --json           machine-readable output (fields in README)\n"
-	    "  --csv            counts as CSV (RFC 4180)\n"
-	    "  --svg FILE       write the chart to FILE ('-' for stdout)\n"
-	    "  --help           this text\n");
-}
 
 /* Write a buffer to a file (or stdout for "-"). */
 static int
@@ -76,95 +37,42 @@ option_error(const char *err)
 	return cli_usage_error("--%s", err);
 }
 
-int
-cmd_coverage(int argc, char **argv)
+/* The options that are parameters of the shared query, by the names of
+   covquery_param_set ('-' there is '_'). */
+static const char *const query_params[] = {"source", "since", "until",
+    "target", "station", "axis", "bins", "min-count", "horizon"};
+
+static int
+run(const struct cli_args *a)
 {
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'D'},
-		{"source", required_argument, NULL, 's'},
-		{"since", required_argument, NULL, 'a'},
-		{"until", required_argument, NULL, 'u'},
-		{"target", required_argument, NULL, 't'},
-		{"station", required_argument, NULL, 'S'},
-		{"axis", required_argument, NULL, 'x'},
-		{"bins", required_argument, NULL, 'b'},
-		{"min-count", required_argument, NULL, 'm'},
-		{"horizon", required_argument, NULL, 'H'},
-		{"json", no_argument, NULL, 'j'},
-		{"csv", no_argument, NULL, 'c'},
-		{"svg", required_argument, NULL, 'g'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
-	/* Option letter to the shared parameter name (covquery_param_set). */
-	static const struct {
-		int opt;
-		const char *name, *flag;
-	} params[] = {
-		{'s', "source", "--source"}, {'a', "since", "--since"},
-		{'u', "until", "--until"}, {'t', "target", "--target"},
-		{'S', "station", "--station"}, {'x', "axis", "--axis"},
-		{'b', "bins", "--bins"}, {'m', "min_count", "--min-count"},
-		{'H', "horizon", "--horizon"},
-	};
-	const char *db_path = NULL, *svg_path = NULL;
-	enum covquery_format fmt = COVQUERY_TEXT;
+	const char *db_path = cli_text(a, "db", NULL);
+	const char *svg_path = cli_text(a, "svg", NULL);
+	enum covquery_format fmt = cli_given(a, "json") ? COVQUERY_JSON :
+	    cli_given(a, "csv") ? COVQUERY_CSV : svg_path != NULL ?
+	    COVQUERY_SVG : COVQUERY_TEXT;
 	struct covquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[256];
+	char err[256], name[32];
 	double u1, u2;
-	int c, nfmt = 0, st;
+	int st;
 	enum errcode rc;
 
 	covquery_params_init(&p);
-	optind = 1;
-	opterr = 0;
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		size_t i;
+	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
+	    i++) {
+		const char *v = cli_text(a, query_params[i], NULL);
 
-		for (i = 0; i < sizeof params / sizeof params[0]; i++)
-			if (params[i].opt == c)
-				break;
-		if (i < sizeof params / sizeof params[0]) {
-			if (covquery_param_set(&p, params[i].name, optarg, err,
-			    sizeof err) != ERRCODE_OK)
-				return option_error(err);
+		if (v == NULL)
 			continue;
-		}
-		switch (c) {
-		case 'D':
-			db_path = optarg;
-			break;
-		case 'j':
-			fmt = COVQUERY_JSON;
-			nfmt++;
-			break;
-		case 'c':
-			fmt = COVQUERY_CSV;
-			nfmt++;
-			break;
-		case 'g':
-			fmt = COVQUERY_SVG;
-			svg_path = optarg;
-			nfmt++;
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("coverage: unknown or incomplete "
-			    "option '%s' (see 'moonrange coverage --help')",
-			    argv[optind - 1]);
-		}
+		snprintf(name, sizeof name, "%s", query_params[i]);
+		for (char *c = name; *c; c++)
+			if (*c == '-')
+				*c = '_';
+		if (covquery_param_set(&p, name, v, err, sizeof err) !=
+		    ERRCODE_OK)
+			return option_error(err);
 	}
-	if (optind < argc)
-		return cli_usage_error("coverage: unexpected argument '%s'",
-		    argv[optind]);
-	if (db_path == NULL)
-		return cli_usage_error("coverage: --db FILE is required");
-	if (nfmt > 1)
-		return cli_usage_error("--json, --csv and --svg: give one");
 	if (coverage_spec_check(&p.spec, err, sizeof err) != ERRCODE_OK)
 		return option_error(err);
 	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')
@@ -194,3 +102,50 @@ cmd_coverage(int argc, char **argv)
 	mbuf_free(&out);
 	return st;
 }
+
+static const struct cli_option options[] = {
+	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
+	    .help = "the station database (moonrange init)"},
+	{.name = "source", .kind = CLI_TEXT, .arg = "S",
+	    .help = "normal_points (default: imported points and those logged "
+	    "with attempts) or attempts"},
+	{.name = "since", .kind = CLI_TEXT, .arg = "UTC",
+	    .help = "only records at or after this time (ISO 8601)"},
+	{.name = "until", .kind = CLI_TEXT, .arg = "UTC",
+	    .help = "only records before this time"},
+	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
+	    .help = "one target only"},
+	{.name = "station", .kind = CLI_TEXT, .arg = "CODE",
+	    .help = "one station only (imported files carry other stations' "
+	    "codes: omit it for the network)"},
+	{.name = "axis", .kind = CLI_TEXT, .arg = "AXIS",
+	    .help = "synodic (default: 0 new moon, 180 full), anomaly (mean "
+	    "anomaly l, 0 perigee), latitude (argument of latitude F, 0 "
+	    "ascending node) or hour_angle (of the Moon at this station)"},
+	{.name = "bins", .kind = CLI_TEXT, .arg = "N",
+	    .help = "bins of the circle, 4..72 (default 12)"},
+	{.name = "min-count", .kind = CLI_TEXT, .arg = "M",
+	    .help = "a bin is filled at M or more (default 1)"},
+	{.name = "horizon", .kind = CLI_TEXT, .arg = "DAYS",
+	    .help = "days searched for gap-filling windows, 0..366 (default "
+	    "60; 0 = none)"},
+	{.name = "json", .kind = CLI_FLAG, .group = 1,
+	    .help = "machine-readable output (fields in README)"},
+	{.name = "csv", .kind = CLI_FLAG, .group = 1,
+	    .help = "counts as CSV (RFC 4180)"},
+	{.name = "svg", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
+	    .help = "write the chart to FILE ('-' for stdout)"},
+	{NULL}
+};
+
+const struct cli_command cmd_coverage = {
+	.name = "coverage",
+	.summary = "how the normal points spread over the lunar cycle",
+	.about = "How the normal points (or attempts) are spread over the "
+	    "lunar cycle: counts per bin, per target, pooled and per year; "
+	    "the emptiest bins, the share of bins filled, the longest empty "
+	    "arc, normalised entropy and a chi-square test against a uniform "
+	    "spread; and the coming windows that would fill the gaps.",
+	.options = options,
+	.run = run,
+};

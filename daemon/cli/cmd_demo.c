@@ -2,7 +2,6 @@
 /* cmd_demo.c: "moonrange demo", a sample-site database in the data directory, served. */
 #include <errno.h>
 #include <fcntl.h>
-#include <getopt.h>
 #include <limits.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -11,23 +10,6 @@
 #include <unistd.h>
 
 #include "cli/cli.h"
-
-static void
-usage(FILE *f)
-{
-	fprintf(f,
-	    "usage: moonrange demo [--data-dir DIR] [--listen ADDR:PORT]\n"
-	    "                      [--web DIR] [--refresh SECONDS]\n"
-	    "\n"
-	    "Serve the invented sample site: on first use, create DIR/demo.db\n"
-	    "from sample-site/ and a random write token in DIR/token (mode\n"
-	    "0600), then run 'moonrange serve' on them and print the URL.\n"
-	    "\n"
-	    "  --data-dir DIR     default $XDG_DATA_HOME/moonrange, else\n"
-	    "                     ~/.local/share/moonrange\n"
-	    "  --listen, --web, --refresh   as for 'moonrange serve'\n"
-	    "  --help             this text\n");
-}
 
 /* mkdir -p with mode 0700 for the parts it creates. */
 static int
@@ -102,62 +84,18 @@ make_token(const char *path)
 	return CLI_EXIT_OK;
 }
 
-/* Run another subcommand of the table by name (init, serve). */
 static int
-run_command(const char *name, int argc, char **argv)
+run(const struct cli_args *a)
 {
-	for (const struct cli_command *c = cli_commands; c->name; c++)
-		if (strcmp(c->name, name) == 0)
-			return c->run(argc, argv);
-	return cli_fail("demo: this build has no '%s' command", name);
-}
-
-int
-cmd_demo(int argc, char **argv)
-{
-	static const struct option opts[] = {
-		{"data-dir", required_argument, NULL, 'D'},
-		{"listen", required_argument, NULL, 'l'},
-		{"web", required_argument, NULL, 'w'},
-		{"refresh", required_argument, NULL, 'r'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	char dir[PATH_MAX - 32], db[PATH_MAX], token[PATH_MAX];
 	char *sargv[16];
-	const char *data_dir = NULL;
-	const char *listen = NULL, *web = NULL, *refresh = NULL;
-	int c, st, n = 0;
+	const char *data_dir = cli_text(a, "data-dir", NULL);
+	const char *listen = cli_text(a, "listen", NULL);
+	const char *web = cli_text(a, "web", NULL);
+	const char *refresh = cli_text(a, "refresh", NULL);
+	int st, n = 0;
 	struct stat sb;
 
-	optind = 1;
-	opterr = 0;
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (c) {
-		case 'D':
-			data_dir = optarg;
-			break;
-		case 'l':
-			listen = optarg;
-			break;
-		case 'w':
-			web = optarg;
-			break;
-		case 'r':
-			refresh = optarg;
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("demo: unknown or incomplete "
-			    "option '%s' (see 'moonrange demo --help')",
-			    argv[optind - 1]);
-		}
-	}
-	if (optind < argc)
-		return cli_usage_error("demo: unexpected argument '%s'",
-		    argv[optind]);
 	if (data_dir != NULL) {
 		if (strlen(data_dir) >= sizeof dir)
 			return cli_usage_error("--data-dir: path too long");
@@ -176,7 +114,7 @@ cmd_demo(int argc, char **argv)
 
 		printf("moonrange: creating %s from the sample site\n", db);
 		fflush(stdout);
-		st = run_command("init", 3, iargv);
+		st = cli_run(3, iargv);
 		if (st != CLI_EXIT_OK)
 			return st;
 	}
@@ -206,5 +144,29 @@ cmd_demo(int argc, char **argv)
 		sargv[n++] = (char *)refresh;
 	}
 	sargv[n] = NULL;
-	return run_command("serve", n, sargv);
+	return cli_run(n, sargv);
 }
+
+static const struct cli_option options[] = {
+	{.name = "data-dir", .kind = CLI_TEXT, .arg = "DIR",
+	    .help = "default $XDG_DATA_HOME/moonrange, else "
+	    "~/.local/share/moonrange"},
+	{.name = "listen", .kind = CLI_TEXT, .arg = "ADDR:PORT",
+	    .help = "as for 'moonrange serve'"},
+	{.name = "web", .kind = CLI_TEXT, .arg = "DIR",
+	    .help = "as for 'moonrange serve'"},
+	{.name = "refresh", .kind = CLI_TEXT, .arg = "SECONDS",
+	    .help = "as for 'moonrange serve'"},
+	{NULL}
+};
+
+const struct cli_command cmd_demo = {
+	.name = "demo",
+	.summary = "create a demo database from sample-site/ and serve it",
+	.about = "Serve the invented sample site: on first use, create "
+	    "DIR/demo.db from sample-site/ and a random write token in "
+	    "DIR/token (mode 0600), then run 'moonrange serve' on them and "
+	    "print the URL.",
+	.options = options,
+	.run = run,
+};

@@ -1,7 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_ephem.c: "moonrange ephem", the geometry of one instant. */
 #include <ctype.h>
-#include <getopt.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -24,37 +23,6 @@
 #define DEMO_LON -114.3098
 #define DEMO_HEIGHT 2950.0
 #define DEMO_TZ "America/Los_Angeles"
-
-static void
-usage(FILE *f)
-{
-	fprintf(f,
-	    "usage: moonrange ephem [--db FILE | --station LAT,LON,HEIGHT_M]\n"
-	    "                       [--target ID=LAT,LON[,HEIGHT_M]]...\n"
-	    "                       [--at UTC] [--dut1 SECONDS] [--tz ZONE]\n"
-	    "                       [--json]\n"
-	    "\n"
-	    "Topocentric position of the Moon and the Sun, the lunar phase and\n"
-	    "librations, and for each target its pointing, range, round-trip\n"
-	    "time and the Sun's elevation at the reflector.\n"
-	    "\n"
-	    "  --db FILE            use the stored station, its active targets\n"
-	    "                       and its Earth orientation table (DUT1 and\n"
-	    "                       polar motion interpolated when the table\n"
-	    "                       covers the instant)\n"
-	    "  --station LAT,LON,H  geodetic latitude, east longitude (deg) and\n"
-	    "                       WGS84 height (m); default: a demo station\n"
-	    "  --target ID=LAT,LON[,H]  selenographic latitude, east longitude\n"
-	    "                       (deg) and height above 1737.4 km (m);\n"
-	    "                       repeat for several targets (at most %d)\n"
-	    "  --at UTC             instant, ISO 8601 with Z (default: now)\n"
-	    "  --dut1 SECONDS       UT1-UTC, |DUT1| <= 0.9 (default: from the\n"
-	    "                       table, else 0; dut1_source says which)\n"
-	    "  --tz ZONE            local time in this IANA zone in the table\n"
-	    "                       (default: the station's zone)\n"
-	    "  --json               machine-readable output (see README)\n"
-	    "  --help               this text\n", EPHEM_MAX_TARGETS);
-}
 
 static int
 valid_id(const char *s, size_t n)
@@ -153,31 +121,22 @@ load_db(struct cli_store *cs, const char *db, double utc1, double utc2,
 	return CLI_EXIT_OK;
 }
 
-int
-cmd_ephem(int argc, char **argv)
+static int
+run(const struct cli_args *a)
 {
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'D'},
-		{"station", required_argument, NULL, 's'},
-		{"target", required_argument, NULL, 't'},
-		{"at", required_argument, NULL, 'a'},
-		{"dut1", required_argument, NULL, 'd'},
-		{"tz", required_argument, NULL, 'z'},
-		{"json", no_argument, NULL, 'j'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	static char ids[EPHEM_MAX_TARGETS][33];
 	struct geom_target targets[EPHEM_MAX_TARGETS];
 	struct render_target_row rows[EPHEM_MAX_TARGETS];
 	size_t ntargets = 0;
 	double lat = DEMO_LAT, lon = DEMO_LON, h = DEMO_HEIGHT;
-	double utc1 = 0, utc2 = 0, dut1 = 0.0;
-	int have_at = 0, json = 0, demo = 1, c, st;
-	const char *dut1_source = "none", *db = NULL, *tz = NULL;
+	double utc1 = 0, utc2 = 0, dut1 = cli_real(a, "dut1", 0.0);
+	int json = cli_given(a, "json"), demo = 1, st;
+	int have_at = cli_time(a, "at", &utc1, &utc2);
+	int have_dut1 = cli_given(a, "dut1");
+	const char *dut1_source = have_dut1 ? "option" : "none";
+	const char *db = cli_text(a, "db", NULL), *tz = cli_text(a, "tz", NULL);
 	char err[200], eop_last[40];
 	struct cli_store cs;
-	int have_dut1 = 0;
 	struct geom_site site;
 	struct geom_eop eop = {0.0, 0.0, 0.0};
 	struct geom_instant g;
@@ -185,68 +144,28 @@ cmd_ephem(int argc, char **argv)
 	struct mbuf out;
 	enum errcode rc;
 
-	optind = 1;
-	opterr = 0;
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (c) {
-		case 'D':
-			db = optarg;
-			break;
-		case 's':
-			if (cli_parse_station(optarg, &lat, &lon, &h, err,
-			    sizeof err))
-				return cli_usage_error("%s", err);
-			demo = 0;
-			break;
-		case 't':
-			if (ntargets == EPHEM_MAX_TARGETS)
-				return cli_usage_error("--target: at most %d "
-				    "targets", EPHEM_MAX_TARGETS);
-			st = parse_target(optarg, ids[ntargets],
-			    sizeof ids[ntargets], &targets[ntargets]);
-			if (st != CLI_EXIT_OK)
-				return st;
-			for (size_t i = 0; i < ntargets; i++)
-				if (strcmp(ids[i], ids[ntargets]) == 0)
-					return cli_usage_error("--target: id "
-					    "'%s' given twice", ids[i]);
-			ntargets++;
-			break;
-		case 'a':
-			if (cli_parse_time("--at", optarg, &utc1, &utc2))
-				return CLI_EXIT_USAGE;
-			have_at = 1;
-			break;
-		case 'd':
-			if (cli_parse_double(optarg, -0.9, 0.9, &dut1))
-				return cli_usage_error("--dut1: '%s' is not a "
-				    "number of seconds in -0.9..0.9", optarg);
-			dut1_source = "option";
-			have_dut1 = 1;
-			break;
-		case 'z':
-			if (!render_zone_known(optarg))
-				return cli_usage_error("--tz: '%s' is not a time "
-				    "zone known to this system (an IANA name such "
-				    "as Europe/Madrid)", optarg);
-			tz = optarg;
-			break;
-		case 'j':
-			json = 1;
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_bad_option("ephem", NULL, argv[optind - 1]);
-		}
+	if (cli_given(a, "station")) {
+		if (cli_parse_station(cli_text(a, "station", NULL), &lat, &lon,
+		    &h, err, sizeof err))
+			return cli_usage_error("%s", err);
+		demo = 0;
 	}
-	if (optind < argc)
-		return cli_extra_argument("ephem", NULL, argv[optind]);
+	for (int i = 0; i < cli_given(a, "target"); i++) {
+		if (ntargets == EPHEM_MAX_TARGETS)
+			return cli_usage_error("--target: at most %d targets",
+			    EPHEM_MAX_TARGETS);
+		st = parse_target(cli_nth(a, "target", i), ids[ntargets],
+		    sizeof ids[ntargets], &targets[ntargets]);
+		if (st != CLI_EXIT_OK)
+			return st;
+		for (size_t k = 0; k < ntargets; k++)
+			if (strcmp(ids[k], ids[ntargets]) == 0)
+				return cli_usage_error("--target: id '%s' "
+				    "given twice", ids[k]);
+		ntargets++;
+	}
 	if (!have_at)
 		cli_now(&utc1, &utc2);
-	if (db != NULL && !demo)
-		return cli_usage_error("--db and --station exclude each other");
 
 	memset(&cs, 0, sizeof cs);
 	eop_last[0] = '\0';
@@ -291,3 +210,39 @@ cmd_ephem(int argc, char **argv)
 	cli_store_close(&cs);
 	return st;
 }
+
+static const struct cli_option options[] = {
+	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
+	    .help = "use the stored station, its active targets and its Earth "
+	    "orientation table (DUT1 and polar motion interpolated when the "
+	    "table covers the instant)"},
+	{.name = "station", .kind = CLI_TEXT, .arg = "LAT,LON,H", .group = 1,
+	    .help = "geodetic latitude, east longitude (deg) and WGS84 height "
+	    "(m); default: a demo station"},
+	{.name = "target", .kind = CLI_TEXT, .arg = "ID=LAT,LON[,H]",
+	    .flags = CLI_MANY, .help = "selenographic latitude, east longitude "
+	    "(deg) and height above 1737.4 km (m); repeat for several targets "
+	    "(at most 64)"},
+	{.name = "at", .kind = CLI_TIME, .arg = "UTC",
+	    .help = "instant, ISO 8601 with Z (default: now)"},
+	{.name = "dut1", .kind = CLI_REAL, .arg = "SECONDS", .min = -0.9,
+	    .max = 0.9, .unit = "seconds", .help = "UT1-UTC, |DUT1| <= 0.9 "
+	    "(default: from the table, else 0; dut1_source says which)"},
+	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE",
+	    .help = "local time in this IANA zone in the table (default: the "
+	    "station's zone)"},
+	{.name = "json", .kind = CLI_FLAG,
+	    .help = "machine-readable output (see README)"},
+	{NULL}
+};
+
+const struct cli_command cmd_ephem = {
+	.name = "ephem",
+	.summary = "positions of the Moon, the Sun and each target at an "
+	    "instant",
+	.about = "Topocentric position of the Moon and the Sun, the lunar "
+	    "phase and librations, and for each target its pointing, range, "
+	    "round-trip time and the Sun's elevation at the reflector.",
+	.options = options,
+	.run = run,
+};

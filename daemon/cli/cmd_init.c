@@ -3,7 +3,6 @@
    directory, all or nothing. */
 #include <dirent.h>
 #include <errno.h>
-#include <getopt.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -28,25 +27,12 @@
 
 #define INIT_MAX_CRD 64
 
+/* Where the default site is looked for, for --help. */
 static void
-usage(FILE *f)
+more(FILE *f)
 {
-	fprintf(f,
-	    "usage: moonrange init --db FILE [--site DIR] [--force]\n"
-	    "\n"
-	    "Create a station database and load a site directory into it, all\n"
-	    "or nothing: station.ini, targets.csv, then the Earth orientation\n"
-	    "file (eop.finals, IERS finals columns, or eop.c04), attempts.csv\n"
-	    "and every *.crd normal-point file.  Only station.ini and\n"
-	    "targets.csv are required.  Errors name the file, line and field.\n"
-	    "\n"
-	    "  --db FILE   the database to create (refused if it exists)\n"
-	    "  --site DIR  the site directory (default: the sample site,\n"
-	    "              %s\n"
-	    "              or %s)\n"
-	    "  --force     replace an existing database (only once the new one\n"
-	    "              is complete)\n"
-	    "  --help      this text\n", MOONRANGE_SITE_INSTALLED,
+	fprintf(f, "\nWithout --site the sample site is loaded from\n  %s\nor, "
+	    "in a build tree, from\n  %s\n", MOONRANGE_SITE_INSTALLED,
 	    MOONRANGE_SITE_SOURCE);
 }
 
@@ -211,39 +197,15 @@ remove_db(const char *path, int all)
 	(void)unlink(p);
 }
 
-int
-cmd_init(int argc, char **argv)
+static int
+run(const struct cli_args *a)
 {
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"site", required_argument, NULL, 's'},
-		{"force", no_argument, NULL, 'f'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
-	const char *db = NULL, *site = NULL;
+	const char *db = cli_text(a, "db", NULL), *site = cli_text(a, "site",
+	    NULL);
 	char tmp[4200];
 	struct cli_store c;
-	int force = 0, ch, st;
+	int force = cli_given(a, "force"), st;
 
-	optind = 1;
-	opterr = 0;
-	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (ch) {
-		case 'd': db = optarg; break;
-		case 's': site = optarg; break;
-		case 'f': force = 1; break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_bad_option("init", NULL, argv[optind - 1]);
-		}
-	}
-	if (optind < argc)
-		return cli_extra_argument("init", NULL, argv[optind]);
-	if (db == NULL)
-		return cli_usage_error("init: --db FILE is required");
 	if (strlen(db) > 4000)
 		return cli_usage_error("--db: path too long");
 	if (site == NULL)
@@ -272,3 +234,28 @@ cmd_init(int argc, char **argv)
 	remove_db(tmp, 1);
 	return st;
 }
+
+static const struct cli_option options[] = {
+	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
+	    .help = "the database to create (refused if it exists)"},
+	{.name = "site", .kind = CLI_TEXT, .arg = "DIR",
+	    .help = "the site directory (default: the sample site, below)"},
+	{.name = "force", .kind = CLI_FLAG,
+	    .help = "replace an existing database (only once the new one is "
+	    "complete)"},
+	{NULL}
+};
+
+const struct cli_command cmd_init = {
+	.name = "init",
+	.summary = "create a station database from a site directory",
+	.about = "Create a station database and load a site directory into "
+	    "it, all or nothing: station.ini, targets.csv, then the Earth "
+	    "orientation file (eop.finals, IERS finals columns, or eop.c04), "
+	    "attempts.csv and every *.crd normal-point file.  Only station.ini "
+	    "and targets.csv are required.  Errors name the file, line and "
+	    "field.",
+	.options = options,
+	.run = run,
+	.more = more,
+};

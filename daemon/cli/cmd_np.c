@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_np.c: "moonrange np", normal points: import CRD files, list them. */
-#include <getopt.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -8,106 +7,51 @@
 #include "cli/cli.h"
 #include "cli/cli_store.h"
 
-static void
-usage(FILE *f)
+static int
+np_count(const struct cli_args *a)
 {
-	fprintf(f,
-	    "usage: moonrange np import --db FILE CRD_FILE...\n"
-	    "       moonrange np count --db FILE [--since UTC] [--until UTC]\n"
-	    "                          [--target ID] [--station CODE]\n"
-	    "\n"
-	    "Normal points in the ILRS consolidated ranging data format (CRD).\n"
-	    "import reads each file in one transaction: the target name of\n"
-	    "each session (H3) is mapped to a target through its alias (or\n"
-	    "id); epoch, time of flight, photons, RMS and the station code of\n"
-	    "the file (H2) are stored with the synodic angle, mean elongation,\n"
-	    "target elevation (this station's points only) and the Sun's\n"
-	    "elevation at the target.  Records of unused types are skipped;\n"
-	    "a malformed line is reported with its number and nothing of that\n"
-	    "file is stored.  Importing a file again adds nothing.\n"
-	    "\n"
-	    "  --help   this text\n");
-}
-
-int
-cmd_np(int argc, char **argv)
-{
-	static const char *const actions[] = {"import", "count", NULL};
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"since", required_argument, NULL, 's'},
-		{"until", required_argument, NULL, 'u'},
-		{"target", required_argument, NULL, 't'},
-		{"station", required_argument, NULL, 'c'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	struct store_query q;
 	struct cli_store c;
-	struct cli_store_counts n;
-	const char *db = NULL;
 	char err[512];
-	int ch, which, act = 0, st, import;
 	size_t count = 0;
+	int st;
 
-	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
-	    0)
-		return which;
-	import = act == 0;
 	store_query_init(&q);
-	argc--;
-	argv++;
-	optind = 1;
-	opterr = 0;
-	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (ch) {
-		case 'd': db = optarg; break;
-		case 's':
-			if ((st = cli_store_parse_mjd("--since", optarg,
-			    &q.since_mjd)))
-				return st;
-			break;
-		case 'u':
-			if ((st = cli_store_parse_mjd("--until", optarg,
-			    &q.until_mjd)))
-				return st;
-			break;
-		case 't': q.target = optarg; break;
-		case 'c': q.station_code = optarg; break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_bad_option("np", argv[0],
-			    argv[optind - 1]);
-		}
-	}
-	if (import && optind >= argc)
-		return cli_usage_error("np import: at least one CRD file is "
-		    "required");
-	if (!import && optind < argc)
-		return cli_extra_argument("np", "count", argv[optind]);
-	if ((st = cli_store_open(&c, db, import ? 0 : STORE_OPEN_READONLY)))
+	q.since_mjd = cli_real(a, "since", NAN);
+	q.until_mjd = cli_real(a, "until", NAN);
+	q.target = cli_text(a, "target", NULL);
+	q.station_code = cli_text(a, "station", NULL);
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
+	    STORE_OPEN_READONLY)))
 		return st;
-	if (!import) {
-		if (store_nps_count(c.s, &q, &count, err, sizeof err))
-			st = cli_fail("%s: %s", c.path, err);
-		else
-			printf("%zu\n", count);
-		cli_store_close(&c);
+	if (store_nps_count(c.s, &q, &count, err, sizeof err))
+		st = cli_fail("%s: %s", c.path, err);
+	else
+		printf("%zu\n", count);
+	cli_store_close(&c);
+	return st;
+}
+
+static int
+np_import(const struct cli_args *a)
+{
+	struct cli_store c;
+	struct cli_store_counts n;
+	int st;
+
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
 		return st;
-	}
 	if ((st = cli_store_load(&c)) != CLI_EXIT_OK)
 		goto out;
 	/* One transaction per file: a bad file leaves the others stored. */
-	for (int i = optind; i < argc; i++) {
-		int fst = cli_store_import_file(&c, argv[i], 'n', &n);
+	for (int i = 0; i < a->nops; i++) {
+		int fst = cli_store_import_file(&c, a->ops[i], 'n', &n);
 
 		if (fst == CLI_EXIT_OK)
 			printf("%s: %zu normal point%s read, %zu added, %zu "
 			    "already present, %zu records of unused types "
-			    "skipped\n", argv[i], n.read, n.read == 1 ? "" : "s",
-			    n.added, n.present, n.unused);
+			    "skipped\n", a->ops[i], n.read, n.read == 1 ? "" :
+			    "s", n.added, n.present, n.unused);
 		else if (st == CLI_EXIT_OK || fst == CLI_EXIT_FAIL)
 			st = fst;
 	}
@@ -115,3 +59,58 @@ out:
 	cli_store_close(&c);
 	return st;
 }
+
+
+static const struct cli_option import_options[] = {CLI_OPT_DB, {NULL}};
+
+static const struct cli_option count_options[] = {
+	CLI_OPT_DB,
+	{.name = "since", .kind = CLI_TIME, .arg = "UTC",
+	    .help = "points at or after this time"},
+	{.name = "until", .kind = CLI_TIME, .arg = "UTC",
+	    .help = "points before this time"},
+	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
+	    .help = "one target only"},
+	{.name = "station", .kind = CLI_TEXT, .arg = "CODE",
+	    .help = "one station only"},
+	{NULL}
+};
+
+static const struct cli_command np_import_cmd = {
+	.name = "import",
+	.summary = "CRD files, one transaction each",
+	.about = "Import normal points from CRD files, each in one "
+	    "transaction: the target name of each session (H3) is mapped to a "
+	    "target through its alias (or id); epoch, time of flight, "
+	    "photons, RMS and the station code of the file (H2) are stored "
+	    "with the synodic angle, mean elongation, target elevation (this "
+	    "station's points only) and the Sun's elevation at the target.  "
+	    "Records of unused types are skipped; a malformed line is "
+	    "reported with its number and nothing of that file is stored.  "
+	    "Importing a file again adds nothing.",
+	.options = import_options,
+	.operands = "CRD_FILE...",
+	.nmin = 1,
+	.nmax = -1,
+	.run = np_import,
+};
+
+static const struct cli_command np_count_cmd = {
+	.name = "count",
+	.summary = "how many normal points are stored",
+	.about = "The number of stored normal points that match.",
+	.options = count_options,
+	.run = np_count,
+};
+
+static const struct cli_command *const actions[] = {
+	&np_import_cmd, &np_count_cmd, NULL
+};
+
+const struct cli_command cmd_np = {
+	.name = "np",
+	.summary = "normal points: import CRD files, count them",
+	.about = "Normal points in the ILRS consolidated ranging data format "
+	    "(CRD).",
+	.actions = actions,
+};

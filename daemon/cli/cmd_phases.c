@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_phases.c: "moonrange phases", principal lunar phases in a span. */
-#include <getopt.h>
 #include <stdio.h>
 
 #include "cli/cli.h"
@@ -11,97 +10,23 @@
 
 #define PHASES_MAX 5000		/* ~100 years of phases */
 
-static void
-usage(FILE *f)
+static int
+run(const struct cli_args *a)
 {
-	fprintf(f,
-	    "usage: moonrange phases [--from UTC] [--to UTC | --days N]\n"
-	    "                        [--tz ZONE | --db FILE] [--json]\n"
-	    "\n"
-	    "Every new moon, first quarter, full moon and last quarter in the\n"
-	    "span, each to better than a second on the synodic angle (the\n"
-	    "Moon's apparent ecliptic longitude minus the Sun's).\n"
-	    "\n"
-	    "  --from UTC   start, ISO 8601 with Z (default: now)\n"
-	    "  --to UTC     end (default: --days after the start)\n"
-	    "  --days N     length of the span in days (default 30, max 36600)\n"
-	    "  --tz ZONE    also show local time in this IANA zone (text table)\n"
-	    "  --db FILE    also show local time in the stored station's zone\n"
-	    "  --json       machine-readable output: {\"phases\":[{kind,utc}]}\n"
-	    "  --help       this text\n");
-}
-
-int
-cmd_phases(int argc, char **argv)
-{
-	static const struct option opts[] = {
-		{"from", required_argument, NULL, 'f'},
-		{"to", required_argument, NULL, 't'},
-		{"days", required_argument, NULL, 'd'},
-		{"tz", required_argument, NULL, 'z'},
-		{"db", required_argument, NULL, 'D'},
-		{"json", no_argument, NULL, 'j'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	static struct geom_phase_event ev[PHASES_MAX];
-	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = 30.0;
-	int have_from = 0, have_to = 0, have_days = 0, json = 0, c, st;
-	struct tscale_instant a, b;
+	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = cli_real(a, "days", 30.0);
+	int have_from = cli_time(a, "from", &f1, &f2);
+	int have_to = cli_time(a, "to", &t1, &t2);
+	int json = cli_given(a, "json"), st;
+	struct tscale_instant ta, tb;
 	struct render_phases rp;
 	struct mbuf out;
 	struct cli_store cs;
-	const char *tz = NULL, *db = NULL;
+	const char *tz = cli_text(a, "tz", NULL), *db = cli_text(a, "db", NULL);
 	char zone[sizeof cs.station.time_zone];
 	size_t n = 0;
 	enum errcode rc;
 
-	optind = 1;
-	opterr = 0;
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (c) {
-		case 'f':
-			if (cli_parse_time("--from", optarg, &f1, &f2))
-				return CLI_EXIT_USAGE;
-			have_from = 1;
-			break;
-		case 't':
-			if (cli_parse_time("--to", optarg, &t1, &t2))
-				return CLI_EXIT_USAGE;
-			have_to = 1;
-			break;
-		case 'd':
-			if (cli_parse_double(optarg, 0.0, 36600.0, &days))
-				return cli_usage_error("--days: '%s' is not a "
-				    "number in 0..36600", optarg);
-			have_days = 1;
-			break;
-		case 'z':
-			if (!render_zone_known(optarg))
-				return cli_usage_error("--tz: '%s' is not a time "
-				    "zone known to this system (an IANA name such "
-				    "as Europe/Madrid)", optarg);
-			tz = optarg;
-			break;
-		case 'D':
-			db = optarg;
-			break;
-		case 'j':
-			json = 1;
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_bad_option("phases", NULL, argv[optind - 1]);
-		}
-	}
-	if (optind < argc)
-		return cli_extra_argument("phases", NULL, argv[optind]);
-	if (have_to && have_days)
-		return cli_usage_error("--to and --days: give one, not both");
-	if (tz != NULL && db != NULL)
-		return cli_usage_error("--tz and --db: give one, not both");
 	if (db != NULL) {
 		if ((st = cli_store_open(&cs, db, STORE_OPEN_READONLY)) ||
 		    (st = cli_store_load(&cs))) {
@@ -122,14 +47,15 @@ cmd_phases(int argc, char **argv)
 		t1 = f1;
 		t2 = f2 + days;
 	}
-	if (tscale_from_utc(f1, f2, 0.0, &a) || tscale_from_utc(t1, t2, 0.0, &b))
+	if (tscale_from_utc(f1, f2, 0.0, &ta) ||
+	    tscale_from_utc(t1, t2, 0.0, &tb))
 		return cli_usage_error("--from/--to: outside the convertible "
 		    "range");
-	if (tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) < 0)
+	if (tscale_tt_diff(ta.tt1, ta.tt2, tb.tt1, tb.tt2) < 0)
 		return cli_usage_error("--to: must not be before --from");
-	if (tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) > 36600.0 * 86400.0)
+	if (tscale_tt_diff(ta.tt1, ta.tt2, tb.tt1, tb.tt2) > 36600.0 * 86400.0)
 		return cli_usage_error("--to: span longer than 36600 days");
-	rc = geom_phases_find(a.tt1, a.tt2, b.tt1, b.tt2, ev, PHASES_MAX, &n);
+	rc = geom_phases_find(ta.tt1, ta.tt2, tb.tt1, tb.tt2, ev, PHASES_MAX, &n);
 	if (rc != ERRCODE_OK)
 		return cli_fail("phase search: %s", errcode_str(rc));
 	rp.from1 = f1;
@@ -149,3 +75,30 @@ cmd_phases(int argc, char **argv)
 	mbuf_free(&out);
 	return st;
 }
+
+static const struct cli_option options[] = {
+	{.name = "from", .kind = CLI_TIME, .arg = "UTC",
+	    .help = "start, ISO 8601 with Z (default: now)"},
+	{.name = "to", .kind = CLI_TIME, .arg = "UTC", .group = 1,
+	    .help = "end (default: --days after the start)"},
+	{.name = "days", .kind = CLI_REAL, .arg = "N", .min = 0,
+	    .max = 36600, .group = 1,
+	    .help = "length of the span in days (default 30, max 36600)"},
+	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE", .group = 2,
+	    .help = "also show local time in this IANA zone (text table)"},
+	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .group = 2,
+	    .help = "also show local time in the stored station's zone"},
+	{.name = "json", .kind = CLI_FLAG,
+	    .help = "machine-readable output: {\"phases\":[{kind,utc}]}"},
+	{NULL}
+};
+
+const struct cli_command cmd_phases = {
+	.name = "phases",
+	.summary = "new moon, quarters and full moon in a time span",
+	.about = "Every new moon, first quarter, full moon and last quarter "
+	    "in the span, each to better than a second on the synodic angle "
+	    "(the Moon's apparent ecliptic longitude minus the Sun's).",
+	.options = options,
+	.run = run,
+};

@@ -1,7 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_serve.c: "moonrange serve", the daemon: HTTP API, page, plan refresh, signals. */
 #include <errno.h>
-#include <getopt.h>
 #include <signal.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -21,32 +20,14 @@
 
 static const char *default_web_dir(void);
 
+/* The defaults that are known only at run time, for --help. */
 static void
-usage(FILE *f)
+more(FILE *f)
 {
-	fprintf(f,
-	    "usage: moonrange serve --db FILE [--listen ADDR:PORT] [--web DIR]\n"
-	    "                       [--token-file FILE] [--refresh SECONDS]\n"
-	    "                       [--log-level LEVEL]\n"
-	    "\n"
-	    "Run the daemon in the foreground: the JSON API under /api/v1/ and\n"
-	    "the station page, with a plan of the coming days refreshed every\n"
-	    "--refresh seconds and after each logged attempt.  One line per\n"
-	    "event goes to stderr.  SIGHUP re-reads the site from the database;\n"
-	    "SIGTERM or SIGINT stop it cleanly.\n"
-	    "\n"
-	    "  --db FILE          the station database (see 'moonrange init')\n"
-	    "  --listen ADDR:PORT numeric address and port (default %s:%d;\n"
-	    "                     port 0 picks a free one); an address other\n"
-	    "                     than loopback needs --token-file\n"
-	    "  --web DIR          the page's files (default: %s)\n"
-	    "  --token-file FILE  bearer token (one line, >= %d characters)\n"
-	    "                     required for POST; without it writes are off\n"
-	    "  --refresh SECONDS  plan refresh interval, 10..86400 (default %.0f)\n"
-	    "  --log-level LEVEL  debug, info, warn or error (default info)\n"
-	    "  --help             this text\n",
-	    WEB_DEFAULT_ADDR, WEB_DEFAULT_PORT, default_web_dir(), API_TOKEN_MIN,
-	    SERVE_REFRESH_DEFAULT);
+	fprintf(f, "\nDefaults: --listen %s:%d (port 0 picks a free one), "
+	    "--web\n%s, --refresh %.0f. A token has at least %d\n"
+	    "characters.\n", WEB_DEFAULT_ADDR, WEB_DEFAULT_PORT,
+	    default_web_dir(), SERVE_REFRESH_DEFAULT, API_TOKEN_MIN);
 }
 
 /* The page: the installed copy if there is one, else the source tree's. */
@@ -162,25 +143,18 @@ replan(struct api_ctx *ctx, const char *why)
 		    (mono_s() - t0) * 1e3);
 }
 
-int
-cmd_serve(int argc, char **argv)
+static int
+run(const struct cli_args *a)
 {
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"listen", required_argument, NULL, 'l'},
-		{"web", required_argument, NULL, 'w'},
-		{"token-file", required_argument, NULL, 't'},
-		{"refresh", required_argument, NULL, 'r'},
-		{"log-level", required_argument, NULL, 'L'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
-	const char *db_path = NULL, *web_dir = NULL, *token_file = NULL;
+	const char *db_path = cli_text(a, "db", NULL);
+	const char *web_dir = cli_text(a, "web", NULL);
+	const char *token_file = cli_text(a, "token-file", NULL);
 	char addr[64] = WEB_DEFAULT_ADDR, err[300];
 	char token[API_TOKEN_MAX + 2];
 	unsigned port = WEB_DEFAULT_PORT;
-	double refresh = SERVE_REFRESH_DEFAULT, next;
-	int level = LOG_LEVEL_INFO, c, st = CLI_EXIT_FAIL, sig;
+	double refresh = cli_real(a, "refresh", SERVE_REFRESH_DEFAULT), next;
+	int level = LOG_LEVEL_INFO;
+	int st = CLI_EXIT_FAIL, sig;
 	struct store *db = NULL;
 	struct api_ctx *ctx = NULL;
 	struct web_server *srv = NULL;
@@ -190,49 +164,12 @@ cmd_serve(int argc, char **argv)
 	sigset_t set;
 	enum errcode rc;
 
-	optind = 1;
-	opterr = 0;
 	token[0] = '\0';
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (c) {
-		case 'd':
-			db_path = optarg;
-			break;
-		case 'l':
-			if (web_parse_listen(optarg, addr, sizeof addr, &port,
-			    err, sizeof err))
-				return cli_usage_error("%s", err);
-			break;
-		case 'w':
-			web_dir = optarg;
-			break;
-		case 't':
-			token_file = optarg;
-			break;
-		case 'r':
-			if (cli_parse_double(optarg, 10.0, 86400.0, &refresh))
-				return cli_usage_error("--refresh: '%s' is not a "
-				    "number of seconds in 10..86400", optarg);
-			break;
-		case 'L':
-			if ((level = log_level_parse(optarg)) < 0)
-				return cli_usage_error("--log-level: '%s' is not "
-				    "one of debug, info, warn, error", optarg);
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("serve: unknown or incomplete "
-			    "option '%s' (see 'moonrange serve --help')",
-			    argv[optind - 1]);
-		}
-	}
-	if (optind < argc)
-		return cli_usage_error("serve: unexpected argument '%s'",
-		    argv[optind]);
-	if (db_path == NULL)
-		return cli_usage_error("serve: --db FILE is required");
+	if (cli_given(a, "listen") && web_parse_listen(cli_text(a, "listen",
+	    NULL), addr, sizeof addr, &port, err, sizeof err))
+		return cli_usage_error("%s", err);
+	if (cli_given(a, "log-level"))
+		level = log_level_parse(cli_text(a, "log-level", NULL));
 	if (!web_is_loopback(addr) && token_file == NULL)
 		return cli_usage_error("--listen %s: an address other than "
 		    "loopback needs --token-file", addr);
@@ -336,3 +273,36 @@ out:
 		log_info("stopped, database closed");
 	return st;
 }
+
+static const struct cli_option options[] = {
+	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
+	    .help = "the station database (see 'moonrange init')"},
+	{.name = "listen", .kind = CLI_TEXT, .arg = "ADDR:PORT",
+	    .help = "numeric address and port; an address other than loopback "
+	    "needs --token-file"},
+	{.name = "web", .kind = CLI_TEXT, .arg = "DIR",
+	    .help = "the page's files"},
+	{.name = "token-file", .kind = CLI_TEXT, .arg = "FILE",
+	    .help = "bearer token (one line) required for POST; without it "
+	    "writes are off"},
+	{.name = "refresh", .kind = CLI_REAL, .arg = "SECONDS", .min = 10,
+	    .max = 86400, .unit = "seconds",
+	    .help = "plan refresh interval, 10..86400"},
+	{.name = "log-level", .kind = CLI_WORD, .arg = "LEVEL",
+	    .words = "debug info warn error",
+	    .help = "debug, info, warn or error (default info)"},
+	{NULL}
+};
+
+const struct cli_command cmd_serve = {
+	.name = "serve",
+	.summary = "run the daemon: JSON API and station page over HTTP",
+	.about = "Run the daemon in the foreground: the JSON API under "
+	    "/api/v1/ and the station page, with a plan of the coming days "
+	    "refreshed every --refresh seconds and after each logged attempt. "
+	    "One line per event goes to stderr.  SIGHUP re-reads the site "
+	    "from the database; SIGTERM or SIGINT stop it cleanly.",
+	.options = options,
+	.run = run,
+	.more = more,
+};

@@ -1,83 +1,101 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_setting.c: "moonrange setting", the station-wide settings of the
    planner and the coverage audit. */
-#include <getopt.h>
 #include <stdio.h>
 #include <string.h>
 
 #include "cli/cli.h"
 #include "cli/cli_store.h"
 
+/* The keys, their defaults and meaning, for --help. */
 static void
-usage(FILE *f)
+more(FILE *f)
 {
 	const struct store_setting_info *k;
 
-	fprintf(f,
-	    "usage: moonrange setting list --db FILE\n"
-	    "       moonrange setting set --db FILE KEY VALUE\n"
-	    "\n"
-	    "Settings kept in the database (defaults apply until set):\n");
-	for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++)
-		fprintf(f, "  %-16s default %-8s %s\n", k->key, k->def, k->help);
-	fprintf(f, "\n  --help   this text\n");
+	fprintf(f, "\nSettings kept in the database (defaults apply until "
+	    "set):\n");
+	for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++) {
+		fprintf(f, "  %s (default %s)\n", k->key, k->def);
+		cli_wrap(f, k->help, 0, 6);
+	}
 }
 
-int
-cmd_setting(int argc, char **argv)
+static int
+setting_list(const struct cli_args *a)
 {
-	static const char *const actions[] = {"list", "set", NULL};
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	const struct store_setting_info *k;
 	struct cli_store c;
-	const char *db = NULL;
 	char err[512], v[64];
-	int ch, which, act = 0, st, list;
+	int st;
 	enum errcode rc;
 
-	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
-	    0)
-		return which;
-	list = act == 0;
-	argc--;
-	argv++;
-	optind = 1;
-	opterr = 0;
-	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (ch) {
-		case 'd': db = optarg; break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("setting %s: unknown or "
-			    "incomplete option '%s' (see 'moonrange setting "
-			    "--help')", argv[0], argv[optind - 1]);
-		}
-	}
-	if (list ? optind != argc : optind + 2 != argc)
-		return cli_usage_error(list ? "setting list: no arguments" :
-		    "setting set: KEY and VALUE are required");
-	if ((st = cli_store_open(&c, db, list ? STORE_OPEN_READONLY : 0)))
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
+	    STORE_OPEN_READONLY)))
 		return st;
-	if (!list) {
-		if ((rc = store_setting_set(c.s, argv[optind], argv[optind + 1],
-		    err, sizeof err)))
-			st = cli_store_fail(rc, "setting set: %s", err);
-	} else {
-		for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++) {
-			if ((rc = store_setting_get(c.s, k->key, v, sizeof v,
-			    err, sizeof err))) {
-				st = cli_store_fail(rc, "%s: %s", c.path, err);
-				break;
-			}
-			printf("%-16s %s\n", k->key, v);
+	for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++) {
+		if ((rc = store_setting_get(c.s, k->key, v, sizeof v, err,
+		    sizeof err))) {
+			st = cli_store_fail(rc, "%s: %s", c.path, err);
+			break;
 		}
+		printf("%-16s %s\n", k->key, v);
 	}
 	cli_store_close(&c);
 	return st;
 }
+
+static int
+setting_set(const struct cli_args *a)
+{
+	struct cli_store c;
+	char err[512];
+	int st;
+	enum errcode rc;
+
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
+		return st;
+	if ((rc = store_setting_set(c.s, a->ops[0], a->ops[1], err,
+	    sizeof err)))
+		st = cli_store_fail(rc, "setting set: %s", err);
+	cli_store_close(&c);
+	return st;
+}
+
+static const struct cli_option options[] = {
+	CLI_OPT_DB,
+	{NULL}
+};
+
+static const struct cli_command setting_list_cmd = {
+	.name = "list",
+	.summary = "every setting and its value",
+	.about = "Every setting with its value (the default until set).",
+	.options = options,
+	.run = setting_list,
+};
+
+static const struct cli_command setting_set_cmd = {
+	.name = "set",
+	.summary = "change one setting",
+	.about = "Change one setting; the value is checked per key.",
+	.options = options,
+	.operands = "KEY VALUE",
+	.nmin = 2,
+	.nmax = 2,
+	.run = setting_set,
+	.more = more,
+};
+
+static const struct cli_command *const actions[] = {
+	&setting_list_cmd, &setting_set_cmd, NULL
+};
+
+const struct cli_command cmd_setting = {
+	.name = "setting",
+	.summary = "settings of the planner and the audit",
+	.about = "Station-wide settings of the planner and the coverage "
+	    "audit, kept in the database.",
+	.actions = actions,
+	.more = more,
+};

@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_station.c: "moonrange station", show and change the stored station. */
-#include <getopt.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -8,23 +7,18 @@
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
 
+/* The keys of the station file, for --help. */
 static void
-usage(FILE *f)
+more(FILE *f)
 {
 	size_t n = 0;
 	const struct import_key *k = import_station_keys(&n);
 
-	fprintf(f,
-	    "usage: moonrange station show --db FILE [--json]\n"
-	    "       moonrange station set --db FILE SECTION.KEY=VALUE...\n"
-	    "\n"
-	    "The station record (one per database).  set changes keys of the\n"
-	    "station file, validated as in station.ini, all or none:\n"
-	    "\n");
-	for (size_t i = 0; i < n; i++)
-		fprintf(f, "  %s.%s\n      %s\n", k[i].section, k[i].name,
-		    k[i].help);
-	fprintf(f, "\n  --help   this text\n");
+	fprintf(f, "\nKeys (as in station.ini):\n");
+	for (size_t i = 0; i < n; i++) {
+		fprintf(f, "  %s.%s\n", k[i].section, k[i].name);
+		cli_wrap(f, k[i].help, 0, 6);
+	}
 }
 
 /* Apply "SECTION.KEY=VALUE" to st; CLI status. */
@@ -55,67 +49,35 @@ set_one(struct site_station *st, const char *arg)
 	return CLI_EXIT_OK;
 }
 
-int
-cmd_station(int argc, char **argv)
+/* station show, and station set (set = 1). */
+static int
+station(const struct cli_args *a, int set)
 {
-	static const char *const actions[] = {"show", "set", NULL};
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"json", no_argument, NULL, 'j'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	struct site_station st;
 	struct cli_store c;
 	struct mbuf out;
-	const char *db = NULL;
 	char err[512];
-	int ch, which, act = 0, json = 0, show, status;
+	int status;
 	enum errcode rc;
 
-	if ((which = cli_store_action(argc, argv, actions, usage, &act)) >=
-	    0)
-		return which;
-	show = act == 0;
-	argc--;
-	argv++;
-	optind = 1;
-	opterr = 0;
-	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (ch) {
-		case 'd': db = optarg; break;
-		case 'j': json = 1; break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("station %s: unknown or "
-			    "incomplete option '%s' (see 'moonrange station "
-			    "--help')", argv[0], argv[optind - 1]);
-		}
-	}
-	if (show && optind < argc)
-		return cli_extra_argument("station", "show", argv[optind]);
-	if (!show && optind >= argc)
-		return cli_usage_error("station set: give at least one "
-		    "SECTION.KEY=VALUE");
-	if ((status = cli_store_open(&c, db, show ? STORE_OPEN_READONLY : 0)))
+	if ((status = cli_store_open(&c, cli_text(a, "db", NULL), set ? 0 :
+	    STORE_OPEN_READONLY)))
 		return status;
 	if ((rc = store_station_get(c.s, &st, err, sizeof err))) {
 		status = cli_store_fail(rc, "%s: %s", c.path, err);
 		goto out;
 	}
-	for (int i = optind; i < argc && !show; i++)
-		if ((status = set_one(&st, argv[i])) != CLI_EXIT_OK)
+	for (int i = 0; set && i < a->nops; i++)
+		if ((status = set_one(&st, a->ops[i])) != CLI_EXIT_OK)
 			goto out;
-	if (!show && (rc = store_station_put(c.s, &st, err, sizeof err))) {
+	if (set && (rc = store_station_put(c.s, &st, err, sizeof err))) {
 		status = cli_store_fail(rc, "station set: %s", err);
 		goto out;
 	}
-	if (!show)
+	if (set)
 		cli_store_warn_zone(&st);
 	mbuf_init(&out);
-	if (json)
+	if (cli_given(a, "json"))
 		rc = render_site_station_json(&st, &out);
 	else
 		rc = render_site_station_text(&st, &out);
@@ -125,3 +87,55 @@ out:
 	cli_store_close(&c);
 	return status;
 }
+
+static int
+station_show(const struct cli_args *a)
+{
+	return station(a, 0);
+}
+
+static int
+station_set(const struct cli_args *a)
+{
+	return station(a, 1);
+}
+
+static const struct cli_option options[] = {
+	CLI_OPT_DB,
+	{.name = "json", .kind = CLI_FLAG, .help = "the station as JSON"},
+	{NULL}
+};
+
+static const struct cli_command station_show_cmd = {
+	.name = "show",
+	.summary = "the stored station",
+	.about = "The station record (one per database).",
+	.options = options,
+	.run = station_show,
+};
+
+static const struct cli_command station_set_cmd = {
+	.name = "set",
+	.summary = "change keys of the station, all or none",
+	.about = "Change keys of the station file, validated as in "
+	    "station.ini, all or none; prints the station.",
+	.options = options,
+	.operands = "SECTION.KEY=VALUE...",
+	.nmin = 1,
+	.nmax = -1,
+	.run = station_set,
+	.more = more,
+};
+
+static const struct cli_command *const actions[] = {
+	&station_show_cmd, &station_set_cmd, NULL
+};
+
+const struct cli_command cmd_station = {
+	.name = "station",
+	.summary = "show or change the stored station",
+	.about = "The station record (one per database): show it, or change "
+	    "keys of the station file, validated as in station.ini.",
+	.actions = actions,
+	.more = more,
+};

@@ -2,7 +2,6 @@
 /* cmd_target.c: "moonrange target", the lunar targets of the station:
    add, list, set, retire. */
 #include <ctype.h>
-#include <getopt.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -10,33 +9,6 @@
 #include "cli/cli.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
-
-static void
-usage(FILE *f)
-{
-	fprintf(f,
-	    "usage: moonrange target add --db FILE ID --name TEXT --lat DEG --lon DEG\n"
-	    "                     [--height M] [--alias NAME] [--strength X]\n"
-	    "                     [--dark-only yes|no]\n"
-	    "       moonrange target set --db FILE ID [any option of add]\n"
-	    "                     [--active yes|no]\n"
-	    "       moonrange target retire --db FILE ID\n"
-	    "       moonrange target list --db FILE [--all] [--json]\n"
-	    "\n"
-	    "Lunar retroreflector targets.  A retired target stays in the log\n"
-	    "and in coverage audits but is no longer planned.\n"
-	    "\n"
-	    "  ID           1-32 letters, digits, '_', '-' or '.'\n"
-	    "  --lat/--lon  selenographic latitude and east longitude, degrees\n"
-	    "               (-90..90, -180..180)\n"
-	    "  --height M   above the 1737.4 km mean radius (default 0)\n"
-	    "  --alias NAME the target's name in CRD files (default none)\n"
-	    "  --strength X relative return strength, over 0 up to 1000\n"
-	    "               (default 1)\n"
-	    "  --dark-only  plan only while the target is in lunar darkness\n"
-	    "  --all        list retired targets too\n"
-	    "  --help       this text\n");
-}
 
 static int
 valid_ident(const char *s, size_t max)
@@ -92,152 +64,228 @@ apply(struct site_target *t, const struct target_edit *e)
 	return CLI_EXIT_OK;
 }
 
-static int
-number(const char *opt, const char *s, double lo, double hi, double *v)
+/* The fields the options of a touched. */
+static void
+edit_of(const struct cli_args *a, struct target_edit *e, int set)
 {
-	if (cli_parse_double(s, lo, hi, v))
-		return cli_usage_error("%s: '%s' is not a number in %g..%g",
-		    opt, s, lo, hi);
+	e->name = cli_text(a, "name", NULL);
+	e->alias = cli_text(a, "alias", NULL);
+	e->lat = cli_real(a, "lat", NAN);
+	e->lon = cli_real(a, "lon", NAN);
+	e->height = cli_real(a, "height", NAN);
+	e->strength = cli_real(a, "strength", NAN);
+	e->dark_only = (int)cli_whole(a, "dark-only", -1);
+	e->active = set ? (int)cli_whole(a, "active", -1) : -1;
+}
+
+/* The operand ID, checked. */
+static int
+check_id(const struct cli_args *a)
+{
+	if (!valid_ident(a->ops[0], SITE_ID_LEN - 1))
+		return cli_usage_error("%s: an ID of 1-32 letters, digits, "
+		    "'_', '-' or '.' is required", a->path);
 	return CLI_EXIT_OK;
 }
 
 static int
-yesno(const char *opt, const char *s, int *v)
+target_add(const struct cli_args *a)
 {
-	if (cli_store_parse_bool(s, v))
-		return cli_usage_error("%s: '%s' is not yes or no", opt, s);
-	return CLI_EXIT_OK;
-}
-
-int
-cmd_target(int argc, char **argv)
-{
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'd'},
-		{"name", required_argument, NULL, 'n'},
-		{"alias", required_argument, NULL, 'a'},
-		{"lat", required_argument, NULL, 'y'},
-		{"lon", required_argument, NULL, 'x'},
-		{"height", required_argument, NULL, 'z'},
-		{"strength", required_argument, NULL, 's'},
-		{"dark-only", required_argument, NULL, 'k'},
-		{"active", required_argument, NULL, 'A'},
-		{"all", no_argument, NULL, 'L'},
-		{"json", no_argument, NULL, 'j'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
-	static const char *const actions[] = {"add", "set", "retire", "list",
-	    NULL};
-	struct target_edit e = {NULL, NULL, NAN, NAN, NAN, NAN, -1, -1};
-	struct site_target t, *list = NULL;
+	struct target_edit e;
+	struct site_target t;
 	struct cli_store c;
-	struct mbuf out;
-	const char *db = NULL, *id = NULL;
 	char err[512];
-	int ch, st = CLI_EXIT_OK, which = -1, all = 0, json = 0;
-	size_t n = 0;
+	int st;
 	enum errcode rc;
 
-	if ((st = cli_store_action(argc, argv, actions, usage, &which)) >= 0)
+	if ((st = check_id(a)) != CLI_EXIT_OK)
 		return st;
-	st = CLI_EXIT_OK;
-	argc--;
-	argv++;
-	optind = 1;
-	opterr = 0;
-	while ((ch = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		switch (ch) {
-		case 'd': db = optarg; break;
-		case 'n': e.name = optarg; break;
-		case 'a': e.alias = optarg; break;
-		case 'y': st = number("--lat", optarg, -90, 90, &e.lat); break;
-		case 'x': st = number("--lon", optarg, -180, 180, &e.lon); break;
-		case 'z':
-			st = number("--height", optarg, -20000, 20000,
-			    &e.height);
-			break;
-		case 's':
-			st = number("--strength", optarg, 1e-6, 1000,
-			    &e.strength);
-			break;
-		case 'k': st = yesno("--dark-only", optarg, &e.dark_only); break;
-		case 'A': st = yesno("--active", optarg, &e.active); break;
-		case 'L': all = 1; break;
-		case 'j': json = 1; break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_bad_option("target", argv[0],
-			    argv[optind - 1]);
-		}
-		if (st != CLI_EXIT_OK)
-			return st;
-	}
-	if (optind < argc)
-		id = argv[optind++];
-	if (optind < argc)
-		return cli_extra_argument("target", argv[0], argv[optind]);
-	if (which == 3 && id != NULL)
-		return cli_extra_argument("target", "list", id);
-	if (which != 3 && (id == NULL || !valid_ident(id, SITE_ID_LEN - 1)))
-		return cli_usage_error("target %s: an ID of 1-32 letters, "
-		    "digits, '_', '-' or '.' is required", argv[0]);
-	if (which == 0 && (e.name == NULL || isnan(e.lat) || isnan(e.lon)))
-		return cli_usage_error("target add: --name, --lat and --lon are "
-		    "required");
-	if (which == 0 && e.active >= 0)
-		return cli_usage_error("target add: --active is for 'target "
-		    "set'");
-	if ((st = cli_store_open(&c, db, which == 3 ? STORE_OPEN_READONLY :
-	    0)))
+	edit_of(a, &e, 0);
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
 		return st;
-	switch (which) {
-	case 0:
-		memset(&t, 0, sizeof t);
-		strcpy(t.id, id);
-		t.strength = 1.0;
-		t.active = 1;
-		if ((st = apply(&t, &e)) != CLI_EXIT_OK)
-			break;
+	memset(&t, 0, sizeof t);
+	strcpy(t.id, a->ops[0]);
+	t.strength = 1.0;
+	t.active = 1;
+	if ((st = apply(&t, &e)) == CLI_EXIT_OK) {
 		if ((rc = store_target_add(c.s, &t, err, sizeof err)))
 			st = cli_store_fail(rc, "target add: %s", err);
 		else
 			printf("target %s added\n", t.id);
-		break;
-	case 1:
-	case 2:
-		if ((rc = store_target_get(c.s, id, &t, err, sizeof err))) {
-			st = cli_store_fail(rc, "target %s: %s", argv[0], err);
-			break;
-		}
-		if (which == 2)
-			e.active = 0;
-		if ((st = apply(&t, &e)) != CLI_EXIT_OK)
-			break;
-		if ((rc = store_target_update(c.s, &t, err, sizeof err)))
-			st = cli_store_fail(rc, "target %s: %s", argv[0], err);
-		else
-			printf("target %s %s\n", t.id, which == 2 ? "retired" :
-			    "updated");
-		break;
-	default:
-		if ((rc = store_targets_list(c.s, !all, &list, &n, err,
-		    sizeof err))) {
-			st = cli_fail("%s: %s", c.path, err);
-			break;
-		}
+	}
+	cli_store_close(&c);
+	return st;
+}
+
+/* target set, and target retire (retire = 1). */
+static int
+target_change(const struct cli_args *a, int retire)
+{
+	struct target_edit e;
+	struct site_target t;
+	struct cli_store c;
+	char err[512];
+	int st;
+	enum errcode rc;
+
+	if ((st = check_id(a)) != CLI_EXIT_OK)
+		return st;
+	edit_of(a, &e, !retire);
+	if (retire)
+		e.active = 0;
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
+		return st;
+	if ((rc = store_target_get(c.s, a->ops[0], &t, err, sizeof err)))
+		st = cli_store_fail(rc, "%s: %s", a->path, err);
+	else if ((st = apply(&t, &e)) != CLI_EXIT_OK)
+		;
+	else if ((rc = store_target_update(c.s, &t, err, sizeof err)))
+		st = cli_store_fail(rc, "%s: %s", a->path, err);
+	else
+		printf("target %s %s\n", t.id, retire ? "retired" :
+		    "updated");
+	cli_store_close(&c);
+	return st;
+}
+
+static int
+target_set(const struct cli_args *a)
+{
+	return target_change(a, 0);
+}
+
+static int
+target_retire(const struct cli_args *a)
+{
+	return target_change(a, 1);
+}
+
+static int
+target_list(const struct cli_args *a)
+{
+	struct site_target *list = NULL;
+	struct cli_store c;
+	struct mbuf out;
+	char err[512];
+	size_t n = 0;
+	int st;
+	enum errcode rc;
+
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
+	    STORE_OPEN_READONLY)))
+		return st;
+	if ((rc = store_targets_list(c.s, !cli_given(a, "all"), &list, &n, err,
+	    sizeof err))) {
+		st = cli_fail("%s: %s", c.path, err);
+	} else {
 		mbuf_init(&out);
-		if (json)
+		if (cli_given(a, "json"))
 			rc = render_site_targets_json(list, n, &out);
 		else
 			rc = render_site_targets_text(list, n, &out);
 		st = cli_emit_rendered(rc, &out);
 		mbuf_free(&out);
 		mem_free(list);
-		break;
 	}
 	cli_store_close(&c);
 	return st;
 }
+
+/* --- the table ----------------------------------------------------------- */
+
+#define OPT_NAME(f) {.name = "name", .kind = CLI_TEXT, .arg = "TEXT", \
+	.flags = (f), .help = "the target's name (one line)"}
+#define OPT_LAT(f) {.name = "lat", .kind = CLI_REAL, .arg = "DEG", \
+	.min = -90, .max = 90, .flags = (f), \
+	.help = "selenographic latitude, degrees (-90..90)"}
+#define OPT_LON(f) {.name = "lon", .kind = CLI_REAL, .arg = "DEG", \
+	.min = -180, .max = 180, .flags = (f), \
+	.help = "selenographic east longitude, degrees (-180..180)"}
+#define OPT_REST \
+	{.name = "height", .kind = CLI_REAL, .arg = "M", .min = -20000, \
+	    .max = 20000, .help = "above the 1737.4 km mean radius " \
+	    "(default 0)"}, \
+	{.name = "alias", .kind = CLI_TEXT, .arg = "NAME", \
+	    .help = "the target's name in CRD files (default none)"}, \
+	{.name = "strength", .kind = CLI_REAL, .arg = "X", .min = 1e-6, \
+	    .max = 1000, .help = "relative return strength, over 0 up to " \
+	    "1000 (default 1)"}, \
+	{.name = "dark-only", .kind = CLI_BOOL, .arg = "yes|no", \
+	    .help = "plan only while the target is in lunar darkness"}
+
+static const struct cli_option add_options[] = {
+	CLI_OPT_DB, OPT_NAME(CLI_REQUIRED), OPT_LAT(CLI_REQUIRED),
+	OPT_LON(CLI_REQUIRED), OPT_REST, {NULL}
+};
+
+static const struct cli_option set_options[] = {
+	CLI_OPT_DB, OPT_NAME(0), OPT_LAT(0), OPT_LON(0), OPT_REST,
+	{.name = "active", .kind = CLI_BOOL, .arg = "yes|no",
+	    .help = "planned (yes) or retired (no)"},
+	{NULL}
+};
+
+static const struct cli_option retire_options[] = {CLI_OPT_DB, {NULL}};
+
+static const struct cli_option list_options[] = {
+	CLI_OPT_DB,
+	{.name = "all", .kind = CLI_FLAG, .help = "list retired targets too"},
+	{.name = "json", .kind = CLI_FLAG, .help = "{\"targets\":[...]}"},
+	{NULL}
+};
+
+static const struct cli_command target_add_cmd = {
+	.name = "add",
+	.summary = "add a target",
+	.about = "Add a target.  ID: 1-32 letters, digits, '_', '-' or '.'.",
+	.options = add_options,
+	.operands = "ID",
+	.nmin = 1,
+	.nmax = 1,
+	.run = target_add,
+};
+
+static const struct cli_command target_set_cmd = {
+	.name = "set",
+	.summary = "change fields of a target",
+	.about = "Change the given fields of a target; the others stay.",
+	.options = set_options,
+	.operands = "ID",
+	.nmin = 1,
+	.nmax = 1,
+	.run = target_set,
+};
+
+static const struct cli_command target_retire_cmd = {
+	.name = "retire",
+	.summary = "stop planning a target (it stays in the log)",
+	.about = "Retire a target: it stays in the log and in coverage audits "
+	    "but is no longer planned ('target set ID --active yes' brings it "
+	    "back).",
+	.options = retire_options,
+	.operands = "ID",
+	.nmin = 1,
+	.nmax = 1,
+	.run = target_retire,
+};
+
+static const struct cli_command target_list_cmd = {
+	.name = "list",
+	.summary = "the targets (--all: retired ones too)",
+	.about = "The active targets, or with --all every target.",
+	.options = list_options,
+	.run = target_list,
+};
+
+static const struct cli_command *const actions[] = {
+	&target_add_cmd, &target_set_cmd, &target_retire_cmd,
+	&target_list_cmd, NULL
+};
+
+const struct cli_command cmd_target = {
+	.name = "target",
+	.summary = "the lunar targets: add, list, set, retire",
+	.about = "Lunar retroreflector targets.  A retired target stays in "
+	    "the log and in coverage audits but is no longer planned.",
+	.actions = actions,
+};

@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_tonight.c: "moonrange tonight", the coming night at the station. */
-#include <getopt.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -10,36 +9,10 @@
 #include "cli/cli.h"
 #include "core/geom.h"
 #include "core/plan.h"
+#include "core/text.h"
 #include "cli/plan_cli.h"
 #include "formats/render_time.h"
 #include "formats/render_plan.h"
-
-#define MJD0 2400000.5
-
-static void
-usage(FILE *f)
-{
-	fprintf(f,
-	    "usage: moonrange tonight (--db FILE | --station LAT,LON,H --tz ZONE)\n"
-	    "                         [--at UTC] [--limit N] [--json]\n"
-	    "\n"
-	    "The night from local noon to local noon (the station's IANA time\n"
-	    "zone) that holds now, or, after local midnight once its last\n"
-	    "window is over, the next one: ranked windows with local time and\n"
-	    "UTC side by side, the best target now, when that changes next,\n"
-	    "and the coverage of the phase now.\n"
-	    "\n"
-	    "  --db FILE           the station database\n"
-	    "  --station LAT,LON,H an ad-hoc station (plans the Moon's centre)\n"
-	    "  --tz ZONE           IANA zone (with --station; overrides --db's)\n"
-	    "  --at UTC            take this as now (default: the clock)\n"
-	    "  --limit N           the best N windows (default 12)\n"
-	    "  --json              the same windows as 'windows --json'\n"
-	    "  --help              this text\n"
-	    "\n"
-	    "A planning aid only: laser-safety, aircraft and satellite\n"
-	    "avoidance rules of the station decide.\n");
-}
 
 /* Minutes since local midnight of a UTC MJD in zone tz. */
 static enum errcode
@@ -50,9 +23,9 @@ local_minutes(double mjd, const char *tz, double *min)
 	int y, mo, d, h, mi;
 	double sec;
 
-	if (render_local_time(MJD0, mjd, tz, buf, sizeof buf) != ERRCODE_OK ||
+	if (render_local_time(TEXT_MJD0, mjd, tz, buf, sizeof buf) != ERRCODE_OK ||
 	    sscanf(buf + 11, "%2d:%2d", &hh, &mm) != 2 ||
-	    tscale_utc_fields(MJD0, mjd, &y, &mo, &d, &h, &mi, &sec) !=
+	    tscale_utc_fields(TEXT_MJD0, mjd, &y, &mo, &d, &h, &mi, &sec) !=
 	    ERRCODE_OK)
 		return ERRCODE_BAD_ARG;
 	*min = hh * 60.0 + mm + sec / 60.0;
@@ -95,56 +68,20 @@ night_ahead(const struct plan_query *q, double now)
 	return ahead;
 }
 
-int
-cmd_tonight(int argc, char **argv)
+static int
+run(const struct cli_args *a)
 {
-	static const struct option opts[] = {
-		{"db", required_argument, NULL, 'D'},
-		{"station", required_argument, NULL, 's'},
-		{"tz", required_argument, NULL, 'z'},
-		{"at", required_argument, NULL, 'a'},
-		{"limit", required_argument, NULL, 'l'},
-		{"json", no_argument, NULL, 'j'},
-		{"help", no_argument, NULL, 'h'},
-		{NULL, 0, NULL, 0}
-	};
 	const char *tz;
 	double now1, now2, now, from, to;
-	int have_at = 0, json = 0, c, st;
+	int have_at = cli_time(a, "at", &now1, &now2);
+	int json = cli_given(a, "json"), st;
 	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, 12};
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
 	struct tscale_instant ti;
 
-	optind = 1;
-	opterr = 0;
-	while ((c = getopt_long(argc, argv, "", opts, NULL)) != -1) {
-		if ((st = plan_cli_option(c, optarg, &o)) >= 0) {
-			if (st != CLI_EXIT_OK)
-				return st;
-			continue;
-		}
-		switch (c) {
-		case 'a':
-			if (cli_parse_time("--at", optarg, &now1, &now2))
-				return CLI_EXIT_USAGE;
-			have_at = 1;
-			break;
-		case 'j':
-			json = 1;
-			break;
-		case 'h':
-			usage(stdout);
-			return CLI_EXIT_OK;
-		default:
-			return cli_usage_error("tonight: unknown or incomplete "
-			    "option '%s' (see 'moonrange tonight --help')",
-			    argv[optind - 1]);
-		}
-	}
-	if ((st = plan_cli_opts_check(&o, "tonight", argc, argv)) !=
-	    CLI_EXIT_OK)
+	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
 	tz = o.tz;
 	if (o.have_station && tz == NULL)
@@ -152,7 +89,7 @@ cmd_tonight(int argc, char **argv)
 		    "zone such as America/Denver)");
 	if (!have_at)
 		cli_now(&now1, &now2);
-	now = (now1 - MJD0) + now2;
+	now = (now1 - TEXT_MJD0) + now2;
 
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)
@@ -189,9 +126,36 @@ cmd_tonight(int argc, char **argv)
 	rp.time_zone = tz;
 	rp.now_mjd = now;
 	rp.now_synodic_deg = 0.0;
-	if (tscale_from_utc(MJD0, now, 0.0, &ti) == ERRCODE_OK)
+	if (tscale_from_utc(TEXT_MJD0, now, 0.0, &ti) == ERRCODE_OK)
 		rp.now_synodic_deg = geom_synodic_at(ti.tt1, ti.tt2) *
 		    ERFA_DR2D;
 	return plan_cli_run(&q, &hold, &rp, json ? render_windows_json :
 	    render_tonight_text);
 }
+
+static const struct cli_option options[] = {
+	PLAN_CLI_OPT_DB("the station database"),
+	PLAN_CLI_OPT_STATION("an ad-hoc station (plans the Moon's centre)"),
+	PLAN_CLI_OPT_TZ("IANA zone (with --station; overrides --db's)"),
+	{.name = "at", .kind = CLI_TIME, .arg = "UTC",
+	    .help = "take this as now (default: the clock)"},
+	PLAN_CLI_OPT_LIMIT("the best N windows (default 12)"),
+	{.name = "json", .kind = CLI_FLAG,
+	    .help = "the same windows as 'windows --json'"},
+	{NULL}
+};
+
+const struct cli_command cmd_tonight = {
+	.name = "tonight",
+	.summary = "the coming night: ranked windows, best target now",
+	.about = "The night from local noon to local noon (the station's IANA "
+	    "time zone) that holds now, or, after local midnight once its "
+	    "last window is over, the next one: ranked windows with local "
+	    "time and UTC side by side, the best target now, when that "
+	    "changes next, and the coverage of the phase now.\n\n"
+	    "A planning aid only: laser-safety, aircraft and satellite "
+	    "avoidance rules of the station decide.",
+	.options = options,
+	.one_of = 1u << 1,
+	.run = run,
+};

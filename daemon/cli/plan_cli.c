@@ -1,52 +1,21 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* plan_cli.c: loading, running and printing a plan for the commands. */
-#include <getopt.h>
-
 #include "cli/cli.h"
 #include "cli/plan_cli.h"
 #include "formats/render_time.h"
 
 int
-plan_cli_option(int c, const char *arg, struct plan_cli_opts *o)
+plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o)
 {
 	char err[256];
 
-	switch (c) {
-	case 'D':
-		o->db = arg;
-		return CLI_EXIT_OK;
-	case 's':
-		if (cli_parse_station(arg, &o->lat, &o->lon, &o->h, err,
-		    sizeof err) != ERRCODE_OK)
-			return cli_usage_error("%s", err);
-		o->have_station = 1;
-		return CLI_EXIT_OK;
-	case 'z':
-		if (!render_zone_known(arg))
-			return cli_usage_error("--tz: unknown time zone '%s'",
-			    arg);
-		o->tz = arg;
-		return CLI_EXIT_OK;
-	case 'l':
-		if (cli_parse_long(arg, 1, PLAN_MAX_WINDOWS, &o->limit))
-			return cli_usage_error("--limit: '%s' is not a whole "
-			    "number in 1..%d", arg, PLAN_MAX_WINDOWS);
-		return CLI_EXIT_OK;
-	default:
-		return -1;
-	}
-}
-
-int
-plan_cli_opts_check(const struct plan_cli_opts *o, const char *cmd,
-    int argc, char **argv)
-{
-	if (optind < argc)
-		return cli_usage_error("%s: unexpected argument '%s'", cmd,
-		    argv[optind]);
-	if ((o->db == NULL) == (o->have_station == 0))
-		return cli_usage_error("%s: give --db FILE or --station "
-		    "LAT,LON,HEIGHT_M (one of them)", cmd);
+	o->db = cli_text(a, "db", NULL);
+	o->tz = cli_text(a, "tz", NULL);
+	o->limit = cli_whole(a, "limit", o->limit);
+	o->have_station = cli_given(a, "station");
+	if (o->have_station && cli_parse_station(cli_text(a, "station", NULL),
+	    &o->lat, &o->lon, &o->h, err, sizeof err) != ERRCODE_OK)
+		return cli_usage_error("%s", err);
 	return CLI_EXIT_OK;
 }
 

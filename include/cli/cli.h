@@ -5,6 +5,7 @@
 
 #include <stdarg.h>
 #include <stddef.h>
+#include <stdio.h>
 
 #include "core/errcode.h"
 #include "core/mem.h"
@@ -14,17 +15,138 @@
 #define CLI_EXIT_FAIL	1	/* runtime failure: database, file, network */
 #define CLI_EXIT_USAGE	2	/* bad input: option, value, time, file row */
 
-struct cli_command {
-	const char *name;
-	const char *summary;
-	int (*run)(int argc, char **argv);	/* argv[0] is the name */
+/*
+ * The command table.  Every subcommand is declared once, as a
+ * struct cli_command in its own file (daemon/cli/cmd_<name>.c) and one
+ * line in include/cli/commands.def; its options, their value kinds and
+ * bounds, its operands and its help text are data, from which the parser
+ * (cli_args.c), --help, the manual page and shell completion
+ * (cli_help.c) are made.  The run function gets the values already
+ * parsed and checked.
+ */
+
+/* What an option's value is. */
+enum cli_kind {
+	CLI_FLAG,	/* no value: --json */
+	CLI_TEXT,	/* any text; the command checks it */
+	CLI_TIME,	/* UTC: "now" or ISO 8601 with Z */
+	CLI_REAL,	/* plain decimal (no exponent, hex, inf) in min..max */
+	CLI_WHOLE,	/* whole decimal number in min..max */
+	CLI_ZONE,	/* an IANA time zone this system knows */
+	CLI_BOOL,	/* yes/no, true/false, on/off, 1/0, any letter case */
+	CLI_WORD	/* one of the space-separated .words */
 };
 
-/* The table, ended by a NULL name (cli.c). */
-extern const struct cli_command cli_commands[];
+/* Flags of an option. */
+#define CLI_REQUIRED	0x1	/* must be given */
+#define CLI_MANY	0x2	/* may be given more than once */
+#define CLI_ABOVE_MIN	0x4	/* CLI_REAL: strictly above min */
+
+struct cli_option {
+	const char *name;	/* without "--"; NULL ends a table */
+	enum cli_kind kind;
+	const char *arg;	/* the value's name in help: FILE, UTC, N */
+	double min, max;	/* CLI_REAL, CLI_WHOLE */
+	const char *words;	/* CLI_WORD: "debug info warn error" */
+	const char *unit;	/* CLI_REAL in errors: "a number of <unit>" */
+	int flags;
+	int group;		/* 1..15: options of a group exclude each other */
+	const char *help;	/* wrapped to 80 columns; '\n' breaks */
+};
+
+/* The row of the commands that work on a database. */
+#define CLI_OPT_DB {.name = "db", .kind = CLI_TEXT, .arg = "FILE", \
+	.flags = CLI_REQUIRED, .help = "the station database"}
+
+struct cli_args;
+
+struct cli_command {
+	const char *name;
+	const char *summary;	/* one line, in the command list */
+	const char *about;	/* --help's description; '\n' breaks */
+	const struct cli_option *options;	/* NULL-name ended, or NULL */
+	const char *operands;	/* in the usage line: "ID", "FILE..." */
+	int nmin, nmax;		/* operands allowed (nmax -1: no limit) */
+	unsigned one_of;	/* bit g: one option of group g is required */
+	int (*run)(const struct cli_args *a);	/* NULL when actions */
+	const struct cli_command *const *actions;	/* NULL ended */
+	void (*more)(FILE *f);	/* help printed after the options, or NULL */
+};
+
+/* The parsed command line of one (sub)command, for its run function. */
+#define CLI_MAX_OPTIONS 32
+
+struct cli_value {
+	const char *text;	/* as given */
+	double real;		/* CLI_REAL; CLI_TIME: the UTC MJD */
+	double utc1, utc2;	/* CLI_TIME: two-part quasi-JD */
+	long whole;		/* CLI_WHOLE; CLI_BOOL 0/1; CLI_WORD index */
+};
+
+struct cli_args {
+	const struct cli_command *cmd;
+	char path[64];		/* "windows", "log add": for messages */
+	int given[CLI_MAX_OPTIONS];	/* times each option was given */
+	struct cli_value v[CLI_MAX_OPTIONS];	/* its last value */
+	struct { int opt; const char *text; } *seen;	/* every value */
+	size_t nseen;
+	char **ops;		/* operands, in order */
+	int nops;
+};
+
+/* The commands, ended by NULL (cli.c, from commands.def). */
+extern const struct cli_command *const cli_commands[];
 
 /* Dispatch argv (argv[0] the program) to a command; returns exit status. */
 int cli_main(int argc, char **argv);
+
+/* Run the command named argv[0] of the table with its arguments (as
+   "moonrange argv..."); what demo uses to run init and serve. */
+int cli_run(int argc, char **argv);
+
+/* --- a command's view of its parsed arguments (cli_args.c) -------------
+ * name is an option of the command's table (without "--"); asking for
+ * another is a programming error (assert).  The "or" value is returned
+ * when the option was not given. */
+int cli_given(const struct cli_args *a, const char *name);
+const char *cli_text(const struct cli_args *a, const char *name,
+    const char *or);
+double cli_real(const struct cli_args *a, const char *name, double or);
+long cli_whole(const struct cli_args *a, const char *name, long or);
+/* CLI_TIME: 1 and *utc1, *utc2 set when given, else 0. */
+int cli_time(const struct cli_args *a, const char *name, double *utc1,
+    double *utc2);
+/* The i-th value of a CLI_MANY option (i < cli_given), in order. */
+const char *cli_nth(const struct cli_args *a, const char *name, int i);
+
+/* Parse argv (argv[0] the command word) for cmd into a.  Returns -1 to
+   go on (release a with cli_args_free), or an exit status once it has
+   printed help (CLI_EXIT_OK) or one error line (CLI_EXIT_USAGE). */
+int cli_args_parse(const struct cli_command *cmd, const char *path,
+    int argc, char **argv, struct cli_args *a);
+void cli_args_free(struct cli_args *a);
+
+/* The command (or action of parent) named name, else NULL. */
+const struct cli_command *cli_find(const struct cli_command *const *table,
+    const char *name);
+
+/* The word of table nearest to s by edit distance, if near enough to be
+   a likely typo, else NULL.  words: an array of n strings at stride
+   bytes apart (the name field of a table). */
+const char *cli_nearest(const char *s, const void *words, size_t n,
+    size_t stride);
+
+/* --- help, manual page, completion (cli_help.c) ----------------------- */
+
+/* The help of a command (path "log add") to f, 80 columns. */
+void cli_help(FILE *f, const struct cli_command *cmd, const char *path);
+/* The program's help: the commands and their summaries. */
+void cli_help_main(FILE *f);
+/* Write text from column col (the cursor is there; spaces up to indent
+   first), wrapping at spaces before column 80 and indenting continuation
+   lines to indent; '\n' in text breaks the line.  Ends with a newline.
+   For the "more" help of a command. */
+void cli_wrap(FILE *f, const char *text, size_t col, size_t indent);
 
 /* --- helpers --- */
 
@@ -46,8 +168,9 @@ void cli_warn(const char *fmt, ...) MEM_PRINTFLIKE(1, 2);
 /* Exit status for an error code: input errors give CLI_EXIT_USAGE. */
 int cli_status_of(enum errcode rc);
 
-/* A whole number or plain decimal ([+-]d[.d], no spaces, exponent or
-   hex) in [min, max]; ERRCODE_BAD_ARG otherwise. */
+/* A plain decimal ([+-]d[.d], no spaces, exponent or hex) in [min,
+   max], through text_parse_real; ERRCODE_BAD_ARG otherwise.  A whole
+   number: text_parse_long. */
 enum errcode cli_parse_double(const char *s, double min, double max,
     double *out);
 enum errcode cli_parse_long(const char *s, long min, long max, long *out);
@@ -73,15 +196,6 @@ void cli_now(double *utc1, double *utc2);
 enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
     double *utc2);
 
-/*
- * The errors of an option loop, for command cmd (and the action word of a
- * command with actions, or NULL): an option getopt_long refused (pass
- * argv[optind - 1]), and an operand left over.  Both print one line and
- * return CLI_EXIT_USAGE.
- */
-int cli_bad_option(const char *cmd, const char *action, const char *opt);
-int cli_extra_argument(const char *cmd, const char *action, const char *arg);
-
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
 
@@ -89,21 +203,9 @@ int cli_emit(struct mbuf *b);
    its error (nothing on stdout) and gives CLI_EXIT_FAIL. */
 int cli_emit_rendered(enum errcode rc, struct mbuf *b);
 
-/* --- commands (one file each: cmd_<name>.c) --- */
-int cmd_ephem(int argc, char **argv);
-int cmd_phases(int argc, char **argv);
-int cmd_serve(int argc, char **argv);
-int cmd_demo(int argc, char **argv);
-int cmd_coverage(int argc, char **argv);
-int cmd_windows(int argc, char **argv);
-int cmd_tonight(int argc, char **argv);
-int cmd_log(int argc, char **argv);
-int cmd_init(int argc, char **argv);
-int cmd_np(int argc, char **argv);
-int cmd_eop(int argc, char **argv);
-int cmd_target(int argc, char **argv);
-int cmd_station(int argc, char **argv);
-int cmd_blackout(int argc, char **argv);
-int cmd_setting(int argc, char **argv);
+/* --- commands (one file each: cmd_<name>.c, listed in commands.def) --- */
+#define CLI_COMMAND(name) extern const struct cli_command cmd_##name;
+#include "cli/commands.def"
+#undef CLI_COMMAND
 
 #endif

@@ -30,16 +30,6 @@ struct cli_store {
 	size_t neop;
 };
 
-/*
- * The action word of a command with actions ("log add"): argv[1] must be
- * one of actions[] (NULL-ended).  Returns -1 with *which set (index into
- * actions) to go on, or an exit status: CLI_EXIT_OK after printing the
- * usage for --help, CLI_EXIT_USAGE (error printed) for a missing or
- * unknown action.
- */
-int cli_store_action(int argc, char **argv, const char *const *actions,
-    void (*usage)(FILE *), int *which);
-
 /* Open --db (NULL: error "--db FILE is required"); flags of store_open. */
 int cli_store_open(struct cli_store *c, const char *db, int flags);
 
@@ -135,11 +125,5 @@ const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
 /* Warn (stderr) when the station's time zone is not in this system's
    zone database: its tables then show UTC only. */
 void cli_store_warn_zone(const struct site_station *st);
-
-/* A yes/no option value ("yes", "no", "1", "0", "true", "false"). */
-enum errcode cli_store_parse_bool(const char *s, int *out);
-
-/* A UTC option ("now" or ISO 8601) as an MJD; prints the error. */
-int cli_store_parse_mjd(const char *opt, const char *s, double *mjd);
 
 #endif

@@ -3,6 +3,7 @@
 #ifndef MOONRANGE_PLAN_CLI_H
 #define MOONRANGE_PLAN_CLI_H
 
+#include "cli/cli.h"
 #include "core/mem.h"
 #include "core/plan.h"
 #include "store/plan_db.h"
@@ -17,9 +18,19 @@
 int plan_cli_load(const char *db, double lat, double lon, double h,
     struct plan_query *q, struct plan_db *hold);
 
-/* The options windows and tonight share (getopt_long values in
-   parentheses): --db FILE ('D'), --station LAT,LON,H ('s'), --tz ZONE
-   ('z', a zone the C library knows), --limit N ('l', 1..PLAN_MAX_WINDOWS). */
+/* The options windows and tonight share, rows of their tables: --db and
+   --station (group 1, one of them required: one_of = 1u << 1), --tz and
+   --limit (1..PLAN_MAX_WINDOWS). */
+#define PLAN_CLI_OPT_DB(h_) {.name = "db", .kind = CLI_TEXT, \
+	.arg = "FILE", .group = 1, .help = (h_)}
+#define PLAN_CLI_OPT_STATION(h_) {.name = "station", .kind = CLI_TEXT, \
+	.arg = "LAT,LON,H", .group = 1, .help = (h_)}
+#define PLAN_CLI_OPT_TZ(h_) {.name = "tz", .kind = CLI_ZONE, \
+	.arg = "ZONE", .help = (h_)}
+#define PLAN_CLI_OPT_LIMIT(h_) {.name = "limit", .kind = CLI_WHOLE, \
+	.arg = "N", .min = 1, .max = PLAN_MAX_WINDOWS, .help = (h_)}
+
+/* What those options gave. */
 struct plan_cli_opts {
 	const char *db;			/* NULL: not given */
 	const char *tz;			/* NULL: not given */
@@ -29,20 +40,11 @@ struct plan_cli_opts {
 };
 
 /*
- * Take option c with its argument arg into o.  Returns -1 when c is not
- * one of the shared options, CLI_EXIT_OK when taken, else the exit status
- * of the error, already printed (one line naming the option).
+ * Take the shared options of a into o (o->limit holds the default).
+ * Returns CLI_EXIT_OK, or the exit status of an error already printed
+ * (one line naming the option).
  */
-int plan_cli_option(int c, const char *arg, struct plan_cli_opts *o);
-
-/*
- * After getopt_long: no operand left (optind) and exactly one of --db and
- * --station.  cmd names the command in the messages.  Returns CLI_EXIT_OK
- * or the status of the error, already printed.
- */
-int plan_cli_opts_check(const struct plan_cli_opts *o, const char *cmd,
-    int argc, char **argv);
-
+int plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o);
 
 /*
  * Run q, render the result with fn (rp->r is set here, the rest is the
