@@ -102,7 +102,7 @@ static const struct cli_option add_options[] = {
 	    .help = "its end, after the start"},
 	{.name = "reason", .kind = CLI_TEXT, .arg = "TEXT",
 	    .help = "why (one line)"},
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_option list_options[] = {
@@ -112,10 +112,10 @@ static const struct cli_option list_options[] = {
 	{.name = "until", .kind = CLI_TIME, .arg = "UTC",
 	    .help = "blackouts starting before this time"},
 	{.name = "json", .kind = CLI_FLAG, .help = "{\"blackouts\":[...]}"},
-	{NULL}
+	CLI_OPT_END
 };
 
-static const struct cli_option remove_options[] = {CLI_OPT_DB, {NULL}};
+static const struct cli_option remove_options[] = {CLI_OPT_DB, CLI_OPT_END};
 
 static const struct cli_command blackout_add_cmd = {
 	.name = "add",

@@ -135,7 +135,7 @@ static const struct cli_option options[] = {
 	    .help = "counts as CSV (RFC 4180)"},
 	{.name = "svg", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
 	    .help = "write the chart to FILE ('-' for stdout)"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_coverage = {

@@ -157,7 +157,7 @@ static const struct cli_option options[] = {
 	    .help = "as for 'moonrange serve'"},
 	{.name = "refresh", .kind = CLI_TEXT, .arg = "SECONDS",
 	    .help = "as for 'moonrange serve'"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_demo = {

@@ -66,10 +66,10 @@ static const struct cli_option import_options[] = {
 	CLI_OPT_DB,
 	{.name = "c04", .kind = CLI_FLAG,
 	    .help = "the file is in the IERS EOP C04 format"},
-	{NULL}
+	CLI_OPT_END
 };
 
-static const struct cli_option status_options[] = {CLI_OPT_DB, {NULL}};
+static const struct cli_option status_options[] = {CLI_OPT_DB, CLI_OPT_END};
 
 static const struct cli_command eop_import_cmd = {
 	.name = "import",

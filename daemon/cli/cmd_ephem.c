@@ -233,7 +233,7 @@ static const struct cli_option options[] = {
 	    "station's zone)"},
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "machine-readable output (see README)"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_ephem = {

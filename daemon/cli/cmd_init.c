@@ -243,7 +243,7 @@ static const struct cli_option options[] = {
 	{.name = "force", .kind = CLI_FLAG,
 	    .help = "replace an existing database (only once the new one is "
 	    "complete)"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_init = {

@@ -225,7 +225,7 @@ static const struct cli_option add_options[] = {
 	    .help = "free text (may span lines)"},
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "print the stored row as JSON"},
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_option list_options[] = {
@@ -236,17 +236,17 @@ static const struct cli_option list_options[] = {
 	    .help = "{\"attempts\":[...]} (fields in the README)"},
 	{.name = "csv", .kind = CLI_FLAG, .group = 1,
 	    .help = "RFC 4180, with the id and the derived angles"},
-	{NULL}
+	CLI_OPT_END
 };
 
-static const struct cli_option import_options[] = {CLI_OPT_DB, {NULL}};
+static const struct cli_option import_options[] = {CLI_OPT_DB, CLI_OPT_END};
 
 static const struct cli_option export_options[] = {
 	CLI_OPT_DB,
 	{.name = "csv", .kind = CLI_FLAG,
 	    .help = "CSV (the only format; accepted for clarity)"},
 	OPT_SINCE, OPT_UNTIL, OPT_TARGET,
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_command log_add_cmd = {

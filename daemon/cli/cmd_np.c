@@ -61,7 +61,7 @@ out:
 }
 
 
-static const struct cli_option import_options[] = {CLI_OPT_DB, {NULL}};
+static const struct cli_option import_options[] = {CLI_OPT_DB, CLI_OPT_END};
 
 static const struct cli_option count_options[] = {
 	CLI_OPT_DB,
@@ -73,7 +73,7 @@ static const struct cli_option count_options[] = {
 	    .help = "one target only"},
 	{.name = "station", .kind = CLI_TEXT, .arg = "CODE",
 	    .help = "one station only"},
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_command np_import_cmd = {

@@ -90,7 +90,7 @@ static const struct cli_option options[] = {
 	    .help = "also show local time in the stored station's zone"},
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "machine-readable output: {\"phases\":[{kind,utc}]}"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_phases = {

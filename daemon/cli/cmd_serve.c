@@ -291,7 +291,7 @@ static const struct cli_option options[] = {
 	{.name = "log-level", .kind = CLI_WORD, .arg = "LEVEL",
 	    .words = "debug info warn error",
 	    .help = "debug, info, warn or error (default info)"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_serve = {

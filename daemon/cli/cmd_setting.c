@@ -64,7 +64,7 @@ setting_set(const struct cli_args *a)
 
 static const struct cli_option options[] = {
 	CLI_OPT_DB,
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_command setting_list_cmd = {

@@ -103,7 +103,7 @@ station_set(const struct cli_args *a)
 static const struct cli_option options[] = {
 	CLI_OPT_DB,
 	{.name = "json", .kind = CLI_FLAG, .help = "the station as JSON"},
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_command station_show_cmd = {

@@ -215,23 +215,23 @@ target_list(const struct cli_args *a)
 
 static const struct cli_option add_options[] = {
 	CLI_OPT_DB, OPT_NAME(CLI_REQUIRED), OPT_LAT(CLI_REQUIRED),
-	OPT_LON(CLI_REQUIRED), OPT_REST, {NULL}
+	OPT_LON(CLI_REQUIRED), OPT_REST, CLI_OPT_END
 };
 
 static const struct cli_option set_options[] = {
 	CLI_OPT_DB, OPT_NAME(0), OPT_LAT(0), OPT_LON(0), OPT_REST,
 	{.name = "active", .kind = CLI_BOOL, .arg = "yes|no",
 	    .help = "planned (yes) or retired (no)"},
-	{NULL}
+	CLI_OPT_END
 };
 
-static const struct cli_option retire_options[] = {CLI_OPT_DB, {NULL}};
+static const struct cli_option retire_options[] = {CLI_OPT_DB, CLI_OPT_END};
 
 static const struct cli_option list_options[] = {
 	CLI_OPT_DB,
 	{.name = "all", .kind = CLI_FLAG, .help = "list retired targets too"},
 	{.name = "json", .kind = CLI_FLAG, .help = "{\"targets\":[...]}"},
-	{NULL}
+	CLI_OPT_END
 };
 
 static const struct cli_command target_add_cmd = {

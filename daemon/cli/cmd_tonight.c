@@ -142,7 +142,7 @@ static const struct cli_option options[] = {
 	PLAN_CLI_OPT_LIMIT("the best N windows (default 12)"),
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "the same windows as 'windows --json'"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_tonight = {

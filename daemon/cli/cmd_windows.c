@@ -126,7 +126,7 @@ static const struct cli_option options[] = {
 	    .help = "RFC 4180 table"},
 	{.name = "ics", .kind = CLI_FLAG, .group = 3,
 	    .help = "iCalendar (RFC 5545), one event per window"},
-	{NULL}
+	CLI_OPT_END
 };
 
 const struct cli_command cmd_windows = {

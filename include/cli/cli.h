@@ -54,6 +54,9 @@ struct cli_option {
 	const char *help;	/* wrapped to 80 columns; '\n' breaks */
 };
 
+/* The row that ends an option table. */
+#define CLI_OPT_END {.name = NULL}
+
 /* The row of the commands that work on a database. */
 #define CLI_OPT_DB {.name = "db", .kind = CLI_TEXT, .arg = "FILE", \
 	.flags = CLI_REQUIRED, .help = "the station database"}
