@@ -176,36 +176,169 @@ score_coverage_weight(long n, double nbar, double k, double alpha)
 	return pow((nbar + k) / ((double)n + k), alpha);
 }
 
-/* Elevation and lit state of a target (or the Moon's centre) at t. */
+/* Gauss-Legendre, 8 points on [-1, 1]: abscissae and weights
+   (Abramowitz & Stegun, Handbook of Mathematical Functions (1964),
+   table 25.4, n = 8). */
+static const double gl_x[4] = {
+	0.183434642495649804939476142360184,
+	0.525532409916328985817739049189246,
+	0.796666477413626739591553936475830,
+	0.960289856497536231683560868569473,
+};
+static const double gl_w[4] = {
+	0.362683783378361982965150449277196,
+	0.313706645877887287337962201986601,
+	0.222381034453374470544355994426241,
+	0.101228536290376259152531354309962,
+};
+
+#define PART_PER_STEP 60.0	/* longest part: 60 step_s (2 h at 120 s) */
+#define LIT_SCAN_DAYS (10.0 / 1440.0)	/* lit-state scan: 10 min */
+#define CUT_TOL (0.001 / ERFA_DAYSEC)	/* cuts refined to 1 ms */
+#define MAX_CUTS (SCORE_BINS_MAX + 64)
+
+/* The Moon's centre stands for lit/dark at selenographic 0, 0. */
+static const struct geom_target centre_point = {{GEOM_MOON_RADIUS, 0.0, 0.0}};
+
+/* Elevation of a target (or the Moon's centre) at t; *dark (if not NULL)
+   its dark margin (geom_target_view's dark_margin: > 0 when dark). */
 static double
 target_el(const struct window_track *tr, const struct geom_target *body,
-    double t, int *sunlit)
+    double t, double *dark)
 {
-	static const struct geom_target centre_point = {
-	    {GEOM_MOON_RADIUS, 0.0, 0.0}};
-	struct geom_instant g;
-	struct geom_target_view v;
+	struct fast_frame f;
+	double el;
 
-	window_track_instant(tr, t, &g);
-	geom_target_view(&g, body != NULL ? body : &centre_point, &v);
-	if (sunlit != NULL)
-		*sunlit = v.sunlit;
-	return body != NULL ? v.el : g.moon.el;
+	fast_frame_at(&tr->ft, t, dark != NULL ? FAST_SUN | FAST_LUNAR :
+	    (body != NULL ? FAST_LUNAR : 0), &f);
+	if (body != NULL)
+		return fast_target_el(&tr->ft, &f, body, NULL, dark);
+	el = fast_elevation(&tr->ft, f.moon_itrs);
+	if (dark != NULL)
+		(void)fast_target_el(&tr->ft, &f, &centre_point, NULL, dark);
+	return el;
 }
 
-/* Time of the synodic angle ang (unwrapped, rad) inside [a, b]. */
-static double
-synodic_time(const struct window_track *tr, double a, double b, double ang)
-{
-	while (b - a > 0.1 / ERFA_DAYSEC) {
-		double m = 0.5 * (a + b);
+/* Root-finding goals: the synodic angle less a boundary, and the dark
+   margin of a target. */
+struct cut_goal {
+	const struct window_track *tr;
+	const struct geom_target *body;
+	double ang;
+};
 
-		if (window_track_synodic(tr, m) < ang)
-			a = m;
-		else
-			b = m;
+static double
+synodic_goal(void *ctx, double t)
+{
+	const struct cut_goal *g = ctx;
+
+	return window_track_synodic(g->tr, t) - g->ang;
+}
+
+static double
+dark_goal(void *ctx, double t)
+{
+	const struct cut_goal *g = ctx;
+	double dark;
+
+	(void)target_el(g->tr, g->body, t, &dark);
+	return dark;
+}
+
+static int
+cmp_double(const void *pa, const void *pb)
+{
+	double a = *(const double *)pa, b = *(const double *)pb;
+
+	return (a > b) - (a < b);
+}
+
+/*
+ * Cuts of [start, end]: the ends, the phase-bin boundaries and the
+ * target's lit/dark changes (scanned every LIT_SCAN_DAYS), sorted.
+ * Returns their number; *nbins the bin boundaries among them.
+ */
+static int
+window_cuts(const struct score_params *p, const struct score_target *t,
+    const struct window *w, double *cuts, int *nbins)
+{
+	const double width = ERFA_D2PI / p->s->nbins;
+	const struct geom_target *body = t->body != NULL ? t->body :
+	    &centre_point;
+	struct cut_goal g = {p->tr, body, 0.0};
+	double s0 = window_track_synodic(p->tr, w->start);
+	double s1 = window_track_synodic(p->tr, w->end);
+	int n = 0, nscan;
+	double ta, da;
+
+	cuts[n++] = w->start;
+	*nbins = 0;
+	for (double b = (floor(s0 / width) + 1.0) * width;
+	    b < s1 && n < SCORE_BINS_MAX + 1; b += width) {
+		double r;
+
+		g.ang = b;
+		(void)geom_root_illinois(synodic_goal, &g, w->start, s0 - b,
+		    w->end, s1 - b, CUT_TOL, 100, &r);
+		cuts[n++] = r;
+		(*nbins)++;
 	}
-	return 0.5 * (a + b);
+	nscan = (int)ceil((w->end - w->start) / LIT_SCAN_DAYS);
+	if (nscan < 1)
+		nscan = 1;
+	ta = w->start;
+	da = dark_goal(&g, ta);
+	for (int i = 1; i <= nscan && n < MAX_CUTS - 1; i++) {
+		double tb = w->start + (w->end - w->start) * i / nscan;
+		double db = dark_goal(&g, tb), r;
+
+		if ((da > 0.0) != (db > 0.0)) {
+			(void)geom_root_illinois(dark_goal, &g, ta, da, tb, db,
+			    CUT_TOL, 100, &r);
+			cuts[n++] = r;
+		}
+		ta = tb;
+		da = db;
+	}
+	cuts[n++] = w->end;
+	qsort(cuts, (size_t)n, sizeof cuts[0], cmp_double);
+	return n;
+}
+
+/* Running sums of the quadrature. */
+struct sums {
+	double er, sc, x, trm, lit;	/* returns, score, airmass, T, lit */
+	double best_el, best_t, best_h;	/* best node and its half-spacing */
+};
+
+/* One Gauss-Legendre part [a, b], lit state and weight constant. */
+static void
+integrate_part(const struct score_params *p, const struct score_target *t,
+    double a, double b, int lit, double wgt, struct sums *u)
+{
+	double c = 0.5 * (a + b), h = 0.5 * (b - a);
+	double r0 = p->fire_rate_hz * t->yield.rate *
+	    (lit ? t->yield.sunlit_factor : 1.0);
+
+	for (int i = 0; i < 8; i++) {
+		double xi = (i < 4 ? -1.0 : 1.0) * gl_x[i % 4];
+		double wi = gl_w[i % 4] * h;	/* days */
+		double ti = c + xi * h;
+		double el = target_el(p->tr, t->body, ti, NULL);
+		double x = score_airmass(el), trm = exp(-2.0 * p->tau * x);
+		double r = r0 * trm;
+
+		u->er += r * wi * ERFA_DAYSEC;
+		u->sc += r * wgt * wi * ERFA_DAYSEC;
+		u->x += x * wi;
+		u->trm += trm * wi;
+		u->lit += lit ? wi : 0.0;
+		if (el > u->best_el) {
+			u->best_el = el;
+			u->best_t = ti;
+			u->best_h = h * 0.5;
+		}
+	}
 }
 
 enum errcode
@@ -213,83 +346,78 @@ score_window(const struct score_params *p, const struct score_target *t,
     const struct window *w, struct score_window *out)
 {
 	const struct score_settings *s = p->s;
-	const double width = ERFA_D2PI / s->nbins;
-	double cuts[SCORE_BINS_MAX + 2];
-	double s0, s1, mid, best_t = w->start, best_el = -10.0;
-	double sum_x = 0.0, sum_tr = 0.0, lit_s = 0.0, er = 0.0, sc = 0.0;
+	const double part_max = PART_PER_STEP * s->step_s / ERFA_DAYSEC;
+	double cuts[MAX_CUTS], mid, best_t, best_el;
 	double dur = (w->end - w->start) * ERFA_DAYSEC;
-	int ncut = 0;
+	struct sums u;
+	int ncut, nbcross;
 
 	if (!(w->end >= w->start) || score_settings_check(s, NULL) != ERRCODE_OK)
 		return ERRCODE_BAD_ARG;
 	memset(out, 0, sizeof *out);
+	memset(&u, 0, sizeof u);
+	u.best_el = -10.0;
+	u.best_t = w->start;
 	out->target = w->target;
 	out->start = w->start;
 	out->end = w->end;
 	out->duration_s = dur;
 	out->bin_mean = score_bin_mean(t->counts, s->nbins);
 
-	/* Cut the window at bin boundaries of the synodic angle. */
-	s0 = window_track_synodic(p->tr, w->start);
-	s1 = window_track_synodic(p->tr, w->end);
-	cuts[ncut++] = w->start;
-	for (double b = (floor(s0 / width) + 1.0) * width;
-	    b < s1 && ncut < SCORE_BINS_MAX + 1; b += width)
-		cuts[ncut++] = synodic_time(p->tr, w->start, w->end, b);
-	cuts[ncut++] = w->end;
-	out->bins_crossed = ncut - 2;
-
+	/* Pieces between cuts have one bin and one lit state; each is cut
+	   into equal parts of at most part_max for the quadrature. */
+	ncut = window_cuts(p, t, w, cuts, &nbcross);
+	out->bins_crossed = nbcross;
 	for (int c = 0; c + 1 < ncut; c++) {
-		double a = cuts[c], b = cuts[c + 1];
-		double len = (b - a) * ERFA_DAYSEC;
-		int nstep = (int)ceil(len / s->step_s);
-		double dt, wgt;
-		int bin;
+		double a = cuts[c], b = cuts[c + 1], pm = 0.5 * (a + b), dark;
+		int bin, lit, nparts;
+		double wgt;
 
-		if (nstep < 1)
-			nstep = 1;
-		dt = (b - a) / nstep;
-		bin = score_bin_of(eraAnp(window_track_synodic(p->tr,
-		    0.5 * (a + b))) * ERFA_DR2D, s->nbins);
+		if (!(b > a))
+			continue;
+		bin = score_bin_of(eraAnp(window_track_synodic(p->tr, pm)) *
+		    ERFA_DR2D, s->nbins);
 		wgt = score_coverage_weight(t->counts[bin], out->bin_mean, s->k,
 		    s->alpha);
-		for (int i = 0; i < nstep; i++) {
-			double ti = a + (i + 0.5) * dt, el, x, trm, r;
-			int lit;
-
-			el = target_el(p->tr, t->body, ti, &lit);
-			x = score_airmass(el);
-			trm = exp(-2.0 * p->tau * x);
-			r = p->fire_rate_hz * t->yield.rate * trm *
-			    (lit ? t->yield.sunlit_factor : 1.0);
-			er += r * dt * ERFA_DAYSEC;
-			sc += r * wgt * dt * ERFA_DAYSEC;
-			sum_x += x * dt;
-			sum_tr += trm * dt;
-			lit_s += lit ? dt : 0.0;
-			if (el > best_el) {
-				best_el = el;
-				best_t = ti;
-			}
-		}
+		(void)target_el(p->tr, t->body, pm, &dark);
+		lit = dark <= 0.0;
+		nparts = (int)ceil((b - a) / part_max);
+		if (nparts < 1)
+			nparts = 1;
+		for (int k = 0; k < nparts; k++)
+			integrate_part(p, t, a + (b - a) * k / nparts,
+			    a + (b - a) * (k + 1) / nparts, lit, wgt, &u);
 	}
-	/* Ends too, then golden section around the best sample. */
+	/* The highest elevation: golden section around the best node, then
+	   the window's ends. */
+	best_t = u.best_t;
+	best_el = u.best_el;
 	{
 		double ea = target_el(p->tr, t->body, w->start, NULL);
 		double eb = target_el(p->tr, t->body, w->end, NULL);
-		double step = fmin(s->step_s / ERFA_DAYSEC, w->end - w->start);
-		double a = fmax(w->start, best_t - step);
-		double b = fmin(w->end, best_t + step);
+		double a = fmax(w->start, best_t - fmax(u.best_h, 60.0 /
+		    ERFA_DAYSEC));
+		double b = fmin(w->end, best_t + fmax(u.best_h, 60.0 /
+		    ERFA_DAYSEC));
 		const double r = 0.618033988749894848;
+		double x1 = b - r * (b - a), x2 = a + r * (b - a);
+		double f1 = target_el(p->tr, t->body, x1, NULL);
+		double f2 = target_el(p->tr, t->body, x2, NULL);
 
 		while (b - a > 1.0 / ERFA_DAYSEC) {
-			double x1 = b - r * (b - a), x2 = a + r * (b - a);
-
-			if (target_el(p->tr, t->body, x1, NULL) <
-			    target_el(p->tr, t->body, x2, NULL))
+			if (f1 < f2) {
 				a = x1;
-			else
+				x1 = x2;
+				f1 = f2;
+				x2 = a + r * (b - a);
+				f2 = target_el(p->tr, t->body, x2, NULL);
+			} else {
 				b = x2;
+				x2 = x1;
+				f2 = f1;
+				x1 = b - r * (b - a);
+				f1 = target_el(p->tr, t->body, x1, NULL);
+			}
 		}
 		{
 			double tm = 0.5 * (a + b);
@@ -318,20 +446,19 @@ score_window(const struct score_params *p, const struct score_target *t,
 	if (w->end > w->start) {
 		double span = w->end - w->start;
 
-		out->mean_airmass = sum_x / span;
-		out->mean_transmission = sum_tr / span;
-		out->sunlit_fraction = lit_s / span;
+		out->mean_airmass = u.x / span;
+		out->mean_transmission = u.trm / span;
+		out->sunlit_fraction = u.lit / span;
 	} else {
-		int lit;
-		double el = target_el(p->tr, t->body, w->start, &lit);
+		double dark, el = target_el(p->tr, t->body, w->start, &dark);
 
 		out->mean_airmass = score_airmass(el);
 		out->mean_transmission = exp(-2.0 * p->tau * out->mean_airmass);
-		out->sunlit_fraction = lit ? 1.0 : 0.0;
+		out->sunlit_fraction = dark <= 0.0 ? 1.0 : 0.0;
 	}
-	out->expected_returns = er;
-	out->score = sc;
-	out->coverage_weight = er > 0.0 ? sc / er :
+	out->expected_returns = u.er;
+	out->score = u.sc;
+	out->coverage_weight = u.er > 0.0 ? u.sc / u.er :
 	    score_coverage_weight(out->bin_count, out->bin_mean, s->k,
 	    s->alpha);
 	return ERRCODE_OK;
