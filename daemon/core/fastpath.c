@@ -231,17 +231,28 @@ struct fits {
 	double beta[FAST_SUN_NODES * FAST_SUN_NODES];	/* values, 3 nodes */
 };
 
-/* Fit one segment starting at offset a; *prev_syn carries the synodic
-   angle at the previous segment's end for unwrapping (NAN: none). */
+enum { NQ = 8 };	/* X, Y, s, EO, ra, dec, W, synodic */
+
+/* The models at a segment's end, which is the next segment's start. */
+struct node_cache {
+	int valid;
+	double pvh[2][3], pvb[2][3];	/* eraEpv00 */
+	double moon[2][3];		/* eraMoon98 */
+	double q[NQ];			/* X, Y, s, EO, ra, dec, W, synodic */
+};
+
+/* Fit one segment starting at offset a; nc holds the models at a (when
+   valid) and receives them at its end; its synodic angle there unwraps
+   this segment's. */
 static void
 fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
-    struct fast_seg *s, double *prev_syn)
+    struct fast_seg *s, struct node_cache *nc)
 {
-	enum { NQ = 8 };	/* X, Y, s, EO, ra, dec, W, synodic */
 	const double h = 0.5 * ft->len;
 	double ym[3][FAST_MOON_NC], yq[NQ][FAST_ORI_NODES], cq[FAST_ORI_NODES];
 	double ys[3][FAST_SUN_NC], yb[3][FAST_SUN_NODES];
 	double mp[FAST_MOON_NODES][3], mv[FAST_MOON_NODES][3];
+	const struct node_cache prev = *nc;	/* at a; nc is rewritten */
 
 	s->mid = a + h;
 	/* The Sun first: the synodic angle below reads it. */
@@ -249,7 +260,16 @@ fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
 		double pvh[2][3], pvb[2][3];
 		double t = s->mid + h * lobatto(j, FAST_SUN_NODES);
 
-		(void)eraEpv00(ft->base1, ft->base2 + t, pvh, pvb);
+		if (j == FAST_SUN_NODES - 1 && prev.valid) {
+			memcpy(pvh, prev.pvh, sizeof pvh);
+			memcpy(pvb, prev.pvb, sizeof pvb);
+		} else {
+			(void)eraEpv00(ft->base1, ft->base2 + t, pvh, pvb);
+		}
+		if (j == 0) {
+			memcpy(nc->pvh, pvh, sizeof pvh);
+			memcpy(nc->pvb, pvb, sizeof pvb);
+		}
 		for (int i = 0; i < 3; i++) {
 			ys[i][j] = -pvh[0][i] * ERFA_DAU;
 			ys[i][FAST_SUN_NODES + j] = -pvh[1][i] * ERFA_DAU * h;
@@ -265,7 +285,12 @@ fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
 		double pv[2][3];
 		double t = s->mid + h * lobatto(k, FAST_MOON_NODES);
 
-		eraMoon98(ft->base1, ft->base2 + t, pv);
+		if (k == FAST_MOON_NODES - 1 && prev.valid)
+			memcpy(pv, prev.moon, sizeof pv);
+		else
+			eraMoon98(ft->base1, ft->base2 + t, pv);
+		if (k == 0)
+			memcpy(nc->moon, pv, sizeof pv);
 		for (int i = 0; i < 3; i++) {
 			mp[k][i] = pv[0][i] * ERFA_DAU;
 			mv[k][i] = pv[1][i] * ERFA_DAU / ERFA_DAYSEC;
@@ -284,6 +309,12 @@ fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
 		double x = lobatto(k, FAST_MOON_NODES);
 		double tt2 = ft->base2 + s->mid + h * x;
 		double rbpn[3][3], cx, cy, cs, sun[3], ang[3], syn;
+
+		if (j == FAST_ORI_NODES - 1 && prev.valid) {
+			for (int q = 0; q < NQ; q++)
+				yq[q][j] = prev.q[q];
+			continue;
+		}
 
 		{
 			/* eraPnm06a with IAU 2000B nutation. */
@@ -309,13 +340,16 @@ fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
 		yq[6][j] = ang[2];
 		sun_apparent(s, x, sun);
 		syn = geom_synodic_of(ft->base1, tt2, mp[k], mv[k], sun);
-		if (!isnan(*prev_syn))
-			syn = *prev_syn + eraAnpm(syn - *prev_syn);
+		if (j < FAST_ORI_NODES - 1)	/* unwrap on the later node */
+			syn = yq[7][j + 1] + eraAnpm(syn - yq[7][j + 1]);
+		else if (prev.valid)
+			syn = prev.q[7] + eraAnpm(syn - prev.q[7]);
 		yq[7][j] = syn;
-		*prev_syn = syn;
 	}
+	for (int q = 0; q < NQ; q++)
+		nc->q[q] = yq[q][0];
+	nc->valid = 1;
 	eraEcm06(ft->base1, ft->base2 + s->mid, s->ecm);
-	/* The loop ended at x = +1, the segment's end: *prev_syn is there. */
 	for (int q = 0; q < NQ; q++) {
 		fit_apply(fi->ori, FAST_ORI_NODES, yq[q], cq);
 		if (q < 4)
@@ -333,8 +367,8 @@ fast_track_init(struct fast_track *ft, const struct geom_site *site,
     double to, struct fast_seg *seg, size_t cap)
 {
 	struct fits fi;
+	struct node_cache nc;
 	size_t n = fast_track_segments(from, to);
-	double prev_syn = NAN;
 	enum errcode rc;
 
 	if (n == 0 || !isfinite(tt1) || !isfinite(tt2))
@@ -356,6 +390,7 @@ fast_track_init(struct fast_track *ft, const struct geom_site *site,
 	ft->len = FAST_SEG_DAYS;
 	ft->seg = seg;
 	ft->n = n;
+	nc.valid = 0;
 	eraPom00(ft->eop.xp, ft->eop.yp,
 	    eraSp00(tt1, tt2 + from + 0.5 * (double)n * ft->len), ft->rpom);
 	for (size_t k = 0; k < n; k++) {
@@ -364,7 +399,8 @@ fast_track_init(struct fast_track *ft, const struct geom_site *site,
 		rc = fit_ut1(ft, a, a + ft->len, &seg[k]);
 		if (rc != ERRCODE_OK)
 			return rc;
-		fit_segment(ft, &fi, a, &seg[k], &prev_syn);
+		seg[k].era = eraEra00(tt1, tt2 + a - seg[k].dut[0][0]);
+		fit_segment(ft, &fi, a, &seg[k], &nc);
 	}
 	return ERRCODE_OK;
 }
@@ -405,7 +441,8 @@ static void
 c2i_xys(double x, double y, double s, double r[3][3])
 {
 	double z = sqrt(1.0 - x * x - y * y), a = 1.0 / (1.0 + z);
-	double q[3][3], cs = cos(s), ss = -sin(s);
+	/* |s| < 1e-6 rad over 1900-2100: cos and sin to 1e-19 by series. */
+	double q[3][3], cs = 1.0 - 0.5 * s * s, ss = -s * (1.0 - s * s / 6.0);
 
 	q[0][0] = 1.0 - a * x * x;
 	q[0][1] = -a * x * y;
@@ -434,7 +471,10 @@ orient(const struct fast_track *ft, const struct fast_seg *s, double t,
 	c2i_xys(cheb(s->ori[0], FAST_ORI_NODES, x),
 	    cheb(s->ori[1], FAST_ORI_NODES, x),
 	    cheb(s->ori[2], FAST_ORI_NODES, x), rc2i);
-	era = eraEra00(ft->base1, ft->base2 + t - seg_ut1(ft, s, t));
+	/* ERA at the segment's start plus the rotation since (IERS 2010
+	   eq. 5.15: 1.00273781191135448 turns a UT1 day). */
+	era = s->era + ERFA_D2PI * 1.00273781191135448 *
+	    ((t - (s->mid - 0.5 * ft->len)) - (seg_ut1(ft, s, t) - s->dut[0][0]));
 	ce = cos(era);
 	se = sin(era);
 	for (int j = 0; j < 3; j++) {	/* m = R3(era) rc2i */
@@ -474,7 +514,7 @@ fast_frame_at(const struct fast_track *ft, double t, unsigned need,
 	orient(ft, s, t, x, rc2i, f->rc2t);
 	for (int i = 0; i < 3; i++) {
 		f->moon_p[i] = cheb(s->moon[i], FAST_MOON_NC, x);
-		f->moon_v[i] = cheb(s->dmoon[i], FAST_MOON_NC, x) * dxdt;
+		f->moon_v[i] = cheb(s->dmoon[i], FAST_VEL_NC, x) * dxdt;
 		f->site_gcrs[i] = f->rc2t[0][i] * ft->site.itrs[0] +
 		    f->rc2t[1][i] * ft->site.itrs[1] +
 		    f->rc2t[2][i] * ft->site.itrs[2];
@@ -564,7 +604,7 @@ seg_synodic(const struct fast_seg *s, double x, double dxdt)
 
 	for (int i = 0; i < 3; i++) {
 		m[i] = cheb(s->moon[i], FAST_MOON_NC, x);
-		v[i] = cheb(s->dmoon[i], FAST_MOON_NC, x) * dxdt;
+		v[i] = cheb(s->dmoon[i], FAST_VEL_NC, x) * dxdt;
 	}
 	tau = vnorm(m) / GEOM_C;
 	for (int i = 0; i < 3; i++)

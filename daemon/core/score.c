@@ -193,7 +193,13 @@ static const double gl_w[4] = {
 };
 
 #define PART_PER_STEP 60.0	/* longest part: 60 step_s (2 h at 120 s) */
-#define LIT_SCAN_DAYS (10.0 / 1440.0)	/* lit-state scan: 10 min */
+/* The dark margin changes by at most ~0.55 deg/h (the Sun's motion over a
+   lunar site, 360 deg per synodic month; the Earth's shadow as seen from
+   the Moon about as fast): 1 deg/h bounds it, so a scan step of
+   margin / (1 deg/h) cannot step over a change (from 1 min to 2 h). */
+#define DARK_RATE (ERFA_DD2R * 24.0)	/* rad per day */
+#define SCAN_MIN (1.0 / 1440.0)
+#define SCAN_MAX (2.0 / 24.0)
 #define CUT_TOL (0.001 / ERFA_DAYSEC)	/* cuts refined to 1 ms */
 #define MAX_CUTS (SCORE_BINS_MAX + 64)
 
@@ -255,7 +261,8 @@ cmp_double(const void *pa, const void *pb)
 
 /*
  * Cuts of [start, end]: the ends, the phase-bin boundaries and the
- * target's lit/dark changes (scanned every LIT_SCAN_DAYS), sorted.
+ * target's lit/dark changes (scanned in steps its dark margin allows),
+ * sorted.
  * Returns their number; *nbins the bin boundaries among them.
  */
 static int
@@ -268,7 +275,7 @@ window_cuts(const struct score_params *p, const struct score_target *t,
 	struct cut_goal g = {p->tr, body, 0.0};
 	double s0 = window_track_synodic(p->tr, w->start);
 	double s1 = window_track_synodic(p->tr, w->end);
-	int n = 0, nscan;
+	int n = 0;
 	double ta, da;
 
 	cuts[n++] = w->start;
@@ -283,13 +290,11 @@ window_cuts(const struct score_params *p, const struct score_target *t,
 		cuts[n++] = r;
 		(*nbins)++;
 	}
-	nscan = (int)ceil((w->end - w->start) / LIT_SCAN_DAYS);
-	if (nscan < 1)
-		nscan = 1;
 	ta = w->start;
 	da = dark_goal(&g, ta);
-	for (int i = 1; i <= nscan && n < MAX_CUTS - 1; i++) {
-		double tb = w->start + (w->end - w->start) * i / nscan;
+	while (ta < w->end && n < MAX_CUTS - 1) {
+		double tb = fmin(w->end, ta + fmin(SCAN_MAX, fmax(SCAN_MIN,
+		    fabs(da) / DARK_RATE)));
 		double db = dark_goal(&g, tb), r;
 
 		if ((da > 0.0) != (db > 0.0)) {

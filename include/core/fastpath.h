@@ -27,8 +27,9 @@
  *            IAU 2000B nutation scaled as eraNut06a scales 2000A: within
  *            ~1 mas of eraPnm06a) and the equation of the origins, at
  *            FAST_ORI_NODES nodes; the Earth rotation angle is exact per
- *            instant (eraEra00 of UT1); polar motion constant (as the
- *            callers' EOP are)
+ *            instant (eraEra00 of UT1 at the segment's start plus the
+ *            IERS rate times the UT1 elapsed); polar motion constant (as
+ *            the callers' EOP are)
  *   Moon's   IAU 2009 pole and prime meridian angles (geom_lunar_angles)
  *   frame    at FAST_ORI_NODES
  *   synodic  geom_synodic_of's formula per instant on the fitted bodies,
@@ -52,6 +53,8 @@
 #define FAST_MOON_NODES 13		/* odd: the other fits use subsets */
 #define FAST_MOON_NC FAST_MOON_NODES
 #define FAST_ORI_NODES 7		/* every second Moon node */
+#define FAST_VEL_NC 8			/* terms of the Moon's velocity read
+					   (for the 1.3 s of light time) */
 #define FAST_SUN_NODES 3		/* both ends and the middle */
 #define FAST_SUN_NC (2 * FAST_SUN_NODES)
 
@@ -70,6 +73,7 @@ struct fast_seg {
 	double dut[2][2];	/* TT-UT1, days: value at the piece's start
 				   and slope, before and after step */
 	double step;		/* offset of a UT1 step inside, else > end */
+	double era;		/* Earth rotation angle at the start, rad */
 };
 
 struct fast_track {

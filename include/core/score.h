@@ -194,9 +194,10 @@ struct score_params {
  * Notes:
  *   1. The window is cut where the integrand is not smooth: at the bin
  *      boundaries of the synodic angle and where the target turns lit or
- *      dark (its dark margin, scanned every 10 min), each cut refined to
- *      1 ms by regula falsi.  Each piece, one bin and one lit state, is
- *      split into equal parts of at most 60 step_s (2 h by default), each
+ *      dark (its dark margin, scanned in steps too short for it to change
+ *      sign), each cut refined to 1 ms by regula falsi.  Each piece, one
+ *      bin and one lit state, is split into equal parts of at most
+ *      60 step_s (2 h by default), each
  *      integrated by 8-point Gauss-Legendre quadrature: the integrand is
  *      smooth there, so the error is far below the 1-s midpoint rule's
  *      (test_score compares against it).
