@@ -502,24 +502,25 @@ render_cov_xml_escape(struct mbuf *out, const char *s)
 #define SVG_LABEL_MIN_W 24.0	/* bin width that takes a count label */
 
 /* The two themes' inks.  Contrast against the ground (WCAG 2 formula),
-   the empty-bin ink highest of the marks: dark 8.3 (sparse 6.2, mean
-   5.4, bar edge 5.7), light 6.5 (sparse 4.0, mean 3.4, bar edge 3.7). */
+   the empty-bin ink highest of all marks (text aside): dark 8.3 (Moon
+   7.4, sparse 6.0, axis 5.8, bar edge 5.7, mean 5.4), light 8.2 (axis
+   4.8, sparse 4.0, bar edge 3.7, mean 3.4, Moon 3.1). */
 struct svg_ink {
-	const char *ground, *ink, *dim, *rule;
+	const char *ground, *ink, *dim, *rule, *axis;
 	const char *bar, *bar_edge, *sparse, *gap, *gap_band, *mean;
 	const char *lit, *unlit;	/* the Moon glyphs */
 };
 
 static const struct svg_ink svg_dark = {
-	"#1f1a16", "#e9e2d4", "#b3a998", "#4a3f36",
+	"#1f1a16", "#e9e2d4", "#b3a998", "#4a3f36", "#9e9584",
 	"#5f7d69", "#7d9c86", "#b8924e", "#ff9a70", "#3a1d14", "#7f93a6",
-	"#d8cfbf", "#1f1a16"
+	"#b3a998", "#1f1a16"
 };
 
 static const struct svg_ink svg_light = {
-	"#ffffff", "#1d2329", "#4d5760", "#c9ced2",
-	"#a9bfb0", "#6f8c79", "#9a7b2c", "#b3261e", "#fbe9e6", "#6f8fae",
-	"#ffffff", "#4d5760"
+	"#ffffff", "#1d2329", "#4d5760", "#c9ced2", "#6b747c",
+	"#a9bfb0", "#6f8c79", "#9a7b2c", "#9b1c14", "#fbe9e6", "#6f8fae",
+	"#ffffff", "#8a939b"
 };
 
 const char *
@@ -598,7 +599,7 @@ svg_moon(struct mbuf *out, const struct svg_ink *k, double x, double y,
 
 	mbuf_printf(out, "<circle cx=\"%.1f\" cy=\"%.1f\" r=\"%.1f\" "
 	    "fill=\"%s\" stroke=\"%s\" stroke-width=\"1.2\"/>", x, y, r,
-	    q == 2 ? k->lit : k->unlit, k->dim);
+	    q == 2 ? k->lit : k->unlit, k->axis);
 	if (q == 1 || q == 3)	/* the lit half: right waxing, left waning */
 		mbuf_printf(out, "<path fill=\"%s\" d=\"M%.1f %.1fA%.1f %.1f 0 0 "
 		    "%d %.1f %.1fZ\"/>", k->lit, x, y - r, r, r, q == 1 ? 1 : 0,
@@ -673,7 +674,7 @@ svg_axis(struct mbuf *out, const struct coverage_result *r,
 		for (int q = 0; q <= 4; q++)
 			svg_moon(out, k, svg_x(90.0 * q), SVG_PY0 - 12.0, q % 4);
 	mbuf_printf(out, "<path stroke=\"%s\" stroke-width=\"1.5\" "
-	    "d=\"M%.1f %.1fH%.1f\"/>\n", k->dim, SVG_X0, SVG_PY1, SVG_X1);
+	    "d=\"M%.1f %.1fH%.1f\"/>\n", k->axis, SVG_X0, SVG_PY1, SVG_X1);
 	for (int q = 0; q <= 4; q++) {
 		snprintf(buf, sizeof buf, "%d\xc2\xb0", 90 * q);
 		svg_text(out, svg_x(90.0 * q), SVG_PY1 + 34.0, q == 0 ? "start" :
@@ -765,8 +766,8 @@ svg_legend(struct mbuf *out, const struct coverage_result *r,
 {
 	char buf[80];
 
-	mbuf_printf(out, "<rect x=\"%.1f\" y=\"%.1f\" width=\"14\" "
-	    "height=\"16\" fill=\"url(#cov-gap)\" stroke=\"%s\" "
+	mbuf_printf(out, "<rect class=\"gap-mark key\" x=\"%.1f\" y=\"%.1f\" "
+	    "width=\"14\" height=\"16\" fill=\"url(#cov-gap)\" stroke=\"%s\" "
 	    "stroke-width=\"1.5\"/>\n", SVG_X0 - 36.0, y - 13.0, k->gap);
 	svg_cross(out, SVG_X0 - 10.0, y - 5.0, 5.0, k->gap, -1);
 	if (r->spec.min_count > 1)
