@@ -104,6 +104,12 @@ assert [labels[i] for i in range(12)] == d["pooled"]["counts"], labels
 assert root.find(ns + "title") is not None and root.find(ns + "desc") is not None
 EOF
 
+# --- the chart's palette: light by default, dark on request ------------
+grep -q 'class="theme-light"' "$tmp/cov.svg" || fail "the default chart is not light"
+"$bin" coverage --db "$db" --horizon 0 --theme dark --svg "$tmp/dark.svg"
+xmllint --noout "$tmp/dark.svg" || fail "dark SVG is not well-formed XML"
+grep -q 'class="theme-dark"' "$tmp/dark.svg" || fail "--theme dark is not dark"
+
 # --- the same bytes twice (no clock in the output without fill dates) ---
 "$bin" coverage --db "$db" --json --horizon 0 >"$tmp/a.json"
 "$bin" coverage --db "$db" --json --horizon 0 >"$tmp/b.json"
@@ -132,5 +138,7 @@ expect_usage "target" --db "$db" --target NOSUCH
 expect_usage "horizon" --db "$db" --horizon -5
 expect_usage "db" --db "$tmp/missing.db"
 expect_usage "db"
+expect_usage "--theme" --db "$db" --theme grey --svg "$tmp/x.svg"
+expect_usage "--theme" --db "$db" --theme dark
 "$bin" coverage --help | grep -q -- "--min-count" || fail "--help"
 echo "coverage_cli: ok"

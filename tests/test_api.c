@@ -956,6 +956,9 @@ test_api_coverage_same_bytes_as_cli(void **state)
 	assert_int_equal(get("/api/v1/coverage.svg?horizon=0&theme=dark", &r),
 	    200);
 	assert_non_null(strstr(r.body, "class=\"theme-dark\""));
+	snprintf(args, sizeof args, "coverage --db '%s' --horizon 0 --theme "
+	    "dark --svg -", dbpath);
+	assert_cli_prints(&r, args);
 	http_reply_free(&r);
 	assert_int_equal(get("/api/v1/coverage.svg?horizon=0", &r), 200);
 	assert_non_null(strstr(r.body, "class=\"theme-light\""));

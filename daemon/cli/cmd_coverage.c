@@ -40,7 +40,7 @@ option_error(const char *err)
 /* The options that are parameters of the shared query, by the names of
    covquery_param_set ('-' there is '_'). */
 static const char *const query_params[] = {"source", "since", "until",
-    "target", "station", "axis", "bins", "min-count", "horizon"};
+    "target", "station", "axis", "bins", "min-count", "horizon", "theme"};
 
 static int
 run(const struct cli_args *a)
@@ -58,6 +58,9 @@ run(const struct cli_args *a)
 	int st;
 	enum errcode rc;
 
+	if (cli_given(a, "theme") && svg_path == NULL)
+		return cli_usage_error("--theme: only with --svg (it is the "
+		    "chart's palette)");
 	covquery_params_init(&p);
 	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
 	    i++) {
@@ -135,6 +138,8 @@ static const struct cli_option options[] = {
 	    .help = "counts as CSV (RFC 4180)"},
 	{.name = "svg", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
 	    .help = "write the chart to FILE ('-' for stdout)"},
+	{.name = "theme", .kind = CLI_TEXT, .arg = "T",
+	    .help = "the chart's palette: light (default, for paper) or dark"},
 	CLI_OPT_END
 };
 
