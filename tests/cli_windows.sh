@@ -44,6 +44,17 @@ grep -q -- '--to' "$tmp/err" || fail "reversed span names --to"
 expect_usage_error windows --station "$st" --from 2027-01-01T00:00:00Z \
   --to 2047-01-01T00:00:00Z
 grep -q -- '--to' "$tmp/err" || fail "span of many years names --to"
+# The sentences of the windows query, as GET /api/v1/windows says them
+# (test_api) with the parameter named as the command line names it.
+expect_usage_error windows --station "$st" --target NOPE "${span[@]}"
+[ "$(cat "$tmp/err")" = "moonrange: error: --target: no active target 'NOPE'" ] ||
+  fail "unknown target: $(cat "$tmp/err")"
+expect_usage_error windows --station "$st" --days 0x10
+grep -q -- "--days: '0x10' is not a number of days above 0" "$tmp/err" ||
+  fail "hex days: $(cat "$tmp/err")"
+expect_usage_error phases --days 0x10
+grep -q -- "--days: '0x10' is not a number of days above 0" "$tmp/err" ||
+  fail "phases hex days: $(cat "$tmp/err")"
 expect_usage_error tonight --station "$st"
 expect_usage_error tonight --station "$st" --tz Mars/Olympus
 expect_usage_error windows --db "$tmp/missing.db"

@@ -407,6 +407,10 @@ test_api_bad_parameters(void **state)
 		{"/api/v1/phases?from=yesterday", "bad_time", "from"},
 		{"/api/v1/phases?days=-3", "bad_arg", "days"},
 		{"/api/v1/phases?days=ten", "bad_arg", "days"},
+		{"/api/v1/phases?days=0x10", "bad_arg", "days"},
+		{"/api/v1/windows?days=0x10", "bad_arg", "days"},
+		{"/api/v1/windows?limit=2.0", "bad_arg", "limit"},
+		{"/api/v1/windows?min_el=95", "bad_arg", "min_el"},
 		{"/api/v1/phases?to=2027-01-01T00:00:00Z&days=3", "bad_arg",
 		    "days"},
 		{"/api/v1/phases?from=2027-02-01T00:00:00Z"
@@ -1029,8 +1033,12 @@ test_api_windows_same_bytes_as_cli(void **state)
 	free(cli);
 	http_reply_free(&r);
 
+	/* The sentence of "windows --target NOPE" (cli_windows.sh), with
+	   the parameter named as the query string names it. */
 	get("/api/v1/windows?target=NOPE", &r);
 	assert_error(&r, 400, "bad_arg", "target");
+	assert_non_null(strstr(r.body, "\"target: no active target "
+	    "'NOPE'\""));
 	http_reply_free(&r);
 	get("/api/v1/windows?limit=0", &r);
 	assert_error(&r, 400, "bad_arg", "limit");

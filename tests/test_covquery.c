@@ -83,7 +83,7 @@ add_np(struct store *db, const char *target, const char *station,
 
 /* Pooled counts of a JSON report. */
 static json_t *
-run_json(struct store *db, const struct covquery_params *p)
+run_json(struct store *db, struct covquery_params *p)
 {
 	struct mbuf b;
 	json_error_t jerr;

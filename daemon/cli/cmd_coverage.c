@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "core/text.h"
 #include "query/covquery.h"
 #include "store/store.h"
 
@@ -26,15 +27,6 @@ write_file(const char *path, struct mbuf *b)
 	if (bad)
 		return cli_fail("--svg: cannot write '%s'", path);
 	return CLI_EXIT_OK;
-}
-
-/* A sentence "name: ..." from the shared query code, as "--option: ...". */
-static int
-option_error(const char *err)
-{
-	if (strncmp(err, "min_count", 9) == 0)
-		return cli_usage_error("--min-count%s", err + 9);
-	return cli_usage_error("--%s", err);
 }
 
 /* The options that are parameters of the shared query, by the names of
@@ -62,6 +54,7 @@ run(const struct cli_args *a)
 		return cli_usage_error("--theme: only with --svg (it is the "
 		    "chart's palette)");
 	covquery_params_init(&p);
+	p.style = QPARAM_OPTION;
 	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
 	    i++) {
 		const char *v = cli_text(a, query_params[i], NULL);
@@ -74,16 +67,16 @@ run(const struct cli_args *a)
 				*c = '_';
 		if (covquery_param_set(&p, name, v, err, sizeof err) !=
 		    ERRCODE_OK)
-			return option_error(err);
+			return cli_usage_error("%s", err);
 	}
-	if (coverage_spec_check(&p.spec, err, sizeof err) != ERRCODE_OK)
-		return option_error(err);
+	if (covquery_params_check(&p, err, sizeof err) != ERRCODE_OK)
+		return cli_usage_error("%s", err);
 	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')
 		cli_warn("--axis hour_angle: the hour angle is this station's; "
 		    "points of other stations are binned by it too (give "
 		    "--station CODE)");
 	cli_now(&u1, &u2);
-	p.now_mjd = (u1 - 2400000.5) + u2;
+	p.now_mjd = (u1 - TEXT_MJD0) + u2;
 
 	rc = store_open(db_path, STORE_OPEN_READONLY, &db, err, sizeof err);
 	if (rc != ERRCODE_OK)
@@ -97,7 +90,7 @@ run(const struct cli_args *a)
 	if (rc != ERRCODE_OK) {
 		mbuf_free(&out);
 		if (cli_status_of(rc) == CLI_EXIT_USAGE)
-			return err[0] ? option_error(err) :
+			return err[0] ? cli_usage_error("%s", err) :
 			    cli_usage_error("coverage: %s", errcode_str(rc));
 		return cli_fail("coverage: %s", err[0] ? err : errcode_str(rc));
 	}

@@ -11,6 +11,7 @@
 #include "core/plan.h"
 #include "core/text.h"
 #include "cli/plan_cli.h"
+#include "query/winquery.h"
 #include "formats/render_time.h"
 #include "formats/render_plan.h"
 
@@ -75,7 +76,9 @@ run(const struct cli_args *a)
 	double now1, now2, now, from, to;
 	int have_at = cli_time(a, "at", &now1, &now2);
 	int json = cli_given(a, "json"), st;
-	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, 12};
+	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, NULL};
+	struct winquery_params wp;
+	char err[256];
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
@@ -120,7 +123,15 @@ run(const struct cli_args *a)
 		q.from_mjd = from;
 		q.to_mjd = to;
 	}
-	q.limit = (size_t)o.limit;
+	winquery_params_init(&wp, QPARAM_OPTION, now);
+	wp.limit = 12;
+	if (o.limit != NULL && winquery_param_set(&wp, "limit", o.limit, err,
+	    sizeof err) != ERRCODE_OK) {
+		plan_db_free(&hold);
+		return cli_usage_error("%s", err);
+	}
+	wp.span.from_mjd = from;
+	wp.span.to_mjd = to;
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = tz;
@@ -129,7 +140,7 @@ run(const struct cli_args *a)
 	if (tscale_from_utc(TEXT_MJD0, now, 0.0, &ti) == ERRCODE_OK)
 		rp.now_synodic_deg = geom_synodic_at(ti.tt1, ti.tt2) *
 		    ERFA_DR2D;
-	return plan_cli_run(&q, &hold, &rp, json ? render_windows_json :
+	return plan_cli_run(&wp, &q, &hold, &rp, json ? render_windows_json :
 	    render_tonight_text);
 }
 

@@ -7,6 +7,7 @@
 #include "cli/cli.h"
 #include "core/plan.h"
 #include "cli/plan_cli.h"
+#include "query/winquery.h"
 #include "formats/render_time.h"
 #include "formats/render_plan.h"
 #include "core/text.h"
@@ -30,55 +31,48 @@ more(FILE *f)
 
 enum out_kind { OUT_TEXT, OUT_JSON, OUT_CSV, OUT_ICS };
 
+/* The query's parameters among the options (winquery_param_set). */
+static const char *const query_params[] = {
+	"from", "to", "days", "target", "limit", "min-el", "max-sun-el",
+	"min-sun-sep",
+};
+
 static int
 run(const struct cli_args *a)
 {
-	const char *target = cli_text(a, "target", NULL), *tz;
-	double f1 = 0, f2 = 0, t1 = 0, t2 = 0, days = cli_real(a, "days", 3.0);
-	double min_el = cli_real(a, "min-el", NAN);
-	double max_sun = cli_real(a, "max-sun-el", NAN);
-	double min_sep = cli_real(a, "min-sun-sep", NAN), now1, now2;
-	int have_from = cli_time(a, "from", &f1, &f2);
-	int have_to = cli_time(a, "to", &t1, &t2);
+	const char *tz;
+	double now1, now2;
 	int kind = cli_given(a, "json") ? OUT_JSON : cli_given(a, "csv") ?
 	    OUT_CSV : cli_given(a, "ics") ? OUT_ICS : OUT_TEXT, st;
-	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, 0};
+	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, NULL};
+	struct winquery_params wp;
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
+	char err[256], name[32];
 
 	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
 	cli_now(&now1, &now2);
-	if (!have_from) {
-		f1 = now1;
-		f2 = now2;
-	}
-	if (!have_to) {
-		t1 = f1;
-		t2 = f2 + days;
-	}
+	winquery_params_init(&wp, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
+	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
+	    i++) {
+		const char *v = cli_text(a, query_params[i], NULL);
 
-	if (!(((t1 - f1) + (t2 - f2)) > 0.0))
-		return cli_usage_error("--to: the span must end after --from "
-		    "(default now)");
-	if ((t1 - f1) + (t2 - f2) > WINDOW_MAX_SPAN_DAYS)
-		return cli_usage_error("--to: the span is longer than %.0f days",
-		    WINDOW_MAX_SPAN_DAYS);
+		if (v == NULL)
+			continue;
+		snprintf(name, sizeof name, "%s", query_params[i]);
+		for (char *c = name; *c; c++)
+			if (*c == '-')
+				*c = '_';
+		if (winquery_param_set(&wp, name, v, err, sizeof err) !=
+		    ERRCODE_OK)
+			return cli_usage_error("%s", err);
+	}
 
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)
 		return st;
-	if (isfinite(min_el))
-		q.station.min_el_deg = min_el;
-	if (isfinite(max_sun))
-		q.station.max_sun_el_deg = max_sun;
-	if (isfinite(min_sep))
-		q.station.min_sun_sep_deg = min_sep;
-	q.from_mjd = (f1 - TEXT_MJD0) + f2;
-	q.to_mjd = (t1 - TEXT_MJD0) + t2;
-	q.target = target;
-	q.limit = (size_t)o.limit;
 	tz = o.tz;
 	if (tz == NULL && q.station.time_zone[0] != '\0' &&
 	    render_zone_known(q.station.time_zone))
@@ -87,8 +81,8 @@ run(const struct cli_args *a)
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = tz;
-	rp.now_mjd = (now1 - TEXT_MJD0) + now2;
-	return plan_cli_run(&q, &hold, &rp, kind == OUT_JSON ?
+	rp.now_mjd = wp.now_mjd;
+	return plan_cli_run(&wp, &q, &hold, &rp, kind == OUT_JSON ?
 	    render_windows_json : kind == OUT_CSV ? render_windows_csv :
 	    kind == OUT_ICS ? render_windows_ics : render_windows_text);
 }
@@ -98,25 +92,20 @@ static const struct cli_option options[] = {
 	    "from a moonrange database"),
 	PLAN_CLI_OPT_STATION("an ad-hoc station (deg, deg east, m): plans "
 	    "the Moon's centre as target \"moon\" with the limits below"),
-	{.name = "from", .kind = CLI_TIME, .arg = "UTC",
+	{.name = "from", .kind = CLI_TEXT, .arg = "UTC",
 	    .help = "start, ISO 8601 with Z (default: now)"},
-	{.name = "to", .kind = CLI_TIME, .arg = "UTC", .group = 2,
+	{.name = "to", .kind = CLI_TEXT, .arg = "UTC", .group = 2,
 	    .help = "end (default: --days after the start)"},
-	{.name = "days", .kind = CLI_REAL, .arg = "N", .min = 0,
-	    .max = WINDOW_MAX_SPAN_DAYS, .unit = "days", .group = 2,
-	    .flags = CLI_ABOVE_MIN,
+	{.name = "days", .kind = CLI_TEXT, .arg = "N", .group = 2,
 	    .help = "span in days (default 3, at most 3660)"},
 	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
 	    .help = "only this target"},
 	PLAN_CLI_OPT_LIMIT("the best N windows (default: all)"),
-	{.name = "min-el", .kind = CLI_REAL, .arg = "DEG", .min = -5,
-	    .max = 89, .unit = "degrees",
+	{.name = "min-el", .kind = CLI_TEXT, .arg = "DEG",
 	    .help = "override the minimum target elevation (-5..89)"},
-	{.name = "max-sun-el", .kind = CLI_REAL, .arg = "DEG", .min = -90,
-	    .max = 90, .unit = "degrees",
+	{.name = "max-sun-el", .kind = CLI_TEXT, .arg = "DEG",
 	    .help = "override the maximum Sun elevation"},
-	{.name = "min-sun-sep", .kind = CLI_REAL, .arg = "DEG", .min = 0,
-	    .max = 180, .unit = "degrees",
+	{.name = "min-sun-sep", .kind = CLI_TEXT, .arg = "DEG",
 	    .help = "override the minimum Sun-Moon separation (0..180)"},
 	PLAN_CLI_OPT_TZ("IANA zone for local times (default: the "
 	    "station's)"),

@@ -11,7 +11,7 @@ plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o)
 
 	o->db = cli_text(a, "db", NULL);
 	o->tz = cli_text(a, "tz", NULL);
-	o->limit = cli_whole(a, "limit", o->limit);
+	o->limit = cli_text(a, "limit", NULL);
 	o->have_station = cli_given(a, "station");
 	if (o->have_station && cli_parse_station(cli_text(a, "station", NULL),
 	    &o->lat, &o->lon, &o->h, err, sizeof err) != ERRCODE_OK)
@@ -46,8 +46,8 @@ plan_cli_load(const char *db, double lat, double lon, double h,
 }
 
 int
-plan_cli_run(const struct plan_query *q, struct plan_db *hold,
-    struct render_plan *rp, winquery_render_fn fn)
+plan_cli_run(struct winquery_params *p, struct plan_query *q,
+    struct plan_db *hold, struct render_plan *rp, winquery_render_fn fn)
 {
 	struct mbuf out;
 	char err[256];
@@ -55,7 +55,10 @@ plan_cli_run(const struct plan_query *q, struct plan_db *hold,
 	int st;
 
 	mbuf_init(&out);
-	rc = winquery_render(q, rp, fn, &out, NULL, err, sizeof err);
+	rc = winquery_apply(p, q, err, sizeof err);
+	if (rc == ERRCODE_OK)
+		rc = winquery_render(p, q, rp, fn, &out, NULL, err,
+		    sizeof err);
 	plan_db_free(hold);
 	if (rc != ERRCODE_OK) {
 		mbuf_free(&out);

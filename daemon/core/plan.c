@@ -12,6 +12,7 @@
 #include "core/eop.h"
 #include "core/mem.h"
 #include "core/plan.h"
+#include "core/text.h"
 #include "core/window.h"
 
 #define MJD0 2400000.5
@@ -55,24 +56,6 @@ plan_phase_label(double deg)
 	if (a < 0)
 		a += 360.0;
 	return names[(int)floor((a + 22.5) / 45.0) % 8];
-}
-
-static enum errcode
-fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
-    MEM_PRINTFLIKE(4, 5);
-
-/* Write a sentence into errbuf (may be NULL) and return rc. */
-static enum errcode
-fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
-{
-	va_list ap;
-
-	if (errbuf != NULL && errlen > 0) {
-		va_start(ap, fmt);
-		vsnprintf(errbuf, errlen, fmt, ap);
-		va_end(ap);
-	}
-	return rc;
 }
 
 /* Copy a target id (both SITE_ID_LEN). */
@@ -245,26 +228,26 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 
 	memset(out, 0, sizeof *out);
 	if (score_settings_check(&q->settings, &field) != ERRCODE_OK)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "setting %s is out of range", field);
 	if (!isfinite(st->min_el_deg) || st->min_el_deg < -5 ||
 	    st->min_el_deg > 89)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be a number of degrees in -5..89", "min_el");
 	if (!isfinite(st->max_sun_el_deg) || st->max_sun_el_deg < -90 ||
 	    st->max_sun_el_deg > 90)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be a number of degrees in -90..90", "max_sun_el");
 	if (!isfinite(st->min_sun_sep_deg) || st->min_sun_sep_deg < 0 ||
 	    st->min_sun_sep_deg > 180)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be a number of degrees in 0..180", "min_sun_sep");
 	if (!isfinite(st->zenith_tau) || st->zenith_tau < 0 ||
 	    st->zenith_tau > 5)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be in 0..5", "zenith_tau");
 	if (!(st->fire_rate_hz > 0) || st->fire_rate_hz > 1e6)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be in 0..1e6 shots per second", "fire_rate_hz");
 
 	/* Standard weather for what the station does not say. */
@@ -279,7 +262,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	if (!isfinite(sw_st.wavelength_nm))
 		sw_st.wavelength_nm = wx.wavelength_um * 1000.0;
 	if (derive_site(&sw_st, &site) != ERRCODE_OK)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: latitude, longitude, height or weather out of range",
 		    "station");
 
@@ -291,13 +274,13 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		    strcmp(q->target, t->id) != 0))
 			continue;
 		if (nt == WINDOW_MAX_TARGETS)
-			return fail(errbuf, errlen, ERRCODE_TOO_LARGE,
+			return text_err(ERRCODE_TOO_LARGE, errbuf, errlen,
 			    "targets: more than %d active targets",
 			    WINDOW_MAX_TARGETS);
 		if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
 		    t->lon_deg * ERFA_DD2R, t->height_m, &bodies[nt]) !=
 		    ERRCODE_OK)
-			return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+			return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 			    "target %s: selenographic position out of range",
 			    t->id);
 		tg[nt] = *t;
@@ -312,8 +295,8 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 			any |= q->targets[i].active;
 		if (q->target != NULL && (any ||
 		    strcmp(q->target, PLAN_MOON_ID) != 0))
-			return fail(errbuf, errlen, ERRCODE_NOT_FOUND,
-			    "--target: no active target '%s'", q->target);
+			return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
+			    "target: no active target '%s'", q->target);
 		memset(&tg[0], 0, sizeof tg[0]);
 		snprintf(tg[0].id, sizeof tg[0].id, "%s", PLAN_MOON_ID);
 		snprintf(tg[0].name, sizeof tg[0].name, "Moon (centre)");
@@ -327,7 +310,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	/* Span and track. */
 	if (!isfinite(q->from_mjd) || !isfinite(q->to_mjd) ||
 	    !(q->to_mjd > q->from_mjd))
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: the span must end after it starts", "to");
 	/* Earth orientation: the table at the span's middle, else as given. */
 	eop = q->eop;
@@ -345,11 +328,11 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	}
 	if (tscale_from_utc(MJD0, q->from_mjd, eop.dut1, &a) != ERRCODE_OK ||
 	    tscale_from_utc(MJD0, q->to_mjd, eop.dut1, &b) != ERRCODE_OK)
-		return fail(errbuf, errlen, ERRCODE_BAD_TIME,
+		return text_err(ERRCODE_BAD_TIME, errbuf, errlen,
 		    "%s: outside the convertible range", "from/to");
 	span = tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) / ERFA_DAYSEC;
 	if (span > WINDOW_MAX_SPAN_DAYS)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "to: span longer than %.0f days",
 		    WINDOW_MAX_SPAN_DAYS);
 	nn = window_track_nodes(span);
@@ -366,7 +349,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	rc = window_track_init(&tr, &site, &eop, a.tt1, a.tt2, span, nodes,
 	    nn);
 	if (rc != ERRCODE_OK) {
-		fail(errbuf, errlen, rc, "%s: cannot tabulate the span",
+		text_err(rc, errbuf, errlen, "%s: cannot tabulate the span",
 		    "from/to");
 		goto out;
 	}
@@ -411,7 +394,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	rc = fit_all(q, tg, nt, yield, &out->model);
 	if (rc != ERRCODE_OK) {
 		if (rc == ERRCODE_BAD_ARG)
-			fail(errbuf, errlen, rc, "%s: a target strength is "
+			text_err(rc, errbuf, errlen, "%s: a target strength is "
 			    "not positive", "targets");
 		goto out;
 	}
@@ -442,7 +425,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		cap = nw;
 	}
 	if (rc != ERRCODE_OK) {
-		fail(errbuf, errlen, rc, "%s: too many windows; shorten the "
+		text_err(rc, errbuf, errlen, "%s: too many windows; shorten the "
 		    "span", "to");
 		goto out;
 	}

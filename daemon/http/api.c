@@ -14,6 +14,8 @@
 
 #include "http/api.h"
 #include "http/api_int.h"
+#include "core/text.h"
+#include "query/phquery.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
 #include "core/derive.h"
@@ -228,37 +230,18 @@ api_param_time(const struct api_request *req, const char *key, double *u1,
 }
 
 int
-api_param_number(const struct api_request *req, const char *key, double min,
-    double max, double *out, struct api_response *resp)
+api_param_count(const struct api_request *req, const char *key, long min,
+    long max, size_t *out, struct api_response *resp)
 {
 	const char *v = api_param(req, key);
-	char msg[200], *end;
-	double x;
+	char msg[200];
+	long x;
 
-	x = strtod(v, &end);
-	if (*v == '\0' || *end != '\0' || !isfinite(x) || x < min || x > max) {
-		snprintf(msg, sizeof msg, "%s: '%.40s' is not a number in "
-		    "%g..%g", key, v, min, max);
-		api_error(resp, ERRCODE_BAD_ARG, key, msg);
-		return -1;
-	}
-	*out = x;
-	return 0;
-}
-
-int
-api_param_count(const struct api_request *req, const char *key, double min,
-    double max, size_t *out, struct api_response *resp)
-{
-	char msg[120];
-	double x;
-
-	if (api_param(req, key) == NULL)
+	if (v == NULL)
 		return 0;
-	if (api_param_number(req, key, min, max, &x, resp))
-		return -1;
-	if (x != floor(x)) {
-		snprintf(msg, sizeof msg, "%s: must be a whole number", key);
+	if (text_parse_long(v, min, max, &x) != ERRCODE_OK) {
+		text_err(ERRCODE_BAD_ARG, msg, sizeof msg, "%s: '%.40s' is not "
+		    "a whole number in %ld..%ld", key, v, min, max);
 		api_error(resp, ERRCODE_BAD_ARG, key, msg);
 		return -1;
 	}
@@ -266,54 +249,15 @@ api_param_count(const struct api_request *req, const char *key, double min,
 	return 0;
 }
 
-int
-api_param_span(const struct api_request *req, double defdays, double maxdays,
-    double *f1,
-    double *f2, double *t1, double *t2, struct tscale_instant *a,
-    struct tscale_instant *b, struct api_response *resp)
+void
+api_query_error(struct api_response *resp, enum errcode rc,
+    const char *fault, const char *err)
 {
-	double days = defdays, span;
-
-	*f1 = req->now1;
-	*f2 = req->now2;
-	if (api_param(req, "from") && api_param_time(req, "from", f1, f2, resp))
-		return -1;
-	if (api_param(req, "days") && api_param_number(req, "days", 0.0,
-	    maxdays, &days, resp))
-		return -1;
-	if (api_param(req, "to") != NULL) {
-		if (api_param(req, "days") != NULL) {
-			api_error(resp, ERRCODE_BAD_ARG, "days",
-			    "to and days: give one, not both");
-			return -1;
-		}
-		if (api_param_time(req, "to", t1, t2, resp))
-			return -1;
-	} else {
-		*t1 = *f1;
-		*t2 = *f2 + days;
-	}
-	if (tscale_from_utc(*f1, *f2, 0.0, a) != ERRCODE_OK ||
-	    tscale_from_utc(*t1, *t2, 0.0, b) != ERRCODE_OK) {
-		api_error(resp, ERRCODE_BAD_TIME, "from",
-		    "from/to: outside the convertible range");
-		return -1;
-	}
-	span = tscale_tt_diff(a->tt1, a->tt2, b->tt1, b->tt2);
-	if (span < 0) {
-		api_error(resp, ERRCODE_BAD_ARG, "to",
-		    "to: must not be before from");
-		return -1;
-	}
-	if (span > maxdays * 86400.0) {
-		char msg[80];
-
-		snprintf(msg, sizeof msg, "to: span longer than %.0f days",
-		    maxdays);
-		api_error(resp, ERRCODE_BAD_ARG, "to", msg);
-		return -1;
-	}
-	return 0;
+	if (fault != NULL && (rc == ERRCODE_NOT_FOUND ||
+	    rc == ERRCODE_TOO_LARGE))
+		rc = ERRCODE_BAD_ARG;	/* the client's parameter */
+	api_error(resp, rc, fault, err != NULL && err[0] != '\0' ? err :
+	    NULL);
 }
 
 /* --- the database of a request --- */
@@ -422,12 +366,12 @@ static const struct route routes[] = {
 	{{"GET", "/api/v1/now", "at",
 	    "Moon, Sun and each active target at an instant (default now)"},
 	    api_h_now, 0},
-	{{"GET", "/api/v1/phases", "from,to,days",
+	{{"GET", "/api/v1/phases", PHQUERY_PARAMS,
 	    "new moon, quarters and full moon in a span"}, api_h_phases, 1},
-	{{"GET", "/api/v1/windows", "from,to,days,target,limit",
+	{{"GET", "/api/v1/windows", WINQUERY_PARAMS,
 	    "ranked observing windows (no parameters: the cached plan)"},
 	    api_h_windows, 1},
-	{{"GET", "/api/v1/windows.ics", "from,to,days,target,limit",
+	{{"GET", "/api/v1/windows.ics", WINQUERY_PARAMS,
 	    "the windows as iCalendar (RFC 5545)"}, api_h_windows_ics, 1},
 	{{"GET", "/api/v1/coverage", COVERAGE_PARAMS,
 	    "phase-coverage audit as JSON (the CLI's coverage --json)"},

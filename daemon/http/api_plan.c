@@ -13,6 +13,8 @@
 
 #include "http/api.h"
 #include "http/api_int.h"
+#include "core/text.h"
+#include "query/phquery.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
 #include "core/derive.h"
@@ -31,31 +33,25 @@ void
 api_h_phases(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
-	struct geom_phase_event *ev;
-	struct tscale_instant a, b;
-	struct render_phases rp;
-	size_t n = 0;
+	struct phquery_params p;
+	char err[300];
 	enum errcode rc;
 
 	(void)ctx;
-	memset(&rp, 0, sizeof rp);
-	if (api_param_span(req, 30.0, SPAN_MAX_DAYS, &rp.from1, &rp.from2,
-	    &rp.to1, &rp.to2, &a,
-	    &b, resp))
-		return;
-	ev = mem_calloc(PHASES_CAP, sizeof *ev);
-	if (ev == NULL) {
-		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
-		return;
-	}
-	rc = geom_phases_find(a.tt1, a.tt2, b.tt1, b.tt2, ev, PHASES_CAP, &n);
-	if (rc == ERRCODE_OK) {
-		rp.ev = ev;
-		rp.n = n;
-		rc = render_phases_json(&rp, &resp->body);
-	}
-	api_ok_or_error(resp, rc, 200, "application/json");
-	mem_free(ev);
+	phquery_params_init(&p, QPARAM_QUERY, (req->now1 - TEXT_MJD0) +
+	    req->now2);
+	err[0] = '\0';
+	rc = ERRCODE_OK;
+	for (size_t i = 0; i < req->nparams && rc == ERRCODE_OK; i++)
+		rc = phquery_param_set(&p, req->params[i].key,
+		    req->params[i].value, err, sizeof err);
+	if (rc == ERRCODE_OK)
+		rc = phquery_run(&p, PHQUERY_JSON, NULL, &resp->body, err,
+		    sizeof err);
+	if (rc != ERRCODE_OK)
+		api_query_error(resp, rc, p.fault, err);
+	else
+		api_ok_or_error(resp, rc, 200, "application/json");
 }
 
 /*
@@ -84,13 +80,12 @@ cache_or_compute(struct api_ctx *ctx, const struct mbuf *cache, int want,
 }
 
 /*
- * Ranked windows of [from, to) from the open database, rendered as JSON
- * or iCalendar: the planner's query filled by plan_db_fill, then run and
+ * Ranked windows from the open database, rendered as JSON or iCalendar:
+ * the planner's query filled by plan_db_fill, p applied, then run and
  * rendered by winquery_render, as "moonrange windows" does.
  */
 static enum errcode
-windows_render(struct store *db, double from_mjd, double to_mjd,
-    const char *target, size_t limit, int ics, double now_mjd,
+windows_render(struct store *db, struct winquery_params *p, int ics,
     struct mbuf *out, size_t *nwindows, char *err, size_t errlen)
 {
 	struct plan_query q;
@@ -101,18 +96,16 @@ windows_render(struct store *db, double from_mjd, double to_mjd,
 	plan_query_init(&q);
 	plan_db_init(&hold);
 	rc = plan_db_fill(db, &q, &hold, err, errlen);
+	if (rc == ERRCODE_OK)
+		rc = winquery_apply(p, &q, err, errlen);
 	if (rc != ERRCODE_OK)
 		goto out;
-	q.from_mjd = from_mjd;
-	q.to_mjd = to_mjd;
-	q.target = target;
-	q.limit = limit;
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
 	rp.time_zone = q.station.time_zone[0] != '\0' &&
 	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
-	rp.now_mjd = now_mjd;
-	rc = winquery_render(&q, &rp, ics ? render_windows_ics :
+	rp.now_mjd = p->now_mjd;
+	rc = winquery_render(p, &q, &rp, ics ? render_windows_ics :
 	    render_windows_json, out, nwindows, err, errlen);
 out:
 	plan_db_free(&hold);
@@ -123,41 +116,33 @@ static void
 windows_common(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp, int ics)
 {
-	struct tscale_instant a, b;
+	struct winquery_params p;
 	struct store *db;
-	double f1, f2, t1, t2;
-	size_t limit = 0;
 	char err[300];
 	int locked;
-	enum errcode rc;
+	enum errcode rc = ERRCODE_OK;
 
 	if (cache_or_compute(ctx, &ctx->plan_windows, !ics &&
 	    req->nparams == 0, resp) != 2)
 		return;
-	if (api_param_span(req, WINDOWS_DAYS_DEFAULT, WINDOWS_DAYS_MAX, &f1,
-	    &f2,
-	    &t1, &t2, &a, &b, resp))
-		return;
-	if (api_param_count(req, "limit", 1, PLAN_MAX_WINDOWS, &limit, resp))
-		return;
+	winquery_params_init(&p, QPARAM_QUERY, (req->now1 - TEXT_MJD0) +
+	    req->now2);
 	err[0] = '\0';
-	db = api_read_store(ctx, &locked);
-	rc = windows_render(db, (f1 - ERFA_DJM0) + f2,
-	    (t1 - ERFA_DJM0) + t2, api_param(req, "target"), limit, ics,
-	    (req->now1 - ERFA_DJM0) + req->now2, &resp->body, NULL, err,
-	    sizeof err);
-	api_release_store(ctx, db, locked);
-	if (rc == ERRCODE_OK)
+	for (size_t i = 0; i < req->nparams && rc == ERRCODE_OK; i++)
+		rc = winquery_param_set(&p, req->params[i].key,
+		    req->params[i].value, err, sizeof err);
+	if (rc == ERRCODE_OK) {
+		db = api_read_store(ctx, &locked);
+		rc = windows_render(db, &p, ics, &resp->body, NULL, err,
+		    sizeof err);
+		api_release_store(ctx, db, locked);
+	}
+	if (rc != ERRCODE_OK)
+		api_query_error(resp, rc, p.fault, err);
+	else
 		api_ok_or_error(resp, rc, 200,
 		    ics ? "text/calendar; charset=utf-8" :
 		    "application/json");
-	else if (rc == ERRCODE_NOT_FOUND)	/* the target */
-		api_error(resp, ERRCODE_BAD_ARG, "target", err[0] ? err : NULL);
-	else if (rc == ERRCODE_TOO_LARGE)	/* the span's windows */
-		api_error(resp, ERRCODE_BAD_ARG, "to", err[0] ? err :
-		    "too many windows: shorten the span or set a limit");
-	else
-		api_error(resp, rc, NULL, err[0] ? err : NULL);
 }
 
 void
@@ -194,21 +179,17 @@ coverage_common(struct api_ctx *ctx, const struct api_request *req,
 		rc = covquery_param_set(&p, req->params[i].key,
 		    req->params[i].value, err, sizeof err);
 		if (rc != ERRCODE_OK) {
-			api_error(resp, rc == ERRCODE_NOT_FOUND ?
-			    ERRCODE_BAD_ARG : rc, req->params[i].key,
-			    err[0] ? err : NULL);
+			api_query_error(resp, rc, req->params[i].key, err);
 			return;
 		}
 	}
-	p.now_mjd = (req->now1 - ERFA_DJM0) + req->now2;
+	p.now_mjd = (req->now1 - TEXT_MJD0) + req->now2;
 	err[0] = '\0';
 	db = api_read_store(ctx, &locked);
 	rc = covquery_run(db, &p, fmt, &resp->body, err, sizeof err);
 	api_release_store(ctx, db, locked);
 	if (rc != ERRCODE_OK) {
-		api_error(resp, rc == ERRCODE_NOT_FOUND ? ERRCODE_BAD_ARG : rc,
-		    rc == ERRCODE_NOT_FOUND ? "target" : NULL,
-		    err[0] ? err : NULL);
+		api_query_error(resp, rc, p.fault, err);
 		return;
 	}
 	api_ok_or_error(resp, rc, 200, ctype);
@@ -245,7 +226,7 @@ api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
 	struct covquery_params p;
 	struct store *db;
 	struct mbuf w, c;
-	double now_mjd = (now1 - ERFA_DJM0) + now2, days;
+	double now_mjd = (now1 - TEXT_MJD0) + now2, days;
 	size_t n = 0;
 	int locked;
 	enum errcode rc;
@@ -267,8 +248,12 @@ api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,
 	rc = store_settings_get(db, &set, errbuf, errlen);
 	if (rc == ERRCODE_OK) {
 		days = ctx->plan_days > 0 ? ctx->plan_days : set.plan_days;
-		rc = windows_render(db, now_mjd, now_mjd + days, NULL, 0, 0,
-		    now_mjd, &w, &n, errbuf, errlen);
+		struct winquery_params wp;
+
+		winquery_params_init(&wp, QPARAM_QUERY, now_mjd);
+		wp.span.from_mjd = now_mjd;
+		wp.span.to_mjd = now_mjd + days;
+		rc = windows_render(db, &wp, 0, &w, &n, errbuf, errlen);
 	}
 	if (rc == ERRCODE_OK) {
 		covquery_params_init(&p);

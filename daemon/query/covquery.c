@@ -8,14 +8,13 @@
 
 #include <erfam.h>
 
+#include "core/text.h"
 #include "query/covquery.h"
 #include "core/plan.h"
 #include "store/plan_db.h"
 #include "formats/render_cov.h"
 #include "store/store.h"
 #include "core/tscale.h"
-
-#define MJD0 2400000.5
 
 void
 covquery_params_init(struct covquery_params *p)
@@ -40,46 +39,29 @@ valid_word(const char *s, size_t max)
 	return 1;
 }
 
+/* A bad value: the sentence names the parameter as the transport does. */
 static enum errcode
-bad(char *errbuf, size_t errlen, const char *name, const char *value,
-    const char *want)
+bad(struct covquery_params *p, char *errbuf, size_t errlen,
+    const char *name, const char *value, const char *want)
 {
-	if (errbuf != NULL && errlen > 0)
-		snprintf(errbuf, errlen, "%s: '%.60s' %s", name, value, want);
-	return ERRCODE_BAD_ARG;
+	p->fault = name;
+	return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: '%.60s' %s",
+	    qparam_name(p->style, name).s, value, want);
 }
 
 static enum errcode
-parse_mjd(const char *name, const char *value, double *mjd, char *errbuf,
-    size_t errlen)
+parse_mjd(struct covquery_params *p, const char *name, const char *value,
+    double *mjd, char *errbuf, size_t errlen)
 {
 	char err[160];
 	double u1, u2;
 
 	if (tscale_parse_utc(value, &u1, &u2, err, sizeof err) != ERRCODE_OK) {
-		if (errbuf != NULL && errlen > 0)
-			snprintf(errbuf, errlen, "%s: %s", name, err);
-		return ERRCODE_BAD_ARG;
+		p->fault = name;
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: %s",
+		    qparam_name(p->style, name).s, err);
 	}
-	*mjd = (u1 - MJD0) + u2;
-	return ERRCODE_OK;
-}
-
-static enum errcode
-parse_whole(const char *s, long min, long max, long *out)
-{
-	long v = 0;
-
-	if (*s == '\0' || strlen(s) > 10)
-		return ERRCODE_BAD_ARG;
-	for (const char *c = s; *c; c++) {
-		if (!isdigit((unsigned char)*c))
-			return ERRCODE_BAD_ARG;
-		v = v * 10 + (*c - '0');
-	}
-	if (v < min || v > max)
-		return ERRCODE_BAD_ARG;
-	*out = v;
+	*mjd = (u1 - TEXT_MJD0) + u2;
 	return ERRCODE_OK;
 }
 
@@ -93,57 +75,76 @@ covquery_param_set(struct covquery_params *p, const char *name,
 
 	if (value == NULL)
 		value = "";
+	p->fault = NULL;
 	if (strcmp(name, "source") == 0) {
 		if ((k = coverage_source_parse(value)) < 0)
-			return bad(errbuf, errlen, name, value,
+			return bad(p, errbuf, errlen, name, value,
 			    "is not normal_points or attempts");
 		s->source = (enum coverage_source)k;
 	} else if (strcmp(name, "axis") == 0) {
 		if ((k = coverage_axis_parse(value)) < 0)
-			return bad(errbuf, errlen, name, value, "is not synodic, "
+			return bad(p, errbuf, errlen, name, value, "is not synodic, "
 			    "anomaly, latitude or hour_angle");
 		s->axis = (enum coverage_axis)k;
 	} else if (strcmp(name, "bins") == 0) {
-		if (parse_whole(value, COVERAGE_BINS_MIN, COVERAGE_BINS_MAX, &v))
-			return bad(errbuf, errlen, name, value,
+		if (text_parse_long(value, COVERAGE_BINS_MIN, COVERAGE_BINS_MAX,
+		    &v))
+			return bad(p, errbuf, errlen, name, value,
 			    "is not a whole number in 4..72");
 		s->nbins = (int)v;
 	} else if (strcmp(name, "min_count") == 0) {
-		if (parse_whole(value, 1, 1000000000L, &v))
-			return bad(errbuf, errlen, name, value,
+		if (text_parse_long(value, 1, 1000000000L, &v))
+			return bad(p, errbuf, errlen, name, value,
 			    "is not a whole number >= 1");
 		s->min_count = v;
 	} else if (strcmp(name, "since") == 0) {
-		return parse_mjd(name, value, &s->since_mjd, errbuf, errlen);
+		return parse_mjd(p, name, value, &s->since_mjd, errbuf,
+		    errlen);
 	} else if (strcmp(name, "until") == 0) {
-		return parse_mjd(name, value, &s->until_mjd, errbuf, errlen);
+		return parse_mjd(p, name, value, &s->until_mjd, errbuf,
+		    errlen);
 	} else if (strcmp(name, "target") == 0) {
 		if (!valid_word(value, sizeof s->target))
-			return bad(errbuf, errlen, name, value, "is not a target "
+			return bad(p, errbuf, errlen, name, value, "is not a target "
 			    "id (1-32 letters, digits, '_', '-', '.')");
 		snprintf(s->target, sizeof s->target, "%s", value);
 	} else if (strcmp(name, "station") == 0) {
 		if (!valid_word(value, sizeof s->station))
-			return bad(errbuf, errlen, name, value,
+			return bad(p, errbuf, errlen, name, value,
 			    "is not a station code (1-15 letters or digits)");
 		snprintf(s->station, sizeof s->station, "%s", value);
 	} else if (strcmp(name, "horizon") == 0) {
-		if (parse_whole(value, 0, (long)COVQUERY_HORIZON_MAX, &v))
-			return bad(errbuf, errlen, name, value,
+		if (text_parse_long(value, 0, (long)COVQUERY_HORIZON_MAX, &v))
+			return bad(p, errbuf, errlen, name, value,
 			    "is not a whole number of days in 0..366");
 		p->horizon_days = (double)v;
 	} else if (strcmp(name, "theme") == 0) {
 		if ((k = render_cov_theme_parse(value)) < 0)
-			return bad(errbuf, errlen, name, value,
+			return bad(p, errbuf, errlen, name, value,
 			    "is not light or dark");
 		p->theme = (enum render_cov_theme)k;
 	} else {
-		if (errbuf != NULL && errlen > 0)
-			snprintf(errbuf, errlen, "unknown parameter '%.40s'",
-			    name);
-		return ERRCODE_NOT_FOUND;
+		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
+		    "unknown parameter '%.40s'", name);
 	}
 	return ERRCODE_OK;
+}
+
+enum errcode
+covquery_params_check(struct covquery_params *p, char *errbuf,
+    size_t errlen)
+{
+	const struct coverage_spec *s = &p->spec;
+
+	p->fault = NULL;
+	if (!isnan(s->since_mjd) && !isnan(s->until_mjd) &&
+	    !(s->until_mjd > s->since_mjd)) {
+		p->fault = "until";
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: must be "
+		    "after %s", qparam_name(p->style, "until").s,
+		    qparam_name(p->style, "since").s);
+	}
+	return coverage_spec_check(s, errbuf, errlen);
 }
 
 /* The station as the geometry core wants it. */
@@ -215,7 +216,7 @@ out:
 }
 
 enum errcode
-covquery_run(struct store *db, const struct covquery_params *p,
+covquery_run(struct store *db, struct covquery_params *p,
     enum covquery_format fmt, struct mbuf *out, char *errbuf,
     size_t errlen)
 {
@@ -233,7 +234,7 @@ covquery_run(struct store *db, const struct covquery_params *p,
 	enum errcode rc_;
 	size_t nnp = 0, natt = 0;
 
-	if ((rc_ = coverage_spec_check(&spec, errbuf, errlen)) != ERRCODE_OK)
+	if ((rc_ = covquery_params_check(p, errbuf, errlen)) != ERRCODE_OK)
 		return rc_;
 	rc_ = store_station_get(db, &st, errbuf, errlen);
 	if (rc_ != ERRCODE_OK && rc_ != ERRCODE_NOT_FOUND)
@@ -246,18 +247,18 @@ covquery_run(struct store *db, const struct covquery_params *p,
 			have_station = 0;
 	}
 	if (!have_station && spec.axis == COVERAGE_AXIS_HOUR_ANGLE) {
-		if (errbuf != NULL && errlen > 0)
-			snprintf(errbuf, errlen, "axis: hour_angle needs the "
-			    "station in the database (moonrange init)");
-		return ERRCODE_BAD_ARG;
+		p->fault = "axis";
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: "
+		    "hour_angle needs the station in the database (moonrange "
+		    "init)", qparam_name(p->style, "axis").s);
 	}
 	if (spec.target[0] != '\0') {
 		rc_ = store_target_get(db, spec.target, &tg, NULL, 0);
 		if (rc_ == ERRCODE_NOT_FOUND) {
-			if (errbuf != NULL && errlen > 0)
-				snprintf(errbuf, errlen, "target: no target "
-				    "'%s' in the database", spec.target);
-			return rc_;
+			p->fault = "target";
+			return text_err(rc_, errbuf, errlen, "%s: no target "
+			    "'%s' in the database", qparam_name(p->style,
+			    "target").s, spec.target);
 		}
 		if (rc_ != ERRCODE_OK)
 			return rc_;
@@ -293,11 +294,13 @@ covquery_run(struct store *db, const struct covquery_params *p,
 	in.att = att;
 	in.natt = natt;
 	if ((rc_ = coverage_compute(&spec, &in, res)) != ERRCODE_OK) {
-		if (rc_ == ERRCODE_TOO_LARGE && errbuf != NULL && errlen > 0)
-			snprintf(errbuf, errlen, "more than %d targets or %d "
-			    "years match: narrow the query with --target, "
-			    "--since or --until", COVERAGE_MAX_TARGETS,
-			    COVERAGE_MAX_YEARS);
+		if (rc_ == ERRCODE_TOO_LARGE)
+			text_err(rc_, errbuf, errlen, "more than %d targets or "
+			    "%d years match: narrow the query with %s, %s or %s",
+			    COVERAGE_MAX_TARGETS, COVERAGE_MAX_YEARS,
+			    qparam_name(p->style, "target").s,
+			    qparam_name(p->style, "since").s,
+			    qparam_name(p->style, "until").s);
 		goto out;
 	}
 

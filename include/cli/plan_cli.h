@@ -20,15 +20,15 @@ int plan_cli_load(const char *db, double lat, double lon, double h,
 
 /* The options windows and tonight share, rows of their tables: --db and
    --station (group 1, one of them required: one_of = 1u << 1), --tz and
-   --limit (1..PLAN_MAX_WINDOWS). */
+   --limit (text: winquery_param_set checks it, as for the API). */
 #define PLAN_CLI_OPT_DB(h_) {.name = "db", .kind = CLI_TEXT, \
 	.arg = "FILE", .group = 1, .help = (h_)}
 #define PLAN_CLI_OPT_STATION(h_) {.name = "station", .kind = CLI_TEXT, \
 	.arg = "LAT,LON,H", .group = 1, .help = (h_)}
 #define PLAN_CLI_OPT_TZ(h_) {.name = "tz", .kind = CLI_ZONE, \
 	.arg = "ZONE", .help = (h_)}
-#define PLAN_CLI_OPT_LIMIT(h_) {.name = "limit", .kind = CLI_WHOLE, \
-	.arg = "N", .min = 1, .max = PLAN_MAX_WINDOWS, .help = (h_)}
+#define PLAN_CLI_OPT_LIMIT(h_) {.name = "limit", .kind = CLI_TEXT, \
+	.arg = "N", .help = (h_)}
 
 /* What those options gave. */
 struct plan_cli_opts {
@@ -36,22 +36,23 @@ struct plan_cli_opts {
 	const char *tz;			/* NULL: not given */
 	double lat, lon, h;		/* --station, deg, deg east, m */
 	int have_station;
-	long limit;			/* the caller's default until given */
+	const char *limit;		/* --limit as given, NULL: not given */
 };
 
 /*
- * Take the shared options of a into o (o->limit holds the default).
+ * Take the shared options of a into o.
  * Returns CLI_EXIT_OK, or the exit status of an error already printed
  * (one line naming the option).
  */
 int plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o);
 
 /*
- * Run q, render the result with fn (rp->r is set here, the rest is the
- * caller's) and print it.  Frees hold.  Returns an exit status; errors
- * are printed once.
+ * Apply p to q (winquery_apply), run q, render the result with fn
+ * (rp->r is set here, the rest is the caller's) and print it.  Frees
+ * hold.  Returns an exit status; errors are printed once, naming the
+ * option as winquery says it (p->style QPARAM_OPTION).
  */
-int plan_cli_run(const struct plan_query *q, struct plan_db *hold,
-    struct render_plan *rp, winquery_render_fn fn);
+int plan_cli_run(struct winquery_params *p, struct plan_query *q,
+    struct plan_db *hold, struct render_plan *rp, winquery_render_fn fn);
 
 #endif

@@ -16,13 +16,9 @@
 #include "http/api.h"
 #include "store/store.h"
 
-#define PHASES_CAP 5000		/* ~100 years of principal phases */
-#define SPAN_MAX_DAYS 36600.0	/* as the CLI */
 #define ATTEMPTS_LIMIT_DEFAULT 50
 #define ATTEMPTS_LIMIT_MAX 1000
 #define ATTEMPT_MAX_DAYS 1.0	/* longest attempt accepted, days */
-#define WINDOWS_DAYS_DEFAULT 3.0	/* as the CLI */
-#define WINDOWS_DAYS_MAX 3660.0
 
 /* The daemon's state: made by api_new, freed by api_free; the store is
    borrowed (the daemon closes it). */
@@ -93,22 +89,18 @@ const char *api_param(const struct api_request *req, const char *key);
 int api_param_time(const struct api_request *req, const char *key, double *u1,
     double *u2, struct api_response *resp);
 
-/* A number parameter in [min, max]; *out untouched when absent. */
-int api_param_number(const struct api_request *req, const char *key,
-    double min, double max, double *out, struct api_response *resp);
-
 /* A whole-number parameter in [min, max]; *out untouched when absent. */
 int api_param_count(const struct api_request *req, const char *key,
-    double min, double max, size_t *out, struct api_response *resp);
+    long min, long max, size_t *out, struct api_response *resp);
 
 /*
- * The span of from/to/days, with the CLI's rules: from defaults to now,
- * to to from + days, days to defdays; to and days exclude each other.
+ * Answer a query's error (winquery, phquery, covquery): 400 naming fault,
+ * the canonical name of the parameter at fault, with the query's
+ * sentence err; a code of its own (503, 500) when no parameter is at
+ * fault.
  */
-int api_param_span(const struct api_request *req, double defdays,
-    double maxdays, double *f1, double *f2, double *t1, double *t2,
-    struct tscale_instant *a, struct tscale_instant *b,
-    struct api_response *resp);
+void api_query_error(struct api_response *resp, enum errcode rc,
+    const char *fault, const char *err);
 
 /* 1 when the daemon has a database; else 0 with a 503 set. */
 int api_store_open_ok(struct api_ctx *ctx, struct api_response *resp);

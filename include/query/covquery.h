@@ -10,6 +10,7 @@
 #include "core/errcode.h"
 #include "core/mem.h"
 #include "formats/render_cov.h"
+#include "query/qparam.h"
 
 struct store;
 
@@ -31,6 +32,9 @@ enum covquery_format {
  * same bytes.  horizon_days 0 asks for no fill dates.
  */
 struct covquery_params {
+	enum qparam_style style;	/* how sentences name parameters */
+	const char *fault;		/* after an error: the parameter at
+					   fault (canonical name), or NULL */
 	struct coverage_spec spec;
 	double horizon_days;
 	double now_mjd;
@@ -40,29 +44,37 @@ struct covquery_params {
 void covquery_params_init(struct covquery_params *p);
 
 /*
- * Set one parameter from text, by the name the HTTP API uses (the CLI's
- * option without "--", with '-' as '_'): source, axis, bins, min_count,
- * since, until, target, station, horizon, theme (light or dark;
- * the SVG only).  ERRCODE_BAD_ARG (a sentence
- * naming the parameter in errbuf) for a bad value, ERRCODE_NOT_FOUND for
- * an unknown name.  Times are ISO 8601 UTC.
+ * Set one parameter from text, by its canonical name (the HTTP API's;
+ * the CLI's option without "--", with '-' as '_'): source, axis, bins,
+ * min_count, since, until, target, station, horizon, theme (light or
+ * dark; the SVG only).  ERRCODE_BAD_ARG (a sentence naming the parameter
+ * as p->style spells it in errbuf, p->fault set) for a bad value,
+ * ERRCODE_NOT_FOUND for an unknown name.  Times are ISO 8601 UTC.
  */
 enum errcode covquery_param_set(struct covquery_params *p, const char *name,
     const char *value, char *errbuf, size_t errlen);
 
 /*
+ * Check the parameters together (until after since, then
+ * coverage_spec_check); covquery_run does it too.  ERRCODE_OK, or
+ * ERRCODE_BAD_ARG with a sentence naming the parameter, p->fault set.
+ */
+enum errcode covquery_params_check(struct covquery_params *p, char *errbuf,
+    size_t errlen);
+
+/*
  * Run the audit on an open database and render it in fmt into out.
  *
  * Returned (function value):
- *   ERRCODE_OK; ERRCODE_NOT_FOUND for an unknown --target (errbuf names
- *   it); ERRCODE_BAD_ARG for a bad spec or the hour_angle axis without a
+ *   ERRCODE_OK; ERRCODE_NOT_FOUND for an unknown target (errbuf names
+ *   it, p->fault is "target"); ERRCODE_BAD_ARG for a bad spec or the hour_angle axis without a
  *   station; ERRCODE_TOO_LARGE when the result would exceed the core's
  *   limits; ERRCODE_DB, ERRCODE_NOMEM.
  * Notes:
  *   Nothing is written to the database.  On failure out may hold a part
  *   of the output: the caller discards it.
  */
-enum errcode covquery_run(struct store *db, const struct covquery_params *p,
+enum errcode covquery_run(struct store *db, struct covquery_params *p,
     enum covquery_format fmt, struct mbuf *out, char *errbuf,
     size_t errlen);
 

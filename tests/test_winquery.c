@@ -1,0 +1,213 @@
+/* SPDX-License-Identifier: BSD-3-Clause */
+/* test_winquery.c: the shared query parameters (qparam, winquery,
+   phquery): one rule per parameter, and the same sentence for both
+   transports with the parameter named as each names it. */
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "check.h"
+#include "core/plan.h"
+#include "formats/render_plan.h"
+#include "query/phquery.h"
+#include "query/qparam.h"
+#include "query/winquery.h"
+
+/* 2027-03-14T00:00:00Z as a UTC MJD (python3-astropy:
+   Time("2027-03-14T00:00:00", scale="utc").mjd = 61478.0). */
+#define T0 61478.0
+
+static void
+test_qparam_spelling(void **state)
+{
+	(void)state;
+	assert_string_equal(qparam_name(QPARAM_QUERY, "min_sun_sep").s,
+	    "min_sun_sep");
+	assert_string_equal(qparam_name(QPARAM_OPTION, "min_sun_sep").s,
+	    "--min-sun-sep");
+	assert_string_equal(qparam_name(QPARAM_OPTION, "to").s, "--to");
+}
+
+/*
+ * Set one parameter in both styles: the code and the fault agree, and the
+ * sentences are the same once the option's "--" and dashes are mapped
+ * back.  Returns the code.
+ */
+static enum errcode
+set_both(const char *name, const char *value, const char *fault)
+{
+	struct winquery_params q, o;
+	char eq[256] = "", eo[256] = "", want[256];
+	enum errcode rq, ro;
+
+	winquery_params_init(&q, QPARAM_QUERY, T0);
+	winquery_params_init(&o, QPARAM_OPTION, T0);
+	rq = winquery_param_set(&q, name, value, eq, sizeof eq);
+	ro = winquery_param_set(&o, name, value, eo, sizeof eo);
+	assert_int_equal(rq, ro);
+	if (rq == ERRCODE_OK) {
+		assert_null(q.fault);
+		return rq;
+	}
+	assert_non_null(q.fault);
+	assert_string_equal(q.fault, fault);
+	assert_string_equal(o.fault, fault);
+	/* "name: rest" and "--na-me: rest" */
+	assert_true(strncmp(eq, fault, strlen(fault)) == 0);
+	snprintf(want, sizeof want, "%s%s", qparam_name(QPARAM_OPTION,
+	    fault).s, eq + strlen(fault));
+	assert_string_equal(eo, want);
+	return rq;
+}
+
+static void
+test_winquery_param_rules(void **state)
+{
+	(void)state;
+	/* Numbers are text_parse_real's / text_parse_long's: no hex. */
+	assert_int_equal(set_both("days", "0x10", "days"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("days", "0", "days"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("days", "3661", "days"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("days", "2.5", "days"), ERRCODE_OK);
+	assert_int_equal(set_both("limit", "3.0", "limit"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("limit", "0", "limit"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("limit", "7", "limit"), ERRCODE_OK);
+	assert_int_equal(set_both("min_el", "90", "min_el"), ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("min_el", "-5", "min_el"), ERRCODE_OK);
+	assert_int_equal(set_both("max_sun_el", "nan", "max_sun_el"),
+	    ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("min_sun_sep", "181", "min_sun_sep"),
+	    ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("from", "2027-13-01T00:00:00Z", "from"),
+	    ERRCODE_BAD_TIME);
+	assert_int_equal(set_both("target", "no/such", "target"),
+	    ERRCODE_BAD_ARG);
+	assert_int_equal(set_both("target", "HERON", "target"), ERRCODE_OK);
+}
+
+/* The span rules: defaults, exclusions, bounds. */
+static void
+test_winquery_span(void **state)
+{
+	struct winquery_params p;
+	struct plan_query q;
+	char err[256];
+
+	(void)state;
+	plan_query_init(&q);
+	winquery_params_init(&p, QPARAM_QUERY, T0);
+	assert_int_equal(winquery_apply(&p, &q, err, sizeof err), ERRCODE_OK);
+	/* from = now, to = from + WINQUERY_DAYS_DEFAULT (3 days) */
+	assert_true(q.from_mjd == T0);
+	assert_true(q.to_mjd == T0 + 3.0);
+
+	assert_int_equal(winquery_param_set(&p, "to", "2027-03-20T00:00:00Z",
+	    err, sizeof err), ERRCODE_OK);
+	assert_int_equal(winquery_param_set(&p, "days", "2", err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(winquery_apply(&p, &q, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_string_equal(p.fault, "days");
+	assert_string_equal(err, "to and days: give one, not both");
+
+	winquery_params_init(&p, QPARAM_OPTION, T0);
+	assert_int_equal(winquery_param_set(&p, "to", "2027-03-13T00:00:00Z",
+	    err, sizeof err), ERRCODE_OK);
+	assert_int_equal(winquery_apply(&p, &q, err, sizeof err),
+	    ERRCODE_BAD_ARG);
+	assert_string_equal(p.fault, "to");
+	assert_string_equal(err, "--to: the span must end after --from "
+	    "(default now)");
+}
+
+/* An unknown target: the same sentence from the run, named by style. */
+static void
+test_winquery_unknown_target(void **state)
+{
+	static const enum qparam_style styles[] = {QPARAM_QUERY,
+	    QPARAM_OPTION};
+	static const char *const want[] = {
+		"target: no active target 'NOPE'",
+		"--target: no active target 'NOPE'",
+	};
+	(void)state;
+	for (size_t i = 0; i < 2; i++) {
+		struct winquery_params p;
+		struct plan_query q;
+		struct render_plan rp;
+		struct mbuf out;
+		char err[256] = "";
+
+		plan_query_init(&q);
+		q.station.lat_deg = 38.0;
+		q.station.lon_deg = -114.0;
+		q.station.height_m = 2000.0;
+		winquery_params_init(&p, styles[i], T0);
+		assert_int_equal(winquery_param_set(&p, "target", "NOPE", err,
+		    sizeof err), ERRCODE_OK);
+		assert_int_equal(winquery_apply(&p, &q, err, sizeof err),
+		    ERRCODE_OK);
+		memset(&rp, 0, sizeof rp);
+		mbuf_init(&out);
+		assert_int_equal(winquery_render(&p, &q, &rp,
+		    render_windows_json, &out, NULL, err, sizeof err),
+		    ERRCODE_NOT_FOUND);
+		assert_string_equal(p.fault, "target");
+		assert_string_equal(err, want[i]);
+		mbuf_free(&out);
+	}
+}
+
+/* Phases: the same span rules, its own bounds. */
+static void
+test_phquery_rules(void **state)
+{
+	struct phquery_params p;
+	struct mbuf out;
+	char err[256];
+	size_t n;
+
+	(void)state;
+	phquery_params_init(&p, QPARAM_QUERY, T0);
+	assert_int_equal(phquery_param_set(&p, "days", "0x10", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_string_equal(p.fault, "days");
+	assert_string_equal(err, "days: '0x10' is not a number of days above "
+	    "0 and at most 36600");
+	phquery_params_init(&p, QPARAM_OPTION, T0);
+	assert_int_equal(phquery_param_set(&p, "days", "0x10", err,
+	    sizeof err), ERRCODE_BAD_ARG);
+	assert_string_equal(err, "--days: '0x10' is not a number of days "
+	    "above 0 and at most 36600");
+	assert_int_equal(phquery_param_set(&p, "target", "x", err,
+	    sizeof err), ERRCODE_NOT_FOUND);
+
+	/* 29.6 days hold each principal phase once (mean synodic month
+	   29.530589 d, Meeus ch. 49). */
+	phquery_params_init(&p, QPARAM_QUERY, T0);
+	assert_int_equal(phquery_param_set(&p, "days", "29.6", err,
+	    sizeof err), ERRCODE_OK);
+	mbuf_init(&out);
+	assert_int_equal(phquery_run(&p, PHQUERY_JSON, NULL, &out, err,
+	    sizeof err), ERRCODE_OK);
+	n = 0;
+	for (const char *s = strstr(out.data, "\"kind\""); s != NULL;
+	    s = strstr(s + 1, "\"kind\""))
+		n++;
+	assert_int_equal(n, 4);
+	mbuf_free(&out);
+}
+
+int
+main(void)
+{
+	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_qparam_spelling),
+		cmocka_unit_test(test_winquery_param_rules),
+		cmocka_unit_test(test_winquery_span),
+		cmocka_unit_test(test_winquery_unknown_target),
+		cmocka_unit_test(test_phquery_rules),
+	};
+
+	return cmocka_run_group_tests(tests, NULL, NULL);
+}
