@@ -123,6 +123,50 @@ test_text_utf8_table(void **state)
 		    strlen(cases[i].s)), cases[i].ok);
 }
 
+/* Unsafe characters of stored text (text.h's list; code points from
+   The Unicode Standard, C0/C1 controls and the bidi formatting set). */
+static void
+test_text_unsafe_table(void **state)
+{
+	static const struct { const char *s; int nl; size_t at; } cases[] = {
+		{ "plain", 0, 5 }, { "Ren\xc3\xa9" "e", 0, 6 },
+		{ "a\tb", 0, 1 }, { "a\nb", 0, 1 }, { "a\nb", 1, 3 },
+		{ "a\rb", 1, 1 }, { "a\x7f", 0, 1 }, { "ab\xc2\x85", 0, 2 },
+		{ "\xc2\xa0", 0, 2 },			/* U+00A0: fine */
+		{ "x\xe2\x80\xae", 0, 1 },		/* U+202E RLO */
+		{ "x\xe2\x80\xaa", 0, 1 },		/* U+202A LRE */
+		{ "x\xe2\x80\xaf", 0, 4 },		/* U+202F: fine */
+		{ "x\xe2\x81\xa6", 0, 1 },		/* U+2066 LRI */
+		{ "x\xe2\x81\xa9", 0, 1 },		/* U+2069 PDI */
+		{ "x\xe2\x81\xaa", 0, 4 },		/* U+206A: fine */
+		{ "ok\xff", 0, 2 }, { "\xc0\xaf", 0, 0 },
+		{ "\xed\xa0\x80", 0, 0 },		/* a surrogate */
+	};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof cases / sizeof cases[0]; i++)
+		assert_int_equal(text_unsafe_at(cases[i].s,
+		    strlen(cases[i].s), cases[i].nl), cases[i].at);
+}
+
+static void
+test_text_quote_valid_utf8(void **state)
+{
+	char out[16];
+
+	(void)state;
+	assert_string_equal(text_quote("a\xff" "b\n", 4, out, sizeof out),
+	    "a\\xFFb\\x0A");
+	assert_string_equal(text_quote("Ren\xc3\xa9", 5, out, sizeof out),
+	    "Ren\xc3\xa9");
+	/* A cut never splits an escape or a character. */
+	assert_string_equal(text_quote("\xff\xff\xff\xff", 4, out, 10),
+	    "\\xFF\\xFF");
+	assert_string_equal(text_quote("abcdefg\xc3\xa9", 9, out, 9),
+	    "abcdefg");
+	assert_true(text_utf8_valid(out, strlen(out)));
+}
+
 int
 main(void)
 {
@@ -132,6 +176,8 @@ main(void)
 		cmocka_unit_test(test_text_bool_any_case),
 		cmocka_unit_test(test_text_err_cuts_at_characters),
 		cmocka_unit_test(test_text_utf8_table),
+		cmocka_unit_test(test_text_unsafe_table),
+		cmocka_unit_test(test_text_quote_valid_utf8),
 	};
 
 	return cmocka_run_group_tests_name("text", tests, NULL, NULL);

@@ -175,6 +175,70 @@ text_utf8_cut(const char *s, size_t max)
 	return i;
 }
 
+/* The code point of the valid sequence of len bytes at p. */
+static unsigned long
+utf8_cp(const unsigned char *p, size_t len)
+{
+	unsigned long cp;
+
+	if (len == 1)
+		return p[0];
+	cp = p[0] & (len == 2 ? 0x1Fu : len == 3 ? 0x0Fu : 0x07u);
+	for (size_t i = 1; i < len; i++)
+		cp = (cp << 6) | (p[i] & 0x3Fu);
+	return cp;
+}
+
+size_t
+text_unsafe_at(const char *s, size_t n, int allow_newline)
+{
+	const unsigned char *p = (const unsigned char *)s;
+	unsigned long cp;
+	size_t k;
+
+	for (size_t i = 0; i < n; i += k) {
+		if ((k = text_utf8_seq(p + i, n - i)) == 0)
+			return i;
+		cp = utf8_cp(p + i, k);
+		if ((cp < 0x20 && !(cp == '\n' && allow_newline)) ||
+		    (cp >= 0x7F && cp <= 0x9F) ||
+		    (cp >= 0x202A && cp <= 0x202E) ||
+		    (cp >= 0x2066 && cp <= 0x2069))
+			return i;
+	}
+	return n;
+}
+
+char *
+text_quote(const char *s, size_t n, char *out, size_t outlen)
+{
+	static const char hex[] = "0123456789ABCDEF";
+	const unsigned char *p = (const unsigned char *)s;
+	size_t o = 0, k;
+
+	if (outlen == 0)
+		return out;
+	for (size_t i = 0; i < n; i += k) {
+		k = text_utf8_seq(p + i, n - i);
+		if (k == 0 || p[i] < 0x20 || p[i] == 0x7F) {
+			if (o + 4 >= outlen)
+				break;
+			out[o++] = '\\';
+			out[o++] = 'x';
+			out[o++] = hex[p[i] >> 4];
+			out[o++] = hex[p[i] & 0xF];
+			k = 1;
+		} else {
+			if (o + k >= outlen)
+				break;
+			memcpy(out + o, p + i, k);
+			o += k;
+		}
+	}
+	out[o] = '\0';
+	return out;
+}
+
 enum errcode
 text_verr(enum errcode code, char *errbuf, size_t errlen, const char *fmt,
     va_list ap)

@@ -82,6 +82,8 @@ struct site_attempt {
 	/* computed at the mid-time by the geometry core on insert */
 	double synodic_deg, mean_elong_deg;
 	double target_el_deg, sun_el_target_deg;
+	unsigned suspect;		/* ATTEMPT_SUSPECT_* bits (attempt.h):
+					   stored, left out of the yield */
 };
 
 struct site_normal_point {

@@ -75,4 +75,23 @@ int text_utf8_valid(const char *s, size_t n);
    boundary (s need not be valid UTF-8 past that point). */
 size_t text_utf8_cut(const char *s, size_t max);
 
+/*
+ * Where the first character that a stored text field may not hold begins
+ * in s[0..n): a byte that is not valid UTF-8, a C0 control (U+0000-001F;
+ * U+000A line feed allowed when allow_newline), DEL (U+007F), a C1
+ * control (U+0080-009F), or a bidirectional embedding, override or
+ * isolate (U+202A-202E, U+2066-2069), which could make a text read
+ * differently from what it holds.  Returns n when there is none.
+ */
+size_t text_unsafe_at(const char *s, size_t n, int allow_newline);
+
+/*
+ * Copy s[0..n) into out (outlen bytes, always terminated) for quoting in
+ * a message: valid printable UTF-8 as it is, every other byte (invalid
+ * UTF-8, C0, DEL) as the four characters \xNN, so that the copy is valid
+ * UTF-8 whatever s holds.  Cut at a whole character or escape.  Returns
+ * out.
+ */
+char *text_quote(const char *s, size_t n, char *out, size_t outlen);
+
 #endif
