@@ -1,6 +1,6 @@
 -- SPDX-License-Identifier: BSD-3-Clause
 -- schema.sql: the complete current schema of a moonrange database
--- (PRAGMA user_version 3).  A new database is created from this file; an
+-- (PRAGMA user_version 4).  A new database is created from this file; an
 -- older one is brought up to date by migrations/NNNN_*.sql in order.
 -- Both paths must give the same schema (tests/test_store.c checks it), so
 -- a change here is also a new migration.
@@ -81,7 +81,8 @@ CREATE TABLE blackouts (
                                 OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
                     CHECK (julianday(start_utc) IS NULL
-                           OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
+                           OR julianday(start_utc) - 2400000.5 - start_mjd
+                                   BETWEEN -1e-6 AND 1.2e-5),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
                            AND coalesce(date(julianday(substr(end_utc, 1, 10)))
@@ -91,7 +92,8 @@ CREATE TABLE blackouts (
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
                     CHECK (end_mjd > start_mjd
                            AND (julianday(end_utc) IS NULL
-                                OR abs(julianday(end_utc) - 2400000.5 - end_mjd) < 1e-6)),
+                                OR julianday(end_utc) - 2400000.5 - end_mjd
+                                   BETWEEN -1e-6 AND 1.2e-5)),
   reason          TEXT NOT NULL DEFAULT '' CONSTRAINT reason
                     CHECK (length(reason) <= 95)
 ) STRICT;
@@ -108,8 +110,10 @@ CREATE TABLE attempts (
                            AND (julianday(start_utc) IS NOT NULL
                                 OR substr(start_utc, 12, 8) = '23:59:60')),
   start_mjd       REAL NOT NULL CONSTRAINT start_mjd
-                    CHECK (julianday(start_utc) IS NULL
-                           OR abs(julianday(start_utc) - 2400000.5 - start_mjd) < 1e-6),
+                    CHECK (start_mjd >= 36934 AND start_mjd < 88069
+                           AND (julianday(start_utc) IS NULL
+                           OR julianday(start_utc) - 2400000.5 - start_mjd
+                                   BETWEEN -1e-6 AND 1.2e-5)),
   end_utc         TEXT NOT NULL CONSTRAINT end_utc
                     CHECK (end_utc GLOB '[0-9][0-9][0-9][0-9]-[01][0-9]-[0-3][0-9]T[0-2][0-9]:[0-5][0-9]:[0-6][0-9].[0-9][0-9][0-9]Z'
                            AND coalesce(date(julianday(substr(end_utc, 1, 10)))
@@ -117,23 +121,49 @@ CREATE TABLE attempts (
                            AND (julianday(end_utc) IS NOT NULL
                                 OR substr(end_utc, 12, 8) = '23:59:60')),
   end_mjd         REAL NOT NULL CONSTRAINT end_mjd
-                    CHECK (end_mjd > start_mjd
+                    CHECK (end_mjd > start_mjd AND end_mjd <= 88069
+                           AND end_mjd - start_mjd <= 1.000000001
                            AND (julianday(end_utc) IS NULL
-                                OR abs(julianday(end_utc) - 2400000.5 - end_mjd) < 1e-6)),
+                                OR julianday(end_utc) - 2400000.5 - end_mjd
+                                   BETWEEN -1e-6 AND 1.2e-5)),
   shots           INTEGER NOT NULL CONSTRAINT shots CHECK (shots >= 0),
-  returns         INTEGER NOT NULL CONSTRAINT returns CHECK (returns >= 0),
+  returns         INTEGER NOT NULL CONSTRAINT returns
+                    CHECK (returns >= 0 AND returns <= 10 * shots),
   normal_points   INTEGER NOT NULL CONSTRAINT normal_points
-                    CHECK (normal_points >= 0),
+                    CHECK (normal_points >= 0 AND normal_points <= returns),
   outcome         TEXT NOT NULL CONSTRAINT outcome
                     CHECK (outcome IN ('ranged', 'no_returns', 'weather',
-                                       'technical', 'safety', 'other')),
+                                       'technical', 'safety', 'other')
+                           AND (outcome <> 'ranged'
+                                OR (shots > 0 AND returns > 0))
+                           AND (outcome <> 'no_returns'
+                                OR (shots > 0 AND returns <= 10
+                                    AND normal_points = 0))),
+  -- text: no C0 control, DEL, C1 control or bidirectional override
+  -- (notes may hold line feeds); core/attempt.h has the same rules
   operator        TEXT NOT NULL DEFAULT '' CONSTRAINT operator
-                    CHECK (length(operator) <= 95),
+                    CHECK (length(operator) <= 95
+                           AND operator NOT GLOB '*[' || char(1, 2, 3, 4, 5,
+                             6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18,
+                             19, 20, 21, 22, 23, 24, 25, 26, 27, 28, 29, 30,
+                             31, 127, 128, 129, 130, 131, 132, 133, 134, 135,
+                             136, 137, 138, 139, 140, 141, 142, 143, 144, 145,
+                             146, 147, 148, 149, 150, 151, 152, 153, 154, 155,
+                             156, 157, 158, 159, 8234, 8235, 8236, 8237, 8238,
+                             8294, 8295, 8296, 8297) || ']*'),
   seeing_arcsec   REAL CONSTRAINT seeing_arcsec
                     CHECK (seeing_arcsec IS NULL
-                           OR (seeing_arcsec > 0 AND seeing_arcsec <= 60)),
+                           OR (seeing_arcsec >= 0.01 AND seeing_arcsec <= 60)),
   notes           TEXT NOT NULL DEFAULT '' CONSTRAINT notes
-                    CHECK (length(notes) <= 511),
+                    CHECK (length(notes) <= 511
+                           AND notes NOT GLOB '*[' || char(1, 2, 3, 4, 5,
+                             6, 7, 8, 9, 11, 12, 13, 14, 15, 16, 17, 18,
+                             19, 20, 21, 22, 23, 24, 25, 26, 27, 28, 29, 30,
+                             31, 127, 128, 129, 130, 131, 132, 133, 134, 135,
+                             136, 137, 138, 139, 140, 141, 142, 143, 144, 145,
+                             146, 147, 148, 149, 150, 151, 152, 153, 154, 155,
+                             156, 157, 158, 159, 8234, 8235, 8236, 8237, 8238,
+                             8294, 8295, 8296, 8297) || ']*'),
   -- derived at the mid-time by the geometry core (derive.h)
   synodic_deg     REAL NOT NULL CONSTRAINT synodic_deg
                     CHECK (synodic_deg >= 0 AND synodic_deg < 360),
@@ -143,10 +173,30 @@ CREATE TABLE attempts (
                     CHECK (target_el_deg BETWEEN -90 AND 90),
   sun_el_target_deg REAL NOT NULL CONSTRAINT sun_el_target_deg
                     CHECK (sun_el_target_deg BETWEEN -90 AND 90),
+  -- ATTEMPT_SUSPECT_* bits (core/attempt.h): 1 target below the horizon,
+  -- 2 fired at under a tenth of the station's rate; left out of the yield
+  suspect         INTEGER NOT NULL DEFAULT 0 CONSTRAINT suspect
+                    CHECK (suspect BETWEEN 0 AND 3),
   CONSTRAINT start_unique UNIQUE (target_id, start_utc)
 ) STRICT;
 
 CREATE INDEX attempts_start ON attempts (start_mjd);
+
+-- from 0004_attempt_rules.sql: attempts of an older database that the
+-- rules of version 4 refuse, kept as they were for the station to review
+CREATE TABLE attempts_set_aside (
+  id              INTEGER PRIMARY KEY,
+  target_id       TEXT NOT NULL,
+  start_utc       TEXT NOT NULL,
+  end_utc         TEXT NOT NULL,
+  shots           INTEGER NOT NULL,
+  returns         INTEGER NOT NULL,
+  normal_points   INTEGER NOT NULL,
+  outcome         TEXT NOT NULL,
+  operator        TEXT NOT NULL,
+  seeing_arcsec   REAL,
+  notes           TEXT NOT NULL
+) STRICT;
 
 -- from 0002_normal_points_and_eop.sql
 CREATE TABLE normal_points (
@@ -162,7 +212,8 @@ CREATE TABLE normal_points (
                                 OR substr(epoch_utc, 12, 8) = '23:59:60')),
   epoch_mjd       REAL NOT NULL CONSTRAINT epoch_mjd
                     CHECK (julianday(epoch_utc) IS NULL
-                           OR abs(julianday(epoch_utc) - 2400000.5 - epoch_mjd) < 1e-6),
+                           OR julianday(epoch_utc) - 2400000.5 - epoch_mjd
+                                   BETWEEN -1e-6 AND 1.2e-5),
   -- two-way time of flight: the Earth-Moon range (356 000-407 000 km)
   -- gives 2.3-2.8 s; a wider band is accepted
   tof_s           REAL NOT NULL CONSTRAINT tof_s
