@@ -2,6 +2,7 @@
 /* test_tscale.c: ISO 8601 UTC parsing and formatting, leap seconds, TT, UT1. */
 #include <string.h>
 
+#include <erfa.h>
 #include <erfam.h>
 
 #include "check.h"
@@ -228,6 +229,17 @@ test_tscale_format_round_trip(void **state)
 		{"2016-12-31T23:59:60.250Z", 3},	/* inside it */
 		{"2050-01-01T00:00:00.000001Z", 6},
 		{"2099-12-31T12:34:56.789Z", 3},
+		/* days ending in a step of TAI-UTC that is not a whole
+		   second (ERFA dat.c's table, 1960-1971): eraD2dtf gave
+		   .994999 for the first */
+		{"1960-12-31T23:59:59.999999Z", 6},
+		{"1963-10-31T23:59:59.999999Z", 6},
+		{"1971-12-31T23:59:59.999999Z", 6},
+		{"1971-12-31T23:59:59.999Z", 3},
+		{"1961-12-31T12:00:00.000001Z", 6},
+		/* an ordinary hour of a day holding a leap second */
+		{"2016-12-31T11:00:00.000Z", 3},
+		{"2015-06-30T23:59:60.999Z", 3},
 	};
 
 	(void)state;
@@ -240,6 +252,57 @@ test_tscale_format_round_trip(void **state)
 		assert_int_equal(tscale_format_utc(u1, u2, cases[i].ndp, out,
 		    sizeof out), ERRCODE_OK);
 		assert_string_equal(out, cases[i].text);
+	}
+}
+
+/* Parse then format gives the text back, on every day from 1960 to the
+   end of 1973 (each step of ERFA's TAI-UTC table, whole or not) and on
+   the days of the leap seconds of 2015 and 2016, at 0, 3 and 6
+   decimals.  The property holds by construction of UTC text. */
+static void
+test_tscale_round_trip_every_step_day(void **state)
+{
+	static const char *const clock[] = {
+		"00:00:00.000000", "11:00:00.000000", "23:59:59.000000",
+		"23:59:59.500000", "23:59:59.999000", "23:59:59.999999",
+	};
+	int ymd[2][3] = {{1960, 1, 1}, {2015, 6, 25}};
+	int ndays[2] = {5114, 560};
+
+	(void)state;
+	for (int run = 0; run < 2; run++) {
+		double djm0, djm;
+
+		assert_int_equal(eraCal2jd(ymd[run][0], ymd[run][1],
+		    ymd[run][2], &djm0, &djm), 0);
+		for (int k = 0; k < ndays[run]; k++) {
+			int y, m, d;
+			double fd;
+
+			assert_int_equal(eraJd2cal(djm0, djm + k, &y, &m, &d,
+			    &fd), 0);
+			for (size_t c = 0; c < sizeof clock / sizeof clock[0];
+			    c++) {
+				for (int ndp = 0; ndp <= 6; ndp += 3) {
+					char in[40], out[40];
+					double u1, u2;
+					int len = 19 + (ndp ? ndp + 1 : 0);
+
+					snprintf(in, sizeof in,
+					    "%04d-%02d-%02dT%.*sZ", y, m, d,
+					    len - 11, clock[c]);
+					if (tscale_parse_utc(in, &u1, &u2, NULL,
+					    0) != ERRCODE_OK)
+						continue; /* a day cut short */
+					assert_int_equal(tscale_format_utc(u1,
+					    u2, ndp, out, sizeof out),
+					    ERRCODE_OK);
+					if (strcmp(in, out) != 0)
+						fail_msg("%s came back %s", in,
+						    out);
+				}
+			}
+		}
 	}
 }
 
@@ -462,6 +525,7 @@ main(void)
 		cmocka_unit_test(test_tscale_parse_null_errbuf_and_null_text),
 		cmocka_unit_test(test_tscale_leap_second_is_one_second),
 		cmocka_unit_test(test_tscale_format_round_trip),
+		cmocka_unit_test(test_tscale_round_trip_every_step_day),
 		cmocka_unit_test(test_tscale_format_rejects_bad_args),
 		cmocka_unit_test(test_tscale_fields),
 		cmocka_unit_test(test_tscale_tai_minus_utc),

@@ -169,38 +169,106 @@ tscale_parse_utc(const char *text, double *utc1, double *utc2, char *errbuf,
 	return ERRCODE_OK;
 }
 
+/*
+ * Calendar fields of a UTC quasi-JD with the seconds rounded to ndp
+ * decimals: the exact inverse of eraDtf2d, which tscale_parse_utc uses.
+ *
+ * Given:
+ *   utc1,2  double  UTC quasi-JD
+ *   ndp     int     decimals of seconds kept (0..6)
+ * Returned:
+ *   y,m,d,hh,mm  int     calendar day, hour, minute
+ *   sec          double  seconds, rounded; 60.x inside a leap second
+ * Returned (function value):
+ *   ERRCODE_OK or ERRCODE_BAD_TIME
+ * Notes:
+ *   1. The length of the UTC day is taken as eraDtf2d takes it: 86400 s
+ *      plus the jump of TAI-UTC at its end, the drift of 1961-1971 apart
+ *      (ERFA dtf2d.c).  eraD2dtf does not always undo that on a day of a
+ *      pre-1972 step that is not a whole second: 1960-12-31T23:59:59.999999
+ *      came back as .994999.
+ *   2. A second rounded up to the day's end carries into the next day.
+ * Called:
+ *   eraJd2cal, eraDat
+ */
+static enum errcode
+utc_split(double utc1, double utc2, int ndp, int *y, int *m, int *d,
+    int *hh, int *mm, double *sec)
+{
+	double big = utc1, small = utc2, fd, w, dat0, dat12, dat24, day, s;
+	double scale = pow(10.0, ndp);
+	int y2, m2, d2;
+
+	if (!isfinite(utc1) || !isfinite(utc2))
+		return ERRCODE_BAD_TIME;
+	if (fabs(utc2) > fabs(utc1)) {
+		big = utc2;
+		small = utc1;
+	}
+	if (eraJd2cal(big, small, y, m, d, &fd) != 0)
+		return ERRCODE_BAD_TIME;
+	if (eraJd2cal(big + 1.5, small - fd, &y2, &m2, &d2, &w) != 0 ||
+	    eraDat(*y, *m, *d, 0.0, &dat0) < 0 ||
+	    eraDat(*y, *m, *d, 0.5, &dat12) < 0 ||
+	    eraDat(y2, m2, d2, 0.0, &dat24) < 0)
+		return ERRCODE_BAD_TIME;
+	day = ERFA_DAYSEC + (dat24 - (2.0 * dat12 - dat0));
+	s = round(fd * day * scale) / scale;
+	if (s >= day) {
+		/* Rounded up to the end of the day: 0h of the next. */
+		s = 0.0;
+		*y = y2;
+		*m = m2;
+		*d = d2;
+	}
+	*hh = (int)(s / 3600.0);
+	if (*hh > 23)
+		*hh = 23;
+	s -= *hh * 3600.0;
+	*mm = (int)(s / 60.0);
+	if (*mm > 59)
+		*mm = 59;
+	s -= *mm * 60.0;
+	*sec = s < 0.0 ? 0.0 : round(s * scale) / scale;
+	return ERRCODE_OK;
+}
+
 enum errcode
 tscale_utc_fields(double utc1, double utc2, int *year, int *month, int *day,
     int *hour, int *minute, double *second)
 {
-	int ihmsf[4];
-
-	if (eraD2dtf("UTC", 6, utc1, utc2, year, month, day, ihmsf) < 0)
-		return ERRCODE_BAD_TIME;
-	*hour = ihmsf[0];
-	*minute = ihmsf[1];
-	*second = ihmsf[2] + ihmsf[3] / 1e6;
-	return ERRCODE_OK;
+	return utc_split(utc1, utc2, 6, year, month, day, hour, minute,
+	    second);
 }
 
 enum errcode
 tscale_format_utc(double utc1, double utc2, int ndp, char *buf, size_t len)
 {
-	int y, m, d, ihmsf[4];
+	int y, m, d, hh, mm, isec;
+	double sec, scale;
+	long frac;
 	int n;
 
 	if (ndp < 0 || ndp > 6 || buf == NULL || len < 32)
 		return ERRCODE_BAD_ARG;
-	if (eraD2dtf("UTC", ndp, utc1, utc2, &y, &m, &d, ihmsf) < 0)
+	if (utc_split(utc1, utc2, ndp, &y, &m, &d, &hh, &mm, &sec) !=
+	    ERRCODE_OK)
 		return ERRCODE_BAD_TIME;
 	if (y < 0 || y > 9999)
 		return ERRCODE_BAD_TIME;
+	scale = pow(10.0, ndp);
+	isec = (int)floor(sec);
+	frac = lround((sec - isec) * scale);
+	if (frac >= (long)scale) {	/* 59.9999996 kept as 60 - 1 ulp */
+		frac -= (long)scale;
+		isec++;
+	}
 	if (ndp == 0)
 		n = snprintf(buf, len, "%04d-%02d-%02dT%02d:%02d:%02dZ", y, m,
-		    d, ihmsf[0], ihmsf[1], ihmsf[2]);
+		    d, hh, mm, isec);
 	else
-		n = snprintf(buf, len, "%04d-%02d-%02dT%02d:%02d:%02d.%0*dZ",
-		    y, m, d, ihmsf[0], ihmsf[1], ihmsf[2], ndp, ihmsf[3]);
+		n = snprintf(buf, len, "%04d-%02d-%02dT%02d:%02d:%02d.%0*ldZ",
+		    y, m, d, hh, mm, isec, ndp, frac);
 	return (n > 0 && (size_t)n < len) ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
