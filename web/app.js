@@ -678,5 +678,10 @@
     }, LISTS_EVERY_MS);
   }
 
+  // For the other panels' scripts (web/plan.js, ...): the same fetch, so
+  // that their requests also notice the daemon gone and back, and their
+  // data-asof element shows the age of their data.
+  window.moonrangePage = Object.freeze({ getJson: getJson });
+
   document.addEventListener("DOMContentLoaded", start);
 })();

@@ -15,7 +15,7 @@
 // MOONRANGE_E2E_REQUIRED=1 (as in .ci/run), which makes that a failure.
 
 import { spawn, execFileSync } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync, writeFileSync, chmodSync } from "node:fs";
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync, chmodSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import assert from "node:assert/strict";
@@ -26,8 +26,14 @@ const shot = process.argv[3] || join(tmpdir(), "moonrange-screenshot.png");
 const shotAt = (suffix) => shot.replace(/\.png$/, "") + "-" + suffix + ".png";
 const required = process.env.MOONRANGE_E2E_REQUIRED === "1";
 
+// Skip (exit 77) saying why, also to MOONRANGE_SKIP_DIR/e2e_browser.txt,
+// which ctest prints beneath its summary (tests/skips.sh).
 function skip(why) {
   console.log("e2e: " + (required ? "FAIL: " : "SKIPPED: ") + why);
+  if (!required && process.env.MOONRANGE_SKIP_DIR) {
+    mkdirSync(process.env.MOONRANGE_SKIP_DIR, { recursive: true });
+    writeFileSync(join(process.env.MOONRANGE_SKIP_DIR, "e2e_browser.txt"), why + "\n");
+  }
   process.exit(required ? 1 : 77);
 }
 
@@ -41,7 +47,7 @@ let chromium;
 try {
   ({ chromium } = await import("playwright-core"));
 } catch (e) {
-  skip("playwright-core not installed: (cd tests/e2e && npm ci)");
+  skip("playwright-core not installed: (cd tests/e2e && npm ci --no-audit --no-fund)");
 }
 
 const dir = mkdtempSync(join(tmpdir(), "moonrange-e2e-"));
