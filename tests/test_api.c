@@ -109,6 +109,7 @@ setup(void **state)
 	memset(&cfg, 0, sizeof cfg);
 	cfg.db_path = dbpath;
 	cfg.token = TOKEN;
+	cfg.token_file = "/etc/moonrange/token";
 	cfg.plan_days = 0;	/* the store's setting */
 	cfg.refresh_s = 600;
 	cfg.start_posix = (double)time(NULL);
@@ -281,6 +282,10 @@ test_api_status(void **state)
 	    MOONRANGE_VERSION);
 	assert_string_equal(json_string_value(json_object_get(j, "database")),
 	    dbpath);
+	/* Where the token lives (the page says so), never the token. */
+	assert_string_equal(json_string_value(json_object_get(j,
+	    "token_file")), "/etc/moonrange/token");
+	assert_null(strstr(r.body, TOKEN));
 	assert_string_equal(json_string_value(json_object_get(j, "station")),
 	    "Kestrel Ridge (demo)");
 	assert_int_equal(json_integer_value(json_object_get(j,

@@ -194,6 +194,7 @@ run(const struct cli_args *a)
 	memset(&cfg, 0, sizeof cfg);
 	cfg.db_path = db_path;
 	cfg.token = token[0] ? token : NULL;
+	cfg.token_file = token[0] ? token_file : NULL;
 	cfg.refresh_s = refresh;
 	cfg.start_posix = (double)time(NULL);
 	cfg.plan_days = 0;
@@ -223,8 +224,10 @@ run(const struct cli_args *a)
 		goto out;
 	}
 	log_info("moonrange %s serving %s on %s port %u, page from %s, writes "
-	    "%s", MOONRANGE_VERSION, db_path, addr, web_port(srv), wc.web_dir,
-	    token[0] ? "enabled (token file)" : "disabled (no token file)");
+	    "%s%s%s", MOONRANGE_VERSION, db_path, addr, web_port(srv),
+	    wc.web_dir, token[0] ? "enabled (token file " :
+	    "disabled (no token file)", token[0] ? token_file : "",
+	    token[0] ? ")" : "");
 	if (strchr(addr, ':') != NULL)
 		printf("moonrange: serving http://[%s]:%u/\n", addr,
 		    web_port(srv));

@@ -417,6 +417,11 @@ api_new(const struct api_config *cfg)
 		api_free(ctx);
 		return NULL;
 	}
+	if (cfg->token_file != NULL &&
+	    (ctx->token_file = mem_strdup(cfg->token_file)) == NULL) {
+		api_free(ctx);
+		return NULL;
+	}
 	if (cfg->token != NULL) {
 		size_t n = strlen(cfg->token);
 
@@ -443,6 +448,7 @@ api_free(struct api_ctx *ctx)
 	mbuf_free(&ctx->plan_windows);
 	mbuf_free(&ctx->plan_coverage);
 	mem_free(ctx->db_path);
+	mem_free(ctx->token_file);
 	/* volatile: keep the wipe of the token from being optimised away */
 	for (volatile char *p = ctx->token; *p != '\0'; p++)
 		*p = '\0';

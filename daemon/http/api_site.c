@@ -63,6 +63,8 @@ api_h_status(struct api_ctx *ctx, const struct api_request *req,
 	    json_integer((json_int_t)active));
 	bad |= json_object_set_new(root, "writes_enabled",
 	    json_boolean(ctx->token_len > 0));
+	bad |= json_object_set_new(root, "token_file",
+	    ctx->token_file ? json_string(ctx->token_file) : json_null());
 
 	o = json_object();
 	bad |= json_object_set_new(root, "plan", o);

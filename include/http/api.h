@@ -86,6 +86,10 @@ struct api_config {
 	const char *db_path;		/* shown by /status; may be NULL */
 	const char *token;		/* bearer token for writes, NULL = none
 					   (then every write is refused) */
+	const char *token_file;		/* where the token was read: shown by
+					   /status (the path, never the token)
+					   so that the page can say where it
+					   lives; may be NULL */
 	double plan_days;		/* span of the plan cache, days; 0:
 					   the store's plan_days setting */
 	double refresh_s;		/* plan refresh interval, seconds */

@@ -25,6 +25,7 @@
 struct api_ctx {
 	pthread_mutex_t lock;		/* serialises handlers and replans */
 	char *db_path;
+	char *token_file;		/* NULL: none given */
 	char token[API_TOKEN_MAX + 1];
 	size_t token_len;		/* 0: writes are refused */
 	double plan_days, refresh_s, start_posix;
