@@ -339,6 +339,33 @@ test_render_cov_json_fields(void **state)
 	free(r);
 }
 
+/* A p-value far below 1e-8 keeps its digits in the JSON (it was rounded
+   to 8 decimals, so 4.07e-50 printed as 0.0): the value parsed back is the
+   value rendered, to double precision. */
+static void
+test_render_cov_json_p_value_precision(void **state)
+{
+	struct coverage_result *r = sample_result();
+	struct render_cov c = {r, NULL, NULL, NULL, NULL, RENDER_COV_LIGHT};
+	json_t *root, *m;
+	json_error_t jerr;
+	struct mbuf b;
+	double p;
+
+	(void)state;
+	r->pooled.m.chi2_p = 4.07e-50;
+	mbuf_init(&b);
+	assert_int_equal(render_cov_json(&c, &b), ERRCODE_OK);
+	root = json_loads(b.data, 0, &jerr);
+	assert_non_null(root);
+	m = json_object_get(json_object_get(root, "pooled"), "metrics");
+	p = json_real_value(json_object_get(m, "chi_square_p"));
+	check_near(p, 4.07e-50, 4.07e-50 * 1e-14, "", "p-value kept");
+	json_decref(root);
+	mbuf_free(&b);
+	free(r);
+}
+
 static void
 test_render_cov_csv_rows(void **state)
 {
@@ -456,6 +483,7 @@ main(void)
 		cmocka_unit_test(test_render_cov_svg_themes),
 		cmocka_unit_test(test_render_cov_empty_and_bin_limits),
 		cmocka_unit_test(test_render_cov_json_fields),
+		cmocka_unit_test(test_render_cov_json_p_value_precision),
 		cmocka_unit_test(test_render_cov_csv_rows),
 		cmocka_unit_test(test_render_cov_text_table),
 		cmocka_unit_test(test_render_cov_allocation_failure),

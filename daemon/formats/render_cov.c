@@ -93,7 +93,9 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	bad |= json_object_set_new(m, "chi_square", render_json_num(x->chi2, 6));
 	bad |= json_object_set_new(m, "chi_square_dof",
 	    json_integer(x->chi2_dof));
-	bad |= json_object_set_new(m, "chi_square_p", render_json_num(x->chi2_p, 8));
+	/* Full precision: a p-value of 4.07e-50 is not 0. */
+	bad |= json_object_set_new(m, "chi_square_p", isfinite(x->chi2_p) ?
+	    json_real(x->chi2_p) : json_null());
 	bad |= json_object_set_new(m, "chi_square_reliable",
 	    json_boolean(x->chi2_reliable));
 	if (bad) {
