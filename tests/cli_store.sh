@@ -151,7 +151,13 @@ check "log add: nothing stored for bad text" "[ \"\$(q '$L' 'SELECT count(*) FRO
 expect_fail "target add: name not UTF-8" 2 "--name" "$M" target add --db "$L" BADTXT --name $'a\xffb' --lat 1 --lon 2
 expect_fail "blackout add: reason not UTF-8" 2 "--reason" "$M" blackout add --db "$L" --start 2027-01-01T00:00:00Z --end 2027-01-02T00:00:00Z --reason $'\xed\xa0\x80'
 expect_fail "station set: name not UTF-8" 2 "station.name" "$M" station set --db "$L" station.name=$'bad\xff'
-check "station set: a zone this system does not know is kept with a warning" "'$M' station set --db '$L' station.time_zone=Nowhere/Invented 2>&1 >/dev/null | grep -q '^moonrange: warning: time zone .Nowhere/Invented. is not known'"
+expect_fail "station set: a zone this system does not know is refused" 2 "station.time_zone: 'Nowhere/Invented' is not a time zone" "$M" station set --db "$L" station.time_zone=Nowhere/Invented
+check "... and the stored zone is kept" "[ \"\$(q '$L' 'SELECT time_zone FROM station')\" != Nowhere/Invented ]"
+mkdir -p "$T/badzone"
+cp "$SITE"/targets.csv "$T/badzone/"
+sed 's#^time_zone = .*#time_zone = Nowhere/Invented#' "$SITE/station.ini" >"$T/badzone/station.ini"
+expect_fail "init: a zone this system does not know is refused" 2 "station.ini: station.time_zone: 'Nowhere/Invented'" "$M" init --db "$T/badzone.db" --site "$T/badzone"
+check "init: nothing stored for an unknown zone" "[ ! -e '$T/badzone.db' ]"
 check "station set: a known zone gives no warning" "[ -z \"\$('$M' station set --db '$L' station.time_zone=America/Los_Angeles 2>&1 >/dev/null)\" ]"
 check "target list --json still whole" "'$M' target list --db '$L' --json | $PY -c 'import json,sys; json.load(sys.stdin)'"
 # A value a hand-written INSERT left unreadable as JSON: an error, not an

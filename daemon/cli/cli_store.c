@@ -531,11 +531,13 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 	return st;
 }
 
-void
-cli_store_warn_zone(const struct site_station *st)
+int
+cli_store_check_zone(const struct site_station *st, const char *where)
 {
 	if (st->time_zone[0] != '\0' && !render_zone_known(st->time_zone))
-		cli_warn("time zone '%s' is not known to this system (is "
-		    "tzdata installed?); local times will not be shown",
+		return cli_usage_error("%s: station.time_zone: '%s' is not a "
+		    "time zone known to this system (an IANA name such as "
+		    "America/Denver; is tzdata installed?)", where,
 		    st->time_zone);
+	return CLI_EXIT_OK;
 }

@@ -123,7 +123,8 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 		return cli_fail("%s: %s", c->path, err);
 	snprintf(path, sizeof path, "%s/station.ini", dir);
 	if ((st = read_site_file(path, &buf, &len)) ||
-	    (st = cli_store_import_station(c, path, buf, len)))
+	    (st = cli_store_import_station(c, path, buf, len)) ||
+	    (st = cli_store_check_zone(&c->station, path)))
 		goto out;
 	mem_free(buf);
 	buf = NULL;
@@ -173,7 +174,6 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 	    "%zu normal points from %zu CRD file%s (%zu repeated)\n", name,
 	    c->station.code, c->station.name, tn.added, en.added, an.added,
 	    nps, ncrd, ncrd == 1 ? "" : "s", npp);
-	cli_store_warn_zone(&c->station);
 out:
 	if (st != CLI_EXIT_OK)
 		store_rollback(c->s);

@@ -70,12 +70,13 @@ station(const struct cli_args *a, int set)
 	for (int i = 0; set && i < a->nops; i++)
 		if ((status = set_one(&st, a->ops[i])) != CLI_EXIT_OK)
 			goto out;
+	if (set && (status = cli_store_check_zone(&st, "station set")) !=
+	    CLI_EXIT_OK)
+		goto out;
 	if (set && (rc = store_station_put(c.s, &st, err, sizeof err))) {
 		status = cli_store_fail(rc, "station set: %s", err);
 		goto out;
 	}
-	if (set)
-		cli_store_warn_zone(&st);
 	mbuf_init(&out);
 	if (cli_given(a, "json"))
 		rc = render_site_station_json(&st, &out);

@@ -122,8 +122,10 @@ int cli_store_import_file(struct cli_store *c, const char *file, int kind,
 const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
     const char *name);
 
-/* Warn (stderr) when the station's time zone is not in this system's
-   zone database: its tables then show UTC only. */
-void cli_store_warn_zone(const struct site_station *st);
+/* Refuse a station whose time zone is not in this system's zone
+   database (its local times and nights could not be shown): one error
+   line "WHERE: station.time_zone: ...", CLI_EXIT_USAGE; else
+   CLI_EXIT_OK.  An empty zone is accepted (UTC only). */
+int cli_store_check_zone(const struct site_station *st, const char *where);
 
 #endif
