@@ -5,6 +5,7 @@
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
+#include <sys/stat.h>
 
 #include "cli/cli.h"
 #include "core/text.h"
@@ -189,6 +190,7 @@ take_value(struct cli_args *a, int i, const char *val)
 	const struct cli_option *o = &a->cmd->options[i];
 	struct cli_value *v = &a->v[i];
 	char err[80];
+	struct stat sb;
 	long w;
 	int b;
 
@@ -224,6 +226,17 @@ take_value(struct cli_args *a, int i, const char *val)
 			return cli_usage_error("--%s: '%s' is not a time zone "
 			    "known to this system (an IANA name such as "
 			    "Europe/Madrid)", o->name, val);
+		break;
+	case CLI_DB:
+		/* A missing file is the store's to name (with the remedy). */
+		if (stat(val, &sb) == 0 && S_ISDIR(sb.st_mode))
+			return cli_usage_error("--%s: '%s' is a directory, not a "
+			    "database file", o->name, val);
+		if (stat(val, &sb) == 0 && S_ISREG(sb.st_mode) &&
+		    sb.st_size == 0)
+			return cli_usage_error("--%s: '%s' is an empty file, not "
+			    "a moonrange database (create one with 'moonrange "
+			    "init --db FILE')", o->name, val);
 		break;
 	case CLI_BOOL:
 		if (text_parse_bool(val, &b))

@@ -100,7 +100,7 @@ run(const struct cli_args *a)
 }
 
 static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
+	{.name = "db", .kind = CLI_DB, .arg = "FILE", .flags = CLI_REQUIRED,
 	    .help = "the station database (moonrange init)"},
 	{.name = "source", .kind = CLI_TEXT, .arg = "S",
 	    .help = "normal_points (default: imported points and those logged "

@@ -212,7 +212,7 @@ run(const struct cli_args *a)
 }
 
 static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
+	{.name = "db", .kind = CLI_DB, .arg = "FILE", .group = 1,
 	    .help = "use the stored station, its active targets and its Earth "
 	    "orientation table (DUT1 and polar motion interpolated when the "
 	    "table covers the instant)"},

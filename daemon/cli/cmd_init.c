@@ -52,6 +52,28 @@ is_file(const char *p)
 	return stat(p, &sb) == 0 && S_ISREG(sb.st_mode);
 }
 
+/* The directory the database goes into must exist (init makes the file,
+   not its directories). */
+static int
+parent_exists(const char *db)
+{
+	char dir[4096];
+	const char *slash = strrchr(db, '/');
+	size_t n;
+
+	if (slash == NULL)
+		return CLI_EXIT_OK;
+	n = slash == db ? 1 : (size_t)(slash - db);
+	if (n >= sizeof dir)
+		return cli_usage_error("--db: path too long");
+	memcpy(dir, db, n);
+	dir[n] = '\0';
+	if (!is_dir(dir))
+		return cli_usage_error("--db: the directory '%s' does not exist "
+		    "(create it first)", dir);
+	return CLI_EXIT_OK;
+}
+
 static int
 cmp_names(const void *a, const void *b)
 {
@@ -213,6 +235,11 @@ run(const struct cli_args *a)
 		    MOONRANGE_SITE_INSTALLED : MOONRANGE_SITE_SOURCE;
 	if (!is_dir(site))
 		return cli_usage_error("--site: '%s' is not a directory", site);
+	if (is_dir(db))
+		return cli_usage_error("--db: '%s' is a directory, not a "
+		    "database file", db);
+	if ((st = parent_exists(db)) != CLI_EXIT_OK)
+		return st;
 	if (access(db, F_OK) == 0 && !force)
 		return cli_usage_error("--db: '%s' already exists (use --force "
 		    "to replace it)", db);

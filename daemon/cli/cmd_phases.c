@@ -67,7 +67,7 @@ static const struct cli_option options[] = {
 	    .help = "length of the span in days (default 30, max 36600)"},
 	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE", .group = 2,
 	    .help = "also show local time in this IANA zone (text table)"},
-	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .group = 2,
+	{.name = "db", .kind = CLI_DB, .arg = "FILE", .group = 2,
 	    .help = "also show local time in the stored station's zone"},
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "machine-readable output: {\"phases\":[{kind,utc}]}"},

@@ -220,7 +220,11 @@ run(const struct cli_args *a)
 	wc.port = port;
 	wc.web_dir = web_dir ? web_dir : default_web_dir();
 	if (web_start(&wc, ctx, &srv, err, sizeof err) != ERRCODE_OK) {
-		cli_fail("%s", err);
+		if (errno == EADDRINUSE)
+			cli_fail("--listen: %s; another program holds the port "
+			    "(try --listen 127.0.0.1:0 for a free one)", err);
+		else
+			cli_fail("--listen: %s", err);
 		goto out;
 	}
 	log_info("moonrange %s serving %s on %s port %u, page from %s, writes "
@@ -278,7 +282,7 @@ out:
 }
 
 static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
+	{.name = "db", .kind = CLI_DB, .arg = "FILE", .flags = CLI_REQUIRED,
 	    .help = "the station database (see 'moonrange init')"},
 	{.name = "listen", .kind = CLI_TEXT, .arg = "ADDR:PORT",
 	    .help = "numeric address and port; an address other than loopback "

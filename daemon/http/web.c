@@ -36,6 +36,8 @@ struct web_server {
 	char log_last[512];
 	double log_last_s;		/* monotonic time of log_last */
 	unsigned long log_repeats;	/* repeats of log_last not logged */
+	atomic_int starting;		/* in web_start: hold messages */
+	char start_msg[512];		/* the last one held (log_lock) */
 };
 
 #define WEB_LOG_REPEAT_S 10.0
@@ -522,6 +524,13 @@ mhd_logger(void *cls, const char *fmt, va_list ap)
 	n = strlen(msg);
 	while (n > 0 && (msg[n - 1] == '\n' || msg[n - 1] == '\r'))
 		msg[--n] = '\0';
+	if (atomic_load(&s->starting)) {
+		/* Held: web_start logs it if the start succeeds. */
+		pthread_mutex_lock(&s->log_lock);
+		memcpy(s->start_msg, msg, n + 1);
+		pthread_mutex_unlock(&s->log_lock);
+		return;
+	}
 	clock_gettime(CLOCK_MONOTONIC, &t);
 	now = (double)t.tv_sec + (double)t.tv_nsec / 1e9;
 	pthread_mutex_lock(&s->log_lock);
@@ -556,12 +565,14 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	unsigned flags = MHD_USE_AUTO_INTERNAL_THREAD | MHD_USE_ITC |
 	    MHD_USE_ERROR_LOG;
 	const char *addr = cfg->addr ? cfg->addr : WEB_DEFAULT_ADDR;
+	char msg[sizeof s->start_msg];
 
 	*out = NULL;
 	if ((s = mem_calloc(1, sizeof *s)) == NULL)
 		return ERRCODE_NOMEM;
 	s->ctx = ctx;
 	atomic_init(&s->inflight, 0);
+	atomic_init(&s->starting, 0);
 	if (pthread_mutex_init(&s->log_lock, NULL) != 0) {
 		mem_free(s);
 		return ERRCODE_NOMEM;
@@ -597,6 +608,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	}
 	/* Set before the server's threads start: they read it. */
 	s->loopback = web_is_loopback(addr);
+	atomic_store(&s->starting, 1);
 	s->d = MHD_start_daemon(flags, (uint16_t)cfg->port, NULL, NULL,
 	    on_request, s,
 	    MHD_OPTION_EXTERNAL_LOGGER, mhd_logger, s,
@@ -614,13 +626,22 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	    MHD_OPTION_NOTIFY_COMPLETED, on_completed, s,
 	    MHD_OPTION_END);
 	if (s->d == NULL) {
+		int e = errno;
+
 		snprintf(errbuf, errlen, "cannot listen on %s port %u: %s",
-		    addr, cfg->port, errno ? strerror(errno) :
+		    addr, cfg->port, e ? strerror(e) :
 		    "libmicrohttpd refused the options");
 		pthread_mutex_destroy(&s->log_lock);
 		mem_free(s);
+		errno = e;
 		return ERRCODE_IO;
 	}
+	atomic_store(&s->starting, 0);
+	pthread_mutex_lock(&s->log_lock);
+	memcpy(msg, s->start_msg, sizeof msg);
+	pthread_mutex_unlock(&s->log_lock);
+	if (msg[0] != '\0')
+		log_warn("http: %s", msg);
 	info = MHD_get_daemon_info(s->d, MHD_DAEMON_INFO_BIND_PORT);
 	s->port = info != NULL ? info->port : cfg->port;
 	*out = s;

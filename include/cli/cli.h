@@ -33,6 +33,7 @@ enum cli_kind {
 	CLI_REAL,	/* plain decimal (no exponent, hex, inf) in min..max */
 	CLI_WHOLE,	/* whole decimal number in min..max */
 	CLI_ZONE,	/* an IANA time zone this system knows */
+	CLI_DB,		/* a database file: not a directory, not empty */
 	CLI_BOOL,	/* yes/no, true/false, on/off, 1/0, any letter case */
 	CLI_WORD	/* one of the space-separated .words */
 };
@@ -58,7 +59,7 @@ struct cli_option {
 #define CLI_OPT_END {.name = NULL}
 
 /* The row of the commands that work on a database. */
-#define CLI_OPT_DB {.name = "db", .kind = CLI_TEXT, .arg = "FILE", \
+#define CLI_OPT_DB {.name = "db", .kind = CLI_DB, .arg = "FILE", \
 	.flags = CLI_REQUIRED, .help = "the station database"}
 
 struct cli_args;

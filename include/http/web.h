@@ -37,7 +37,10 @@ struct web_server;
 /*
  * Start serving ctx (borrowed; must outlive the server).  Threads start
  * here, so block the signals the caller handles before calling.  Returns
- * ERRCODE_IO with a sentence in errbuf when the address cannot be bound.
+ * ERRCODE_IO with a sentence in errbuf when the address cannot be bound,
+ * errno then telling why (EADDRINUSE: another program holds the port).
+ * libmicrohttpd's messages while starting are logged only if the start
+ * succeeds (a failure is the errbuf sentence alone).
  */
 enum errcode web_start(const struct web_config *cfg, struct api_ctx *ctx,
     struct web_server **out, char *errbuf, size_t errlen);
