@@ -200,13 +200,31 @@ out:
 }
 
 enum errcode
+plan_station_site(const struct site_station *st, struct geom_site *site)
+{
+	struct geom_weather wx;
+	struct site_station sw_st;
+
+	/* Standard weather for what the station does not say. */
+	geom_weather_standard(st->height_m, &wx);
+	sw_st = *st;
+	if (!isfinite(sw_st.pressure_hpa))
+		sw_st.pressure_hpa = wx.pressure_hpa;
+	if (!isfinite(sw_st.temperature_c))
+		sw_st.temperature_c = wx.temperature_c;
+	if (!isfinite(sw_st.humidity))
+		sw_st.humidity = wx.humidity;
+	if (!isfinite(sw_st.wavelength_nm))
+		sw_st.wavelength_nm = wx.wavelength_um * 1000.0;
+	return derive_site(&sw_st, site);
+}
+
+enum errcode
 plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
     size_t errlen)
 {
 	const struct site_station *st = &q->station;
 	struct geom_site site;
-	struct geom_weather wx;
-	struct site_station sw_st;
 	struct geom_target bodies[WINDOW_MAX_TARGETS];
 	struct window_target wt[WINDOW_MAX_TARGETS];
 	struct site_target tg[WINDOW_MAX_TARGETS];
@@ -250,18 +268,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: must be in 0..1e6 shots per second", "fire_rate_hz");
 
-	/* Standard weather for what the station does not say. */
-	geom_weather_standard(st->height_m, &wx);
-	sw_st = *st;
-	if (!isfinite(sw_st.pressure_hpa))
-		sw_st.pressure_hpa = wx.pressure_hpa;
-	if (!isfinite(sw_st.temperature_c))
-		sw_st.temperature_c = wx.temperature_c;
-	if (!isfinite(sw_st.humidity))
-		sw_st.humidity = wx.humidity;
-	if (!isfinite(sw_st.wavelength_nm))
-		sw_st.wavelength_nm = wx.wavelength_um * 1000.0;
-	if (derive_site(&sw_st, &site) != ERRCODE_OK)
+	if (plan_station_site(st, &site) != ERRCODE_OK)
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: latitude, longitude, height or weather out of range",
 		    "station");

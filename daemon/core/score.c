@@ -176,6 +176,15 @@ score_coverage_weight(long n, double nbar, double k, double alpha)
 	return pow((nbar + k) / ((double)n + k), alpha);
 }
 
+/* R_j(t) of score.h. */
+double
+score_rate(double fire_rate_hz, const struct score_yield *y,
+    double transmission, int sunlit)
+{
+	return fire_rate_hz * y->rate * transmission *
+	    (sunlit ? y->sunlit_factor : 1.0);
+}
+
 /* Gauss-Legendre, 8 points on [-1, 1]: abscissae and weights
    (Abramowitz & Stegun, Handbook of Mathematical Functions (1964),
    table 25.4, n = 8). */
@@ -322,8 +331,7 @@ integrate_part(const struct score_params *p, const struct score_target *t,
     double a, double b, int lit, double wgt, struct sums *u)
 {
 	double c = 0.5 * (a + b), h = 0.5 * (b - a);
-	double r0 = p->fire_rate_hz * t->yield.rate *
-	    (lit ? t->yield.sunlit_factor : 1.0);
+	double r0 = score_rate(p->fire_rate_hz, &t->yield, 1.0, lit);
 
 	for (int i = 0; i < 8; i++) {
 		double xi = (i < 4 ? -1.0 : 1.0) * gl_x[i % 4];

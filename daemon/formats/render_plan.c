@@ -236,8 +236,8 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 /* --- iCalendar (RFC 5545) --- */
 
 /* Basic-format UTC "YYYYMMDDTHHMMSSZ", rounded to the second. */
-static void
-ics_time(double mjd, char *buf, size_t len)
+void
+render_ics_time(double mjd, char *buf, size_t len)
 {
 	int y, mo, d, h, mi;
 	double s;
@@ -256,8 +256,8 @@ ics_time(double mjd, char *buf, size_t len)
  * continuation starting with a space (RFC 5545, 3.1); never inside a
  * UTF-8 sequence.
  */
-static void
-ics_line(struct mbuf *b, const char *s)
+void
+render_ics_line(struct mbuf *b, const char *s)
 {
 	size_t n = strlen(s), col = 0;
 
@@ -307,8 +307,8 @@ ics_text(struct mbuf *b, const char *s)
 }
 
 /* A property "NAME:" with an escaped TEXT value, folded. */
-static void
-ics_prop_text(struct mbuf *out, const char *name, const char *value)
+void
+render_ics_prop_text(struct mbuf *out, const char *name, const char *value)
 {
 	struct mbuf t;
 
@@ -319,7 +319,7 @@ ics_prop_text(struct mbuf *out, const char *name, const char *value)
 	if (mbuf_status(&t) != ERRCODE_OK || t.data == NULL)
 		out->failed = 1;
 	else
-		ics_line(out, t.data);
+		render_ics_line(out, t.data);
 	mbuf_free(&t);
 }
 
@@ -328,34 +328,34 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 {
 	char now[24], line[256];
 
-	ics_time(p->now_mjd, now, sizeof now);
-	ics_line(out, "BEGIN:VCALENDAR");
-	ics_line(out, "VERSION:2.0");
-	ics_line(out, "PRODID:-//moonrange//observing windows " MOONRANGE_VERSION
+	render_ics_time(p->now_mjd, now, sizeof now);
+	render_ics_line(out, "BEGIN:VCALENDAR");
+	render_ics_line(out, "VERSION:2.0");
+	render_ics_line(out, "PRODID:-//moonrange//observing windows " MOONRANGE_VERSION
 	    "//EN");
-	ics_line(out, "CALSCALE:GREGORIAN");
-	ics_line(out, "METHOD:PUBLISH");
+	render_ics_line(out, "CALSCALE:GREGORIAN");
+	render_ics_line(out, "METHOD:PUBLISH");
 	for (size_t i = 0; i < p->r->n; i++) {
 		const struct plan_window *w = &p->r->w[i];
 		const struct score_window *f = &w->f;
 		char a[24], b[24], m[40];
 		struct mbuf d;
 
-		ics_time(w->start_mjd, a, sizeof a);
-		ics_time(w->end_mjd, b, sizeof b);
+		render_ics_time(w->start_mjd, a, sizeof a);
+		render_ics_time(w->end_mjd, b, sizeof b);
 		iso(w->max_el_mjd, m, sizeof m);
-		ics_line(out, "BEGIN:VEVENT");
+		render_ics_line(out, "BEGIN:VEVENT");
 		snprintf(line, sizeof line, "UID:%s-%s@moonrange", w->target, a);
-		ics_line(out, line);
+		render_ics_line(out, line);
 		snprintf(line, sizeof line, "DTSTAMP:%s", now);
-		ics_line(out, line);
+		render_ics_line(out, line);
 		snprintf(line, sizeof line, "DTSTART:%s", a);
-		ics_line(out, line);
+		render_ics_line(out, line);
 		snprintf(line, sizeof line, "DTEND:%s", b);
-		ics_line(out, line);
+		render_ics_line(out, line);
 		snprintf(line, sizeof line, "Range %s (rank %zu, score %.4g)",
 		    w->target, f->rank, f->score);
-		ics_prop_text(out, "SUMMARY", line);
+		render_ics_prop_text(out, "SUMMARY", line);
 		mbuf_init(&d);
 		mbuf_printf(&d, "rank %zu of %zu; score %.6g; expected returns "
 		    "%.6g; coverage weight %.4f\n", f->rank, p->r->total,
@@ -373,12 +373,12 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 		if (mbuf_status(&d) != ERRCODE_OK || d.data == NULL)
 			out->failed = 1;
 		else
-			ics_prop_text(out, "DESCRIPTION", d.data);
+			render_ics_prop_text(out, "DESCRIPTION", d.data);
 		mbuf_free(&d);
-		ics_line(out, "TRANSP:TRANSPARENT");
-		ics_line(out, "END:VEVENT");
+		render_ics_line(out, "TRANSP:TRANSPARENT");
+		render_ics_line(out, "END:VEVENT");
 	}
-	ics_line(out, "END:VCALENDAR");
+	render_ics_line(out, "END:VCALENDAR");
 	return mbuf_status(out);
 }
 
@@ -399,8 +399,8 @@ score_text(double score, char *buf, size_t len)
  * Local "MM-DD HH:MM" and zone abbreviation of a UTC MJD; falls back to
  * UTC when there is no zone.
  */
-static void
-local_parts(double mjd, const char *tz, char *day, char *hm, char *zone)
+void
+render_local_parts(double mjd, const char *tz, char *day, char *hm, char *zone)
 {
 	char buf[48];
 
@@ -447,13 +447,13 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 		char d1[8], h1[8], z1[8], d2[8], h2[8], z2[8];
 		char u1[24], u2[24], l[24], sc[24];
 
-		local_parts(w->start_mjd, NULL, d1, h1, z1);
-		local_parts(w->end_mjd, NULL, d2, h2, z2);
+		render_local_parts(w->start_mjd, NULL, d1, h1, z1);
+		render_local_parts(w->end_mjd, NULL, d2, h2, z2);
 		snprintf(u1, sizeof u1, "%s %s-%s", d1, h1, h2);
 		l[0] = '\0';
 		if (p->time_zone != NULL) {
-			local_parts(w->start_mjd, p->time_zone, d1, h1, z1);
-			local_parts(w->end_mjd, p->time_zone, d2, h2, z2);
+			render_local_parts(w->start_mjd, p->time_zone, d1, h1, z1);
+			render_local_parts(w->end_mjd, p->time_zone, d2, h2, z2);
 			snprintf(l, sizeof l, "%s %s-%s", d1, h1, h2);
 		}
 		snprintf(u2, sizeof u2, "%.0f", f->duration_s / 60.0);
@@ -522,13 +522,13 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 	double mean = score_bin_mean(r->pooled, r->settings.nbins);
 	char d[8], h[8], z[8], d2[8], h2[8], z2[8], u[40];
 
-	local_parts(r->from_mjd, tz, d, h, z);
-	local_parts(r->to_mjd, tz, d2, h2, z2);
+	render_local_parts(r->from_mjd, tz, d, h, z);
+	render_local_parts(r->to_mjd, tz, d2, h2, z2);
 	iso(r->from_mjd, u, sizeof u);
 	mbuf_printf(out, "Tonight at %.60s\n", p->station_name ?
 	    p->station_name : "the station");
 	mbuf_printf(out, "Night %.4s-%s %s to %s %s %s\n", u, d, h, d2, h2, z2);
-	local_parts(p->now_mjd, tz, d, h, z);
+	render_local_parts(p->now_mjd, tz, d, h, z);
 	iso(p->now_mjd, u, sizeof u);
 	mbuf_printf(out, "Now %s %s %s (%s)\n", d, h, z, u);
 	{
@@ -552,7 +552,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 				tnext = e[k];
 	}
 	if (now != NULL) {
-		local_parts(now->end_mjd, tz, d, h, z);
+		render_local_parts(now->end_mjd, tz, d, h, z);
 		mbuf_printf(out, "Best now: %s (rank %zu), open until %s %s\n",
 		    now->target, now->f.rank, h, z);
 	} else {
@@ -560,7 +560,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 	}
 	if (isfinite(tnext)) {
 		nx = best_at(r, tnext);
-		local_parts(tnext, tz, d, h, z);
+		render_local_parts(tnext, tz, d, h, z);
 		iso(tnext, u, sizeof u);
 		mbuf_printf(out, "Next change: %s %s (%.5s UTC) -> %s\n", h, z,
 		    u + 11, nx != NULL ? nx->target : "nothing open");
@@ -575,11 +575,11 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		const struct score_window *f = &w->f;
 		char lt[16], ut[16], sc[24];
 
-		local_parts(w->start_mjd, tz, d, h, z);
-		local_parts(w->end_mjd, tz, d2, h2, z2);
+		render_local_parts(w->start_mjd, tz, d, h, z);
+		render_local_parts(w->end_mjd, tz, d2, h2, z2);
 		snprintf(lt, sizeof lt, "%s-%s", h, h2);
-		local_parts(w->start_mjd, NULL, d, h, z);
-		local_parts(w->end_mjd, NULL, d2, h2, z2);
+		render_local_parts(w->start_mjd, NULL, d, h, z);
+		render_local_parts(w->end_mjd, NULL, d2, h2, z2);
 		snprintf(ut, sizeof ut, "%s-%s", h, h2);
 		score_text(f->score, sc, sizeof sc);
 		mbuf_printf(out, "%4zu %-10.10s %-11s %-11s %4.0f %5.1f %4.0f "

@@ -94,6 +94,12 @@ struct plan_result {
 enum errcode plan_run(const struct plan_query *q, struct plan_result *out,
     char *errbuf, size_t errlen);
 
+/* The geometry core's station from a station record, with standard
+   weather (geom_weather_standard) for what the record leaves NaN;
+   ERRCODE_BAD_ARG when out of range. */
+enum errcode plan_station_site(const struct site_station *st,
+    struct geom_site *site);
+
 /* Free what plan_run allocated; a zeroed or failed result is accepted. */
 void plan_result_free(struct plan_result *r);
 

@@ -129,6 +129,11 @@ enum errcode score_fit(const struct score_settings *s, double tau,
     const struct site_attempt *att, size_t na, struct score_yield *yield,
     struct score_model *model);
 
+/* R_j(t) = q r_j T (f_j if sunlit else 1), returns per second, given the
+   two-way transmission T = exp(-2 tau X(h)) at the target's elevation. */
+double score_rate(double fire_rate_hz, const struct score_yield *y,
+    double transmission, int sunlit);
+
 /* --- coverage weights --- */
 
 /* Bin of a synodic angle in degrees (wrapped into 0..360). */

@@ -40,4 +40,17 @@ enum errcode render_windows_text(const struct render_plan *p,
 enum errcode render_tonight_text(const struct render_plan *p,
     struct mbuf *out);
 
+/* iCalendar (RFC 5545): basic-format UTC "YYYYMMDDTHHMMSSZ" of an MJD;
+   one content line folded at 75 octets with CRLF; a NAME:TEXT property
+   escaped (3.3.11) and folded. */
+void render_ics_time(double mjd, char *buf, size_t len);
+void render_ics_line(struct mbuf *b, const char *s);
+void render_ics_prop_text(struct mbuf *out, const char *name,
+    const char *value);
+
+/* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD in zone tz
+   (UTC when tz is NULL or unknown); day >= 8, hm >= 8, zone >= 8. */
+void render_local_parts(double mjd, const char *tz, char *day, char *hm,
+    char *zone);
+
 #endif
