@@ -1,6 +1,6 @@
 -- SPDX-License-Identifier: BSD-3-Clause
 -- schema.sql: the complete current schema of a moonrange database
--- (PRAGMA user_version 4).  A new database is created from this file; an
+-- (PRAGMA user_version 5).  A new database is created from this file; an
 -- older one is brought up to date by migrations/NNNN_*.sql in order.
 -- Both paths must give the same schema (tests/test_store.c checks it), so
 -- a change here is also a new migration.
@@ -250,12 +250,17 @@ CREATE TABLE eop (
                     CHECK (abs(yp_arcsec) < 2.0)
 ) STRICT;
 
--- from 0003_settings.sql
+-- from 0003_settings.sql, remade by 0005_plan_settings.sql
 CREATE TABLE settings (
   key             TEXT PRIMARY KEY CONSTRAINT key
                     CHECK (key IN ('coverage_bins', 'coverage_alpha',
                                    'coverage_k', 'coverage_scope',
-                                   'plan_days')),
+                                   'plan_days', 'value_model',
+                                   'value_harmonics', 'value_phase_weight',
+                                   'value_orientation_weight',
+                                   'plan_run_min_s', 'plan_run_max_s',
+                                   'plan_switch_s', 'plan_calibration_s',
+                                   'plan_calibration_every_s')),
   value           TEXT NOT NULL CONSTRAINT value
                     CHECK (CASE key
                       WHEN 'coverage_bins' THEN
@@ -273,5 +278,31 @@ CREATE TABLE settings (
                       WHEN 'plan_days' THEN
                         value NOT GLOB '*[^0-9]*' AND value <> ''
                         AND CAST(value AS INTEGER) BETWEEN 1 AND 30
+                      WHEN 'value_model' THEN
+                        value IN ('design', 'bins')
+                      WHEN 'value_harmonics' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 1 AND 4
+                      WHEN 'value_phase_weight' THEN
+                        value GLOB '[0-9]*' AND value NOT GLOB '*[^0-9.]*'
+                        AND CAST(value AS REAL) BETWEEN 0 AND 100
+                      WHEN 'value_orientation_weight' THEN
+                        value GLOB '[0-9]*' AND value NOT GLOB '*[^0-9.]*'
+                        AND CAST(value AS REAL) BETWEEN 0 AND 100
+                      WHEN 'plan_run_min_s' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 60 AND 14400
+                      WHEN 'plan_run_max_s' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 60 AND 14400
+                      WHEN 'plan_switch_s' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 0 AND 3600
+                      WHEN 'plan_calibration_s' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 60 AND 3600
+                      WHEN 'plan_calibration_every_s' THEN
+                        value NOT GLOB '*[^0-9]*' AND value <> ''
+                        AND CAST(value AS INTEGER) BETWEEN 0 AND 86400
                       ELSE 0 END)
 ) STRICT;

@@ -177,7 +177,7 @@ check_plan(const struct inst *in, const struct sched_plan *pl)
 		/* no overlap, in time order; switch gap between kinds */
 		if (prev_end >= 0)
 			assert_true(s >= prev_end + (prev != r->target ?
-			    p->switch_slots : 0));
+			    p->switch_slots : 1));
 		if (r->target == SCHED_CALIBRATION) {
 			assert_true(p->cal_every > 0);
 			assert_int_equal((long)r->len, p->cal_slots);
@@ -253,7 +253,7 @@ brute_rec(struct brute *b, long last_end, int last, long cal_end)
 	if (b->n + 1 >= sizeof b->r / sizeof b->r[0])
 		return;
 	for (int k = (p->cal_every > 0 ? -1 : 0); k < (int)p->ntargets; k++) {
-		long gap = (last != -2 && last != k) ? p->switch_slots : 0;
+		long gap = last == -2 ? 0 : last != k ? p->switch_slots : 1;
 		long s0 = last_end < 0 ? 0 : last_end + gap;
 
 		for (long s = s0; s < (long)p->nslots; s++) {

@@ -34,6 +34,8 @@ struct ctx {
 	long *runlen;		/* nt x (ns + 1): available slots from s on */
 	long *clearpre;		/* ns + 1 prefix counts of clear slots */
 	double *ub;		/* ns + 1: bound on what slots s.. can add */
+	double *rest;		/* ns + 1: what the greedy plan adds after s
+				   (the beam's estimate of the future) */
 	long nodes;
 };
 
@@ -227,8 +229,8 @@ sched_feasible(const struct sched_problem *p, const struct sched_run *runs,
 
 		if (r->len == 0 || r->start + r->len > p->nslots)
 			return 0;
-		gap = (last_kind != -2 && last_kind != r->target) ?
-		    p->switch_slots : 0;
+		gap = last_kind == -2 ? 0 : last_kind != r->target ?
+		    p->switch_slots : 1;
 		if (last_end >= 0 && s < last_end + gap)
 			return 0;
 		if (r->target == SCHED_CALIBRATION) {
@@ -267,6 +269,7 @@ ctx_free(struct ctx *c)
 	mem_free(c->runlen);
 	mem_free(c->clearpre);
 	mem_free(c->ub);
+	mem_free(c->rest);
 }
 
 /* Largest value of x over [s - w + 1, s + w - 1], for every s. */
@@ -369,8 +372,10 @@ ctx_init(struct ctx *c, const struct sched_problem *p)
 static long
 run_lb(const struct ctx *c, const struct state *st, int j)
 {
-	if (st->last_target < 0 || st->last_target == j)
+	if (st->last_target < 0)
 		return st->last_end;
+	if (st->last_target == j)	/* else it would be one longer run */
+		return st->last_end + 1;
 	return st->last_end + c->p->switch_slots;
 }
 
@@ -724,9 +729,10 @@ beam(struct ctx *c, struct runbuf *best, double *best_g)
 				if (!(x->r.value > 0))
 					continue;
 				x->g = cur[i].g + x->r.value;
-				x->f = x->g + c->ub[mv[k].start + mv[k].len];
-				if (!beats(x->f, *best_g))
+				if (!beats(x->g + c->ub[mv[k].start +
+				    mv[k].len], *best_g))
 					continue;	/* cannot win */
+				x->f = x->g + c->rest[mv[k].start + mv[k].len];
 				x->from = (long)i;
 				x->m = mv[k];
 				x->order = (long)nc;
@@ -836,6 +842,18 @@ sched_solve(const struct sched_problem *p, enum sched_method method,
 	state_root(p, &root, ph);
 	greedy(&c, &root, &g);
 	gval = root.g;
+	/* The greedy plan's value still to come after each slot, a run's
+	   value spread evenly over its slots. */
+	if ((c.rest = mem_calloc(p->nslots + 1, sizeof(double))) == NULL) {
+		rc = ERRCODE_NOMEM;
+		goto out;
+	}
+	for (size_t i = 0; i < g.n; i++)
+		for (size_t t = 0; t < g.r[i].len; t++)
+			c.rest[g.r[i].start + t] += g.r[i].value /
+			    (double)g.r[i].len;
+	for (long t = c.ns - 1; t >= 0; t--)
+		c.rest[t] += c.rest[t + 1];
 	out->greedy_value = gval;
 	memcpy(b.r, g.r, g.n * sizeof g.r[0]);
 	b.n = g.n;

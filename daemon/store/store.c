@@ -817,6 +817,28 @@ static const struct setting_def settings_table[] = {
 	    {"pooled", "per_target", NULL}},
 	{{"plan_days", "3", "days the daemon plans ahead, whole number "
 	    "1..30"}, SET_INT, 1, 30, 0, {NULL}},
+	{{"value_model", "design", "phase value of a run: 'design' (D-optimal "
+	    "information gain) or 'bins' (coverage weight)"}, SET_WORD, 0, 0,
+	    0, {"design", "bins", NULL}},
+	{{"value_harmonics", "2", "harmonic order K of the phase signals, "
+	    "whole number 1..4"}, SET_INT, 1, 4, 0, {NULL}},
+	{{"value_phase_weight", "1", "weight of the phase information in a "
+	    "run's value, 0..100"}, SET_REAL, 0, 100, 0, {NULL}},
+	{{"value_orientation_weight", "1", "weight of the orientation "
+	    "information in a run's value, 0..100 (both 0: normal points)"},
+	    SET_REAL, 0, 100, 0, {NULL}},
+	{{"plan_run_min_s", "600", "shortest run, seconds, whole number "
+	    "60..14400"}, SET_INT, 60, 14400, 0, {NULL}},
+	{{"plan_run_max_s", "1800", "longest run, seconds, whole number "
+	    "60..14400 (not under plan_run_min_s)"}, SET_INT, 60, 14400, 0,
+	    {NULL}},
+	{{"plan_switch_s", "120", "time to switch targets, seconds, whole "
+	    "number 0..3600"}, SET_INT, 0, 3600, 0, {NULL}},
+	{{"plan_calibration_s", "300", "length of a calibration run, "
+	    "seconds, whole number 60..3600"}, SET_INT, 60, 3600, 0, {NULL}},
+	{{"plan_calibration_every_s", "0", "longest ranging after a "
+	    "calibration, seconds, 0 (no calibrations) or plan_run_max_s.."
+	    "86400"}, SET_INT, 0, 86400, 0, {NULL}},
 };
 
 #define NSETTINGS (sizeof settings_table / sizeof settings_table[0])
@@ -952,6 +974,24 @@ store_settings_get(struct store *s, struct store_settings *out, char *errbuf,
 			out->coverage_per_target = strcmp(v, "per_target") == 0;
 		else if (strcmp(d->info.key, "plan_days") == 0)
 			out->plan_days = (int)num;
+		else if (strcmp(d->info.key, "value_model") == 0)
+			out->value_bins = strcmp(v, "bins") == 0;
+		else if (strcmp(d->info.key, "value_harmonics") == 0)
+			out->value_harmonics = (int)num;
+		else if (strcmp(d->info.key, "value_phase_weight") == 0)
+			out->value_phase_weight = num;
+		else if (strcmp(d->info.key, "value_orientation_weight") == 0)
+			out->value_orientation_weight = num;
+		else if (strcmp(d->info.key, "plan_run_min_s") == 0)
+			out->plan_run_min_s = (int)num;
+		else if (strcmp(d->info.key, "plan_run_max_s") == 0)
+			out->plan_run_max_s = (int)num;
+		else if (strcmp(d->info.key, "plan_switch_s") == 0)
+			out->plan_switch_s = (int)num;
+		else if (strcmp(d->info.key, "plan_calibration_s") == 0)
+			out->plan_calibration_s = (int)num;
+		else if (strcmp(d->info.key, "plan_calibration_every_s") == 0)
+			out->plan_calibration_every_s = (int)num;
 	}
 	return ERRCODE_OK;
 }

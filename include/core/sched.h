@@ -18,7 +18,9 @@
  *     windows, outside blackouts: avail), one target at a time;
  *   - run_min <= length <= run_max;
  *   - switch_slots free slots lie between two runs on different targets,
- *     and between a run and a calibration;
+ *     and between a run and a calibration; two runs on the same target
+ *     are at least one slot apart (back to back they would be one run,
+ *     which run_max bounds);
  *   - with cal_every > 0, a calibration of cal_slots clear slots (outside
  *     blackouts) precedes the first run, and no run ends more than
  *     cal_every slots after the end of the last calibration before it.
@@ -148,12 +150,15 @@ int sched_feasible(const struct sched_problem *p,
  *      target, start, length, with or without a calibration) prunes a
  *      partial plan when value + U(end) cannot beat the incumbent; when
  *      it finishes within SCHED_EXACT_NODES states the plan is optimal
- *      on the grid (exact = 1).  Otherwise a beam search keeps the
- *      SCHED_BEAM_WIDTH partial plans of highest value + U(end) at each
- *      step, expanding each by its targets' earliest starts with the
- *      shortest, middle and longest feasible lengths; any plan found
- *      better than the incumbent replaces it.  Either way the result is
- *      never worse than the greedy plan.
+ *      on the grid (exact = 1).  Otherwise a beam search keeps, at each
+ *      step, the SCHED_BEAM_WIDTH partial plans of highest value + G(end),
+ *      G(t) the value the greedy plan still adds after slot t (a partial
+ *      plan ahead of greedy at the same time ranks high), after dropping
+ *      those with value + U(end) not above the incumbent; each is
+ *      expanded by its targets' earliest starts with the shortest,
+ *      middle and longest feasible lengths; any plan found better than
+ *      the incumbent replaces it.  Either way the result is never worse
+ *      than the greedy plan.
  *   5. Everything is deterministic: the same problem gives the same
  *      plan.
  * References:

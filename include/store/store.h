@@ -33,7 +33,7 @@
  * processes may share one file (WAL, busy timeout STORE_BUSY_MS).
  */
 
-#define STORE_SCHEMA_VERSION 4	/* PRAGMA user_version of a current file */
+#define STORE_SCHEMA_VERSION 5	/* PRAGMA user_version of a current file */
 #define STORE_BUSY_MS 10000	/* wait this long for a lock, then fail */
 #define STORE_TIME_NDP 3	/* decimals of seconds of stored times */
 #define STORE_NP_TIME_NDP 6	/* ... of normal-point epochs */
@@ -239,6 +239,16 @@ struct store_settings {
 	double coverage_k;		/* weight smoothing count, > 0 (1) */
 	int coverage_per_target;	/* 1 per target, 0 pooled (0) */
 	int plan_days;			/* days the daemon plans ahead (3) */
+	/* the night plan (core/night.h, core/value.h) */
+	int value_bins;			/* value_model: 1 bins, 0 design (0) */
+	int value_harmonics;		/* K, 1..4 (2) */
+	double value_phase_weight;	/* 0..100 (1) */
+	double value_orientation_weight; /* 0..100 (1) */
+	int plan_run_min_s;		/* 60..14400 (600) */
+	int plan_run_max_s;		/* 60..14400 (1800) */
+	int plan_switch_s;		/* 0..3600 (120) */
+	int plan_calibration_s;		/* 60..3600 (300) */
+	int plan_calibration_every_s;	/* 0..86400 (0: none) */
 };
 
 /* Every setting, defaults for keys never set. */
