@@ -193,6 +193,16 @@ test_value_quarters_known_new_full_gain_most(void **state)
 	    5.0 * value_phase_gain(&p, 90.0 * D2R, 1.0, 1.0));
 	assert_true(value_phase_gain(&p, PI, 1.0, 1.0) >
 	    5.0 * value_phase_gain(&p, 270.0 * D2R, 1.0, 1.0));
+	/* The default order K = 2 too: at the quarters cos 2D = -1 and
+	   sin 2D = 0, so the points there leave cos D unknown; a night at
+	   new or full moon (D = 0, 180) outranks one at a quarter
+	   (derivation as above). */
+	assert_int_equal(value_phase_build(&p, 2, 1.0, d, NULL, 40),
+	    ERRCODE_OK);
+	assert_true(value_phase_gain(&p, 0.0, 2.0, 1.0) >
+	    value_phase_gain(&p, 90.0 * D2R, 2.0, 1.0));
+	assert_true(value_phase_gain(&p, PI, 2.0, 1.0) >
+	    value_phase_gain(&p, 270.0 * D2R, 2.0, 1.0));
 }
 
 /* A target at the sub-Earth point: rho antiparallel to the line of

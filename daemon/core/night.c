@@ -171,44 +171,54 @@ find_target(const struct plan_query *q, const char *id)
 	return NULL;
 }
 
-/* Why no run fits: the first limit that leaves no slot. */
+/*
+ * Why no run fits: the limit that leaves no slot.  E: a target above
+ * min_el; S: the Sun below max_sun_el; P: the Sun-Moon separation at
+ * least min_sun_sep; B: outside blackouts.  A limit is named when the
+ * others leave slots it closes.
+ */
 static void
 explain_empty(const struct plan_query *q, const struct night_settings *ns,
     const struct work *w, size_t nt, size_t nslots, size_t nwin,
     char *why, size_t len)
 {
 	const struct site_station *st = &q->station;
-	size_t up = 0, dark = 0, sep = 0, clear = 0;
+	size_t e = 0, es = 0, ep = 0, esp = 0, espb = 0;
 
 	for (size_t k = 0; k < nslots; k++) {
 		double best = -90.0;
+		int s, p;
 
 		for (size_t j = 0; j < nt; j++)
 			if (w->el[j * nslots + k] > best)
 				best = w->el[j * nslots + k];
 		if (best < st->min_el_deg)
 			continue;
-		up++;
-		if (w->sun_el[k] > st->max_sun_el_deg)
-			continue;
-		dark++;
-		if (w->sun_sep[k] < st->min_sun_sep_deg)
-			continue;
-		sep++;
-		clear += w->clear[k];
+		e++;
+		s = w->sun_el[k] <= st->max_sun_el_deg;
+		p = w->sun_sep[k] >= st->min_sun_sep_deg;
+		es += s;
+		ep += p;
+		esp += s && p;
+		espb += s && p && w->clear[k];
 	}
-	if (up == 0)
+	if (e == 0)
 		snprintf(why, len, "the Moon stays below the minimum elevation "
 		    "(min_el %.0f deg) all span", st->min_el_deg);
-	else if (dark == 0)
+	else if (esp == 0 && es > 0)
+		snprintf(why, len, "while the Moon is up at night it is within "
+		    "min_sun_sep (%.0f deg) of the Sun (near new moon)",
+		    st->min_sun_sep_deg);
+	else if (esp == 0 && ep > 0)
 		snprintf(why, len, "the Moon is above %.0f deg only while the "
 		    "Sun is above max_sun_el (%.0f deg)", st->min_el_deg,
 		    st->max_sun_el_deg);
-	else if (sep == 0)
-		snprintf(why, len, "the Sun-Moon separation stays under "
-		    "min_sun_sep (%.0f deg) while the Moon is up at night "
-		    "(near new moon)", st->min_sun_sep_deg);
-	else if (clear == 0)
+	else if (esp == 0)
+		snprintf(why, len, "the Moon is up only in daylight or twilight "
+		    "(Sun above max_sun_el %.0f deg) and within min_sun_sep "
+		    "(%.0f deg) of the Sun: near new moon", st->max_sun_el_deg,
+		    st->min_sun_sep_deg);
+	else if (espb == 0)
 		snprintf(why, len, "blackouts cover every slot the limits "
 		    "leave");
 	else if (nwin == 0)

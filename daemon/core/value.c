@@ -12,7 +12,7 @@ value_settings_default(struct value_settings *s)
 	s->model = VALUE_MODEL_DESIGN;
 	s->harmonics = 2;
 	s->phase_ridge = 1.0;
-	s->orient_ridge = 1.0;
+	s->orient_ridge = 0.3;
 	s->phase_weight = 1.0;
 	s->orientation_weight = 1.0;
 }

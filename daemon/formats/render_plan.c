@@ -331,8 +331,8 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 	render_ics_time(p->now_mjd, now, sizeof now);
 	render_ics_line(out, "BEGIN:VCALENDAR");
 	render_ics_line(out, "VERSION:2.0");
-	render_ics_line(out, "PRODID:-//moonrange//observing windows " MOONRANGE_VERSION
-	    "//EN");
+	render_ics_line(out, "PRODID:-//moonrange//observing windows "
+	    MOONRANGE_VERSION "//EN");
 	render_ics_line(out, "CALSCALE:GREGORIAN");
 	render_ics_line(out, "METHOD:PUBLISH");
 	for (size_t i = 0; i < p->r->n; i++) {

@@ -53,13 +53,14 @@ planquery_param_set(struct planquery_params *p, const char *name,
 		int m = night_method_parse(value);
 
 		if (m < 0) {
-			return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "method: '%.40s' is not best or "
-			    "greedy", value);
+			return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+			    "method: '%.40s' is not best or greedy", value);
 		}
 		p->method = (enum sched_method)m;
 		return ERRCODE_OK;
 	}
-	return text_err(ERRCODE_NOT_FOUND, errbuf, errlen, "unknown parameter '%.40s'", name);
+	return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
+	    "unknown parameter '%.40s'", name);
 }
 
 /* Minutes since local midnight of a UTC MJD in zone tz. */
@@ -109,16 +110,17 @@ planquery_span(const struct planquery_params *p, const char *tz,
 	int hf = isfinite(p->from_mjd), ht = isfinite(p->to_mjd);
 
 	if (hf != ht) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: give from and to together",
-		    hf ? "to" : "from");
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "%s: give from and to together", hf ? "to" : "from");
 	}
 	if (hf) {
 		if (!(p->to_mjd > p->from_mjd)) {
 			return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: must be after from");
 		}
 		if (p->to_mjd - p->from_mjd > NIGHT_MAX_DAYS) {
-			return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: a plan spans at most %.0f "
-			    "days", NIGHT_MAX_DAYS);
+			return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+			    "to: a plan spans at most %.0f days",
+			    NIGHT_MAX_DAYS);
 		}
 		*from_mjd = p->from_mjd;
 		*to_mjd = p->to_mjd;
@@ -129,8 +131,9 @@ planquery_span(const struct planquery_params *p, const char *tz,
 	}
 	*from_mjd = p->at_mjd;
 	if (planquery_noon_after(p->at_mjd, tz, to_mjd) != ERRCODE_OK) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "station time_zone: unknown zone "
-		    "'%.60s'", tz != NULL ? tz : "");
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "station time_zone: unknown zone '%.60s'",
+		    tz != NULL ? tz : "");
 	}
 	return ERRCODE_OK;
 }

@@ -58,7 +58,7 @@ struct value_settings {
 	enum value_model model;		/* design */
 	int harmonics;			/* K, 1..VALUE_K_MAX (2) */
 	double phase_ridge;		/* lambda > 0 (1) */
-	double orient_ridge;		/* mu > 0 (1) */
+	double orient_ridge;		/* mu > 0 (0.3) */
 	double phase_weight;		/* w_phase >= 0 (1) */
 	double orientation_weight;	/* w_orient >= 0 (1) */
 };
