@@ -27,23 +27,6 @@ night_settings_default(struct night_settings *s)
 	s->grid_s = 60.0;
 }
 
-static enum errcode
-fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
-    MEM_PRINTFLIKE(4, 5);
-
-static enum errcode
-fail(char *errbuf, size_t errlen, enum errcode rc, const char *fmt, ...)
-{
-	va_list ap;
-
-	if (errbuf != NULL && errlen > 0) {
-		va_start(ap, fmt);
-		vsnprintf(errbuf, errlen, fmt, ap);
-		va_end(ap);
-	}
-	return rc;
-}
-
 enum errcode
 night_settings_check(const struct night_settings *s, char *errbuf,
     size_t errlen)
@@ -51,27 +34,27 @@ night_settings_check(const struct night_settings *s, char *errbuf,
 	const char *f;
 
 	if (value_settings_check(&s->value, &f) != ERRCODE_OK)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting %s is "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting %s is "
 		    "out of range", f);
 	if (!(s->grid_s > 0) || s->grid_s > SCHED_MAX_SLOT_S)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "grid: must be "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "grid: must be "
 		    "in 0..%.0f s", SCHED_MAX_SLOT_S);
 	if (!(s->run_min_s >= s->grid_s) || s->run_min_s > 86400)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting "
 		    "plan_run_min_s must be in %.0f..86400 s", s->grid_s);
 	if (!(s->run_max_s >= s->run_min_s) || s->run_max_s > 86400)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting "
 		    "plan_run_max_s must be at least plan_run_min_s and at "
 		    "most 86400 s");
 	if (!(s->switch_s >= 0) || s->switch_s > 86400)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting "
 		    "plan_switch_s must be in 0..86400 s");
 	if (!(s->cal_s >= s->grid_s) || s->cal_s > 86400)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting "
 		    "plan_calibration_s must be in %.0f..86400 s", s->grid_s);
 	if (!(s->cal_every_s == 0 || (s->cal_every_s >= s->run_max_s &&
 	    s->cal_every_s <= 7 * 86400.0)))
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "setting "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "setting "
 		    "plan_calibration_every_s must be 0 (off) or between "
 		    "plan_run_max_s and 604800 s");
 	return ERRCODE_OK;
@@ -255,16 +238,16 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	if ((rc = night_settings_check(ns, errbuf, errlen)) != ERRCODE_OK)
 		return rc;
 	if (!(q.to_mjd > q.from_mjd))
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "to: the span "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: the span "
 		    "must end after it starts");
 	if (q.to_mjd - q.from_mjd > NIGHT_MAX_DAYS)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "to: a plan spans "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: a plan spans "
 		    "at most %.0f days", NIGHT_MAX_DAYS);
 	g = ns->grid_s;
 	span_s = (q.to_mjd - q.from_mjd) * ERFA_DAYSEC;
 	nslots = (size_t)floor(span_s / g + 1e-9);
 	if (nslots < 1)
-		return fail(errbuf, errlen, ERRCODE_BAD_ARG, "to: the span is "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: the span is "
 		    "shorter than one %.0f s slot", g);
 	q.target = NULL;
 	q.limit = 0;
@@ -272,7 +255,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 		return rc;
 	nt = pr.nmodels;
 	if (nt > 64) {
-		rc = fail(errbuf, errlen, ERRCODE_TOO_LARGE, "targets: more "
+		rc = text_err(ERRCODE_TOO_LARGE, errbuf, errlen, "targets: more "
 		    "than 64 to plan");
 		goto out;
 	}
@@ -324,7 +307,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 		} else if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
 		    t->lon_deg * ERFA_DD2R, t->height_m, &w.bodies[j]) !=
 		    ERRCODE_OK) {
-			rc = fail(errbuf, errlen, ERRCODE_BAD_ARG, "target %s: "
+			rc = text_err(ERRCODE_BAD_ARG, errbuf, errlen, "target %s: "
 			    "selenographic position out of range", t->id);
 			goto out;
 		}
@@ -337,7 +320,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	    pr.eop.dut1, &a)) != ERRCODE_OK ||
 	    (rc = window_track_init(&tr, &site, &pr.eop, a.tt1, a.tt2,
 	    (q.to_mjd - q.from_mjd) + 1e-3, w.nodes, nn)) != ERRCODE_OK) {
-		rc = fail(errbuf, errlen, rc, "from/to: cannot tabulate the "
+		rc = text_err(rc, errbuf, errlen, "from/to: cannot tabulate the "
 		    "span");
 		goto out;
 	}
@@ -497,7 +480,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	sp.cal_every = ns->cal_every_s > 0 ?
 	    (int)floor(ns->cal_every_s / g + 1e-9) : 0;
 	if ((rc = sched_solve(&sp, method, &plan)) != ERRCODE_OK) {
-		fail(errbuf, errlen, rc, "plan: %s", errcode_str(rc));
+		text_err(rc, errbuf, errlen, "plan: %s", errcode_str(rc));
 		goto out;
 	}
 
