@@ -8,11 +8,10 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "core/text.h"
 #include "cli/cli_store.h"
 #include "core/derive.h"
 #include "formats/render_time.h"
-
-#define MJD_BASE 2400000.5
 
 int
 cli_store_open(struct cli_store *c, const char *db, int flags)
@@ -74,16 +73,6 @@ cli_store_target(const struct cli_store *c, const char *id)
 	return NULL;
 }
 
-enum eop_source
-cli_store_eop_at(const struct cli_store *c, double mjd, struct geom_eop *out)
-{
-	struct eop_table t;
-
-	t.rows = c->eop;
-	t.n = c->neop;
-	return eop_lookup(&t, mjd, out);
-}
-
 enum errcode
 cli_store_derive_attempt(const struct cli_store *c, struct site_attempt *a,
     char *errbuf, size_t errlen)
@@ -97,7 +86,8 @@ cli_store_derive_attempt(const struct cli_store *c, struct site_attempt *a,
 		    "the database", a->target);
 		return ERRCODE_NOT_FOUND;
 	}
-	(void)cli_store_eop_at(c, 0.5 * (a->start_mjd + a->end_mjd), &eop);
+	(void)eop_lookup_rows(c->eop, c->neop,
+	    0.5 * (a->start_mjd + a->end_mjd), &eop);
 	rc = derive_attempt(&c->station, t, &eop, a);
 	if (rc != ERRCODE_OK)
 		snprintf(errbuf, errlen, "field 'start_utc': cannot compute "
@@ -118,7 +108,7 @@ cli_store_derive_np(const struct cli_store *c, struct site_normal_point *np,
 		    "the database", np->target);
 		return ERRCODE_NOT_FOUND;
 	}
-	(void)cli_store_eop_at(c, np->epoch_mjd, &eop);
+	(void)eop_lookup_rows(c->eop, c->neop, np->epoch_mjd, &eop);
 	rc = derive_normal_point(&c->station, t, &eop, np);
 	/* The elevation is this station's: unknown for another's points. */
 	if (strcmp(np->station_code, c->station.code) != 0)
@@ -194,17 +184,11 @@ void
 cli_store_rep_add(struct import_report *rep, size_t line, const char *field,
     const char *fmt, ...)
 {
-	struct import_error *e;
 	va_list ap;
 
 	rep->bad++;
-	if (rep->nerrors >= IMPORT_MAX_ERRORS)
-		return;
-	e = &rep->errors[rep->nerrors++];
-	e->line = line;
-	snprintf(e->field, sizeof e->field, "%s", field != NULL ? field : "");
 	va_start(ap, fmt);
-	vsnprintf(e->message, sizeof e->message, fmt, ap);
+	import_verr(rep, line, field, fmt, ap);
 	va_end(ap);
 }
 
@@ -218,7 +202,8 @@ cli_store_rep_print(const struct import_report *rep, const char *file)
 		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s", line);
 	}
 	if (rep->bad > rep->nerrors)
-		(void)cli_store_fail(ERRCODE_BAD_ARG, "%s: %zu more bad records "
+		(void)cli_store_fail(ERRCODE_BAD_ARG,
+		    "%s: %zu more bad records "
 		    "not shown", file, rep->bad - rep->nerrors);
 }
 

@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "core/text.h"
 #include "cli/cli_store.h"
 #include "core/text.h"
 #include "core/tscale.h"

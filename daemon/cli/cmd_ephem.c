@@ -8,6 +8,8 @@
 #include <erfam.h>
 
 #include "cli/cli.h"
+#include "core/eop.h"
+#include "core/text.h"
 #include "cli/cli_store.h"
 #include "core/derive.h"
 #include "core/geom.h"
@@ -112,12 +114,12 @@ load_db(struct cli_store *cs, const char *db, double utc1, double utc2,
 	}
 	if (cs->neop > 0) {
 		last = cs->eop[cs->neop - 1].mjd;
-		(void)tscale_format_utc(2400000.5, last, 0, eop_last, 40);
+		(void)tscale_format_utc(TEXT_MJD0, last, 0, eop_last, 40);
 		eop_last[10] = '\0';	/* the day */
 	}
 	if (eop != NULL)
-		*source = eop_source_name(cli_store_eop_at(cs,
-		    (utc1 - 2400000.5) + utc2, eop));
+		*source = eop_source_name(eop_lookup_rows(cs->eop, cs->neop,
+		    (utc1 - TEXT_MJD0) + utc2, eop));
 	return CLI_EXIT_OK;
 }
 
@@ -203,7 +205,8 @@ run(const struct cli_args *a)
 	    cs.station.time_zone : NULL;
 	rep.eop_last_utc = eop_last[0] ? eop_last : NULL;
 	mbuf_init(&out);
-	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep, &out);
+	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep,
+	    &out);
 	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
 	    cli_emit(&out);
 	mbuf_free(&out);

@@ -8,10 +8,9 @@
 #include <erfam.h>
 
 #include "core/coverage.h"
+#include "core/text.h"
 #include "core/score.h"
 #include "core/tscale.h"
-
-#define MJD0 2400000.5
 
 /* --- names --- */
 
@@ -308,12 +307,12 @@ coverage_axis_value(enum coverage_axis axis, const struct geom_site *site,
 	if (axis == COVERAGE_AXIS_HOUR_ANGLE) {
 		if (site == NULL)
 			return ERRCODE_BAD_ARG;
-		if (geom_instant_at(site, &eop, MJD0, utc_mjd, GEOM_PREC_FAST,
-		    &g) != ERRCODE_OK)
+		if (geom_instant_at(site, &eop, TEXT_MJD0, utc_mjd,
+		    GEOM_PREC_FAST, &g) != ERRCODE_OK)
 			return ERRCODE_BAD_TIME;
 		a = g.moon.ha;
 	} else {
-		if (tscale_from_utc(MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
+		if (tscale_from_utc(TEXT_MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
 			return ERRCODE_BAD_TIME;
 		c = ((t.tt1 - ERFA_DJ00) + t.tt2) / ERFA_DJC;
 		switch (axis) {
@@ -425,7 +424,7 @@ add_record(const struct coverage_spec *s, const struct rec *r,
 			return ERRCODE_OK;
 		}
 	}
-	if (eraJd2cal(MJD0, r->epoch_mjd, &iy, &im, &id, &fd) != 0) {
+	if (eraJd2cal(TEXT_MJD0, r->epoch_mjd, &iy, &im, &id, &fd) != 0) {
 		out->skipped++;
 		return ERRCODE_OK;
 	}

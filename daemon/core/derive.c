@@ -6,8 +6,7 @@
 #include <erfam.h>
 
 #include "core/derive.h"
-
-#define MJD_BASE 2400000.5
+#include "core/text.h"
 
 enum errcode
 derive_site(const struct site_station *st, struct geom_site *out)
@@ -49,7 +48,7 @@ derive_at(const struct site_station *st, const struct site_target *t,
 	if (geom_target_from_selen(t->lat_deg * ERFA_DD2R,
 	    t->lon_deg * ERFA_DD2R, t->height_m, &tg) != ERRCODE_OK)
 		return ERRCODE_BAD_ARG;
-	rc = geom_instant_at(&site, eop != NULL ? eop : &zero, MJD_BASE,
+	rc = geom_instant_at(&site, eop != NULL ? eop : &zero, TEXT_MJD0,
 	    utc_mjd, GEOM_PREC_FULL, &g);
 	if (rc != ERRCODE_OK)
 		return rc;

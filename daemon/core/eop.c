@@ -143,3 +143,14 @@ eop_table_check(const struct eop_table *t)
 	}
 	return ERRCODE_OK;
 }
+
+enum eop_source
+eop_lookup_rows(const struct site_eop_row *rows, size_t n, double utc_mjd,
+    struct geom_eop *out)
+{
+	struct eop_table t;
+
+	t.rows = rows;
+	t.n = n;
+	return eop_lookup(&t, utc_mjd, out);
+}

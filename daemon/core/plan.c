@@ -15,8 +15,6 @@
 #include "core/text.h"
 #include "core/window.h"
 
-#define MJD0 2400000.5
-
 void
 plan_query_init(struct plan_query *q)
 {
@@ -75,7 +73,7 @@ mjd_of(const struct window_track *tr, double t)
 	if (tscale_from_tt(tr->base1, tr->base2 + t, tr->eop.dut1, &x) !=
 	    ERRCODE_OK)
 		return NAN;
-	return (x.utc1 - MJD0) + x.utc2;
+	return (x.utc1 - TEXT_MJD0) + x.utc2;
 }
 
 /* TT offset on the track of a UTC MJD. */
@@ -83,7 +81,7 @@ static enum errcode
 offset_of(const struct window_track *tr, double mjd, double *t)
 {
 	struct tscale_instant x;
-	enum errcode rc = tscale_from_utc(MJD0, mjd, tr->eop.dut1, &x);
+	enum errcode rc = tscale_from_utc(TEXT_MJD0, mjd, tr->eop.dut1, &x);
 
 	if (rc != ERRCODE_OK)
 		return rc;
@@ -130,7 +128,7 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		    "is the yield-weighted mean", f->bins_crossed,
 		    f->bins_crossed == 1 ? "y" : "ies");
 	snprintf(hhmm, sizeof hhmm, "?");
-	if (tscale_utc_fields(MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
+	if (tscale_utc_fields(TEXT_MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
 	    &sec) == ERRCODE_OK)
 		snprintf(hhmm, sizeof hhmm, "%02d:%02d", hh, mi);
 	add_reason(w, "highest elevation %.1f deg at %s UTC; mean airmass %.2f, "
@@ -333,8 +331,9 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 			out->dut1_source = "table";
 		}
 	}
-	if (tscale_from_utc(MJD0, q->from_mjd, eop.dut1, &a) != ERRCODE_OK ||
-	    tscale_from_utc(MJD0, q->to_mjd, eop.dut1, &b) != ERRCODE_OK)
+	if (tscale_from_utc(TEXT_MJD0, q->from_mjd, eop.dut1, &a) !=
+	    ERRCODE_OK || tscale_from_utc(TEXT_MJD0, q->to_mjd, eop.dut1, &b) !=
+	    ERRCODE_OK)
 		return text_err(ERRCODE_BAD_TIME, errbuf, errlen,
 		    "%s: outside the convertible range", "from/to");
 	span = tscale_tt_diff(a.tt1, a.tt2, b.tt1, b.tt2) / ERFA_DAYSEC;
@@ -432,7 +431,8 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		cap = nw;
 	}
 	if (rc != ERRCODE_OK) {
-		text_err(rc, errbuf, errlen, "%s: too many windows; shorten the "
+		text_err(rc, errbuf, errlen,
+		    "%s: too many windows; shorten the "
 		    "span", "to");
 		goto out;
 	}

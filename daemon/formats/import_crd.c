@@ -14,6 +14,7 @@
 
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/import.h"
 #include "formats/import_util.h"
@@ -129,11 +130,11 @@ crd_datetime(char **tok, long v[6])
 	int unset = 1;
 
 	for (int i = 0; i < 6; i++) {
-		if (import_casecmp(tok[i], "na") == 0) {
+		if (text_casecmp(tok[i], "na") == 0) {
 			v[i] = 0;
 			continue;
 		}
-		if (import_parse_int(tok[i], 0, 9999, &v[i]) != 0)
+		if (text_parse_long(tok[i], 0, 9999, &v[i]) != 0)
 			return -1;
 		if (v[i] != 0)
 			unset = 0;
@@ -191,7 +192,7 @@ crd_h4(struct crd_state *s, char **tok, size_t nt, size_t line,
 		rep->bad++;
 		return;
 	}
-	if (import_parse_int(tok[1], 0, 2, &dtype) != 0) {
+	if (text_parse_long(tok[1], 0, 2, &dtype) != 0) {
 		import_err(rep, line, "H4", "data type '%s' is not 0, 1 or 2",
 		    tok[1]);
 		rep->bad++;
@@ -233,11 +234,11 @@ crd_h4(struct crd_state *s, char **tok, size_t nt, size_t line,
 static int
 crd_real(const char *t, int na_ok, double *v)
 {
-	if (na_ok && import_casecmp(t, "na") == 0) {
+	if (na_ok && text_casecmp(t, "na") == 0) {
 		*v = NAN;
 		return 0;
 	}
-	return import_parse_real(t, v);
+	return text_parse_real(t, -HUGE_VAL, HUGE_VAL, v);
 }
 
 static enum errcode
@@ -409,8 +410,8 @@ import_crd(const char *buf, size_t len, import_np_fn fn, void *ctx,
 				rep->bad++;
 				continue;
 			}
-			if (nt < 3 || import_casecmp(tok[1], "CRD") != 0 ||
-			    import_parse_int(tok[2], 1, 2, &v) != 0) {
+			if (nt < 3 || text_casecmp(tok[1], "CRD") != 0 ||
+			    text_parse_long(tok[2], 1, 2, &v) != 0) {
 				import_err(rep, it.line, "H1",
 				    "expected 'H1 CRD "
 				    "1' or 'H1 CRD 2' (format and version)");

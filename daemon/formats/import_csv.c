@@ -14,6 +14,7 @@
 
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/import.h"
 #include "formats/import_util.h"
@@ -231,7 +232,7 @@ csv_header(struct csv *c, struct csv_table *t, struct import_report *rep)
 
 		import_trim(c->f[i], name, sizeof name);
 		for (j = 0; j < t->ncols; j++)
-			if (import_casecmp(name, t->cols[j].name) == 0)
+			if (text_casecmp(name, t->cols[j].name) == 0)
 				break;
 		if (j == t->ncols) {
 			import_err(rep, c->rec_line, name, "unknown column "
@@ -361,7 +362,8 @@ row_real(const struct csv *c, const struct csv_table *t, size_t j,
 		*out = dflt;	/* NaN for "not given" */
 		return 0;
 	}
-	if (strlen(raw) >= sizeof v || import_parse_real(v, out) != 0) {
+	if (strlen(raw) >= sizeof v ||
+	    text_parse_real(v, -HUGE_VAL, HUGE_VAL, out) != 0) {
 		import_err(rep, c->rec_line, t->cols[j].name, "'%.40s' is not "
 		    "a number", v);
 		return -1;
@@ -408,7 +410,7 @@ row_bool(const struct csv *c, const struct csv_table *t, size_t j, int dflt,
 		*out = dflt;
 		return 0;
 	}
-	if (strlen(raw) >= sizeof v || import_parse_bool(v, out) != 0) {
+	if (strlen(raw) >= sizeof v || text_parse_bool(v, out) != 0) {
 		import_err(rep, c->rec_line, t->cols[j].name, "'%.15s' is not "
 		    "0/1, true/false or yes/no", v);
 		return -1;

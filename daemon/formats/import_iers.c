@@ -15,6 +15,7 @@
 
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/import.h"
 #include "formats/import_util.h"
@@ -111,7 +112,7 @@ col_real(const char *s, size_t n, size_t first, size_t last, double *v,
 	*empty = f[0] == '\0';
 	if (*empty)
 		return -1;
-	return import_parse_real(f, v);
+	return text_parse_real(f, -HUGE_VAL, HUGE_VAL, v);
 }
 
 enum errcode
@@ -146,9 +147,9 @@ import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 			rep->bad++;
 			continue;
 		}
-		if (import_parse_int(column(ln, n, 1, 2, f, sizeof f), 0, 99,
-		    &yy) || import_parse_int(column(ln, n, 3, 4, f, sizeof f),
-		    1, 12, &mm) || import_parse_int(column(ln, n, 5, 6, f,
+		if (text_parse_long(column(ln, n, 1, 2, f, sizeof f), 0, 99,
+		    &yy) || text_parse_long(column(ln, n, 3, 4, f, sizeof f),
+		    1, 12, &mm) || text_parse_long(column(ln, n, 5, 6, f,
 		    sizeof f), 1, 31, &dd)) {
 			import_err(rep, it.line, "date",
 			    "columns 1-6 are not a "
@@ -274,9 +275,9 @@ import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 			rep->bad++;
 			continue;
 		}
-		if (import_parse_int(column(ln, n, 1, 4, f, sizeof f), 1900,
-		    2999, &yy) || import_parse_int(column(ln, n, 5, 8, f,
-		    sizeof f), 1, 12, &mm) || import_parse_int(column(ln, n, 9,
+		if (text_parse_long(column(ln, n, 1, 4, f, sizeof f), 1900,
+		    2999, &yy) || text_parse_long(column(ln, n, 5, 8, f,
+		    sizeof f), 1, 12, &mm) || text_parse_long(column(ln, n, 9,
 		    12, f, sizeof f), 1, 31, &dd)) {
 			import_err(rep, it.line, "date",
 			    "columns 1-12 are not "

@@ -16,6 +16,7 @@
 
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/import.h"
 #include "formats/import_util.h"
@@ -277,7 +278,7 @@ key_set(struct site_station *st, size_t k, const char *raw, char *err,
 		memcpy(dst, v, strlen(v) + 1);
 		return ERRCODE_OK;
 	case IMPORT_KEY_REAL:
-		if (import_parse_real(v, &d) != 0) {
+		if (text_parse_real(v, -HUGE_VAL, HUGE_VAL, &d) != 0) {
 			snprintf(err, errlen, "'%.40s' is not a number", v);
 			return ERRCODE_BAD_ARG;
 		}

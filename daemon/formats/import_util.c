@@ -13,6 +13,7 @@
 #include <erfa.h>
 #include <erfam.h>
 
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/import.h"
 #include "formats/import_util.h"
@@ -28,19 +29,28 @@ import_report_init(struct import_report *rep)
 }
 
 void
-import_err(struct import_report *rep, size_t line, const char *field,
-    const char *fmt, ...)
+import_verr(struct import_report *rep, size_t line, const char *field,
+    const char *fmt, va_list ap)
 {
 	struct import_error *e;
-	va_list ap;
 
 	if (rep->nerrors >= IMPORT_MAX_ERRORS)
 		return;
 	e = &rep->errors[rep->nerrors++];
 	e->line = line;
-	snprintf(e->field, sizeof e->field, "%s", field ? field : "");
+	(void)text_err(ERRCODE_OK, e->field, sizeof e->field, "%s",
+	    field ? field : "");
+	(void)text_verr(ERRCODE_OK, e->message, sizeof e->message, fmt, ap);
+}
+
+void
+import_err(struct import_report *rep, size_t line, const char *field,
+    const char *fmt, ...)
+{
+	va_list ap;
+
 	va_start(ap, fmt);
-	vsnprintf(e->message, sizeof e->message, fmt, ap);
+	import_verr(rep, line, field, fmt, ap);
 	va_end(ap);
 }
 
@@ -80,46 +90,6 @@ import_status(const struct import_report *rep)
 /* text checks                                                         */
 /* ------------------------------------------------------------------ */
 
-/*
- * Length of the UTF-8 sequence at p (1..4), or 0 if it is not valid
- * UTF-8 (overlong forms, surrogates and code points above U+10FFFF are
- * invalid, RFC 3629).
- */
-static size_t
-utf8_seq(const unsigned char *p, size_t avail)
-{
-	unsigned c = p[0];
-	size_t n;
-	unsigned lo = 0x80, hi = 0xBF;
-
-	if (c < 0x80)
-		return 1;
-	if (c >= 0xC2 && c <= 0xDF)
-		n = 2;
-	else if (c >= 0xE0 && c <= 0xEF)
-		n = 3;
-	else if (c >= 0xF0 && c <= 0xF4)
-		n = 4;
-	else
-		return 0;
-	if (avail < n)
-		return 0;
-	if (c == 0xE0)
-		lo = 0xA0;
-	else if (c == 0xED)
-		hi = 0x9F;
-	else if (c == 0xF0)
-		lo = 0x90;
-	else if (c == 0xF4)
-		hi = 0x8F;
-	if (p[1] < lo || p[1] > hi)
-		return 0;
-	for (size_t i = 2; i < n; i++)
-		if (p[i] < 0x80 || p[i] > 0xBF)
-			return 0;
-	return n;
-}
-
 enum errcode
 import_check_text(const char *buf, size_t len, struct import_report *rep)
 {
@@ -135,7 +105,7 @@ import_check_text(const char *buf, size_t len, struct import_report *rep)
 			rep->bad++;
 			return ERRCODE_IO;
 		}
-		if ((n = utf8_seq(p + i, len - i)) == 0) {
+		if ((n = text_utf8_seq(p + i, len - i)) == 0) {
 			import_err(rep, line, "",
 			    "invalid UTF-8 byte 0x%02X at "
 			    "column %zu: the file must be UTF-8 text", p[i],
@@ -178,46 +148,6 @@ import_trim(const char *s, char *out, size_t cap)
 	return out;
 }
 
-int
-import_parse_real(const char *s, double *v)
-{
-	const char *p = s;
-	char *end;
-	int digits = 0;
-
-	if (*p == '+' || *p == '-')
-		p++;
-	while (isdigit((unsigned char)*p)) {
-		p++;
-		digits++;
-	}
-	if (*p == '.') {
-		p++;
-		while (isdigit((unsigned char)*p)) {
-			p++;
-			digits++;
-		}
-	}
-	if (digits == 0)
-		return -1;
-	if (*p == 'e' || *p == 'E') {
-		p++;
-		if (*p == '+' || *p == '-')
-			p++;
-		if (!isdigit((unsigned char)*p))
-			return -1;
-		while (isdigit((unsigned char)*p))
-			p++;
-	}
-	if (*p != '\0')
-		return -1;
-	errno = 0;
-	*v = strtod(s, &end);
-	if (end != p || errno == ERANGE || !isfinite(*v))
-		return -1;
-	return 0;
-}
-
 enum import_count_status
 import_parse_count(const char *s, long *v)
 {
@@ -250,23 +180,6 @@ import_parse_count(const char *s, long *v)
 }
 
 int
-import_parse_int(const char *s, long min, long max, long *v)
-{
-	char *end;
-	long n;
-
-	if (!(isdigit((unsigned char)*s) || ((*s == '-' || *s == '+') &&
-	    isdigit((unsigned char)s[1]))))
-		return -1;
-	errno = 0;
-	n = strtol(s, &end, 10);
-	if (*end != '\0' || errno == ERANGE || n < min || n > max)
-		return -1;
-	*v = n;
-	return 0;
-}
-
-int
 import_valid_ident(const char *s, size_t maxlen, int dot)
 {
 	size_t n = strlen(s);
@@ -289,7 +202,7 @@ import_valid_text(const char *s, int multiline)
 	for (size_t i = 0; i < len; i += n) {
 		unsigned char c = p[i];
 
-		if ((n = utf8_seq(p + i, len - i)) == 0 || c == 0x7F)
+		if ((n = text_utf8_seq(p + i, len - i)) == 0 || c == 0x7F)
 			return 0;
 		if (c < 0x20 && !(multiline && (c == '\n' || c == '\t' ||
 		    c == '\r')))
@@ -302,38 +215,6 @@ int
 import_text_ok(const char *s, int multiline)
 {
 	return s != NULL && import_valid_text(s, multiline);
-}
-
-int
-import_casecmp(const char *a, const char *b)
-{
-	for (; *a && *b; a++, b++) {
-		int x = tolower((unsigned char)*a), y = tolower(
-		    (unsigned char)*b);
-
-		if (x != y)
-			return x - y;
-	}
-	return (unsigned char)*a - (unsigned char)*b;
-}
-
-int
-import_parse_bool(const char *s, int *v)
-{
-	static const char *const yes[] = { "1", "true", "yes" };
-	static const char *const no[] = { "0", "false", "no" };
-
-	for (size_t i = 0; i < sizeof yes / sizeof yes[0]; i++) {
-		if (import_casecmp(s, yes[i]) == 0) {
-			*v = 1;
-			return 0;
-		}
-		if (import_casecmp(s, no[i]) == 0) {
-			*v = 0;
-			return 0;
-		}
-	}
-	return -1;
 }
 
 enum errcode

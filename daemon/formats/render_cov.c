@@ -6,23 +6,14 @@
 
 #include <jansson.h>
 
+#include "core/text.h"
 #include "formats/render_json.h"
 #include "formats/render_time.h"
 #include "formats/render_cov.h"
 #include "formats/render_site.h"
 #include "core/tscale.h"
 
-#define MJD0 2400000.5
-
 /* --- shared bits --- */
-
-static void
-utc_of_mjd(double mjd, char *buf, size_t len)
-{
-	if (!isfinite(mjd) ||
-	    tscale_format_utc(MJD0, mjd, 0, buf, len) != ERRCODE_OK)
-		snprintf(buf, len, "?");
-}
 
 /* A bin's lower and upper edge in degrees. */
 static double
@@ -37,17 +28,6 @@ static json_t *
 jstr_or_null(const char *s)
 {
 	return s != NULL && *s != '\0' ? json_string(s) : json_null();
-}
-
-static json_t *
-jutc(double mjd)
-{
-	char buf[40];
-
-	if (isnan(mjd))
-		return json_null();
-	utc_of_mjd(mjd, buf, sizeof buf);
-	return json_string(buf);
 }
 
 static json_t *
@@ -89,8 +69,10 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	    render_json_num(x->longest_gap_deg, 6));
 	bad |= json_object_set_new(m, "longest_empty_arc_from_deg",
 	    render_json_num(x->longest_gap_from_deg, 6));
-	bad |= json_object_set_new(m, "entropy", render_json_num(x->entropy, 6));
-	bad |= json_object_set_new(m, "chi_square", render_json_num(x->chi2, 6));
+	bad |= json_object_set_new(m, "entropy", render_json_num(x->entropy,
+	    6));
+	bad |= json_object_set_new(m, "chi_square", render_json_num(x->chi2,
+	    6));
 	bad |= json_object_set_new(m, "chi_square_dof",
 	    json_integer(x->chi2_dof));
 	/* Full precision: a p-value of 4.07e-50 is not 0. */
@@ -117,8 +99,9 @@ jfill(const struct coverage_result *r, const struct coverage_fill *f)
 		return NULL;
 	}
 	bad |= json_object_set_new(o, "bins", bins);
-	bad |= json_object_set_new(o, "from_utc", jutc(f->from_mjd));
-	bad |= json_object_set_new(o, "to_utc", jutc(f->to_mjd));
+	bad |= json_object_set_new(o, "from_utc", render_json_mjd(f->from_mjd,
+	    0));
+	bad |= json_object_set_new(o, "to_utc", render_json_mjd(f->to_mjd, 0));
 	bad |= json_object_set_new(o, "windows_examined",
 	    json_integer((json_int_t)f->windows));
 	for (size_t i = 0; i < f->nbins && !bad; i++) {
@@ -141,14 +124,15 @@ jfill(const struct coverage_result *r, const struct coverage_fill *f)
 			bad |= json_object_set_new(x, "target",
 			    json_string(d->target));
 			bad |= json_object_set_new(x, "window_start_utc",
-			    jutc(d->window_start_mjd));
+			    render_json_mjd(d->window_start_mjd, 0));
 			bad |= json_object_set_new(x, "window_end_utc",
-			    jutc(d->window_end_mjd));
+			    render_json_mjd(d->window_end_mjd, 0));
 			bad |= json_object_set_new(x, "in_bin_start_utc",
-			    jutc(d->in_bin_start_mjd));
+			    render_json_mjd(d->in_bin_start_mjd, 0));
 			bad |= json_object_set_new(x, "in_bin_end_utc",
-			    jutc(d->in_bin_end_mjd));
-			bad |= json_object_set_new(x, "score", render_json_num(d->score, 6));
+			    render_json_mjd(d->in_bin_end_mjd, 0));
+			bad |= json_object_set_new(x, "score",
+			    render_json_num(d->score, 6));
 		}
 	}
 	if (bad) {
@@ -182,8 +166,10 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	o = json_object();
 	bad |= json_object_set_new(root, "filters", o);
 	if (o != NULL) {
-		bad |= json_object_set_new(o, "since_utc", jutc(s->since_mjd));
-		bad |= json_object_set_new(o, "until_utc", jutc(s->until_mjd));
+		bad |= json_object_set_new(o, "since_utc",
+		    render_json_mjd(s->since_mjd, 0));
+		bad |= json_object_set_new(o, "until_utc",
+		    render_json_mjd(s->until_mjd, 0));
 		bad |= json_object_set_new(o, "target", jstr_or_null(s->target));
 		bad |= json_object_set_new(o, "station",
 		    jstr_or_null(s->station));
@@ -198,8 +184,10 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 		o = json_object();
 		bad |= json_array_append_new(arr, o);
 		bad |= json_object_set_new(o, "bin", json_integer(b));
-		bad |= json_object_set_new(o, "from_deg", render_json_num(edge(r, b), 6));
-		bad |= json_object_set_new(o, "to_deg", render_json_num(edge(r, b + 1), 6));
+		bad |= json_object_set_new(o, "from_deg",
+		    render_json_num(edge(r, b), 6));
+		bad |= json_object_set_new(o, "to_deg", render_json_num(edge(r,
+		    b + 1), 6));
 	}
 	bad |= json_object_set_new(root, "pooled",
 	    jcounts(&r->pooled, s->nbins, s->min_count));
@@ -315,7 +303,7 @@ utc_minutes(double mjd, char *buf, size_t len)
 {
 	char full[40];
 
-	utc_of_mjd(mjd, full, sizeof full);
+	render_utc_text(mjd, 0, full, sizeof full);
 	if (strlen(full) >= 16)
 		snprintf(buf, len, "%.16sZ", full);
 	else
@@ -357,7 +345,7 @@ text_fill(struct mbuf *out, const struct render_cov *c)
 			    "    %s to %-6s %-10s %9.4g", a,
 			    strncmp(a, b, 11) == 0 ? b + 11 : b, d->target,
 			    d->score);
-			if (c->time_zone != NULL && render_local_time(MJD0,
+			if (c->time_zone != NULL && render_local_time(TEXT_MJD0,
 			    d->in_bin_start_mjd, c->time_zone, local,
 			    sizeof local) == ERRCODE_OK)
 				mbuf_printf(out, "  %s", local);
@@ -383,8 +371,8 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 		mbuf_printf(out, "Station: %s\n", c->station_name);
 	mbuf_printf(out, "%d bins of %.4g deg; a bin is filled at >= %ld\n",
 	    s->nbins, r->bin_width_deg, s->min_count);
-	utc_of_mjd(s->since_mjd, a, sizeof a);
-	utc_of_mjd(s->until_mjd, b, sizeof b);
+	render_utc_text(s->since_mjd, 0, a, sizeof a);
+	render_utc_text(s->until_mjd, 0, b, sizeof b);
 	mbuf_printf(out, "Filters: since %s, until %s, target %s, station %s\n",
 	    isnan(s->since_mjd) ? "-" : a, isnan(s->until_mjd) ? "-" : b,
 	    s->target[0] ? s->target : "all",

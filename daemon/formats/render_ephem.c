@@ -32,7 +32,7 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 
 	if (root == NULL)
 		return ERRCODE_NOMEM;
-	bad |= set(root, "utc", render_json_iso(g->t.utc1, g->t.utc2));
+	bad |= set(root, "utc", render_json_utc(g->t.utc1, g->t.utc2, 0));
 	bad |= set(root, "tt_jd", render_json_num(g->t.tt1 + g->t.tt2, 8));
 	bad |= set(root, "dut1_s", render_json_num(g->t.dut1, 4));
 	bad |= set(root, "dut1_source",
@@ -54,25 +54,35 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 	bad |= set(root, "moon", o);
 	bad |= set(o, "az_deg", render_json_num(m->az * R2D, 6));
 	bad |= set(o, "el_deg", render_json_num(m->el * R2D, 6));
-	bad |= set(o, "el_apparent_deg", render_json_num(m->el_apparent * R2D, 6));
+	bad |= set(o, "el_apparent_deg", render_json_num(m->el_apparent * R2D,
+	    6));
 	bad |= set(o, "ha_deg", render_json_num(m->ha * R2D, 6));
 	bad |= set(o, "ra_deg", render_json_num(m->ra * R2D, 6));
 	bad |= set(o, "dec_deg", render_json_num(m->dec * R2D, 6));
 	bad |= set(o, "range_km", render_json_num(m->range / 1e3, 4));
-	bad |= set(o, "geocentric_range_km", render_json_num(m->geocentric_range / 1e3, 4));
-	bad |= set(o, "phase_angle_deg", render_json_num(m->phase_angle * R2D, 5));
-	bad |= set(o, "illuminated_fraction", render_json_num(m->illuminated_fraction, 6));
-	bad |= set(o, "elongation_deg", render_json_num(m->elongation * R2D, 5));
-	bad |= set(o, "synodic_angle_deg", render_json_num(m->synodic * R2D, 5));
-	bad |= set(o, "mean_elongation_deg", render_json_num(m->mean_elong * R2D, 5));
-	bad |= set(o, "horizontal_parallax_deg", render_json_num(m->parallax * R2D, 6));
-	bad |= set(o, "round_trip_s", render_json_num(2.0 * m->range / GEOM_C, 9));
+	bad |= set(o, "geocentric_range_km",
+	    render_json_num(m->geocentric_range / 1e3, 4));
+	bad |= set(o, "phase_angle_deg", render_json_num(m->phase_angle * R2D,
+	    5));
+	bad |= set(o, "illuminated_fraction",
+	    render_json_num(m->illuminated_fraction, 6));
+	bad |= set(o, "elongation_deg", render_json_num(m->elongation * R2D,
+	    5));
+	bad |= set(o, "synodic_angle_deg", render_json_num(m->synodic * R2D,
+	    5));
+	bad |= set(o, "mean_elongation_deg",
+	    render_json_num(m->mean_elong * R2D, 5));
+	bad |= set(o, "horizontal_parallax_deg",
+	    render_json_num(m->parallax * R2D, 6));
+	bad |= set(o, "round_trip_s", render_json_num(2.0 * m->range / GEOM_C,
+	    9));
 
 	o = json_object();
 	bad |= set(root, "sun", o);
 	bad |= set(o, "az_deg", render_json_num(g->sun.az * R2D, 5));
 	bad |= set(o, "el_deg", render_json_num(g->sun.el * R2D, 5));
-	bad |= set(o, "separation_deg", render_json_num(g->sun.separation * R2D, 5));
+	bad |= set(o, "separation_deg", render_json_num(g->sun.separation * R2D,
+	    5));
 
 	o = json_object();
 	bad |= set(root, "libration", o);
@@ -89,7 +99,8 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 	bad |= set(root, "subsolar", o);
 	bad |= set(o, "lon_deg", render_json_num(g->lib.subsolar_lon * R2D, 5));
 	bad |= set(o, "lat_deg", render_json_num(g->lib.subsolar_lat * R2D, 5));
-	bad |= set(o, "colongitude_deg", render_json_num(g->lib.colongitude * R2D, 5));
+	bad |= set(o, "colongitude_deg",
+	    render_json_num(g->lib.colongitude * R2D, 5));
 
 	arr = json_array();
 	bad |= set(root, "targets", arr);
@@ -101,13 +112,17 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 		bad |= set(o, "id", json_string(e->targets[i].id));
 		bad |= set(o, "az_deg", render_json_num(v->az * R2D, 6));
 		bad |= set(o, "el_deg", render_json_num(v->el * R2D, 6));
-		bad |= set(o, "el_apparent_deg", render_json_num(v->el_apparent * R2D, 6));
+		bad |= set(o, "el_apparent_deg",
+		    render_json_num(v->el_apparent * R2D, 6));
 		bad |= set(o, "range_km", render_json_num(v->range / 1e3, 4));
-		bad |= set(o, "round_trip_s", render_json_num(v->round_trip, 9));
-		bad |= set(o, "offset_ra_arcsec", render_json_num(v->offset_ra * R2D * 3600, 2));
+		bad |= set(o, "round_trip_s", render_json_num(v->round_trip,
+		    9));
+		bad |= set(o, "offset_ra_arcsec",
+		    render_json_num(v->offset_ra * R2D * 3600, 2));
 		bad |= set(o, "offset_dec_arcsec",
 		    render_json_num(v->offset_dec * R2D * 3600, 2));
-		bad |= set(o, "sun_elevation_deg", render_json_num(v->sun_elevation * R2D, 4));
+		bad |= set(o, "sun_elevation_deg",
+		    render_json_num(v->sun_elevation * R2D, 4));
 		bad |= set(o, "sunlit", json_boolean(v->sunlit));
 		bad |= set(o, "earth_elevation_deg",
 		    render_json_num(v->earth_elevation * R2D, 4));

@@ -6,6 +6,7 @@
 #include <jansson.h>
 
 #include "core/mem.h"
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/render_json.h"
 
@@ -53,13 +54,20 @@ render_json_dump(json_t *root, struct mbuf *out)
 }
 
 json_t *
-render_json_iso(double utc1, double utc2)
+render_json_utc(double utc1, double utc2, int ndp)
 {
-	char buf[40];
+	char buf[48];
 
-	if (tscale_format_utc(utc1, utc2, 0, buf, sizeof buf) != ERRCODE_OK)
+	if (!isfinite(utc1) || !isfinite(utc2) ||
+	    tscale_format_utc(utc1, utc2, ndp, buf, sizeof buf) != ERRCODE_OK)
 		return json_null();
 	return json_string(buf);
+}
+
+json_t *
+render_json_mjd(double mjd, int ndp)
+{
+	return render_json_utc(TEXT_MJD0, mjd, ndp);
 }
 
 void

@@ -32,8 +32,8 @@ render_phases_json(const struct render_phases *p, struct mbuf *out)
 		json_decref(arr);
 		return ERRCODE_NOMEM;
 	}
-	bad |= set(root, "from", render_json_iso(p->from1, p->from2));
-	bad |= set(root, "to", render_json_iso(p->to1, p->to2));
+	bad |= set(root, "from", render_json_utc(p->from1, p->from2, 0));
+	bad |= set(root, "to", render_json_utc(p->to1, p->to2, 0));
 	bad |= set(root, "phases", arr);
 	for (size_t i = 0; i < p->n; i++) {
 		json_t *o = json_object();

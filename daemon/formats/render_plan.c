@@ -10,31 +10,13 @@
 #include <jansson.h>
 
 #include "core/tscale.h"
+#include "core/text.h"
 #include "formats/render_json.h"
 #include "formats/render_plan.h"
 #include "formats/render_time.h"
 #include "formats/render_site.h"
 
-#define MJD0 2400000.5
 #define R2D (ERFA_DR2D)
-
-/* ISO 8601 UTC of an MJD, whole seconds; "?" on failure. */
-static void
-iso(double mjd, char *buf, size_t len)
-{
-	if (tscale_format_utc(MJD0, mjd, 0, buf, len) != ERRCODE_OK)
-		snprintf(buf, len, "?");
-}
-
-static json_t *
-jiso(double mjd)
-{
-	char buf[40];
-
-	if (tscale_format_utc(MJD0, mjd, 0, buf, sizeof buf) != ERRCODE_OK)
-		return json_null();
-	return json_string(buf);
-}
 
 static int
 set(json_t *o, const char *k, json_t *v)
@@ -56,16 +38,19 @@ window_json(const struct plan_window *w)
 	}
 	bad |= set(o, "rank", json_integer((json_int_t)f->rank));
 	bad |= set(o, "target", json_string(w->target));
-	bad |= set(o, "start", jiso(w->start_mjd));
-	bad |= set(o, "end", jiso(w->end_mjd));
+	bad |= set(o, "start", render_json_mjd(w->start_mjd, 0));
+	bad |= set(o, "end", render_json_mjd(w->end_mjd, 0));
 	bad |= set(o, "duration_s", render_json_num(f->duration_s, 0));
 	bad |= set(o, "max_el_deg", render_json_num(f->max_el * R2D, 2));
-	bad |= set(o, "max_el_utc", jiso(w->max_el_mjd));
-	bad |= set(o, "synodic_angle_deg", render_json_num(f->synodic * R2D, 2));
+	bad |= set(o, "max_el_utc", render_json_mjd(w->max_el_mjd, 0));
+	bad |= set(o, "synodic_angle_deg", render_json_num(f->synodic * R2D,
+	    2));
 	bad |= set(o, "phase_bin", json_integer(f->phase_bin));
 	bad |= set(o, "bin_count", json_integer(f->bin_count));
-	bad |= set(o, "coverage_weight", render_json_num(f->coverage_weight, 6));
-	bad |= set(o, "sunlit_fraction", render_json_num(f->sunlit_fraction, 4));
+	bad |= set(o, "coverage_weight", render_json_num(f->coverage_weight,
+	    6));
+	bad |= set(o, "sunlit_fraction", render_json_num(f->sunlit_fraction,
+	    4));
 	bad |= set(o, "mean_airmass", render_json_num(f->mean_airmass, 4));
 	bad |= set(o, "expected_returns",
 	    render_json_num(f->expected_returns, 6));
@@ -90,8 +75,8 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 
 	if (bad)
 		return ERRCODE_NOMEM;
-	bad |= set(root, "from", jiso(r->from_mjd));
-	bad |= set(root, "to", jiso(r->to_mjd));
+	bad |= set(root, "from", render_json_mjd(r->from_mjd, 0));
+	bad |= set(root, "to", render_json_mjd(r->to_mjd, 0));
 	bad |= set(root, "dut1_s", render_json_num(r->eop.dut1, 4));
 	bad |= set(root, "dut1_source", json_string(r->dut1_source != NULL ?
 	    r->dut1_source : "none"));
@@ -120,14 +105,16 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 	bad |= set(root, "model", o);
 	if (o != NULL) {
 		bad |= set(o, "zenith_tau", render_json_num(st->zenith_tau, 4));
-		bad |= set(o, "fire_rate_hz", render_json_num(st->fire_rate_hz, 3));
+		bad |= set(o, "fire_rate_hz", render_json_num(st->fire_rate_hz,
+		    3));
 		bad |= set(o, "coverage_bins", json_integer(r->settings.nbins));
 		bad |= set(o, "coverage_alpha",
 		    render_json_num(r->settings.alpha, 4));
 		bad |= set(o, "coverage_k", render_json_num(r->settings.k, 4));
 		bad |= set(o, "coverage_per_target",
 		    json_boolean(r->settings.per_target));
-		bad |= set(o, "base_rate", render_json_num(r->model.base_rate, 9));
+		bad |= set(o, "base_rate", render_json_num(r->model.base_rate,
+		    9));
 		bad |= set(o, "base_sunlit_factor",
 		    render_json_num(r->model.base_sunlit, 6));
 		bad |= set(o, "attempts_used",
@@ -149,7 +136,8 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 			if (a2 == NULL)
 				continue;
 			bad |= set(a2, "id", json_string(m->id));
-			bad |= set(a2, "strength", render_json_num(m->strength, 4));
+			bad |= set(a2, "strength", render_json_num(m->strength,
+			    4));
 			bad |= set(a2, "returns_per_shot_zenith",
 			    render_json_num(m->y.rate, 9));
 			bad |= set(a2, "prior_returns_per_shot",
@@ -202,9 +190,9 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 		char a[40], b[40], m[40], line[512];
 		struct mbuf rs;
 
-		iso(w->start_mjd, a, sizeof a);
-		iso(w->end_mjd, b, sizeof b);
-		iso(w->max_el_mjd, m, sizeof m);
+		render_utc_text(w->start_mjd, 0, a, sizeof a);
+		render_utc_text(w->end_mjd, 0, b, sizeof b);
+		render_utc_text(w->max_el_mjd, 0, m, sizeof m);
 		snprintf(line, sizeof line, "%zu", f->rank);
 		csv_field(out, line, 0);
 		csv_field(out, w->target, 0);
@@ -242,7 +230,7 @@ render_ics_time(double mjd, char *buf, size_t len)
 	int y, mo, d, h, mi;
 	double s;
 
-	if (tscale_utc_fields(MJD0, mjd + 0.5 / ERFA_DAYSEC, &y, &mo, &d, &h,
+	if (tscale_utc_fields(TEXT_MJD0, mjd + 0.5 / ERFA_DAYSEC, &y, &mo, &d, &h,
 	    &mi, &s) != ERRCODE_OK) {
 		snprintf(buf, len, "19700101T000000Z");
 		return;
@@ -343,7 +331,7 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 
 		render_ics_time(w->start_mjd, a, sizeof a);
 		render_ics_time(w->end_mjd, b, sizeof b);
-		iso(w->max_el_mjd, m, sizeof m);
+		render_utc_text(w->max_el_mjd, 0, m, sizeof m);
 		render_ics_line(out, "BEGIN:VEVENT");
 		snprintf(line, sizeof line, "UID:%s-%s@moonrange", w->target, a);
 		render_ics_line(out, line);
@@ -407,9 +395,11 @@ render_local_parts(double mjd, const char *tz, char *day, char *hm, char *zone)
 	strcpy(day, "?");
 	strcpy(hm, "?");
 	strcpy(zone, "");
-	if (tz == NULL || render_local_time(MJD0, mjd, tz, buf, sizeof buf) !=
+	if (tz == NULL || render_local_time(TEXT_MJD0, mjd, tz, buf,
+	    sizeof buf) !=
 	    ERRCODE_OK) {
-		iso(mjd, buf, sizeof buf);	/* YYYY-MM-DDTHH:MM:SSZ */
+		render_utc_text(mjd, 0, buf,
+		    sizeof buf);	/* YYYY-MM-DDTHH:MM:SSZ */
 		buf[16] = '\0';
 		strcpy(zone, "UTC");
 	} else if (strlen(buf) > 17) {
@@ -429,8 +419,8 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 	const struct plan_result *r = p->r;
 	char a[40], b[40];
 
-	iso(r->from_mjd, a, sizeof a);
-	iso(r->to_mjd, b, sizeof b);
+	render_utc_text(r->from_mjd, 0, a, sizeof a);
+	render_utc_text(r->to_mjd, 0, b, sizeof b);
 	if (p->station_name != NULL)
 		mbuf_printf(out, "%s\n", p->station_name);
 	mbuf_printf(out, "Windows %s to %s: %zu found, %zu shown\n", a, b,
@@ -524,12 +514,12 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 
 	render_local_parts(r->from_mjd, tz, d, h, z);
 	render_local_parts(r->to_mjd, tz, d2, h2, z2);
-	iso(r->from_mjd, u, sizeof u);
+	render_utc_text(r->from_mjd, 0, u, sizeof u);
 	mbuf_printf(out, "Tonight at %.60s\n", p->station_name ?
 	    p->station_name : "the station");
 	mbuf_printf(out, "Night %.4s-%s %s to %s %s %s\n", u, d, h, d2, h2, z2);
 	render_local_parts(p->now_mjd, tz, d, h, z);
-	iso(p->now_mjd, u, sizeof u);
+	render_utc_text(p->now_mjd, 0, u, sizeof u);
 	mbuf_printf(out, "Now %s %s %s (%s)\n", d, h, z, u);
 	{
 		char line[256];
@@ -561,7 +551,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 	if (isfinite(tnext)) {
 		nx = best_at(r, tnext);
 		render_local_parts(tnext, tz, d, h, z);
-		iso(tnext, u, sizeof u);
+		render_utc_text(tnext, 0, u, sizeof u);
 		mbuf_printf(out, "Next change: %s %s (%.5s UTC) -> %s\n", h, z,
 		    u + 11, nx != NULL ? nx->target : "nothing open");
 	} else {

@@ -7,30 +7,11 @@
 
 #include <jansson.h>
 
+#include "core/text.h"
 #include "formats/render_json.h"
 #include "formats/render_time.h"
 #include "formats/render_site.h"
 #include "core/tscale.h"
-
-#define MJD_BASE 2400000.5
-
-/* A UTC MJD as ISO text with ndp decimals, or null. */
-static json_t *
-jtime(double mjd, int ndp)
-{
-	char buf[40];
-
-	if (tscale_format_utc(MJD_BASE, mjd, ndp, buf, sizeof buf))
-		return json_null();
-	return json_string(buf);
-}
-
-static void
-text_time(double mjd, int ndp, char *buf, size_t len)
-{
-	if (tscale_format_utc(MJD_BASE, mjd, ndp, buf, len) != ERRCODE_OK)
-		snprintf(buf, len, "?");
-}
 
 /*
  * Serialise root (a reference that is consumed) into out with render.c's
@@ -79,8 +60,8 @@ attempt_obj(const struct site_attempt *a)
 	    "s:s, s:o, s:s, s:o, s:o, s:o, s:o}",
 	    "id", (json_int_t)a->id,
 	    "target", a->target,
-	    "start_utc", jtime(a->start_mjd, 3),
-	    "end_utc", jtime(a->end_mjd, 3),
+	    "start_utc", render_json_mjd(a->start_mjd, 3),
+	    "end_utc", render_json_mjd(a->end_mjd, 3),
 	    "duration_s",
 	    render_json_num((a->end_mjd - a->start_mjd) * 86400.0, 3),
 	    "shots", (json_int_t)a->shots,
@@ -166,8 +147,8 @@ render_site_attempts_csv(const struct site_attempt *a, size_t n, int derived,
 		    "sun_el_target_deg");
 	mbuf_add(out, "\r\n", 2);
 	for (size_t i = 0; i < n; i++) {
-		text_time(a[i].start_mjd, 3, t0, sizeof t0);
-		text_time(a[i].end_mjd, 3, t1, sizeof t1);
+		render_utc_text(a[i].start_mjd, 3, t0, sizeof t0);
+		render_utc_text(a[i].end_mjd, 3, t1, sizeof t1);
 		if (derived)
 			mbuf_printf(out, "%ld,", a[i].id);
 		render_site_csv_field(out, a[i].target);
@@ -199,14 +180,14 @@ render_site_attempts_text(const struct site_attempt *a, size_t n,
 	    "id", "target", "start UTC", "min", "shots", "ret", "NP",
 	    "outcome", "synod", "el");
 	for (size_t i = 0; i < n; i++) {
-		text_time(a[i].start_mjd, 0, t0, sizeof t0);
+		render_utc_text(a[i].start_mjd, 0, t0, sizeof t0);
 		mbuf_printf(out, "%5ld %-10.10s %-20s %4.0f %6ld %5ld %3ld "
 		    "%-10s %6.1f %5.1f\n", a[i].id, a[i].target, t0,
 		    (a[i].end_mjd - a[i].start_mjd) * 1440.0, a[i].shots,
 		    a[i].returns, a[i].normal_points,
 		    site_outcome_name(a[i].outcome), a[i].synodic_deg,
 		    a[i].target_el_deg);
-		if (tz != NULL && render_local_time(MJD_BASE,
+		if (tz != NULL && render_local_time(TEXT_MJD0,
 		    a[i].start_mjd, tz, local, sizeof local) == ERRCODE_OK)
 			mbuf_printf(out, "%5s %-10s %s local\n", "", "", local);
 	}
@@ -316,8 +297,8 @@ render_site_blackouts_json(const struct site_blackout *b, size_t n,
 	for (size_t i = 0; i < n && !failed; i++)
 		failed = json_array_append_new(arr, json_pack("{s:I, s:o, s:o, "
 		    "s:s}", "id", (json_int_t)b[i].id,
-		    "start_utc", jtime(b[i].start_mjd, 3),
-		    "end_utc", jtime(b[i].end_mjd, 3),
+		    "start_utc", render_json_mjd(b[i].start_mjd, 3),
+		    "end_utc", render_json_mjd(b[i].end_mjd, 3),
 		    "reason", b[i].reason)) != 0;
 	return finish(root, failed, out);
 }
@@ -331,8 +312,8 @@ render_site_blackouts_text(const struct site_blackout *b, size_t n,
 	mbuf_printf(out, "%5s %-20s %-20s %s\n", "id", "start UTC", "end UTC",
 	    "reason");
 	for (size_t i = 0; i < n; i++) {
-		text_time(b[i].start_mjd, 0, t0, sizeof t0);
-		text_time(b[i].end_mjd, 0, t1, sizeof t1);
+		render_utc_text(b[i].start_mjd, 0, t0, sizeof t0);
+		render_utc_text(b[i].end_mjd, 0, t1, sizeof t1);
 		mbuf_printf(out, "%5ld %-20s %-20s %s\n", b[i].id, t0, t1,
 		    b[i].reason);
 	}

@@ -9,6 +9,7 @@
 #include <time.h>
 #include <unistd.h>
 
+#include "core/text.h"
 #include "core/tscale.h"
 #include "formats/render_time.h"
 
@@ -56,6 +57,14 @@ render_local_time(double utc1, double utc2, const char *tz, char *buf,
 	tzset();
 	pthread_mutex_unlock(&tz_lock);
 	return n > 0 ? ERRCODE_OK : ERRCODE_BAD_ARG;
+}
+
+void
+render_utc_text(double mjd, int ndp, char *buf, size_t len)
+{
+	if (!isfinite(mjd) ||
+	    tscale_format_utc(TEXT_MJD0, mjd, ndp, buf, len) != ERRCODE_OK)
+		snprintf(buf, len, "?");
 }
 
 void

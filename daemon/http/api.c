@@ -299,22 +299,6 @@ api_release_store(struct api_ctx *ctx, struct store *db, int locked)
 
 /* --- small JSON helpers --- */
 
-json_t *
-api_iso_or_null(double utc1, double utc2)
-{
-	char buf[40];
-
-	if (tscale_format_utc(utc1, utc2, 0, buf, sizeof buf) != ERRCODE_OK)
-		return json_null();
-	return json_string(buf);
-}
-
-json_t *
-api_iso_of_mjd(double mjd)
-{
-	return isfinite(mjd) ? api_iso_or_null(ERFA_DJM0, mjd) : json_null();
-}
-
 void
 api_json_reply(struct api_response *resp, json_t *root, int bad)
 {
@@ -338,16 +322,6 @@ api_site_loaded(struct api_ctx *ctx, struct api_response *resp)
 		return 0;
 	}
 	return 1;
-}
-
-enum eop_source
-api_site_eop_at(const struct api_site *s, double mjd, struct geom_eop *out)
-{
-	struct eop_table t;
-
-	t.rows = s->eop;
-	t.n = s->neop;
-	return eop_lookup(&t, mjd, out);
 }
 
 /* --- the route table --- */

@@ -13,6 +13,7 @@
 
 #include "http/api.h"
 #include "http/api_int.h"
+#include "core/text.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
 #include "core/derive.h"
@@ -50,9 +51,9 @@ api_h_status(struct api_ctx *ctx, const struct api_request *req,
 	    json_string(MOONRANGE_VERSION));
 	bad |= json_object_set_new(root, "api", json_string("v1"));
 	bad |= json_object_set_new(root, "now_utc",
-	    api_iso_or_null(req->now1, req->now2));
-	bad |= json_object_set_new(root, "started_utc", api_iso_or_null(su1,
-	    su2));
+	    render_json_utc(req->now1, req->now2, 0));
+	bad |= json_object_set_new(root, "started_utc", render_json_utc(su1,
+	    su2, 0));
 	bad |= json_object_set_new(root, "uptime_s",
 	    json_integer((json_int_t)(up > 0 ? floor(up) : 0)));
 	bad |= json_object_set_new(root, "database",
@@ -70,8 +71,8 @@ api_h_status(struct api_ctx *ctx, const struct api_request *req,
 	bad |= json_object_set_new(root, "plan", o);
 	if (o != NULL) {
 		bad |= json_object_set_new(o, "last_utc", ctx->planned ?
-		    api_iso_or_null(ctx->plan_utc1,
-		    ctx->plan_utc2) : json_null());
+		    render_json_utc(ctx->plan_utc1,
+		    ctx->plan_utc2, 0) : json_null());
 		bad |= json_object_set_new(o, "refresh_s",
 		    render_json_num(ctx->refresh_s, 0));
 		bad |= json_object_set_new(o, "days", ctx->planned ?
@@ -89,9 +90,10 @@ api_h_status(struct api_ctx *ctx, const struct api_request *req,
 		bad |= json_object_set_new(o, "rows",
 		    json_integer((json_int_t)s->neop));
 		bad |= json_object_set_new(o, "first_utc", s->neop ?
-		    api_iso_of_mjd(s->eop[0].mjd) : json_null());
+		    render_json_mjd(s->eop[0].mjd, 0) : json_null());
 		bad |= json_object_set_new(o, "last_utc", s->neop ?
-		    api_iso_of_mjd(s->eop[s->neop - 1].mjd) : json_null());
+		    render_json_mjd(s->eop[s->neop - 1].mjd, 0) :
+		    json_null());
 		bad |= json_object_set_new(o, "covers_now",
 		    json_boolean(covers));
 	}
@@ -151,7 +153,8 @@ api_h_now(struct api_ctx *ctx, const struct api_request *req,
 		    "the station's position is out of range");
 		return;
 	}
-	src = api_site_eop_at(&ctx->site, (u1 - ERFA_DJM0) + u2, &eop);
+	src = eop_lookup_rows(ctx->site.eop, ctx->site.neop,
+	    (u1 - TEXT_MJD0) + u2, &eop);
 	/* The table's last day, as "ephem --db" reports it. */
 	if (ctx->site.neop == 0 || tscale_format_utc(ERFA_DJM0,
 	    ctx->site.eop[ctx->site.neop - 1].mjd, 0, last, sizeof last))

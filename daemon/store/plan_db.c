@@ -64,7 +64,8 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
 	q->settings.k = set.coverage_k;
 	q->settings.per_target = set.coverage_per_target;
 	store_query_init(&all);
-	rc = store_targets_list(s, 1, &d->targets, &d->ntargets, errbuf, errlen);
+	rc = store_targets_list(s, 1, &d->targets, &d->ntargets, errbuf,
+	    errlen);
 	if (rc == ERRCODE_OK)
 		rc = store_blackouts_list(s, NAN, NAN, &d->blackouts,
 		    &d->nblackouts, errbuf, errlen);

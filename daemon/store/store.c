@@ -112,6 +112,10 @@ sqlite_setup(void)
 
 /* --- statements ----------------------------------------------------------- */
 
+/* A macro's value as SQL text (TEXT_MJD0 in the EOP insert). */
+#define STORE_STR_(x) #x
+#define STORE_STR(x) STORE_STR_(x)
+
 #define STATION_COLS "name, code, lat_deg, lon_deg, height_m, time_zone, " \
 	"min_el_deg, max_sun_el_deg, min_sun_sep_deg, pressure_hpa, " \
 	"temperature_c, humidity, wavelength_nm, zenith_tau, fire_rate_hz"
@@ -183,7 +187,7 @@ static const char *const stmt_sql[ST__COUNT] = {
 	    ORDER_BY("epoch_mjd"),
 	[ST_NPS_COUNT] = "SELECT count(*) FROM normal_points" NP_WHERE,
 	[ST_EOP_PUT] = "INSERT INTO eop (mjd, date_utc, dut1_s, xp_arcsec, "
-	    "yp_arcsec) VALUES (?1, date(?1 + 2400000.5), ?2, ?3, ?4) "
+	    "yp_arcsec) VALUES (?1, date(?1 + " STORE_STR(TEXT_MJD0) "), ?2, ?3, ?4) "
 	    "ON CONFLICT (mjd) DO UPDATE SET dut1_s = excluded.dut1_s, "
 	    "xp_arcsec = excluded.xp_arcsec, yp_arcsec = excluded.yp_arcsec",
 	[ST_EOP_LOAD] = "SELECT mjd, dut1_s, xp_arcsec, yp_arcsec FROM eop "
@@ -200,18 +204,6 @@ static const char *const stmt_sql[ST__COUNT] = {
 
 /* --- errors --------------------------------------------------------------- */
 
-void MEM_PRINTFLIKE(3, 4)
-store_seterr(char *errbuf, size_t errlen, const char *fmt, ...)
-{
-	va_list ap;
-
-	if (errbuf == NULL || errlen == 0)
-		return;
-	va_start(ap, fmt);
-	vsnprintf(errbuf, errlen, fmt, ap);
-	va_end(ap);
-}
-
 enum errcode
 store_db_error(struct store *s, int rc, const char *what, char *errbuf,
     size_t errlen)
@@ -227,41 +219,37 @@ store_db_error(struct store *s, int rc, const char *what, char *errbuf,
 		col = dot + 1;
 	switch (rc) {
 	case SQLITE_CONSTRAINT_CHECK:
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: field '%s': value refused by the "
 		    "database (out of range or malformed)", what, col);
-		return ERRCODE_BAD_ARG;
 	case SQLITE_CONSTRAINT_NOTNULL:
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: field '%s': a value is required",
 		    what, col);
-		return ERRCODE_BAD_ARG;
 	case SQLITE_CONSTRAINT_UNIQUE:
 	case SQLITE_CONSTRAINT_PRIMARYKEY:
-		store_seterr(errbuf, errlen, "%s: already stored (%s)", what,
+		return text_err(ERRCODE_EXISTS, errbuf, errlen,
+		    "%s: already stored (%s)", what,
 		    msg);
-		return ERRCODE_EXISTS;
 	case SQLITE_CONSTRAINT_FOREIGNKEY:
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
 		    "%s: field 'target': no such target",
 		    what);
-		return ERRCODE_NOT_FOUND;
 	case SQLITE_CONSTRAINT_DATATYPE:
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "%s: a value has the wrong type (%s)",
 		    what, msg);
-		return ERRCODE_BAD_ARG;
 	case SQLITE_NOMEM:
-		store_seterr(errbuf, errlen, "%s: out of memory", what);
-		return ERRCODE_NOMEM;
+		return text_err(ERRCODE_NOMEM, errbuf, errlen,
+		    "%s: out of memory", what);
 	case SQLITE_BUSY:
 	case SQLITE_LOCKED:
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_DB, errbuf, errlen,
 		    "%s: the database stayed locked by "
 		    "another process for over %d s", what, STORE_BUSY_MS / 1000);
-		return ERRCODE_DB;
 	default:
-		store_seterr(errbuf, errlen, "%s: database error: %s", what,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		    "%s: database error: %s", what,
 		    msg);
 		return (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
@@ -363,7 +351,7 @@ exec_sql(struct store *s, const char *sql, const char *what, char *errbuf,
 	enum errcode e = ERRCODE_OK;
 
 	if (rc != SQLITE_OK) {
-		store_seterr(errbuf, errlen, "%s: %s", what,
+		(void)text_err(ERRCODE_OK, errbuf, errlen, "%s: %s", what,
 		    msg != NULL ? msg : sqlite3_errstr(rc));
 		e = (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
@@ -400,7 +388,7 @@ store_collect(struct store *s, sqlite3_stmt *st, size_t esz, store_row_fn fn,
 
 			if (ncap > SIZE_MAX / esz ||
 			    (p = mem_realloc(arr, ncap * esz)) == NULL) {
-				store_seterr(errbuf, errlen,
+				(void)text_err(ERRCODE_OK, errbuf, errlen,
 				    "%s: out of memory", what);
 				e = ERRCODE_NOMEM;
 				goto out;
@@ -438,7 +426,8 @@ store_fetch_one(struct store *s, sqlite3_stmt *st, store_row_fn fn, void *dst,
 	if (rc == SQLITE_ROW) {
 		fn(st, dst);
 	} else if (rc == SQLITE_DONE) {
-		store_seterr(errbuf, errlen, "%s: not found", what);
+		(void)text_err(ERRCODE_OK, errbuf, errlen, "%s: not found",
+		    what);
 		e = ERRCODE_NOT_FOUND;
 	} else {
 		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
@@ -454,10 +443,9 @@ store_canon(double *mjd, int ndp, char *buf, size_t len, const char *what,
     const char *field, char *errbuf, size_t errlen)
 {
 	if (store_time_canon(*mjd, ndp, buf, len, mjd) != ERRCODE_OK) {
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_TIME, errbuf, errlen,
 		    "%s: field '%s': not a valid UTC time",
 		    what, field);
-		return ERRCODE_BAD_TIME;
 	}
 	return ERRCODE_OK;
 }
@@ -498,23 +486,23 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (version < 1 || version > (int)store_sql_nmigrations) {
-		store_seterr(errbuf, errlen, "schema version %d is not one of "
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "schema version %d is not one of "
 		    "1..%zu", version, store_sql_nmigrations);
-		return ERRCODE_BAD_ARG;
 	}
 	if ((e = exec_sql(s, "BEGIN IMMEDIATE", "locking the database for "
 	    "its schema", errbuf, errlen)) != ERRCODE_OK)
 		return e;
 	if ((v = store_schema_version(s)) < 0 ||
 	    pragma_int(s, "SELECT count(*) FROM sqlite_schema", &objects)) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "cannot read the schema version: %s",
 		    sqlite3_errmsg(s->db));
 		e = ERRCODE_DB;
 		goto out;
 	}
 	if (v > version) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "the database has schema version %d, "
 		    "newer than %d (this program knows up to %d)", v, version,
 		    STORE_SCHEMA_VERSION);
@@ -522,7 +510,7 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 		goto out;
 	}
 	if (v == 0 && objects > 0) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "the file holds tables but no moonrange "
 		    "schema version; it is not a moonrange database");
 		e = ERRCODE_DB;
@@ -564,34 +552,35 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 
 	*out = NULL;
 	if (path == NULL || *path == '\0') {
-		store_seterr(errbuf, errlen, "no database file given");
-		return ERRCODE_BAD_ARG;
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "no database file given");
 	}
 	pthread_once(&sqlite_once, sqlite_setup);
 	/* A no-op once it has succeeded; retried after a failure. */
 	if ((rc = sqlite3_initialize()) != SQLITE_OK) {
-		store_seterr(errbuf, errlen, "SQLite failed to start: %s",
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		    "SQLite failed to start: %s",
 		    sqlite3_errstr(rc));
 		return (rc & 0xff) == SQLITE_NOMEM ? ERRCODE_NOMEM : ERRCODE_DB;
 	}
 	memory = strcmp(path, ":memory:") == 0;
 	if (!memory && !(flags & STORE_OPEN_CREATE) && access(path, F_OK) != 0) {
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
 		    "database '%s' does not exist (create it "
 		    "with 'moonrange init --db %s')", path, path);
-		return ERRCODE_NOT_FOUND;
 	}
 	if ((s = mem_calloc(1, sizeof *s)) == NULL) {
-		store_seterr(errbuf, errlen, "opening '%s': out of memory",
+		return text_err(ERRCODE_NOMEM, errbuf, errlen,
+		    "opening '%s': out of memory",
 		    path);
-		return ERRCODE_NOMEM;
 	}
 	oflags = (flags & STORE_OPEN_READONLY) ? SQLITE_OPEN_READONLY :
 	    SQLITE_OPEN_READWRITE | ((flags & STORE_OPEN_CREATE) ?
 	    SQLITE_OPEN_CREATE : 0);
 	if (sqlite3_open_v2(path, &s->db, oflags | SQLITE_OPEN_NOMUTEX, NULL) !=
 	    SQLITE_OK) {
-		store_seterr(errbuf, errlen, "cannot open database '%s': %s",
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		    "cannot open database '%s': %s",
 		    path,
 		    s->db != NULL ? sqlite3_errmsg(s->db) : "out of memory");
 		e = s->db != NULL ? ERRCODE_DB : ERRCODE_NOMEM;
@@ -608,13 +597,13 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		/* A WAL database is read through its -shm file, which SQLite
 		   must be able to create beside it. */
 		if ((sqlite3_extended_errcode(s->db) & 0xff) == SQLITE_READONLY)
-			store_seterr(errbuf, errlen,
+			(void)text_err(ERRCODE_OK, errbuf, errlen,
 			    "cannot read database '%s': "
 			    "SQLite needs to create '%s-shm' beside it (is its "
 			    "directory read-only?): %s", path, path,
 			    sqlite3_errmsg(s->db));
 		else
-			store_seterr(errbuf, errlen,
+			(void)text_err(ERRCODE_OK, errbuf, errlen,
 			    "'%s' is not a readable SQLite "
 			    "database: %s", path, sqlite3_errmsg(s->db));
 		e = ERRCODE_DB;
@@ -630,12 +619,13 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 
 		if ((e = store_migrate(s, STORE_SCHEMA_VERSION, msg,
 		    sizeof msg)) != ERRCODE_OK) {
-			store_seterr(errbuf, errlen, "%s: %s", path, msg);
+			(void)text_err(ERRCODE_OK, errbuf, errlen, "%s: %s",
+			    path, msg);
 			goto out;
 		}
 	}
 	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "%s: the database has schema version %d, "
 		    "newer than this program knows (up to %d)", path, v,
 		    STORE_SCHEMA_VERSION);
@@ -643,7 +633,7 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		goto out;
 	}
 	if ((flags & STORE_OPEN_READONLY) && v != STORE_SCHEMA_VERSION) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "%s: schema version %d, this program needs "
 		    "%d (open it once for writing to migrate it)", path, v,
 		    STORE_SCHEMA_VERSION);
@@ -738,10 +728,12 @@ store_integrity_check(struct store *s, char *errbuf, size_t errlen)
 		if (r != NULL && strcmp(r, "ok") == 0)
 			e = ERRCODE_OK;
 		else
-			store_seterr(errbuf, errlen, "integrity check: %s",
+			(void)text_err(ERRCODE_OK, errbuf, errlen,
+			    "integrity check: %s",
 			    r != NULL ? r : "no answer");
 	} else {
-		store_seterr(errbuf, errlen, "integrity check: %s",
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		    "integrity check: %s",
 		    sqlite3_errmsg(s->db));
 	}
 	sqlite3_finalize(st);
@@ -756,8 +748,8 @@ store_begin(struct store *s, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (s->in_tx) {
-		store_seterr(errbuf, errlen, "a transaction is already open");
-		return ERRCODE_DB;
+		return text_err(ERRCODE_DB, errbuf, errlen,
+		    "a transaction is already open");
 	}
 	e = exec_sql(s, "BEGIN IMMEDIATE", "starting a transaction", errbuf,
 	    errlen);
@@ -772,8 +764,8 @@ store_commit(struct store *s, char *errbuf, size_t errlen)
 	enum errcode e;
 
 	if (!s->in_tx) {
-		store_seterr(errbuf, errlen, "no transaction is open");
-		return ERRCODE_DB;
+		return text_err(ERRCODE_DB, errbuf, errlen,
+		    "no transaction is open");
 	}
 	e = exec_sql(s, "COMMIT", "committing", errbuf, errlen);
 	if (e != ERRCODE_OK)
@@ -895,9 +887,9 @@ store_setting_get(struct store *s, const char *key, char *buf, size_t len,
 	int rc;
 
 	if (d == NULL) {
-		store_seterr(errbuf, errlen, "unknown setting '%s'",
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "unknown setting '%s'",
 		    key ? key : "");
-		return ERRCODE_BAD_ARG;
 	}
 	if ((e = store_stmt_get(s, ST_SETTING_GET, &st, errbuf, errlen)))
 		return e;
@@ -926,15 +918,14 @@ store_setting_set(struct store *s, const char *key, const char *value,
 	enum errcode e;
 
 	if (d == NULL) {
-		store_seterr(errbuf, errlen, "unknown setting '%s'",
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
+		    "unknown setting '%s'",
 		    key ? key : "");
-		return ERRCODE_BAD_ARG;
 	}
 	if (!setting_valid(d, value, &num)) {
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "setting '%s': '%s' is not valid: %s",
 		    key, value ? value : "", d->info.help);
-		return ERRCODE_BAD_ARG;
 	}
 	snprintf(what, sizeof what, "setting '%s'", key);
 	if ((e = store_stmt_get(s, ST_SETTING_SET, &st, errbuf, errlen)))
@@ -959,10 +950,9 @@ store_settings_get(struct store *s, struct store_settings *out, char *errbuf,
 		    errlen)))
 			return e;
 		if (!setting_valid(d, v, &num)) {
-			store_seterr(errbuf, errlen,
+			return text_err(ERRCODE_DB, errbuf, errlen,
 			    "setting '%s' holds '%s', which "
 			    "is not valid", d->info.key, v);
-			return ERRCODE_DB;
 		}
 		if (strcmp(d->info.key, "coverage_bins") == 0)
 			out->coverage_bins = (int)num;

@@ -39,9 +39,8 @@ store_eop_put(struct store *s, const struct site_eop_row *r, char *errbuf,
 
 	if (!isfinite(r->mjd) || r->mjd != floor(r->mjd) ||
 	    fabs(r->mjd) > 1e7) {
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "EOP row: field 'mjd': not a whole day");
-		return ERRCODE_BAD_ARG;
 	}
 	snprintf(what, sizeof what, "EOP row of MJD %.0f", r->mjd);
 	if ((e = store_stmt_get(s, ST_EOP_PUT, &st, errbuf, errlen)))
@@ -114,7 +113,7 @@ store_eop_span(struct store *s, double *first_mjd, double *last_mjd,
 		    "EOP table",
 		    errbuf, errlen);
 	} else if (sqlite3_column_int64(st, 2) == 0) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "the EOP table is empty (load one with "
 		    "'moonrange eop import')");
 		e = ERRCODE_NOT_FOUND;

@@ -129,7 +129,7 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	store_bind_real_or_null(st, 16, a->sun_el_target_deg);
 	e = store_step_done(s, st, what, errbuf, errlen);
 	if (e == ERRCODE_EXISTS)
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "%s: target '%s' already has an attempt "
 		    "starting at %s", what, a->target, t0);
 	if (e != ERRCODE_OK)
@@ -151,16 +151,15 @@ store_attempt_log(struct store *s, struct site_attempt *a, char *errbuf,
 	    (e = store_target_get(s, a->target, &t, errbuf, errlen)))
 		return e;
 	if (!(a->end_mjd > a->start_mjd)) {
-		store_seterr(errbuf, errlen,
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "attempt on '%s': field 'end_utc': not "
 		    "after the start", a->target);
-		return ERRCODE_BAD_ARG;
 	}
 	if ((e = store_eop_at(s, 0.5 * (a->start_mjd + a->end_mjd), &eop, NULL,
 	    errbuf, errlen)))
 		return e;
 	if ((e = derive_attempt(&station, &t, &eop, a)) != ERRCODE_OK) {
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "attempt on '%s': field 'start_utc': "
 		    "cannot compute the geometry (%s)", a->target,
 		    errcode_str(e));
@@ -182,7 +181,8 @@ store_attempt_get(struct store *s, long id, struct site_attempt *out,
 	memset(out, 0, sizeof *out);
 	e = store_fetch_one(s, st, row_attempt, out, "attempt", errbuf, errlen);
 	if (e == ERRCODE_NOT_FOUND)
-		store_seterr(errbuf, errlen, "no attempt with id %ld", id);
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		    "no attempt with id %ld", id);
 	return e;
 }
 

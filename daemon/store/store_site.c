@@ -52,7 +52,7 @@ store_station_get(struct store *s, struct site_station *out, char *errbuf,
 	memset(out, 0, sizeof *out);
 	e = store_fetch_one(s, st, row_station, out, "station", errbuf, errlen);
 	if (e == ERRCODE_NOT_FOUND)
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "the database holds no station (load "
 		    "one with 'moonrange init')");
 	return e;
@@ -147,8 +147,8 @@ store_target_update(struct store *s, const struct site_target *t,
 	if ((e = store_step_done(s, st, what, errbuf, errlen)))
 		return e;
 	if (sqlite3_changes(s->db) == 0) {
-		store_seterr(errbuf, errlen, "no target '%s'", t->id);
-		return ERRCODE_NOT_FOUND;
+		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
+		    "no target '%s'", t->id);
 	}
 	return ERRCODE_OK;
 }
@@ -166,7 +166,8 @@ store_target_get(struct store *s, const char *id, struct site_target *out,
 	memset(out, 0, sizeof *out);
 	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
 	if (e == ERRCODE_NOT_FOUND)
-		store_seterr(errbuf, errlen, "no target '%s'", id);
+		(void)text_err(ERRCODE_OK, errbuf, errlen, "no target '%s'",
+		    id);
 	return e;
 }
 
@@ -183,7 +184,7 @@ store_target_by_alias(struct store *s, const char *name,
 	memset(out, 0, sizeof *out);
 	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
 	if (e == ERRCODE_NOT_FOUND)
-		store_seterr(errbuf, errlen,
+		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "no target has the alias or id '%s'",
 		    name);
 	return e;
@@ -257,8 +258,8 @@ store_blackout_remove(struct store *s, long id, char *errbuf, size_t errlen)
 	if ((e = store_step_done(s, st, "blackout", errbuf, errlen)))
 		return e;
 	if (sqlite3_changes(s->db) == 0) {
-		store_seterr(errbuf, errlen, "no blackout with id %ld", id);
-		return ERRCODE_NOT_FOUND;
+		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
+		    "no blackout with id %ld", id);
 	}
 	return ERRCODE_OK;
 }

@@ -48,10 +48,6 @@ void cli_store_close(struct cli_store *c);
 const struct site_target *cli_store_target(const struct cli_store *c,
     const char *id);
 
-/* Earth orientation at a UTC MJD from the loaded table (eop_lookup). */
-enum eop_source cli_store_eop_at(const struct cli_store *c, double mjd,
-    struct geom_eop *out);
-
 /*
  * Fill the derived angles of an attempt (its target must be loaded) or a
  * normal point.  ERRCODE_NOT_FOUND for an unknown target; errbuf names

@@ -36,6 +36,11 @@ const char *eop_source_name(enum eop_source s);	/* "none" "table" "option" */
 enum eop_source eop_lookup(const struct eop_table *t, double utc_mjd,
     struct geom_eop *out);
 
+/* The same over a borrowed array of n rows (rows may be NULL when n is
+   0): the one lookup for every layer that holds rows. */
+enum eop_source eop_lookup_rows(const struct site_eop_row *rows, size_t n,
+    double utc_mjd, struct geom_eop *out);
+
 /* Check order and ranges; ERRCODE_BAD_ARG if rows are unsorted or absurd. */
 enum errcode eop_table_check(const struct eop_table *t);
 

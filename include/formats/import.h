@@ -4,9 +4,11 @@
 #ifndef MOONRANGE_IMPORT_H
 #define MOONRANGE_IMPORT_H
 
+#include <stdarg.h>
 #include <stddef.h>
 
 #include "core/errcode.h"
+#include "core/mem.h"
 #include "core/site.h"
 
 /*
@@ -43,6 +45,14 @@ struct import_report {
 };
 
 void import_report_init(struct import_report *rep);
+
+/* Keep one error in rep (the first IMPORT_MAX_ERRORS are kept; the
+   caller counts rep->bad): the one writer of a report's sentences, for
+   the importers and for the command line's checks of imported records. */
+void import_err(struct import_report *rep, size_t line, const char *field,
+    const char *fmt, ...) MEM_PRINTFLIKE(4, 5);
+void import_verr(struct import_report *rep, size_t line, const char *field,
+    const char *fmt, va_list ap) MEM_PRINTFLIKE(4, 0);
 
 /* Format error i as "FILE:LINE: field 'F': message" into buf. */
 void import_error_format(const struct import_report *rep, size_t i,

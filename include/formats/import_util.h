@@ -28,10 +28,6 @@ struct import_lines {
 	size_t line;		/* of the line last returned */
 };
 
-/* Keep one error (the first IMPORT_MAX_ERRORS are kept). */
-void import_err(struct import_report *rep, size_t line, 
-    const char *field, const char *fmt, ...) MEM_PRINTFLIKE(4, 5);
-
 /* The final status of a parse. */
 enum errcode import_status(const struct import_report *rep);
 
@@ -40,7 +36,7 @@ enum errcode import_status(const struct import_report *rep);
  * one error names the line and column and ERRCODE_IO is returned; no
  * record has been handed on.
  */
-enum errcode import_check_text(const char *buf, size_t len, 
+enum errcode import_check_text(const char *buf, size_t len,
     struct import_report *rep);
 
 /* Skip a UTF-8 byte-order mark. */
@@ -49,18 +45,8 @@ size_t import_bom_len(const char *buf, size_t len);
 /* Copy s without leading and trailing blanks into out (size cap). */
 const char *import_trim(const char *s, char *out, size_t cap);
 
-/*
- * A strict decimal number: [+-]digits[.digits][(e|E)[+-]digits], with at
- * least one digit before or after the point; no hex, inf or nan (which
- * strtod would take).  Returns 0 and sets *v, or -1.
- */
-int import_parse_real(const char *s, double *v);
-
 /* A non-negative whole number of at most LONG_MAX. */
 enum import_count_status import_parse_count(const char *s, long *v);
-
-/* A whole number (possibly negative) in [min, max]. */
-int import_parse_int(const char *s, long min, long max, long *v);
 
 /* 1..maxlen characters of [A-Za-z0-9_.-] (the target id rule), or of
    [A-Za-z0-9_-] when dot is 0. */
@@ -71,19 +57,13 @@ int import_valid_ident(const char *s, size_t maxlen, int dot);
    "station set" are checked here. */
 int import_valid_text(const char *s, int multiline);
 
-/* Compare ASCII text ignoring case (locale-free). */
-int import_casecmp(const char *a, const char *b);
-
-/* Boolean column: 0/1, true/false, yes/no (any case). */
-int import_parse_bool(const char *s, int *v);
-
 /* UTC MJD of an ISO 8601 text. */
 enum errcode import_parse_utc_mjd(const char *s, double *mjd, char *err,
     size_t errlen);
 
 /* Next physical line without its CR/LF; 0 at the end.  *terminated says
    whether it ended with a line feed. */
-int import_lines_next(struct import_lines *it, const char **s, size_t *n, 
+int import_lines_next(struct import_lines *it, const char **s, size_t *n,
     int *terminated);
 
 /* Is the line empty or only blanks? */
@@ -91,7 +71,7 @@ int import_blank(const char *s, size_t n);
 
 /* Split at blanks into at most max tokens in buf; returns the count (or
    max + 1 if there were more). */
-size_t import_tokenize(const char *s, size_t n, char *buf, size_t cap, 
+size_t import_tokenize(const char *s, size_t n, char *buf, size_t cap,
     char **tok, size_t max);
 
 #endif

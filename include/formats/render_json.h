@@ -13,9 +13,13 @@ struct json_t;
    finite.  A new reference (NULL when out of memory). */
 struct json_t *render_json_num(double v, int decimals);
 
-/* ISO 8601 UTC text (0 decimals) of a two-part UTC JD, or null when it
+/* The one ISO-or-null helper: ISO 8601 UTC text with ndp decimals of
+   the seconds of a two-part UTC JD, or null when it is not finite or
    cannot be formatted.  A new reference. */
-struct json_t *render_json_iso(double utc1, double utc2);
+struct json_t *render_json_utc(double utc1, double utc2, int ndp);
+
+/* The same of a UTC MJD. */
+struct json_t *render_json_mjd(double mjd, int ndp);
 
 /*
  * Dump root (consumed: its reference is dropped) with a newline into

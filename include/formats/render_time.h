@@ -8,6 +8,10 @@
 
 #include "core/errcode.h"
 
+/* A UTC MJD as ISO 8601 text with ndp decimals of the seconds; "?" when
+   it is not finite or cannot be formatted.  buf >= 40. */
+void render_utc_text(double mjd, int ndp, char *buf, size_t len);
+
 /* UTC of a TT JD as ISO text (0 decimals); "?" on failure. buf >= 32. */
 void render_tt_iso(double tt1, double tt2, char *buf, size_t len);
 

@@ -119,20 +119,10 @@ struct store *api_read_store(struct api_ctx *ctx, int *locked);
 /* Give back what api_read_store returned. */
 void api_release_store(struct api_ctx *ctx, struct store *db, int locked);
 
-/* ISO 8601 UTC text of a two-part UTC JD, or JSON null. */
-json_t *api_iso_or_null(double utc1, double utc2);
-
-/* ISO 8601 UTC text of a UTC MJD, or JSON null (NaN too). */
-json_t *api_iso_of_mjd(double mjd);
-
 /* 200 with root dumped (root is consumed), or 500 when bad. */
 void api_json_reply(struct api_response *resp, json_t *root, int bad);
 
 /* 1 when a station is loaded; else 0 with a 503 set. */
 int api_site_loaded(struct api_ctx *ctx, struct api_response *resp);
-
-/* Earth orientation at a UTC MJD from the site's table (zeros if none). */
-enum eop_source api_site_eop_at(const struct api_site *s, double mjd,
-    struct geom_eop *out);
 
 #endif

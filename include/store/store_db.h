@@ -52,10 +52,6 @@ struct store {
 /* Fill one element from the current row. */
 typedef void (*store_row_fn)(sqlite3_stmt *st, void *dst);
 
-/* Write a sentence into errbuf (NULL-tolerant). */
-void store_seterr(char *errbuf, size_t errlen, const char *fmt,
-    ...) MEM_PRINTFLIKE(3, 4);
-
 /*
  * Turn a failed step into a code and a sentence.  what names the table
  * (and row) for the message.  Constraint messages of SQLite end with the
