@@ -41,8 +41,8 @@ run_json(const struct night_run *r)
 		return NULL;
 	}
 	bad |= set(o, "target", json_string(r->target));
-	bad |= set(o, "start", render_json_iso(TEXT_MJD0, r->start_mjd));
-	bad |= set(o, "end", render_json_iso(TEXT_MJD0, r->end_mjd));
+	bad |= set(o, "start", render_json_mjd(r->start_mjd, 0));
+	bad |= set(o, "end", render_json_mjd(r->end_mjd, 0));
 	bad |= set(o, "calibration", json_boolean(r->calibration));
 	bad |= set(o, "expected_returns", render_json_num(r->expected_returns,
 	    3));
@@ -84,8 +84,8 @@ render_sched_json(const struct render_sched *p, struct mbuf *out)
 				break;
 			}
 	bad |= set(root, "method", json_string(night_method_name(r->method)));
-	bad |= set(root, "from", render_json_iso(TEXT_MJD0, r->from_mjd));
-	bad |= set(root, "to", render_json_iso(TEXT_MJD0, r->to_mjd));
+	bad |= set(root, "from", render_json_mjd(r->from_mjd, 0));
+	bad |= set(root, "to", render_json_mjd(r->to_mjd, 0));
 	bad |= set(root, "total_value", render_json_num(r->total_value, 6));
 	bad |= set(root, "expected_normal_points",
 	    render_json_num(r->expected_nps, 4));
