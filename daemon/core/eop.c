@@ -40,40 +40,6 @@ tai_utc(double mjd)
 	return s;
 }
 
-/*
- * Earth orientation at a UTC instant, from a daily table.
- *
- * Given:
- *   t        eop_table*  rows sorted by MJD (see eop_table_check)
- *   utc_mjd  double      UTC quasi-MJD (UTC quasi-JD - 2400000.5; on a
- *                        day with a leap second the fraction runs over
- *                        86401 s, as in ERFA)
- * Returned:
- *   out      geom_eop    dut1 (UT1-UTC, s), xp, yp (polar motion, rad);
- *                        zero when not covered
- * Returned (function value):
- *   EOP_SOURCE_TABLE when rows[0].mjd <= utc_mjd <= rows[n-1].mjd and the
- *   two rows around it are at most 10 days apart; else EOP_SOURCE_NONE.
- * Notes:
- *   1. Linear interpolation between the rows before and after the
- *      instant, as the IERS recommends for daily values at the accuracy
- *      moonrange needs (pointing: the interpolation error of UT1 between
- *      daily values is well under 1 ms, i.e. < 0.015 arcsec of rotation).
- *   2. UT1-UTC steps by about +1 s at a leap second.  The interpolation
- *      is done on UT1-TAI = dut1 - (TAI-UTC), which is smooth, and
- *      TAI-UTC at the instant is added back, so that DUT1 jumps exactly
- *      at the leap second (end of the UTC day) and not gradually over the
- *      day before.  TAI-UTC comes from ERFA's leap-second table.  If the
- *      table's UT1-TAI still jumps by more than 0.5 s between two rows (a
- *      leap second ERFA does not know, or demo values), the step is taken
- *      to fall at the end of the earlier row's day, where UTC puts it.
- *   3. Polar motion is interpolated linearly; it has no steps.
- * References:
- *   IERS Conventions (2010), IERS Technical Note 36, ch. 5 and 8 (use of
- *   EOP series; diurnal and semidiurnal terms, not modelled here).
- * Called:
- *   tscale_tai_utc (eraJd2cal, eraDat)
- */
 enum eop_source
 eop_lookup(const struct eop_table *t, double utc_mjd, struct geom_eop *out)
 {

@@ -35,27 +35,6 @@ read_digits(const char *s, int n)
 	return v;
 }
 
-/*
- * Parse an ISO 8601 UTC date-time.
- *
- * Given:
- *   text     const char*  e.g. "2027-03-01T04:00:00.25Z"
- * Returned:
- *   utc1,2   double       UTC quasi-JD, two parts (eraDtf2d convention)
- * Returned (function value):
- *   ERRCODE_OK or ERRCODE_BAD_TIME (message in errbuf)
- * Notes:
- *   1. The date and time must be complete: no week dates, ordinal dates,
- *      reduced precision or missing offset, since each is ambiguous for a
- *      laser-pointing schedule.
- *   2. ERFA's "dubious year" warning is not an error here; tscale_from_utc
- *      reports it.
- *   3. An offset is applied to the clock reading (RFC 3339): local
- *      "2017-01-01T00:30:00+01:00" is "2016-12-31T23:30:00Z" exactly,
- *      even though that UTC day holds a leap second.
- * Called:
- *   eraDtf2d, eraCal2jd, eraJd2cal
- */
 enum errcode
 tscale_parse_utc(const char *text, double *utc1, double *utc2, char *errbuf,
     size_t errlen)
@@ -272,20 +251,6 @@ tscale_format_utc(double utc1, double utc2, int ndp, char *buf, size_t len)
 	return (n > 0 && (size_t)n < len) ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
-/*
- * All scales from UTC.
- *
- * Given:
- *   utc1,2  double  UTC quasi-JD
- *   dut1    double  UT1-UTC, seconds (|dut1| < 1 by IERS rule, not enforced
- *                   beyond a sanity bound of 2 s)
- * Returned:
- *   out     tscale_instant
- * Returned (function value):
- *   ERRCODE_OK, or ERRCODE_BAD_TIME when ERFA rejects the date
- * Called:
- *   eraUtctai, eraTaitt, eraUtcut1
- */
 enum errcode
 tscale_from_utc(double utc1, double utc2, double dut1,
     struct tscale_instant *out)

@@ -197,7 +197,8 @@ struct coverage_result {
  * References:
  *   IERS Conventions (2003), IERS Technical Note 32, ch. 5, eq. (5.43).
  * Called:
- *   tscale_from_utc, geom_synodic_at, eraFal03, eraFaf03, geom_instant_at
+ *   tscale_from_utc, geom_synodic_at, eraFal03, eraFaf03, geom_instant_at,
+ *   eraAnp
  */
 enum errcode coverage_axis_value(enum coverage_axis axis,
     const struct geom_site *site, double utc_mjd, double *deg);

@@ -58,8 +58,7 @@ enum errcode derive_site(const struct site_station *st, struct geom_site *out);
  *   Archinal et al. 2011, Celest. Mech. Dyn. Astr. 109, 101 (lunar
  *   orientation); IERS Conventions 2003 (Delaunay D).
  * Called:
- *   geom_site_init, geom_instant_at, geom_target_from_selen,
- *   geom_target_view
+ *   geom_instant_at, geom_target_from_selen, geom_target_view
  */
 enum errcode derive_at(const struct site_station *st,
     const struct site_target *t, const struct geom_eop *eop, double utc_mjd,

@@ -168,7 +168,8 @@ struct eclipse_event {
  * References:
  *   Meeus (1998), ch. 54; Explanatory Supplement (1992), 8.4.
  * Called:
- *   geom_phases_find, geom_bodies_at, geom_root_illinois, eclipse_geo_at
+ *   geom_phases_find, geom_bodies_at, geom_root_illinois, eraC2s, eraEcm06,
+ *   eraRxp
  */
 enum errcode eclipse_find(double from1, double from2, double to1,
     double to2, struct eclipse_event *out, size_t cap, size_t *n);

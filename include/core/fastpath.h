@@ -113,9 +113,9 @@ size_t fast_track_segments(double from, double to);
  *   2. Cost per segment: 13 eraMoon98, 3 eraEpv00, 7 Earth-orientation
  *      and lunar-frame evaluations (about 0.15 ms).
  * Called:
- *   eraMoon98, eraEpv00, eraNut00b, eraPn06, eraBpn2xy, eraS06,
- *   eraEors, eraEcm06, eraPom00, eraSp00, geom_lunar_angles,
- *   geom_synodic_of, tscale_from_tt
+ *   eraMoon98, eraEpv00, eraNut00b, eraPn06, eraBpn2xy, eraS06, eraEors,
+ *   eraEcm06, eraPom00, eraSp00, geom_lunar_angles, geom_synodic_of,
+ *   tscale_from_tt, eraAb, eraAnpm, eraEra00
  */
 enum errcode fast_track_init(struct fast_track *ft,
     const struct geom_site *site, const struct geom_eop *eop, double tt1,
@@ -147,7 +147,7 @@ struct fast_frame {
  * of FAST_SUN and FAST_LUNAR.
  *
  * Called:
- *   eraEra00, eraAb, geom_lunar_matrix
+ *   eraAb, geom_lunar_matrix
  */
 void fast_frame_at(const struct fast_track *ft, double t, unsigned need,
     struct fast_frame *f);
@@ -181,7 +181,7 @@ double fast_synodic(const struct fast_track *ft, double t);
  * the same TT (geom_instant_make on fitted bodies and Earth orientation).
  *
  * Called:
- *   fast_frame_at, eraFad03, geom_instant_make
+ *   fast_frame_at, eraFad03, geom_instant_make, eraAb, eraAnp, eraAnpm, eraRz
  */
 void fast_instant(const struct fast_track *ft, double t,
     struct geom_instant *out);

@@ -56,8 +56,24 @@ struct geom_site {
  */
 void geom_weather_standard(double height_m, struct geom_weather *wx);
 
-/* Validate and initialise a station; ERRCODE_BAD_ARG names no field, the
-   caller does (lat outside +-90 deg, height outside -500..10000 m, ...). */
+/*
+ * Initialise a station.
+ *
+ * Given:
+ *   lat_rad, lon_rad  double  WGS84 geodetic latitude and east longitude
+ *   height_m          double  height above the ellipsoid
+ *   wx                weather for refraction, or NULL for standard weather
+ * Returned:
+ *   site              ITRS position, local east/north/up axes, refraction
+ *                     constants
+ * Returned (function value):
+ *   ERRCODE_OK, or ERRCODE_BAD_ARG for a value out of range
+ * Notes:
+ *   eraRefco is accurate to about 1" above 15 deg elevation and degrades
+ *   towards the horizon; the caller is expected to plan above ~10 deg.
+ * Called:
+ *   eraGd2gc, eraRefco, eraAnpm
+ */
 enum errcode geom_site_init(struct geom_site *site, double lat_rad,
     double lon_rad, double height_m, const struct geom_weather *wx);
 
@@ -79,6 +95,26 @@ struct geom_earth {
 	double rc2t[3][3];	/* GCRS -> ITRS */
 };
 
+/*
+ * Earth orientation.
+ *
+ * Given:
+ *   tt1,tt2   double  TT JD
+ *   ut11,ut12 double  UT1 JD
+ *   eop       polar motion xp, yp (rad); NULL for zero
+ *   prec      FULL (IAU 2006/2000A) or FAST (IAU 2000B)
+ * Returned:
+ *   out       GCRS->true-of-date and GCRS->ITRS matrices
+ * Notes:
+ *   Equinox-based chain: NPB matrix, Greenwich apparent sidereal time
+ *   consistent with it (eraGst06), polar motion with s'.  The FAST choice
+ *   differs from FULL by about 1 mas over 1995-2050 (IERS Conventions
+ *   2010, 5.5.1), far below the Moon theory's error.
+ * References:
+ *   IERS Conventions (2010), chapter 5.
+ * Called:
+ *   eraPnm06a, eraPnm00b, eraGst06, eraSp00, eraPom00, eraC2teqx
+ */
 void geom_earth_at(double tt1, double tt2, double ut11, double ut12,
     const struct geom_eop *eop, enum geom_precision prec,
     struct geom_earth *out);
@@ -95,6 +131,33 @@ struct geom_bodies {
 	double mean_elong;	/* Delaunay D (IERS 2003), 0..2pi, rad */
 };
 
+/*
+ * Geocentric Moon and Sun.
+ *
+ * Given:
+ *   tt1,tt2  double  TT JD (TDB taken equal)
+ * Returned:
+ *   out      Moon position and velocity (geometric GCRS, m, m/s), Sun
+ *            (apparent GCRS, m), synodic angle and Delaunay D (rad)
+ * Returned (function value):
+ *   ERRCODE_OK
+ * Notes:
+ *   1. Moon: eraMoon98, Meeus's truncation of ELP-2000/82; ERFA quotes
+ *      2.9" RMS (18.3" worst) in direction and 6.1 km RMS in distance
+ *      over 1950-2100 against ELP/MPP02.
+ *   2. Sun: minus ERFA's heliocentric Earth (eraEpv00, VSOP2000 fit,
+ *      1900-2100), with annual aberration (eraAb) so that it is the
+ *      apparent place; light deflection is nil at the Sun itself.
+ *   3. Synodic angle: geom_synodic_of on the Moon and Sun just computed
+ *      (each theory is evaluated once).
+ *   4. D: IERS Conventions (2003) fundamental argument (eraFad03).
+ * References:
+ *   Meeus, Astronomical Algorithms, 2nd ed. (1998), ch. 47 and 49;
+ *   IERS Conventions (2003), 5.7.
+ * Called:
+ *   eraMoon98, eraEpv00, eraAb, geom_synodic_of, eraFad03, eraAnp, eraPdp,
+ *   eraPn, eraSxp
+ */
 enum errcode geom_bodies_at(double tt1, double tt2, struct geom_bodies *out);
 
 /*
@@ -198,8 +261,28 @@ struct geom_instant {
 };
 
 /*
- * Combine station, time, bodies and Earth orientation into an instant.
- * b and e must be valid for t (or interpolated to it by the caller).
+ * Everything shared by all targets at one instant.
+ *
+ * Given:
+ *   site  initialised station
+ *   t     the instant on every time scale
+ *   b     geocentric bodies at t.tt
+ *   e     Earth orientation at t
+ * Returned:
+ *   out   vectors, Moon and Sun views, librations
+ * Notes:
+ *   1. Topocentric vectors are exact differences of geocentric ones, so
+ *      the Moon's ~1 deg parallax is fully included.
+ *   2. Light time: the Moon is taken at t - tau (tau = range / c, about
+ *      1.28 s) using its geocentric velocity.  Annual aberration and the
+ *      Earth's own motion over tau cancel to first order for the Moon;
+ *      diurnal aberration (< 0.32") is neglected.
+ *   3. Elevations are geometric; el_apparent adds refraction for the
+ *      station's weather (geom_refract).
+ *   4. Librations and the sub-solar point use the IAU 2009 rotation of
+ *      the Moon at t - tau.
+ * Called:
+ *   geom_lunar_angles, geom_lunar_matrix, geom_refract, eraAnp, eraAnpm
  */
 void geom_instant_make(const struct geom_site *site,
     const struct tscale_instant *t, const struct geom_bodies *b,
@@ -244,12 +327,51 @@ struct geom_target_view {
 				   umbra margin), continuous for searches */
 };
 
+/*
+ * One target at one instant.
+ *
+ * Given:
+ *   g   the instant (geom_instant_make)
+ *   t   target, body-fixed
+ * Returned:
+ *   out topocentric az/el, range, round trip, offset from the Moon's
+ *       centre, Sun and Earth elevations at the target
+ * Notes:
+ *   1. The target's light time differs from the centre's by < 6 ms; the
+ *      centre's is used (error < 0.01").
+ *   2. Local lunar horizon: plane normal to the radius (sphere model, no
+ *      terrain).  Sunlit means the Sun's centre is above it.
+ *   3. Round trip is geometric 2 * range / c: no troposphere, no
+ *      relativistic delay, no station or reflector motion during flight.
+ *   4. The Earth's shadow at the target (eclipse_point_at, Danjon's
+ *      rule): sunlit is false in the umbra; dark_margin > 0 exactly when
+ *      the target is dark (Sun below its horizon, or in the umbra).
+ * Called:
+ *   geom_refract, eclipse_point_at, eraAnpm, eraAnp
+ */
 void geom_target_view(const struct geom_instant *g,
     const struct geom_target *t, struct geom_target_view *out);
 
 /* --- helpers shared with other modules --- */
 
-/* Apparent (refracted) elevation from geometric, eraRefco constants. */
+/*
+ * Refracted elevation.
+ *
+ * Given:
+ *   el          double  geometric (airless) elevation, rad
+ *   refa, refb  double  constants from eraRefco, rad
+ * Returned (function value):
+ *   apparent elevation, rad
+ * Notes:
+ *   The same closed form ERFA applies in eraAtioq: the unrefracted unit
+ *   vector is moved towards the zenith by (A + B tan^2 z) tan z with a
+ *   Newton-style denominator, and the elevation's sine is clamped at 0.05
+ *   so that the model stays bounded below ~3 deg, where it is not
+ *   meaningful anyway.
+ * References:
+ *   ERFA eraRefco and eraAtioq (after SOFA); Green, Spherical Astronomy
+ *   (1987), section 4.31.
+ */
 double geom_refract(double el, double refa, double refb);
 
 /* Angle between two vectors, rad (atan2 of cross and dot: robust near 0
@@ -291,9 +413,26 @@ struct geom_phase_event {
 const char *geom_phase_name(enum geom_phase_kind kind);
 
 /*
- * Every principal phase with TT in [from, to).  Writes at most cap events
- * to out and sets *n to the number found (which may exceed cap: then the
- * first cap are written and ERRCODE_TOO_LARGE returned).
+ * Principal phases in a TT span.
+ *
+ * Given:
+ *   from1,2, to1,2  double  TT JD span, [from, to)
+ *   cap             size_t  room in out
+ * Returned:
+ *   out             events in time order
+ *   n               number found
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (span reversed or over 400 years),
+ *   ERRCODE_TOO_LARGE (more than cap: the first cap are written and *n
+ *   is the number found), ERRCODE_NO_CONVERGE
+ * Notes:
+ *   Each event is where the synodic angle (geom_synodic_at) equals
+ *   0, 90, 180 or 270 deg.  The angle grows by 11-14 deg a day and never
+ *   stalls, so a half-day grid brackets every crossing exactly once;
+ *   regula falsi refines it to 9 ms.  The result is as good as the Moon and
+ *   Sun theories: a 1" error in longitude is ~2 s in time.
+ * References:
+ *   Meeus, Astronomical Algorithms, 2nd ed. (1998), ch. 49 (definition).
  */
 enum errcode geom_phases_find(double from1, double from2, double to1,
     double to2, struct geom_phase_event *out, size_t cap, size_t *n);

@@ -110,7 +110,7 @@ struct night_result {
  *   window_track_synodic, geom_target_from_selen, geom_target_view,
  *   score_transmission, score_rate, score_bin_of, score_bin_add,
  *   score_bin_mean, score_coverage_weight, value_phase_build,
- *   value_orient_vector, value_np_per_return, sched_solve
+ *   value_orient_vector, value_np_per_return, sched_solve, eraAnp, eraRxp
  */
 enum errcode night_plan(const struct plan_query *q,
     const struct night_settings *s, enum sched_method method,

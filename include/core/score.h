@@ -213,9 +213,8 @@ struct score_params {
  * References:
  *   Abramowitz & Stegun (1964), 25.4.30 and table 25.4.
  * Called:
- *   fast_frame_at, fast_elevation, fast_target_el,
- *   window_track_synodic, geom_root_illinois, score_airmass,
- *   score_coverage_weight
+ *   fast_frame_at, fast_elevation, fast_target_el, window_track_synodic,
+ *   geom_root_illinois, score_airmass, score_coverage_weight, eraAnp
  */
 enum errcode score_window(const struct score_params *p,
     const struct score_target *t, const struct window *w,

@@ -81,7 +81,7 @@ size_t window_track_nodes(double span_days);
  *      rotation (15"), i.e. well under 1 s in a window edge; callers that
  *      have a table may pass the value at the span's middle.
  * Called:
- *   fast_track_segments, fast_track_init
+ *   fast_track_init
  */
 enum errcode window_track_init(struct window_track *tr,
     const struct geom_site *site, const struct geom_eop *eop, double tt1,
