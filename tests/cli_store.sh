@@ -296,7 +296,7 @@ writer() {
 		"$M" log add --db "$C" --target "$tgt" \
 		    --start "$(printf '2027-01-%02dT%02d:%02d:00Z' $((1 + h / 24)) $((h % 24)) "$m")" \
 		    --end "$(printf '2027-01-%02dT%02d:%02d:30Z' $((1 + h / 24)) $((h % 24)) "$m")" \
-		    --shots "$i" --returns 0 --normal-points 0 \
+		    --shots "$((i % 600))" --returns 0 --normal-points 0 \
 		    --outcome weather --operator "writer $tgt" >/dev/null 2>>"$T/conc.err" ||
 		    echo "fail $i" >>"$T/conc.err"
 	done
@@ -306,8 +306,9 @@ writer HERON & p1=$!
 writer OSPREY & p2=$!
 wait $p1 $p2
 check "two concurrent writers: 2000 rows" "[ \"\$(q '$C' 'SELECT count(*) FROM attempts')\" = 2000 ]"
-check "two concurrent writers: no error shown" "[ ! -s '$T/conc.err' ]"
-[ -s "$T/conc.err" ] && head -5 "$T/conc.err" | sed 's/^/#   /'
+# (Warnings of attempts stored as suspicious, attempt.h, are no errors.)
+check "two concurrent writers: no error shown" "! grep -qv '^moonrange: warning: ' '$T/conc.err'"
+grep -v '^moonrange: warning: ' "$T/conc.err" | head -5 | sed 's/^/#   /'
 
 # --- kill -9 during a large import -----------------------------------------------
 K=$T/kill.db
@@ -323,7 +324,7 @@ with open(sys.argv[1], "w", newline="") as f:
         e = s + datetime.timedelta(minutes=2)
         f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
             ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
-            e.isoformat(), 1000 + i, i % 7, i))
+            e.isoformat(), 1000 + i % 1000, i % 7, i))
 EOF
 "$M" log import --db "$K" "$T/big.csv" >/dev/null 2>"$T/kill.err" & kp=$!
 # Wait for the first progress line (the import is under way), then kill.

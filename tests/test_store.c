@@ -307,7 +307,7 @@ test_store_every_attempt_rule_refuses_its_bad_row(void **state)
 	} cases[] = {
 		{"shots", ERRCODE_BAD_ARG}, {"returns", ERRCODE_BAD_ARG},
 		{"normal_points", ERRCODE_BAD_ARG},
-		{"end_mjd", ERRCODE_BAD_ARG},
+		{"end", ERRCODE_BAD_ARG},	/* core/attempt.c's rule */
 		{"seeing_arcsec", ERRCODE_BAD_ARG},
 		{"synodic_deg", ERRCODE_BAD_ARG},
 		{"mean_elong_deg", ERRCODE_BAD_ARG},
@@ -334,7 +334,7 @@ test_store_every_attempt_rule_refuses_its_bad_row(void **state)
 			a.returns = -5;
 		else if (strcmp(f, "normal_points") == 0)
 			a.normal_points = -1;
-		else if (strcmp(f, "end_mjd") == 0)
+		else if (strcmp(f, "end") == 0)
 			a.end_mjd = a.start_mjd - 0.01;	/* end before start */
 		else if (strcmp(f, "seeing_arcsec") == 0)
 			a.seeing_arcsec = -0.5;

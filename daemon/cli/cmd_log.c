@@ -7,6 +7,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "core/attempt.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
 
@@ -70,6 +71,9 @@ log_add(const struct cli_args *a)
 		st = cli_store_fail(rc, "log add: %s", err);
 		goto out;
 	}
+	if (at.suspect != 0)
+		cli_warn("log add: %s", attempt_warning(at.suspect, err,
+		    sizeof err));
 	mbuf_init(&out);
 	if (cli_given(a, "json"))
 		rc = render_site_attempt_json(&at, &out);

@@ -60,8 +60,9 @@ attempt_check(const struct site_attempt *a, double fire_rate_hz,
 		    "target id of 1 to 32 characters");
 	if (!isfinite(a->start_mjd) || a->start_mjd < ATTEMPT_MJD_MIN ||
 	    a->start_mjd >= ATTEMPT_MJD_MAX)
-		return refuse(field, "start_utc", errbuf, errlen, "outside "
-		    "1960-01-01 to 2100-01-01, the span the geometry covers");
+		return (void)refuse(field, "start_utc", errbuf, errlen,
+		    "outside 1960-01-01 to 2100-01-01, the span the geometry "
+		    "covers"), ERRCODE_BAD_TIME;
 	if (!isfinite(a->end_mjd) || !(a->end_mjd > a->start_mjd))
 		return refuse(field, "end_utc", errbuf, errlen, "must be after "
 		    "start_utc");
@@ -70,8 +71,9 @@ attempt_check(const struct site_attempt *a, double fire_rate_hz,
 		return refuse(field, "end_utc", errbuf, errlen, "an attempt "
 		    "lasts at most one day");
 	if (a->end_mjd > ATTEMPT_MJD_MAX)
-		return refuse(field, "end_utc", errbuf, errlen, "outside "
-		    "1960-01-01 to 2100-01-01, the span the geometry covers");
+		return (void)refuse(field, "end_utc", errbuf, errlen,
+		    "outside 1960-01-01 to 2100-01-01, the span the geometry "
+		    "covers"), ERRCODE_BAD_TIME;
 	if (a->shots < 0)
 		return refuse(field, "shots", errbuf, errlen, "a whole number "
 		    ">= 0");
@@ -150,22 +152,30 @@ attempt_suspect(const struct site_attempt *a, double fire_rate_hz,
 	int fired = a->outcome == SITE_OUTCOME_RANGED ||
 	    a->outcome == SITE_OUTCOME_NO_RETURNS;
 
-	if (warn != NULL && warnlen > 0)
-		warn[0] = '\0';
 	if (isfinite(a->target_el_deg) && a->target_el_deg < 0.0)
 		bits |= ATTEMPT_SUSPECT_BELOW_HORIZON;
 	if (fired && isfinite(fire_rate_hz) && fire_rate_hz > 0.0 &&
 	    secs > 0.0 && (double)a->shots < ATTEMPT_LOW_RATE * fire_rate_hz *
 	    secs)
 		bits |= ATTEMPT_SUSPECT_LOW_RATE;
-	if (bits == 0)
-		return 0;
+	attempt_warning(bits, warn, warnlen);
+	return bits;
+}
+
+const char *
+attempt_warning(unsigned bits, char *warn, size_t warnlen)
+{
+	if (warn == NULL || warnlen == 0)
+		return "";
+	warn[0] = '\0';
+	if ((bits & ATTEMPT_SUSPECT_ALL) == 0)
+		return warn;
 	text_err(ERRCODE_OK, warn, warnlen, "stored, but left out of the "
 	    "yield model: %s%s%s",
 	    (bits & ATTEMPT_SUSPECT_BELOW_HORIZON) ? "the target was below "
 	    "the horizon at mid-time (local time typed with Z?)" : "",
-	    bits == ATTEMPT_SUSPECT_ALL ? "; " : "",
+	    (bits & ATTEMPT_SUSPECT_ALL) == ATTEMPT_SUSPECT_ALL ? "; " : "",
 	    (bits & ATTEMPT_SUSPECT_LOW_RATE) ? "fewer than a tenth of the "
 	    "shots the station's rate gives over the attempt" : "");
-	return bits;
+	return warn;
 }

@@ -64,11 +64,12 @@ score_transmission(double tau, double el_rad)
 	return exp(-2.0 * tau * score_airmass(el_rad));
 }
 
-/* Does this attempt say something about the target's yield? */
+/* Does this attempt say something about the target's yield?  (Not when
+   flagged suspicious on logging: attempt.h.) */
 static int
 usable(const struct site_attempt *a)
 {
-	return (a->outcome == SITE_OUTCOME_RANGED ||
+	return a->suspect == 0 && (a->outcome == SITE_OUTCOME_RANGED ||
 	    a->outcome == SITE_OUTCOME_NO_RETURNS) && a->shots > 0 &&
 	    a->returns >= 0 && isfinite(a->target_el_deg) &&
 	    a->target_el_deg > 0.0 && isfinite(a->sun_el_target_deg);

@@ -10,6 +10,7 @@
 #include "core/text.h"
 #include "formats/render_json.h"
 #include "formats/render_time.h"
+#include "core/attempt.h"
 #include "formats/render_site.h"
 #include "core/tscale.h"
 
@@ -75,7 +76,15 @@ attempt_obj(const struct site_attempt *a)
 	    "mean_elong_deg", render_json_num(a->mean_elong_deg, 6),
 	    "target_el_deg", render_json_num(a->target_el_deg, 6),
 	    "sun_el_target_deg", render_json_num(a->sun_el_target_deg, 6));
+	char warn[300];
 
+	/* Suspicious (core/attempt.h): stored, flagged, and said so. */
+	if (o != NULL && a->suspect != 0 &&
+	    json_object_set_new(o, "warning", json_string(attempt_warning(
+	    a->suspect, warn, sizeof warn))) != 0) {
+		json_decref(o);
+		o = NULL;
+	}
 	return o;
 }
 

@@ -123,7 +123,8 @@ sqlite_setup(void)
 	"strength, dark_only, active"
 #define ATTEMPT_COLS "id, target_id, start_mjd, end_mjd, shots, returns, " \
 	"normal_points, outcome, operator, seeing_arcsec, notes, " \
-	"synodic_deg, mean_elong_deg, target_el_deg, sun_el_target_deg"
+	"synodic_deg, mean_elong_deg, target_el_deg, sun_el_target_deg, " \
+	"suspect"
 #define NP_COLS "id, target_id, station_code, epoch_mjd, tof_s, photons, " \
 	"rms_ps, synodic_deg, mean_elong_deg, target_el_deg, " \
 	"sun_el_target_deg"
@@ -172,8 +173,9 @@ static const char *const stmt_sql[ST__COUNT] = {
 	[ST_ATTEMPT_ADD] = "INSERT INTO attempts (target_id, start_utc, "
 	    "start_mjd, end_utc, end_mjd, shots, returns, normal_points, "
 	    "outcome, operator, seeing_arcsec, notes, synodic_deg, "
-	    "mean_elong_deg, target_el_deg, sun_el_target_deg) VALUES (?1, "
-	    "?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, ?16)",
+	    "mean_elong_deg, target_el_deg, sun_el_target_deg, suspect) VALUES "
+	    "(?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, "
+	    "?16, ?17)",
 	[ST_ATTEMPT_GET] = "SELECT " ATTEMPT_COLS " FROM attempts WHERE id = ?1",
 	[ST_ATTEMPTS_LIST] = "SELECT " ATTEMPT_COLS " FROM attempts"
 	    ATTEMPT_WHERE ORDER_BY("start_mjd"),

@@ -9,6 +9,7 @@
 
 #include <sqlite3.h>
 
+#include "core/attempt.h"
 #include "core/derive.h"
 #include "core/mem.h"
 #include "core/text.h"
@@ -88,6 +89,29 @@ row_attempt(sqlite3_stmt *st, void *dst)
 	o->mean_elong_deg = sqlite3_column_double(st, 12);
 	o->target_el_deg = sqlite3_column_double(st, 13);
 	o->sun_el_target_deg = sqlite3_column_double(st, 14);
+	o->suspect = (unsigned)sqlite3_column_int(st, 15);
+}
+
+/*
+ * attempt_check (core/attempt.h) with the message in the store's form,
+ * "WHAT: field 'F': why" ('start' and 'end' as store_canon names them).
+ */
+static enum errcode
+check_attempt(const struct site_attempt *a, double rate, const char *what,
+    char *errbuf, size_t errlen)
+{
+	const char *field = NULL;
+	char why[300];
+	enum errcode e;
+
+	if ((e = attempt_check(a, rate, &field, why, sizeof why)) ==
+	    ERRCODE_OK)
+		return e;
+	(void)text_err(ERRCODE_OK, errbuf, errlen, "%s: field '%s': %s", what,
+	    strcmp(field, "start_utc") == 0 ? "start" :
+	    strcmp(field, "end_utc") == 0 ? "end" : field,
+	    why + strlen(field) + 2);
+	return e;
 }
 
 enum errcode
@@ -96,6 +120,8 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 {
 	sqlite3_stmt *st = NULL;
 	char t0[40], t1[40], what[SITE_ID_LEN + 80];
+	struct site_station station;
+	double rate = NAN;
 	enum errcode e;
 
 	snprintf(what, sizeof what, "attempt on '%s'", a->target);
@@ -106,6 +132,13 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	    errbuf, errlen)))
 		return e;
 	snprintf(what, sizeof what, "attempt on '%s' at %s", a->target, t0);
+	/* The one validation of an attempt (core/attempt.h), whatever the
+	   way in; the schema's CHECKs mirror what a column can hold. */
+	if (store_station_get(s, &station, NULL, 0) == ERRCODE_OK)
+		rate = station.fire_rate_hz;
+	if ((e = check_attempt(a, rate, what, errbuf, errlen)))
+		return e;
+	a->suspect = attempt_suspect(a, rate, NULL, 0);
 	if ((e = store_stmt_get(s, ST_ATTEMPT_ADD, &st, errbuf, errlen)))
 		return e;
 	store_bind_text(st, 1, a->target);
@@ -127,6 +160,7 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	store_bind_real_or_null(st, 14, a->mean_elong_deg);
 	store_bind_real_or_null(st, 15, a->target_el_deg);
 	store_bind_real_or_null(st, 16, a->sun_el_target_deg);
+	sqlite3_bind_int(st, 17, (int)a->suspect);
 	e = store_step_done(s, st, what, errbuf, errlen);
 	if (e == ERRCODE_EXISTS)
 		(void)text_err(ERRCODE_OK, errbuf, errlen,
@@ -145,16 +179,18 @@ store_attempt_log(struct store *s, struct site_attempt *a, char *errbuf,
 	struct site_station station;
 	struct site_target t;
 	struct geom_eop eop;
+	char what[SITE_ID_LEN + 20];
 	enum errcode e;
 
 	if ((e = store_station_get(s, &station, errbuf, errlen)) ||
 	    (e = store_target_get(s, a->target, &t, errbuf, errlen)))
 		return e;
-	if (!(a->end_mjd > a->start_mjd)) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
-		    "attempt on '%s': field 'end_utc': not "
-		    "after the start", a->target);
-	}
+	/* Checked before the geometry, which a date outside the rules'
+	   span could not give. */
+	snprintf(what, sizeof what, "attempt on '%s'", a->target);
+	if ((e = check_attempt(a, station.fire_rate_hz, what, errbuf,
+	    errlen)))
+		return e;
 	if ((e = store_eop_at(s, 0.5 * (a->start_mjd + a->end_mjd), &eop, NULL,
 	    errbuf, errlen)))
 		return e;

@@ -71,7 +71,8 @@
  *                 when the attempt passes; field may be NULL
  *   errbuf        one sentence naming the member, e.g. "normal_points: 5
  *                 normal points from 3 returns ..."; may be NULL
- *   (function value)  ERRCODE_OK or ERRCODE_BAD_ARG
+ *   (function value)  ERRCODE_OK, ERRCODE_BAD_TIME (a start or end
+ *                 outside the span) or ERRCODE_BAD_ARG (any other rule)
  */
 enum errcode attempt_check(const struct site_attempt *a, double fire_rate_hz,
     const char **field, char *errbuf, size_t errlen);
@@ -83,5 +84,9 @@ enum errcode attempt_check(const struct site_attempt *a, double fire_rate_hz,
  */
 unsigned attempt_suspect(const struct site_attempt *a, double fire_rate_hz,
     char *warn, size_t warnlen);
+
+/* The warning sentence of suspicion bits into warn ("" for 0); returns
+   warn ("" when warn is NULL). */
+const char *attempt_warning(unsigned bits, char *warn, size_t warnlen);
 
 #endif

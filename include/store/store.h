@@ -168,7 +168,10 @@ void store_query_init(struct store_query *q);
  * Insert an attempt whose derived angles are already filled (derive.h).
  * The times are canonicalised (see above) and *a is updated to the row
  * as stored, with its id.  ERRCODE_EXISTS if the target already has an
- * attempt with this start; ERRCODE_NOT_FOUND for an unknown target.
+ * attempt with this start; ERRCODE_NOT_FOUND for an unknown target;
+ * ERRCODE_BAD_ARG naming the field for an attempt that breaks a rule of
+ * attempt_check (core/attempt.h, with the stored station's fire rate).
+ * a->suspect is set (attempt_suspect) and stored.
  */
 enum errcode store_attempt_add(struct store *s, struct site_attempt *a,
     char *errbuf, size_t errlen);
