@@ -110,8 +110,11 @@ PY
 # tonight on an ad-hoc station, pinned now: 80 columns.
 "$bin" tonight --station "$st" --tz America/Los_Angeles \
 	--at 2027-03-20T05:00:00Z >"$tmp/t.txt"
-grep -q 'Best now:' "$tmp/t.txt" || fail "tonight: best now"
-grep -q 'Next change:' "$tmp/t.txt" || fail "tonight: next change"
+grep -q '^Range now: moon until 03-19 22:30 PDT (05:30 UTC)$' "$tmp/t.txt" ||
+  fail "tonight: the run now"
+grep -q '^  now: elevation [0-9.]* deg, azimuth [0-9.]* deg$' "$tmp/t.txt" ||
+  fail "tonight: elevation and azimuth now"
+grep -q '^Next runs:$' "$tmp/t.txt" || fail "tonight: next runs"
 awk 'length($0) > 80 { exit 1 }' "$tmp/t.txt" || fail "tonight wider than 80"
 # The sample site through a real database: every target, the DB's limits,
 # dark-only targets never sunlit, iCalendar of the database's windows.
@@ -139,11 +142,51 @@ grep -q 'America/Los_Angeles' "$tmp/t2.txt" || fail "tonight: station zone"
 # Late morning, this night's windows over: the next night is shown
 # (2026-12-24 11:00 PST; the sample site's windows end by 05:44 PST).
 "$bin" tonight --db "$tmp/site.db" --at 2026-12-24T19:00:00Z >"$tmp/t3.txt"
-grep -q '^Night 2026-12-24 12:00 to 12-25 12:00 PST' "$tmp/t3.txt" ||
+grep -q '^Tonight: 12-24 12:00 PST to 12-25 12:00 PST' "$tmp/t3.txt" ||
   fail "tonight: after the night's last window, the next night"
 "$bin" tonight --db "$tmp/site.db" --at 2026-12-24T08:00:00Z >"$tmp/t3.txt"
-grep -q '^Night 2026-12-23 12:00 to 12-24 12:00 PST' "$tmp/t3.txt" ||
+grep -q '^Tonight: 12-24 00:00 PST to 12-24 12:00 PST' "$tmp/t3.txt" ||
   fail "tonight: at local midnight, the night under way"
+# --tz changes the clock shown, never the night.
+"$bin" tonight --db "$tmp/site.db" --at 2026-12-24T08:00:00Z --tz UTC >"$tmp/t4.txt"
+grep -q '^Tonight: 12-24 08:00 UTC to 12-24 20:00 UTC' "$tmp/t4.txt" ||
+  fail "tonight --tz: the station's night in another clock"
+# Near new moon: nothing can be ranged, the limit named, the next night.
+"$bin" tonight --db "$tmp/site.db" --at 2027-03-08T05:00:00Z >"$tmp/t5.txt"
+grep -q '^Nothing can be ranged tonight: ' "$tmp/t5.txt" &&
+  grep -q 'min_sun_sep' "$tmp/t5.txt" ||
+  fail "tonight: the limit near new moon"
+grep -q '^The next plannable night starts ' "$tmp/t5.txt" ||
+  fail "tonight: the next plannable night"
+# plan: 80 columns, the JSON fields, greedy never above best, bad input.
+"$bin" plan --help | grep -q -- '--method' || fail "plan --help"
+expect_usage_error plan --db "$tmp/site.db" --method fast
+expect_usage_error plan --db "$tmp/site.db" --from 2027-03-20T00:00:00Z
+expect_usage_error plan --db "$tmp/site.db" --from 2027-03-20T00:00:00Z --to 2027-03-30T00:00:00Z
+expect_usage_error plan --db "$tmp/site.db" --json --csv
+"$bin" plan --db "$tmp/site.db" --at 2027-03-20T03:00:00Z >"$tmp/p.txt"
+awk 'length($0) > 80 { exit 1 }' "$tmp/p.txt" || fail "plan wider than 80"
+grep -q 'America/Los_Angeles' "$tmp/p.txt" || fail "plan: station zone"
+"$bin" plan --db "$tmp/site.db" --at 2027-03-20T03:00:00Z --json >"$tmp/pb.json"
+"$bin" plan --db "$tmp/site.db" --at 2027-03-20T03:00:00Z --json \
+	--method greedy >"$tmp/pg.json"
+"$bin" plan --db "$tmp/site.db" --at 2027-03-20T03:00:00Z --ics >"$tmp/p.ics"
+grep -q '^BEGIN:VEVENT' "$tmp/p.ics" || fail "plan --ics"
+/usr/bin/python3 - "$tmp/pb.json" "$tmp/pg.json" <<'PY'
+import json, sys
+b = json.load(open(sys.argv[1])); g = json.load(open(sys.argv[2]))
+for k in ("method", "from", "to", "total_value", "expected_normal_points", "runs"):
+    assert k in b, k
+for r in b["runs"]:
+    for k in ("target", "start", "end", "expected_returns",
+              "expected_normal_points", "value", "value_phase",
+              "value_orientation", "reasons"):
+        assert k in r, k
+assert b["method"] == "best" and g["method"] == "greedy"
+assert b["from"] == "2027-03-20T03:00:00Z"
+assert b["total_value"] >= g["total_value"], (b["total_value"], g["total_value"])
+assert len({r["target"] for r in b["runs"]}) >= 3
+PY
 # A window's score is the same with --target (the yield model is fitted
 # over every active target).
 w12=(--from 2026-12-24T00:00:00Z --to 2026-12-25T00:00:00Z --json)

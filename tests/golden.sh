@@ -83,6 +83,9 @@ cli windows_station.json windows --station "$ST" "${SPAN[@]}" --json
 cli tonight.txt tonight --db "$DB" --at 2027-03-15T20:00:00Z
 cli tonight.json tonight --db "$DB" --at 2027-03-15T20:00:00Z --json
 cli tonight_station.txt tonight --station "$ST" --tz America/Denver --at 2027-03-15T20:00:00Z --limit 3
+cli plan.txt plan --db "$DB" --at 2027-03-15T20:00:00Z
+cli plan.json plan --db "$DB" --from 2027-03-15T20:00:00Z --to 2027-03-16T20:00:00Z --json
+cli plan_greedy.csv plan --db "$DB" --at 2027-03-15T20:00:00Z --method greedy --csv
 cli coverage.txt coverage --db "$DB" --horizon 0
 cli coverage.json coverage --db "$DB" --horizon 0 --json
 cli coverage.csv coverage --db "$DB" --horizon 0 --csv

@@ -1094,6 +1094,136 @@ test_api_plan_cache(void **state)
 	http_reply_free(&r);
 }
 
+static int
+post_at(const char *path, const char *headers, const char *body,
+    struct http_reply *r)
+{
+	return http_request(port, "POST", path, headers, body, strlen(body), r);
+}
+
+static size_t
+blackouts_in_db(void)
+{
+	struct site_blackout *b = NULL;
+	size_t n = 0;
+
+	assert_int_equal(store_blackouts_list(db, NAN, NAN, &b, &n, NULL, 0),
+	    ERRCODE_OK);
+	free(b);
+	return n;
+}
+
+#define PLAN_SPAN "from=2027-03-16T00:00:00Z&to=2027-03-17T00:00:00Z"
+
+/* GET plan prints what "moonrange plan --json" prints; a POSTed attempt
+   and a POSTed blackout each change the next answer (re-planning). */
+static void
+test_api_plan_same_bytes_and_replans(void **state)
+{
+	struct http_reply r, r2, r3, p;
+	char args[512], v[128];
+	size_t nb = blackouts_in_db();
+	json_t *j, *run;
+	size_t i;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/plan?" PLAN_SPAN, &r), 200);
+	snprintf(args, sizeof args, "plan --db '%s' --from "
+	    "2027-03-16T00:00:00Z --to 2027-03-17T00:00:00Z --json", dbpath);
+	assert_cli_prints(&r, args);
+	j = body_json(&r);
+	assert_true(json_array_size(json_object_get(j, "runs")) > 0);
+	assert_string_equal(json_string_value(json_object_get(j, "method")),
+	    "best");
+	json_decref(j);
+	assert_int_equal(get("/api/v1/plan?" PLAN_SPAN "&method=greedy", &p),
+	    200);
+	snprintf(args, sizeof args, "plan --db '%s' --from "
+	    "2027-03-16T00:00:00Z --to 2027-03-17T00:00:00Z --method greedy "
+	    "--json", dbpath);
+	assert_cli_prints(&p, args);
+	http_reply_free(&p);
+	assert_int_equal(get("/api/v1/plan.svg?" PLAN_SPAN, &p), 200);
+	assert_non_null(http_header(&p, "Content-Type", v, sizeof v));
+	assert_string_equal(v, "image/svg+xml");
+	assert_non_null(strstr(p.body, "class=\"moon\""));
+	http_reply_free(&p);
+	assert_int_equal(get("/api/v1/plan.ics?" PLAN_SPAN, &p), 200);
+	assert_non_null(strstr(p.body, "BEGIN:VEVENT\r\n"));
+	http_reply_free(&p);
+
+	/* An attempt logged: the plan knows more, and changes. */
+	assert_int_equal(post_at("/api/v1/attempts", AUTH JSON_CT,
+	    "{\"target\":\"BRAVO\",\"start_utc\":"
+	    "\"2027-03-15T06:00:00Z\",\"end_utc\":\"2027-03-15T06:20:00Z\","
+	    "\"shots\":24000,\"returns\":3000,\"normal_points\":9,"
+	    "\"outcome\":\"ranged\",\"operator\":\"op-test\"}", &p), 201);
+	http_reply_free(&p);
+	assert_int_equal(get("/api/v1/plan?" PLAN_SPAN, &r2), 200);
+	assert_string_not_equal(r.body, r2.body);
+	snprintf(args, sizeof args, "plan --db '%s' --from "
+	    "2027-03-16T00:00:00Z --to 2027-03-17T00:00:00Z --json", dbpath);
+	assert_cli_prints(&r2, args);
+
+	/* A blackout over the middle of the span: no run crosses it. */
+	assert_int_equal(post_at("/api/v1/blackouts", AUTH JSON_CT,
+	    "{\"start_utc\":\"2027-03-16T04:00:00Z\",\"end_utc\":"
+	    "\"2027-03-16T08:00:00Z\",\"reason\":\"clouds\"}", &p), 201);
+	j = body_json(&p);
+	assert_string_equal(json_string_value(json_object_get(j, "end_utc")),
+	    "2027-03-16T08:00:00Z");
+	json_decref(j);
+	http_reply_free(&p);
+	assert_int_equal(blackouts_in_db(), nb + 1);
+	assert_int_equal(get("/api/v1/plan?" PLAN_SPAN, &r3), 200);
+	assert_string_not_equal(r2.body, r3.body);
+	j = body_json(&r3);
+	json_array_foreach(json_object_get(j, "runs"), i, run) {
+		const char *s = json_string_value(json_object_get(run, "start"));
+		const char *e = json_string_value(json_object_get(run, "end"));
+
+		/* ISO 8601 text of one form compares as time */
+		assert_true(strcmp(e, "2027-03-16T04:00:00Z") <= 0 ||
+		    strcmp(s, "2027-03-16T08:00:00Z") >= 0);
+	}
+	json_decref(j);
+	http_reply_free(&r);
+	http_reply_free(&r2);
+	http_reply_free(&r3);
+
+	/* Refused: bad parameters, and writes that store nothing. */
+	get("/api/v1/plan?method=fast", &p);
+	assert_error(&p, 400, "bad_arg", "method");
+	http_reply_free(&p);
+	get("/api/v1/plan?from=2027-03-16T00:00:00Z", &p);
+	assert_error(&p, 400, "bad_arg", "to");
+	http_reply_free(&p);
+	get("/api/v1/plan?target=ALPHA", &p);
+	assert_error(&p, 400, "bad_arg", "target");
+	http_reply_free(&p);
+	post_at("/api/v1/blackouts", JSON_CT,
+	    "{\"start_utc\":\"2027-03-16T04:00:00Z\",\"end_utc\":"
+	    "\"2027-03-16T08:00:00Z\"}", &p);
+	assert_error(&p, 401, "auth", "Authorization");
+	http_reply_free(&p);
+	post_at("/api/v1/blackouts", AUTH JSON_CT,
+	    "{\"start_utc\":\"2027-03-16T04:00:00Z\",\"end_utc\":"
+	    "\"2027-03-16T03:00:00Z\"}", &p);
+	assert_error(&p, 400, "bad_arg", "end_utc");
+	http_reply_free(&p);
+	post_at("/api/v1/blackouts", AUTH JSON_CT,
+	    "{\"start_utc\":\"2027-03-16T04:00:00Z\",\"end_utc\":"
+	    "\"2027-03-16T05:00:00Z\",\"why\":\"x\"}", &p);
+	assert_error(&p, 400, "bad_arg", "why");
+	http_reply_free(&p);
+	post_at("/api/v1/blackouts", AUTH JSON_CT,
+	    "{\"start_utc\":\"yesterday\",\"end_utc\":"
+	    "\"2027-03-16T05:00:00Z\"}", &p);
+	assert_error(&p, 400, "bad_time", "start_utc");
+	http_reply_free(&p);
+	assert_int_equal(blackouts_in_db(), nb + 1);
+}
+
 int
 main(void)
 {
@@ -1113,6 +1243,7 @@ main(void)
 		cmocka_unit_test(test_api_coverage_same_bytes_as_cli),
 		cmocka_unit_test(test_api_windows_same_bytes_as_cli),
 		cmocka_unit_test(test_api_plan_cache),
+		cmocka_unit_test(test_api_plan_same_bytes_and_replans),
 		cmocka_unit_test(test_api_alloc_failure),
 		cmocka_unit_test(test_api_post_alloc_failure),
 		cmocka_unit_test(test_api_unconfigured),

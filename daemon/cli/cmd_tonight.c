@@ -11,159 +11,189 @@
 #include "core/plan.h"
 #include "core/text.h"
 #include "cli/plan_cli.h"
-#include "query/winquery.h"
+#include "core/night.h"
+#include "formats/render_sched.h"
 #include "formats/render_time.h"
-#include "formats/render_plan.h"
+#include "query/planquery.h"
+#include "store/store.h"
 
-/* Minutes since local midnight of a UTC MJD in zone tz. */
-static enum errcode
-local_minutes(double mjd, const char *tz, double *min)
+/* Elevation and azimuth (deg) of target id now, from the station of q. */
+static void
+pointing_now(const struct plan_query *q, const char *id, double now,
+    double *el, double *az)
 {
-	char buf[48];
-	int hh, mm;
-	int y, mo, d, h, mi;
-	double sec;
+	struct geom_site site;
+	struct geom_instant g;
+	struct geom_target body;
+	struct geom_target_view v;
 
-	if (render_local_time(TEXT_MJD0, mjd, tz, buf, sizeof buf) != ERRCODE_OK ||
-	    sscanf(buf + 11, "%2d:%2d", &hh, &mm) != 2 ||
-	    tscale_utc_fields(TEXT_MJD0, mjd, &y, &mo, &d, &h, &mi, &sec) !=
-	    ERRCODE_OK)
-		return ERRCODE_BAD_ARG;
-	*min = hh * 60.0 + mm + sec / 60.0;
-	return ERRCODE_OK;
+	*el = *az = NAN;
+	if (plan_station_site(&q->station, &site) != ERRCODE_OK ||
+	    geom_instant_at(&site, &q->eop, TEXT_MJD0, now, GEOM_PREC_FAST,
+	    &g) != ERRCODE_OK)
+		return;
+	for (size_t i = 0; i < q->ntargets; i++) {
+		const struct site_target *t = &q->targets[i];
+
+		if (strcmp(t->id, id) != 0 ||
+		    geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &body) != ERRCODE_OK)
+			continue;
+		geom_target_view(&g, &body, &v);
+		*el = v.el * ERFA_DR2D;
+		*az = v.az * ERFA_DR2D;
+		return;
+	}
+	*el = g.moon.el * ERFA_DR2D;	/* the Moon's centre */
+	*az = g.moon.az * ERFA_DR2D;
 }
 
-/* The UTC MJD of the local noon at or before mjd (one DST correction). */
-static enum errcode
-noon_before(double mjd, const char *tz, double *out)
-{
-	double m, t;
-
-	if (local_minutes(mjd, tz, &m) != ERRCODE_OK)
-		return ERRCODE_BAD_ARG;
-	m -= 720.0;
-	if (m < 0)
-		m += 1440.0;
-	t = mjd - m / 1440.0;
-	if (local_minutes(t, tz, &m) != ERRCODE_OK)
-		return ERRCODE_BAD_ARG;
-	if (m > 1080.0)		/* DST moved it back past midnight */
-		m -= 1440.0;
-	*out = t - (m - 720.0) / 1440.0;
-	return ERRCODE_OK;
-}
-
-/* Does a window of the night q (limit 0) end after now?  On a planning
-   error, yes: plan_cli_run then reports it. */
-static int
-night_ahead(const struct plan_query *q, double now)
-{
-	struct plan_result r;
-	int ahead = 0;
-
-	if (plan_run(q, &r, NULL, 0) != ERRCODE_OK)
-		return 1;
-	for (size_t i = 0; i < r.n && !ahead; i++)
-		ahead = r.w[i].end_mjd > now;
-	plan_result_free(&r);
-	return ahead;
-}
+#define NEXT_NIGHTS 30
 
 static int
 run(const struct cli_args *a)
 {
-	const char *tz;
-	double now1, now2, now, from, to;
+	const char *night_tz, *show_tz;
+	double now1, now2, now, to;
 	int have_at = cli_time(a, "at", &now1, &now2);
 	int json = cli_given(a, "json"), st;
 	struct plan_cli_opts o = {NULL, NULL, 0, 0, 0, 0, NULL};
-	struct winquery_params wp;
-	char err[256];
+	long next_runs = 6;
 	struct plan_query q;
 	struct plan_db hold;
-	struct render_plan rp;
-	struct tscale_instant ti;
+	struct night_settings ns;
+	struct night_result r;
+	struct render_sched rs;
+	struct mbuf out;
+	char err[300];
+	enum errcode rc;
 
 	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
-	tz = o.tz;
-	if (o.have_station && tz == NULL)
+	if (o.limit != NULL && text_parse_long(o.limit, 1, 1000, &next_runs) !=
+	    ERRCODE_OK)
+		return cli_usage_error("--limit: '%s' is not a whole number in "
+		    "1..1000", o.limit);
+	if (o.have_station && o.tz == NULL)
 		return cli_usage_error("--tz: required with --station (an IANA "
 		    "zone such as America/Denver)");
 	if (!have_at)
 		cli_now(&now1, &now2);
 	now = (now1 - TEXT_MJD0) + now2;
+	night_settings_default(&ns);
+	if (o.db != NULL) {
+		struct store *db = NULL;
 
+		rc = store_open(o.db, STORE_OPEN_READONLY, &db, err, sizeof err);
+		if (rc == ERRCODE_OK)
+			rc = planquery_settings(db, &ns, err, sizeof err);
+		store_close(db);
+		if (rc == ERRCODE_NOT_FOUND)
+			return cli_usage_error("--db: no database '%s'", o.db);
+		if (rc != ERRCODE_OK)
+			return cli_fail("--db '%s': %s", o.db, err);
+	}
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)
 		return st;
-	if (o.db != NULL) {
-		if (tz == NULL)
-			tz = q.station.time_zone;
-		if (!render_zone_known(tz)) {
-			plan_db_free(&hold);
-			return cli_usage_error("station time_zone: unknown zone "
-			    "'%s' (give --tz)", tz);
-		}
-	}
-	if (noon_before(now, tz, &from) != ERRCODE_OK ||
-	    noon_before(from + 1.5, tz, &to) != ERRCODE_OK) {
+	/* The night is the station's; --tz changes the clock shown only. */
+	night_tz = o.db != NULL ? q.station.time_zone : o.tz;
+	show_tz = o.tz != NULL ? o.tz : night_tz;
+	if (!render_zone_known(night_tz)) {
 		plan_db_free(&hold);
-		return cli_fail("cannot find local noon in zone %s", tz);
+		return cli_usage_error("station time_zone: unknown zone '%s'",
+		    night_tz);
 	}
-	q.from_mjd = from;
+	if (planquery_noon_after(now, night_tz, &to) != ERRCODE_OK) {
+		plan_db_free(&hold);
+		return cli_fail("cannot find local noon in zone %s", night_tz);
+	}
+	q.from_mjd = now;
 	q.to_mjd = to;
-	if (now - from > 0.5 && !night_ahead(&q, now)) {
-		/* Past local midnight and this night is over: the next. */
-		from = to;
-		if (noon_before(from + 1.5, tz, &to) != ERRCODE_OK) {
-			plan_db_free(&hold);
-			return cli_fail("cannot find local noon in zone %s", tz);
-		}
-		q.from_mjd = from;
-		q.to_mjd = to;
-	}
-	winquery_params_init(&wp, QPARAM_OPTION, now);
-	wp.limit = 12;
-	if (o.limit != NULL && winquery_param_set(&wp, "limit", o.limit, err,
-	    sizeof err) != ERRCODE_OK) {
+	memset(&rs, 0, sizeof rs);
+	rs.now_el_deg = rs.now_az_deg = NAN;
+	rs.next_night_mjd = NAN;
+	rc = night_plan(&q, &ns, SCHED_BEST, &r, err, sizeof err);
+	if (rc != ERRCODE_OK) {
 		plan_db_free(&hold);
-		return cli_usage_error("%s", err);
+		return cli_status_of(rc) == CLI_EXIT_USAGE ?
+		    cli_usage_error("tonight: %s", err) :
+		    cli_fail("tonight: %s", err);
 	}
-	wp.span.from_mjd = from;
-	wp.span.to_mjd = to;
-	memset(&rp, 0, sizeof rp);
-	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
-	rp.time_zone = tz;
-	rp.now_mjd = now;
-	rp.now_synodic_deg = 0.0;
-	if (tscale_from_utc(TEXT_MJD0, now, 0.0, &ti) == ERRCODE_OK)
-		rp.now_synodic_deg = geom_synodic_at(ti.tt1, ti.tt2) *
-		    ERFA_DR2D;
-	return plan_cli_run(&wp, &q, &hold, &rp, json ? render_windows_json :
-	    render_tonight_text);
+	/* After local midnight with the night's runs over: tonight is the
+	   coming night. */
+	if (r.nruns == 0 && to - now < 0.5) {
+		struct night_result n2;
+		double from = to;
+
+		if (planquery_noon_after(from, night_tz, &q.to_mjd) ==
+		    ERRCODE_OK) {
+			q.from_mjd = from;
+			if (night_plan(&q, &ns, SCHED_BEST, &n2, NULL, 0) ==
+			    ERRCODE_OK) {
+				night_result_free(&r);
+				r = n2;
+			}
+		}
+	}
+	/* Nothing tonight: when does a plannable night start? */
+	for (int k = 0; k < NEXT_NIGHTS && r.nruns == 0 && !json; k++) {
+		struct night_result n2;
+		double from = q.to_mjd;
+
+		if (planquery_noon_after(from, night_tz, &q.to_mjd) !=
+		    ERRCODE_OK)
+			break;
+		q.from_mjd = from;
+		if (night_plan(&q, &ns, SCHED_GREEDY, &n2, NULL, 0) !=
+		    ERRCODE_OK)
+			break;
+		if (n2.nruns > 0)
+			rs.next_night_mjd = n2.runs[0].start_mjd;
+		night_result_free(&n2);
+		if (isfinite(rs.next_night_mjd))
+			break;
+	}
+	for (size_t i = 0; i < r.nruns; i++)
+		if (!r.runs[i].calibration && r.runs[i].start_mjd <= now &&
+		    now < r.runs[i].end_mjd)
+			pointing_now(&q, r.runs[i].target, now, &rs.now_el_deg,
+			    &rs.now_az_deg);
+	rs.r = &r;
+	rs.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
+	rs.time_zone = show_tz;
+	rs.now_mjd = now;
+	rs.next_runs = (size_t)next_runs;
+	mbuf_init(&out);
+	rc = json ? render_sched_json(&rs, &out) :
+	    render_sched_tonight(&rs, &out);
+	night_result_free(&r);
+	plan_db_free(&hold);
+	return cli_emit_rendered(rc, &out);
 }
 
 static const struct cli_option options[] = {
 	PLAN_CLI_OPT_DB("the station database"),
 	PLAN_CLI_OPT_STATION("an ad-hoc station (plans the Moon's centre)"),
-	PLAN_CLI_OPT_TZ("IANA zone (with --station; overrides --db's)"),
+	PLAN_CLI_OPT_TZ("IANA zone: the station's with --station; with --db "
+	    "the clock shown (the night stays the station's)"),
 	{.name = "at", .kind = CLI_TIME, .arg = "UTC",
 	    .help = "take this as now (default: the clock)"},
-	PLAN_CLI_OPT_LIMIT("the best N windows (default 12)"),
+	PLAN_CLI_OPT_LIMIT("the next N runs (default 6)"),
 	{.name = "json", .kind = CLI_FLAG,
-	    .help = "the same windows as 'windows --json'"},
+	    .help = "the plan of the rest of the night as 'plan --json'"},
 	CLI_OPT_END
 };
 
 const struct cli_command cmd_tonight = {
 	.name = "tonight",
-	.summary = "the coming night: ranked windows, best target now",
-	.about = "The night from local noon to local noon (the station's IANA "
-	    "time zone) that holds now, or, after local midnight once its "
-	    "last window is over, the next one: ranked windows with local "
-	    "time and UTC side by side, the best target now, when that "
-	    "changes next, and the coverage of the phase now.\n\n"
+	.summary = "tonight around the plan: the run now, the next runs",
+	.about = "The night plan from now to the next local noon (the "
+	    "station's IANA time zone): the run now with the time it ends and "
+	    "the target's elevation and azimuth now, the next runs, the "
+	    "night's expected normal points and value, and why; when nothing "
+	    "can be ranged, the limit that prevents it and when the next "
+	    "plannable night starts. Local time and UTC side by side.\n\n"
 	    "A planning aid only: laser-safety, aircraft and satellite "
 	    "avoidance rules of the station decide.",
 	.options = options,

@@ -280,10 +280,150 @@ render_sched_text(const struct render_sched *p, struct mbuf *out)
 		mbuf_printf(out, "Nothing can be ranged: %s.\n",
 		    r->why_empty[0] ? r->why_empty : "no window in the span");
 	else
-		mbuf_printf(out, "%zu runs on %zu targets: %.2f normal points "
-		    "expected, value %.4f (greedy %.4f%s)\n", r->nruns, visited,
+		mbuf_printf(out, "%zu run%s on %zu target%s: %.2f normal points "
+		    "expected, value %.4f (greedy %.4f%s)\n", r->nruns,
+		    r->nruns == 1 ? "" : "s", visited, visited == 1 ? "" : "s",
 		    r->expected_nps, r->total_value, r->greedy_value,
 		    r->exact ? ", proved optimal" : "");
+	if (p->time_zone != NULL)
+		mbuf_printf(out, "Local times: %s.\n", p->time_zone);
+	return mbuf_status(out);
+}
+
+/* --- tonight --- */
+
+/* "HH:MM ZZZ (HH:MM UTC)" of an MJD. */
+static void
+both_times(const struct render_sched *p, double mjd, char *buf, size_t len)
+{
+	char d1[8], h1[8], z1[8], d2[8], h2[8], z2[8];
+
+	render_local_parts(mjd, NULL, d2, h2, z2);
+	if (p->time_zone == NULL) {
+		snprintf(buf, len, "%s %s UTC", d2, h2);
+		return;
+	}
+	render_local_parts(mjd, p->time_zone, d1, h1, z1);
+	snprintf(buf, len, "%s %s %s (%s UTC)", d1, h1, z1, h2);
+}
+
+/* Text wrapped at 79 columns after a lead, continuation indented. */
+static void
+wrapped(struct mbuf *out, const char *lead, const char *text)
+{
+	size_t col = strlen(lead), ind = strlen(lead);
+
+	mbuf_puts(out, lead);
+	while (*text) {
+		size_t w = strcspn(text, " ");
+
+		if (col > ind && col + 1 + w > 79) {
+			mbuf_printf(out, "\n%*s", (int)ind, "");
+			col = ind;
+		} else if (col > ind) {
+			mbuf_puts(out, " ");
+			col++;
+		}
+		mbuf_add(out, text, w);
+		col += w;
+		text += w;
+		while (*text == ' ')
+			text++;
+	}
+	mbuf_puts(out, "\n");
+}
+
+enum errcode
+render_sched_tonight(const struct render_sched *p, struct mbuf *out)
+{
+	const struct night_result *r = p->r;
+	const struct night_run *now = NULL, *why = NULL;
+	char t1[64], t2[64], line[200];
+	size_t first_next = r->nruns, shown = 0, visited = 0;
+
+	for (size_t j = 0; j < r->ntargets; j++)
+		for (size_t i = 0; i < r->nruns; i++)
+			if (strcmp(r->runs[i].target, r->targets[j].id) == 0) {
+				visited++;
+				break;
+			}
+	for (size_t i = 0; i < r->nruns; i++) {
+		if (r->runs[i].start_mjd <= p->now_mjd &&
+		    p->now_mjd < r->runs[i].end_mjd)
+			now = &r->runs[i];
+		else if (r->runs[i].start_mjd > p->now_mjd &&
+		    first_next == r->nruns)
+			first_next = i;
+	}
+	if (p->station_name != NULL)
+		mbuf_printf(out, "%s\n", p->station_name);
+	{
+		char d1[8], h1[8], z1[8], d2[8], h2[8], z2[8];
+
+		render_local_parts(r->from_mjd, p->time_zone, d1, h1, z1);
+		render_local_parts(r->to_mjd, p->time_zone, d2, h2, z2);
+		mbuf_printf(out, "Tonight: %s %s %s to %s %s %s, plan (%s)\n",
+		    d1, h1, z1, d2, h2, z2, night_method_name(r->method));
+	}
+	both_times(p, p->now_mjd, t1, sizeof t1);
+	mbuf_printf(out, "Now: %s\n", t1);
+	if (r->nruns == 0) {
+		wrapped(out, "Nothing can be ranged tonight: ", r->why_empty[0] ?
+		    r->why_empty : "no window");
+		if (isfinite(p->next_night_mjd)) {
+			both_times(p, p->next_night_mjd, t1, sizeof t1);
+			mbuf_printf(out, "The next plannable night starts %s.\n",
+			    t1);
+		} else {
+			mbuf_puts(out, "No plannable night in the next 30 "
+			    "days.\n");
+		}
+		return mbuf_status(out);
+	}
+	if (now != NULL) {
+		both_times(p, now->end_mjd, t1, sizeof t1);
+		if (now->calibration)
+			mbuf_printf(out, "Now: calibration until %s\n", t1);
+		else
+			mbuf_printf(out, "Range now: %s until %s\n", now->target,
+			    t1);
+		if (!now->calibration && isfinite(p->now_el_deg))
+			mbuf_printf(out, "  now: elevation %.1f deg, azimuth "
+			    "%.1f deg\n", p->now_el_deg, p->now_az_deg);
+		if (!now->calibration)
+			mbuf_printf(out, "  %.2f normal points expected, value "
+			    "%.4f\n", now->expected_nps, now->value);
+		why = now;
+	} else if (first_next < r->nruns) {
+		both_times(p, r->runs[first_next].start_mjd, t1, sizeof t1);
+		mbuf_printf(out, "Nothing to range now; next: %s at %s\n",
+		    r->runs[first_next].target, t1);
+		why = &r->runs[first_next];
+	}
+	if (first_next < r->nruns)
+		mbuf_puts(out, "Next runs:\n");
+	for (size_t i = first_next; i < r->nruns && shown < p->next_runs;
+	    i++, shown++) {
+		const struct night_run *x = &r->runs[i];
+
+		both_times(p, x->start_mjd, t1, sizeof t1);
+		render_local_parts(x->end_mjd, p->time_zone, t2, t2 + 8,
+		    t2 + 16);
+		snprintf(line, sizeof line, "%2zu %-12.12s %s to %s, %3.0f min, "
+		    "value %.3f", i + 1, x->target, t1, t2 + 8,
+		    (x->end_mjd - x->start_mjd) * 1440.0, x->value);
+		mbuf_printf(out, "  %.77s\n", line);
+	}
+	if (shown < r->nruns - first_next && first_next < r->nruns)
+		mbuf_printf(out, "  ... %zu more (moonrange plan)\n",
+		    r->nruns - first_next - shown);
+	mbuf_printf(out, "The night: %zu run%s on %zu target%s, %.1f normal "
+	    "points expected,\n  value %.3f (greedy %.3f)\n", r->nruns,
+	    r->nruns == 1 ? "" : "s", visited, visited == 1 ? "" : "s",
+	    r->expected_nps, r->total_value, r->greedy_value);
+	if (why != NULL)
+		for (size_t k = 0; k < why->nreasons; k++)
+			wrapped(out, k == 0 ? "Why: " : "     ", why->reasons[k]);
 	if (p->time_zone != NULL)
 		mbuf_printf(out, "Local times: %s.\n", p->time_zone);
 	return mbuf_status(out);

@@ -363,6 +363,16 @@ static const struct route routes[] = {
 	    api_h_attempts_add, 0},
 	{{"GET", "/api/v1/attempts/{id}", "", "one logged attempt"},
 	    api_h_attempt_get, 0},
+	{{"GET", "/api/v1/plan", "from,to,at,method",
+	    "the night plan: runs from now (at) to the next local noon, or "
+	    "from-to"}, api_h_plan, 1},
+	{{"GET", "/api/v1/plan.ics", "from,to,at,method",
+	    "the night plan as iCalendar (RFC 5545)"}, api_h_plan_ics, 1},
+	{{"GET", "/api/v1/plan.svg", "from,to,at,method",
+	    "the night's timeline as SVG"}, api_h_plan_svg, 1},
+	{{"POST", "/api/v1/blackouts", "",
+	    "add a blackout (JSON body, bearer token); 201"},
+	    api_h_blackouts_add, 0},
 };
 
 #define NROUTES (sizeof routes / sizeof routes[0])

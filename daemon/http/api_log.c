@@ -347,46 +347,63 @@ store_member(const char *err)
 	return NULL;
 }
 
-void
-api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
-    struct api_response *resp)
+/*
+ * What every write checks first: the bearer token, the body's size and
+ * type, an open database with a station, a body that is JSON.  0 with
+ * *body (the caller drops it), else -1 with the error set.
+ */
+static int
+write_body(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, json_t **body)
 {
-	struct site_attempt a;
 	json_error_t jerr;
-	json_t *body = NULL;
-	char err[300], msg[360];
-	enum errcode rc;
+	char msg[360];
 
+	*body = NULL;
 	if (!authorized(ctx, req)) {
 		api_error(resp, ERRCODE_AUTH, "Authorization", ctx->token_len ?
 		    "writes need the header Authorization: Bearer TOKEN with "
 		    "the daemon's token" : "writes are disabled: the daemon "
 		    "was started without --token-file");
-		return;
+		return -1;
 	}
 	if (req->body_too_large) {
 		snprintf(msg, sizeof msg, "the body is larger than %d bytes",
 		    API_BODY_MAX);
 		api_error(resp, ERRCODE_TOO_LARGE, NULL, msg);
-		return;
+		return -1;
 	}
 	if (!is_json_type(req->content_type)) {
 		api_error(resp, ERRCODE_UNSUPPORTED, "Content-Type",
 		    "the body must be sent as Content-Type: application/json");
-		return;
+		return -1;
 	}
 	if (!api_store_open_ok(ctx, resp) || !api_site_loaded(ctx, resp))
-		return;
-	if (parse_body(req, &body, &jerr) != ERRCODE_OK) {
+		return -1;
+	if (parse_body(req, body, &jerr) != ERRCODE_OK) {
 		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
-		return;
+		return -1;
 	}
-	if (body == NULL) {
+	if (*body == NULL) {
 		snprintf(msg, sizeof msg, "the body is not valid JSON: %s "
 		    "(line %d, column %d)", jerr.text, jerr.line, jerr.column);
 		api_error(resp, ERRCODE_BAD_ARG, NULL, msg);
-		return;
+		return -1;
 	}
+	return 0;
+}
+
+void
+api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	struct site_attempt a;
+	json_t *body = NULL;
+	char err[300], msg[360];
+	enum errcode rc;
+
+	if (write_body(ctx, req, resp, &body))
+		return;
 	if (attempt_from_json(body, &a, resp))
 		goto out;
 	/* As "log add": angles derived from the stored station, target and
@@ -418,6 +435,89 @@ api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 	    "/api/v1/attempts/%ld", a.id);
 	rc = render_site_attempt_json(&a, &resp->body);
 	api_ok_or_error(resp, rc, 201, "application/json");
+out:
+	json_decref(body);
+}
+
+#define BLACKOUT_MEMBERS "start_utc,end_utc,reason"
+#define BLACKOUT_MAX_DAYS 366.0
+
+/*
+ * POST /api/v1/blackouts: {"start_utc", "end_utc", "reason"} (reason
+ * optional); as "blackout add".  The daemon re-plans after it.
+ */
+void
+api_h_blackouts_add(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	struct site_blackout b;
+	json_t *body = NULL, *o, *v;
+	const char *key;
+	char err[300], msg[360];
+	enum errcode rc;
+	int bad;
+
+	if (write_body(ctx, req, resp, &body))
+		return;
+	memset(&b, 0, sizeof b);
+	if (!json_is_object(body)) {
+		api_error(resp, ERRCODE_BAD_ARG, NULL,
+		    "the body must be a JSON object");
+		goto out;
+	}
+	json_object_foreach(body, key, v) {
+		if (!api_param_listed(BLACKOUT_MEMBERS, key)) {
+			snprintf(msg, sizeof msg, "unknown member '%.60s' "
+			    "(accepted: %s)", key, BLACKOUT_MEMBERS);
+			api_error(resp, ERRCODE_BAD_ARG, key, msg);
+			goto out;
+		}
+	}
+	if (member_time(json_object_get(body, "start_utc"), "start_utc",
+	    &b.start_mjd, resp) ||
+	    member_time(json_object_get(body, "end_utc"), "end_utc",
+	    &b.end_mjd, resp) ||
+	    member_text(json_object_get(body, "reason"), "reason", b.reason,
+	    sizeof b.reason, 0, resp))
+		goto out;
+	if (!(b.end_mjd > b.start_mjd)) {
+		api_error(resp, ERRCODE_BAD_ARG, "end_utc",
+		    "end_utc: must be after start_utc");
+		goto out;
+	}
+	if (b.end_mjd - b.start_mjd > BLACKOUT_MAX_DAYS) {
+		api_error(resp, ERRCODE_BAD_ARG, "end_utc",
+		    "end_utc: a blackout lasts at most 366 days");
+		goto out;
+	}
+	rc = store_blackout_add(ctx->db, &b, err, sizeof err);
+	if (rc == ERRCODE_BAD_ARG || rc == ERRCODE_BAD_TIME) {
+		const char *m = strstr(err, "'end'") ? "end_utc" :
+		    strstr(err, "'start'") ? "start_utc" :
+		    strstr(err, "'reason'") ? "reason" : NULL;
+
+		snprintf(msg, sizeof msg, "%s: %s", m ? m : "body", err);
+		api_error(resp, rc, m, msg);
+		goto out;
+	}
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, NULL, err);
+		goto out;
+	}
+	ctx->replan = 1;
+	o = json_object();
+	bad = o == NULL;
+	bad |= json_object_set_new(o, "id", json_integer(b.id));
+	bad |= json_object_set_new(o, "start_utc", api_iso_of_mjd(b.start_mjd));
+	bad |= json_object_set_new(o, "end_utc", api_iso_of_mjd(b.end_mjd));
+	bad |= json_object_set_new(o, "reason", json_string(b.reason));
+	if (bad) {
+		json_decref(o);
+		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
+		goto out;
+	}
+	api_json_reply(resp, o, 0);
+	resp->status = 201;
 out:
 	json_decref(body);
 }

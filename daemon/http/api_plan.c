@@ -17,6 +17,7 @@
 #include "query/phquery.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
+#include "query/planquery.h"
 #include "core/derive.h"
 #include "core/eop.h"
 #include "core/geom.h"
@@ -217,6 +218,79 @@ api_h_coverage_svg(struct api_ctx *ctx, const struct api_request *req,
 	coverage_common(ctx, req, resp, COVQUERY_SVG, "image/svg+xml");
 }
 
+/*
+ * plan, plan.ics, plan.svg: the night plan by the CLI's query path
+ * (planquery_run), planned afresh from the store as it is now, so a
+ * logged attempt or a new blackout shows in the next answer.  at
+ * defaults to the request's arrival.
+ */
+static void
+plan_common(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp, enum planquery_format fmt, const char *ctype)
+{
+	struct planquery_params p;
+	struct store *db;
+	char err[300];
+	int locked, ok;
+	enum errcode rc;
+
+	pthread_mutex_lock(&ctx->lock);
+	ok = api_store_open_ok(ctx, resp);
+	pthread_mutex_unlock(&ctx->lock);
+	if (!ok)
+		return;
+	planquery_params_init(&p);
+	p.at_mjd = (req->now1 - ERFA_DJM0) + req->now2;
+	for (size_t i = 0; i < req->nparams; i++) {
+		err[0] = '\0';
+		rc = planquery_param_set(&p, req->params[i].key,
+		    req->params[i].value, err, sizeof err);
+		if (rc != ERRCODE_OK) {
+			api_error(resp, ERRCODE_BAD_ARG, req->params[i].key,
+			    err[0] ? err : NULL);
+			return;
+		}
+	}
+	err[0] = '\0';
+	db = api_read_store(ctx, &locked);
+	rc = planquery_run(db, &p, fmt, &resp->body, err, sizeof err);
+	api_release_store(ctx, db, locked);
+	if (rc == ERRCODE_BAD_ARG) {
+		/* the sentence starts with the parameter at fault */
+		const char *f = strncmp(err, "from", 4) == 0 ? "from" :
+		    strncmp(err, "to", 2) == 0 ? "to" : NULL;
+
+		api_error(resp, rc, f, err[0] ? err : NULL);
+		return;
+	}
+	if (rc != ERRCODE_OK) {
+		api_error(resp, rc, NULL, err[0] ? err : NULL);
+		return;
+	}
+	api_ok_or_error(resp, rc, 200, ctype);
+}
+
+void
+api_h_plan(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	plan_common(ctx, req, resp, PLANQUERY_JSON, "application/json");
+}
+
+void
+api_h_plan_ics(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	plan_common(ctx, req, resp, PLANQUERY_ICS,
+	    "text/calendar; charset=utf-8");
+}
+
+void
+api_h_plan_svg(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	plan_common(ctx, req, resp, PLANQUERY_SVG, "image/svg+xml");
+}
 
 enum errcode
 api_replan(struct api_ctx *ctx, double now1, double now2, char *errbuf,

@@ -13,6 +13,11 @@ struct render_sched {
 	const char *station_name;	/* NULL: none */
 	const char *time_zone;		/* IANA zone for local times, or NULL */
 	double now_mjd;			/* UTC: DTSTAMP, the timeline's now */
+	/* tonight only */
+	double now_el_deg, now_az_deg;	/* the run now's target, or NaN */
+	double next_night_mjd;		/* first run of the next plannable
+					   night when this one has none; NaN */
+	size_t next_runs;		/* next runs listed */
 };
 
 /* {"method","from","to","total_value","expected_normal_points",
@@ -25,6 +30,11 @@ enum errcode render_sched_csv(const struct render_sched *p, struct mbuf *out);
 enum errcode render_sched_ics(const struct render_sched *p, struct mbuf *out);
 /* 80 columns, station local time and UTC. */
 enum errcode render_sched_text(const struct render_sched *p,
+    struct mbuf *out);
+/* The operator's view of tonight around the plan: the run now (until
+   when, elevation and azimuth now), the next runs, the night's totals
+   and why; when nothing can be ranged, the limit and the next night. */
+enum errcode render_sched_tonight(const struct render_sched *p,
     struct mbuf *out);
 /* The timeline: Moon elevation, twilight, lit/dark spans, runs, now. */
 enum errcode render_sched_svg(const struct render_sched *p, struct mbuf *out);

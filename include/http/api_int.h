@@ -69,6 +69,14 @@ void api_h_attempt_get(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
 void api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
+void api_h_blackouts_add(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_plan(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_plan_ics(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
+void api_h_plan_svg(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
 
 /* --- helpers (api.c) --- */
 

@@ -7,8 +7,9 @@
 // marked and focused, the values kept; logging attempts through the form;
 // the download links; the daemon stopped (a banner within 10 s, the
 // values greyed with their age) and started again (the page recovers by
-// itself).  Screenshots for the README: SCREENSHOT.png (1280 px), and
-// beside it -768.png, -390.png and -offline.png.
+// itself); the night plan's run-now panel and timeline (checkPlanPanel).
+// Screenshots for the README: SCREENSHOT.png (1280 px), and beside it
+// -768.png, -390.png, -offline.png and -plan.png (the timeline).
 //
 // usage: node e2e.mjs MOONRANGE_BINARY [SCREENSHOT.png]
 // Exit 77 (skipped) when playwright-core or Chromium is missing, unless
@@ -238,6 +239,48 @@ async function checkChart(page, width) {
   });
 }
 
+// The night-plan panel (web/plan.js): the run-now block and the timeline
+// drawn from GET /api/v1/plan.svg; then the timeline of a pinned night on
+// the sample site (2027-03-20 from 19:00 PDT) saved beside the screenshot
+// as SCREENSHOT-plan.png (the README's picture of the timeline).
+async function checkPlanPanel(page, url, shotPath) {
+  await page.waitForFunction(() => {
+    const img = document.getElementById("plan-timeline");
+    return img.complete && img.naturalWidth > 0;
+  }, null, { timeout: 20000 });
+  await page.waitForFunction(() =>
+    document.getElementById("plan-summary").textContent.length > 0,
+    null, { timeout: 20000 });
+  const summary = await page.textContent("#plan-summary");
+  assert.doesNotMatch(summary, /not available/, "the plan loads");
+  const now = (await page.textContent("#plan-now-target")).trim();
+  assert.ok(now.length > 0 && now !== "–", "the run-now block is filled");
+  if (/runs on/.test(summary)) {
+    assert.ok(await page.$$eval("#plan-next-list li", (l) => l.length) > 0);
+  } else {
+    assert.match(summary, /^Nothing can be ranged: /);
+  }
+  const at = "2027-03-20T02:00:00Z";
+  const res = await fetch(url + "api/v1/plan.svg?at=" + at);
+  assert.equal(res.status, 200);
+  assert.match(res.headers.get("content-type"), /^image\/svg\+xml/);
+  const svg = await res.text();
+  for (const part of ['class="moon"', 'class="minel"', 'class="run"',
+    'id="plan-now"', 'class="twi"']) {
+    assert.ok(svg.includes(part), "timeline has " + part);
+  }
+  const sizes = [...svg.matchAll(/font-size:(\d+)px/g)].map((m) => Number(m[1]));
+  assert.ok(sizes.length > 0 && Math.min(...sizes) >= 12, "text >= 12 px");
+  const json = await (await fetch(url + "api/v1/plan?at=" + at)).json();
+  assert.ok(json.targets_visited >= 3, "the sample night visits 3 targets");
+  const view = await context.newPage();
+  await view.setViewportSize({ width: 960, height: 500 });
+  await view.goto(url + "api/v1/plan.svg?at=" + at, { waitUntil: "load" });
+  await view.locator("svg").screenshot({
+    path: shotPath.replace(/\.png$/, "") + "-plan.png" });
+  await view.close();
+}
+
 try {
   execFileSync(bin, ["init", "--db", db], { stdio: "ignore" });
   writeFileSync(tokenFile, token + "\n");
@@ -312,6 +355,9 @@ try {
   assert.match(firstNow, /^at \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}Z/);
   await page.waitForFunction((t) => document.getElementById("now-time").textContent !== t,
     firstNow, { timeout: 12000 });
+
+  // The night plan: the run now, the next runs and the timeline.
+  await checkPlanPanel(page, url, shot);
 
   // The coverage chart, at each width below too: dark on the page, the
   // empty bins (those the API counts as 0) marked by a band the full
