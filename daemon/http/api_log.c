@@ -13,6 +13,7 @@
 
 #include "http/api.h"
 #include "http/api_int.h"
+#include "formats/render_json.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
 #include "core/derive.h"
@@ -508,8 +509,8 @@ api_h_blackouts_add(struct api_ctx *ctx, const struct api_request *req,
 	o = json_object();
 	bad = o == NULL;
 	bad |= json_object_set_new(o, "id", json_integer(b.id));
-	bad |= json_object_set_new(o, "start_utc", api_iso_of_mjd(b.start_mjd));
-	bad |= json_object_set_new(o, "end_utc", api_iso_of_mjd(b.end_mjd));
+	bad |= json_object_set_new(o, "start_utc", render_json_mjd(b.start_mjd, 0));
+	bad |= json_object_set_new(o, "end_utc", render_json_mjd(b.end_mjd, 0));
 	bad |= json_object_set_new(o, "reason", json_string(b.reason));
 	if (bad) {
 		json_decref(o);
