@@ -12,6 +12,7 @@
   let zone = "UTC";
   let zoneLabel = "Station";
   let offlineSince = null;         // Date of the first unanswered request
+  let tokenPath = null;            // the daemon's token file, from /status
   const asOf = {};                 // panel name -> Date of its last data
 
   // --- small DOM helpers ---------------------------------------------------
@@ -255,6 +256,7 @@
       setText("plan-note", s.plan && s.plan.last_utc ?
         "plan of " + fmtUtc(s.plan.last_utc) : "no plan yet");
       if (typeof s.token_file === "string" && s.token_file !== "") {
+        tokenPath = s.token_file;
         const span = $("token-path");
         const code = document.createElement("code");
         code.textContent = s.token_file;
@@ -614,7 +616,8 @@
       if (r.status === 401) {
         try { sessionStorage.removeItem(TOKEN_KEY); } catch (e) { /* none */ }
         showTokenState();
-        fieldError("f-token", "refused: " +
+        fieldError("f-token", tokenPath ? "refused by the daemon; compare it " +
+          "with the line in " + tokenPath + "." : "refused: " +
           (body && body.error ? body.error.message : r.statusText));
         return;
       }

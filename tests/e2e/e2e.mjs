@@ -403,8 +403,14 @@ try {
   await page.click("#f-submit");
   await page.waitForFunction(() => /^Write token: /.test(document.getElementById("form-status").textContent));
   assert.equal(await page.evaluate(() => document.activeElement.id), "f-token");
+  // A wrong token: refused, and the page says which file holds the right one.
+  expected = /status of 40[01]/;
+  await page.fill("#f-token", "not-the-token-0123456789");
+  await page.click("#f-submit");
+  await page.waitForFunction(() => /^Write token: refused/.test(document.getElementById("form-status").textContent));
+  assert.ok((await page.textContent("#form-status")).includes(tokenFile), "the refusal names the token file");
+  assert.equal(await page.evaluate(() => document.activeElement.id), "f-token");
   await page.fill("#f-token", token);
-  expected = /status of 400/;
   const formError = async (id, label) => {
     await page.click("#f-submit");
     await page.waitForFunction((l) =>
