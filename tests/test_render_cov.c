@@ -200,8 +200,7 @@ test_render_cov_svg_themes(void **state)
 	static const char *const others[] = {
 		"<path class=\"mean\" stroke=\"",
 		"<path class=\"bin\" data-bin=\"1\" data-count=\"1\" fill=\"",
-		"class=\"sparse-mark\" data-bin=\"-1\" fill=\"none\" "
-		    "stroke=\"",
+		"class=\"sparse-mark\" data-bin=\"-1\" fill=\"none\" stroke=\"",
 	};
 
 	(void)state;
