@@ -96,7 +96,16 @@ api_error(struct api_response *r, enum errcode rc, const char *field,
 {
 	json_t *root = json_object(), *e = json_object();
 	int bad = root == NULL || e == NULL;
+	char msg[1600], fld[400];
 
+	/* A message or field may quote what the client sent: made valid
+	   UTF-8 here (invalid bytes and controls as \xNN), which jansson
+	   requires; a client's mistake is never a 500. */
+	if (message == NULL)
+		message = errcode_str(rc);
+	message = text_quote(message, strlen(message), msg, sizeof msg);
+	if (field != NULL)
+		field = text_quote(field, strlen(field), fld, sizeof fld);
 	mbuf_free(&r->body);
 	r->status = api_http_status(rc);
 	r->content_type = "application/json";
@@ -104,8 +113,7 @@ api_error(struct api_response *r, enum errcode rc, const char *field,
 		bad |= json_object_set_new(root, "error", e);
 		bad |= json_object_set_new(e, "code",
 		    json_string(errcode_name(rc)));
-		bad |= json_object_set_new(e, "message",
-		    json_string(message ? message : errcode_str(rc)));
+		bad |= json_object_set_new(e, "message", json_string(message));
 		bad |= json_object_set_new(e, "field",
 		    field ? json_string(field) : json_null());
 	} else {

@@ -2,6 +2,7 @@
 /* web.c: libmicrohttpd glue: requests to the API and static files, with limits. */
 #define _XOPEN_SOURCE 700	/* realpath */
 #include <arpa/inet.h>
+#include <ctype.h>
 #include <errno.h>
 #include <limits.h>
 #include <netinet/in.h>
@@ -473,6 +474,35 @@ on_request(void *cls, struct MHD_Connection *conn, const char *url,
 	return ret;
 }
 
+/*
+ * libmicrohttpd's unescaping of the path and of query keys and values,
+ * except that "%00" stays as those three characters: decoded, it would
+ * end the C string there ("/api/v1/status%00.html" served /status).
+ * Returns the new length.
+ */
+static size_t
+unescape(void *cls, struct MHD_Connection *conn, char *s)
+{
+	char *w = s;
+
+	(void)cls;
+	(void)conn;
+	for (const char *r = s; *r != '\0'; ) {
+		if (r[0] == '%' && isxdigit((unsigned char)r[1]) &&
+		    isxdigit((unsigned char)r[2]) && !(r[1] == '0' &&
+		    r[2] == '0')) {
+			char hex[3] = {r[1], r[2], '\0'};
+
+			*w++ = (char)strtol(hex, NULL, 16);
+			r += 3;
+		} else {
+			*w++ = *r++;
+		}
+	}
+	*w = '\0';
+	return (size_t)(w - s);
+}
+
 static void
 on_completed(void *cls, struct MHD_Connection *conn, void **con_cls,
     enum MHD_RequestTerminationCode toe)
@@ -624,6 +654,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	    MHD_OPTION_CONNECTION_MEMORY_LIMIT,
 	    (size_t)(cfg->memory_limit ? cfg->memory_limit : 128 * 1024),
 	    MHD_OPTION_NOTIFY_COMPLETED, on_completed, s,
+	    MHD_OPTION_UNESCAPE_CALLBACK, unescape, NULL,
 	    MHD_OPTION_END);
 	if (s->d == NULL) {
 		int e = errno;
