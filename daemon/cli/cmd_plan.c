@@ -25,6 +25,7 @@ run(const struct cli_args *a)
 	struct mbuf out;
 	char err[300];
 	double u1, u2;
+	int st;
 	enum errcode rc;
 
 	planquery_params_init(&p);
@@ -55,7 +56,9 @@ run(const struct cli_args *a)
 			    errcode_str(rc));
 		return cli_fail("plan: %s", err[0] ? err : errcode_str(rc));
 	}
-	return cli_emit(&out);
+	st = cli_emit(&out);
+	mbuf_free(&out);
+	return st;
 }
 
 static const struct cli_option options[] = {

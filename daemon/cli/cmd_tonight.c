@@ -169,7 +169,9 @@ run(const struct cli_args *a)
 	    render_sched_tonight(&rs, &out);
 	night_result_free(&r);
 	plan_db_free(&hold);
-	return cli_emit_rendered(rc, &out);
+	st = cli_emit_rendered(rc, &out);
+	mbuf_free(&out);
+	return st;
 }
 
 static const struct cli_option options[] = {
