@@ -1,5 +1,9 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* fuzz_import.c: libFuzzer entry feeding one input to every importer. */
+/* fuzz_common.h: what the libFuzzer harnesses of tests/fuzz share: the
+   importers' row callbacks and the report check. */
+#ifndef MOONRANGE_FUZZ_COMMON_H
+#define MOONRANGE_FUZZ_COMMON_H
+
 #include <stddef.h>
 #include <stdint.h>
 #include <string.h>
@@ -7,23 +11,25 @@
 #include "formats/import.h"
 
 /*
- * Build with clang (see DEVELOPERS.md, "Fuzzing the importers"):
+ * Build with clang and run (DEVELOPERS.md, "Fuzzing"):
  *   cmake -S . -B build-fuzz -DFUZZ=ON -DCMAKE_C_COMPILER=clang
- *   cmake --build build-fuzz --target fuzz_import
- *   ./build-fuzz/tests/fuzz_import -max_total_time=60 sample-site
+ *   cmake --build build-fuzz -j2 --target fuzz_all
+ *   bash tests/fuzz/run.sh build-fuzz 600     # 10 minutes each
  * Every parser must return one of its documented codes without crashing,
  * leaking or reading outside the buffer (ASan/UBSan watch that), and the
  * report must stay within its bounds.
  */
 
-static enum errcode
+int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size);
+
+static inline enum errcode
 any_target(void *ctx, const struct site_target *t, size_t line)
 {
 	(void)ctx;
 	return (t->id[0] != '\0' && line > 0) ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
-static enum errcode
+static inline enum errcode
 any_attempt(void *ctx, const struct site_attempt *a, size_t line)
 {
 	(void)ctx;
@@ -31,21 +37,21 @@ any_attempt(void *ctx, const struct site_attempt *a, size_t line)
 	    ERRCODE_BAD_ARG;
 }
 
-static enum errcode
+static inline enum errcode
 any_np(void *ctx, const struct import_crd_np *np, size_t line)
 {
 	(void)ctx;
 	return (np->np.tof_s > 0.0 && line > 0) ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
-static enum errcode
+static inline enum errcode
 any_eop(void *ctx, const struct site_eop_row *r, size_t line)
 {
 	(void)ctx;
 	return (r->mjd > 0.0 && line > 0) ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
-static void
+static inline void
 check_report(const struct import_report *rep)
 {
 	char buf[300];
@@ -60,28 +66,4 @@ check_report(const struct import_report *rep)
 	}
 }
 
-int LLVMFuzzerTestOneInput(const uint8_t *data, size_t size);
-
-int
-LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
-{
-	const char *buf = (const char *)data;
-	struct import_report rep;
-	struct site_station st;
-
-	import_station_ini(buf, size, &st, &rep);
-	check_report(&rep);
-	import_targets_csv(buf, size, any_target, NULL, &rep);
-	check_report(&rep);
-	import_attempts_csv(buf, size, any_attempt, NULL, &rep);
-	check_report(&rep);
-	import_crd(buf, size, any_np, NULL, &rep);
-	check_report(&rep);
-	import_eop_finals(buf, size, any_eop, NULL, &rep);
-	check_report(&rep);
-	import_eop_c04(buf, size, any_eop, NULL, &rep);
-	check_report(&rep);
-	import_eop(buf, size, any_eop, NULL, &rep);
-	check_report(&rep);
-	return 0;
-}
+#endif
