@@ -13,6 +13,7 @@
   let zoneLabel = "Station";
   let offlineSince = null;         // Date of the first unanswered request
   let tokenPath = null;            // the daemon's token file, from /status
+  let lastAnswer = null;           // Date of the daemon's last answer
   const asOf = {};                 // panel name -> Date of its last data
 
   // --- small DOM helpers ---------------------------------------------------
@@ -171,8 +172,10 @@
       age(now - offlineSince.getTime()) + "). The greyed values are the " +
       "last ones received; the page keeps asking every " +
       NOW_EVERY_MS / 1000 + " s and recovers by itself.");
+    // A panel that fetches on its own has no time here: its data are at
+    // most as old as the daemon's last answer.
     for (const p of document.querySelectorAll("[data-asof]")) {
-      const t = asOf[p.dataset.asof];
+      const t = asOf[p.dataset.asof] || lastAnswer;
       p.textContent = t ? "as of " + t.toISOString().slice(11, 19) +
         " UTC, " + age(now - t.getTime()) + " old" : "no data yet";
     }
@@ -215,6 +218,7 @@
     } finally {
       clearTimeout(timer);
     }
+    lastAnswer = new Date();
     daemonBack();
     let body = null;
     try { body = await r.json(); } catch (e) { body = null; }

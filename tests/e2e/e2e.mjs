@@ -514,12 +514,16 @@ try {
   const stale = await page.evaluate(() => ({
     banner: document.getElementById("offline").textContent,
     dim: getComputedStyle(document.getElementById("windows")).opacity,
+    // every panel's body greys, the plan's (another script's) too
+    dimmed: [...document.querySelectorAll(".card[data-panel]:not([data-panel=log]) > :not(.card-head)")]
+      .every((e) => Number(getComputedStyle(e).opacity) < 1),
     body: document.body.classList.contains("offline"),
     rows: document.querySelectorAll("#windows tbody tr.win").length
   }));
   assert.match(stale.banner, /not answering/);
   assert.match(stale.banner, /No answer since \d{2}:\d{2}:\d{2} UTC/);
   assert.ok(Number(stale.dim) < 1, "stale values greyed");
+  assert.ok(stale.dimmed, "every panel's values greyed");
   assert.ok(stale.rows > 0, "the last values stay");
   await page.evaluate(() => window.scrollTo(0, 0));
   await page.waitForFunction(() => !/\(0 s\)/.test(document.getElementById("offline").textContent));
