@@ -296,6 +296,21 @@ api_read_store(struct api_ctx *ctx, int *locked)
 	return ctx->db;
 }
 
+struct store *
+api_write_store(struct api_ctx *ctx, int *locked)
+{
+	struct store *db = NULL;
+
+	if (ctx->db_path != NULL && store_open(ctx->db_path,
+	    STORE_OPEN_NO_MIGRATE, &db, NULL, 0) == ERRCODE_OK) {
+		*locked = 0;
+		return db;
+	}
+	pthread_mutex_lock(&ctx->lock);
+	*locked = 1;
+	return ctx->db;
+}
+
 void
 api_release_store(struct api_ctx *ctx, struct store *db, int locked)
 {
@@ -368,7 +383,7 @@ static const struct route routes[] = {
 	    api_h_attempts_list, 0},
 	{{"POST", "/api/v1/attempts", "",
 	    "log an attempt (JSON body, bearer token); 201 with Location"},
-	    api_h_attempts_add, 0},
+	    api_h_attempts_add, 1},
 	{{"GET", "/api/v1/attempts/{id}", "", "one logged attempt"},
 	    api_h_attempt_get, 0},
 	{{"GET", "/api/v1/plan", "from,to,at,method",

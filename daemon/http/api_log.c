@@ -399,17 +399,26 @@ api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
 	struct site_attempt a;
+	struct store *db;
 	json_t *body = NULL;
 	char err[300], msg[360];
+	int bad, locked;
 	enum errcode rc;
 
-	if (write_body(ctx, req, resp, &body))
+	/* An unlocked route: the context is looked at under its lock, the
+	   write made on a connection of its own (api_write_store). */
+	pthread_mutex_lock(&ctx->lock);
+	bad = write_body(ctx, req, resp, &body) != 0;
+	pthread_mutex_unlock(&ctx->lock);
+	if (bad)
 		return;
 	if (attempt_from_json(body, &a, resp))
 		goto out;
 	/* As "log add": angles derived from the stored station, target and
 	   EOP table at the mid-time, then one insert. */
-	rc = store_attempt_log(ctx->db, &a, err, sizeof err);
+	db = api_write_store(ctx, &locked);
+	rc = store_attempt_log(db, &a, err, sizeof err);
+	api_release_store(ctx, db, locked);
 	if (rc == ERRCODE_NOT_FOUND) {
 		snprintf(msg, sizeof msg, "target: no target '%.40s' in the "
 		    "database", a.target);
@@ -431,7 +440,9 @@ api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 		    "an attempt starting at this time" : err);
 		goto out;
 	}
+	pthread_mutex_lock(&ctx->lock);
 	ctx->replan = 1;
+	pthread_mutex_unlock(&ctx->lock);
 	snprintf(resp->location, sizeof resp->location,
 	    "/api/v1/attempts/%ld", a.id);
 	rc = render_site_attempt_json(&a, &resp->body);

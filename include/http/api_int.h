@@ -124,7 +124,15 @@ int api_store_open_ok(struct api_ctx *ctx, struct api_response *resp);
  */
 struct store *api_read_store(struct api_ctx *ctx, int *locked);
 
-/* Give back what api_read_store returned. */
+/*
+ * A connection to write on without holding ctx->lock, so that a write
+ * waiting for the database (busy timeout, another process's import)
+ * does not hold up /status, /now or the windows: one of its own to the
+ * daemon's file, else the shared one under the lock (*locked says which).
+ */
+struct store *api_write_store(struct api_ctx *ctx, int *locked);
+
+/* Give back what api_read_store or api_write_store returned. */
 void api_release_store(struct api_ctx *ctx, struct store *db, int locked);
 
 /* 200 with root dumped (root is consumed), or 500 when bad. */
