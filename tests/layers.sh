@@ -12,6 +12,9 @@
 #  3. The pure core (CORE_SOURCES and CORE_HEADERS of the top CMakeLists.txt,
 #     passed as arguments) calls no I/O, clock or environment function and
 #     allocates only through the injectable wrapper of core/mem.h.
+#  4. formats/ (parsers and renderers, memory to memory) calls no I/O,
+#     clock or environment function either: local times come to the
+#     renderers as a table (core/tzone.h), read by the query layer.
 #
 # Before checking the tree, the check is run on planted violations of each
 # kind and must catch every one.
@@ -100,6 +103,18 @@ check_core() {
 	return $bad
 }
 
+# check_formats FILE...: rule 4.
+check_formats() {
+	local f bad=0
+	for f in "$@"; do
+		if grep -nE "$FORBIDDEN_CALL" "$f" | grep -v sqlite3_ | grep -v json_ | grep -q .; then
+			grep -nE "$FORBIDDEN_CALL" "$f" | grep -v sqlite3_ | grep -v json_
+			echo "layers: $f: formats/ calls I/O, clock or environment"; bad=1
+		fi
+	done
+	return $bad
+}
+
 [ "$#" -gt 0 ] || { echo "usage: layers.sh CORE_FILE..."; exit 2; }
 
 # The check must catch a planted violation of each kind.
@@ -125,10 +140,15 @@ for f in env alloc io; do
 		echo "layers: the check missed the planted daemon/core/$f.c"; exit 1
 	fi
 done
+printf 'static void f(void) { setenv("TZ", "UTC", 1); tzset(); }\n' >"$T/daemon/formats/tz.c"
+if check_formats "$T/daemon/formats/tz.c" >/dev/null 2>&1; then
+	echo "layers: the check missed the planted daemon/formats/tz.c"; exit 1
+fi
 
 bad=0
 files=$(find daemon include -name '*.c' -o -name '*.h' | sort)
 check_layers $files || bad=1
 check_core "$@" || bad=1
+check_formats $(find daemon/formats -name '*.c' | sort) || bad=1
 [ $bad -eq 0 ] || exit 1
 echo "layers: $(echo $files | wc -w) files in order, $# core files pure"

@@ -20,9 +20,13 @@
 #include "formats/render_json.h"
 #include "formats/render_plan.h"
 #include "store/store.h"
+#include "query/qzone.h"
 
 #define D2R ERFA_DD2R
 #define MJD0 2400000.5
+
+/* A zone table for the text renderers (qzone_load: the C library). */
+static struct tzone denver;
 
 static char tmpdir[256];
 
@@ -319,7 +323,9 @@ render_all(const struct plan_result *r, struct mbuf *json, struct mbuf *csv,
 	memset(&rp, 0, sizeof rp);
 	rp.r = r;
 	rp.station_name = r->station.name;
-	rp.time_zone = "America/Denver";
+	assert_int_equal(qzone_load("America/Denver", r->from_mjd,
+	    r->to_mjd, &denver), ERRCODE_OK);
+	rp.time_zone = &denver;
 	rp.now_mjd = mjd_of("2027-03-18T04:00:00Z");
 	rp.now_synodic_deg = 150.0;
 	assert_int_equal(render_windows_json(&rp, json), ERRCODE_OK);
@@ -527,7 +533,9 @@ test_plan_db_and_cli_same_bytes(void **state)
 	memset(&rp, 0, sizeof rp);
 	rp.r = &r;
 	rp.station_name = q.station.name;
-	rp.time_zone = q.station.time_zone;
+	assert_int_equal(qzone_load(q.station.time_zone, r.from_mjd, r.to_mjd,
+	    &denver), ERRCODE_OK);
+	rp.time_zone = &denver;
 	mbuf_init(&js);
 	assert_int_equal(render_windows_json(&rp, &js), ERRCODE_OK);
 
@@ -626,7 +634,9 @@ test_plan_allocation_failure(void **state)
 		if (rc == ERRCODE_OK) {
 			memset(&rp, 0, sizeof rp);
 			rp.r = &r;
-			rp.time_zone = "America/Denver";
+			if (qzone_load("America/Denver", r.from_mjd,
+			    r.to_mjd, &denver) == ERRCODE_OK)
+				rp.time_zone = &denver;
 			mbuf_init(&b);
 			rc = render_windows_json(&rp, &b);
 			if (rc == ERRCODE_OK)

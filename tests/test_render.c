@@ -10,6 +10,7 @@
 #include "formats/render_json.h"
 #include "formats/render_ephem.h"
 #include "formats/render_phases.h"
+#include "core/tzone.h"
 
 /* An invented station and two invented targets (test data only). */
 static void
@@ -208,6 +209,7 @@ test_render_phases_json_parses(void **state)
 static void
 test_render_text_tables(void **state)
 {
+	static struct tzone utc;
 	struct geom_instant g;
 	struct render_target_row rows[2];
 	struct render_ephem e;
@@ -219,7 +221,8 @@ test_render_text_tables(void **state)
 	e.g = &g;
 	e.targets = rows;
 	e.ntargets = 2;
-	e.time_zone = "UTC";
+	tzone_utc(&utc);
+	e.time_zone = &utc;
 	mbuf_init(&b);
 	assert_int_equal(render_ephem_text(&e, &b), ERRCODE_OK);
 	assert_non_null(strstr(b.data, "2027-03-01T04:00:00Z"));

@@ -13,6 +13,7 @@
 #include "core/mem.h"
 #include "formats/render_json.h"
 #include "formats/render_cov.h"
+#include "core/tzone.h"
 
 #define MJD0 2400000.5
 
@@ -389,6 +390,7 @@ test_render_cov_csv_rows(void **state)
 static void
 test_render_cov_text_table(void **state)
 {
+	static struct tzone utc;
 	struct coverage_result *r = sample_result();
 	struct render_cov c = {r, NULL, "fill dates: none here", NULL, NULL, RENDER_COV_LIGHT};
 	struct coverage_fill fill;
@@ -421,7 +423,8 @@ test_render_cov_text_table(void **state)
 	fill.bins[0].dates[1].score = 1.0;
 	c.fill = &fill;
 	c.fill_note = NULL;
-	c.time_zone = "UTC";
+	tzone_utc(&utc);
+	c.time_zone = &utc;
 	mbuf_init(&b);
 	assert_int_equal(render_cov_text(&c, &b), ERRCODE_OK);
 	/* MJD 61450 = 2027-02-14 (61406 = 2027-01-01, + 44 days). */

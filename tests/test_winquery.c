@@ -8,8 +8,12 @@
 
 #include "check.h"
 #include "core/plan.h"
+#include "core/text.h"
+#include "core/tscale.h"
 #include "formats/render_plan.h"
+#include "core/tzone.h"
 #include "query/phquery.h"
+#include "query/qzone.h"
 #include "query/qparam.h"
 #include "query/winquery.h"
 
@@ -198,6 +202,68 @@ test_phquery_rules(void **state)
 	mbuf_free(&out);
 }
 
+/* Civil dates of day counts (python3 datetime.date arithmetic:
+   date(2000,3,1) - date(1970,1,1) = 11017 days, 1969-12-31 = -1,
+   2027-03-14 = 20891, 1600-02-29 = -135081). */
+static void
+test_tzone_civil(void **state)
+{
+	static const struct { long long days; int y, m, d; } c[] = {
+		{11017, 2000, 3, 1}, {-1, 1969, 12, 31}, {20891, 2027, 3, 14},
+		{-135081, 1600, 2, 29}, {0, 1970, 1, 1},
+	};
+	(void)state;
+	for (size_t i = 0; i < sizeof c / sizeof c[0]; i++) {
+		int y, m, d;
+
+		tzone_civil(c[i].days, &y, &m, &d);
+		assert_int_equal(y, c[i].y);
+		assert_int_equal(m, c[i].m);
+		assert_int_equal(d, c[i].d);
+		assert_true(tzone_days(c[i].y, c[i].m, c[i].d) == c[i].days);
+	}
+}
+
+/*
+ * The zone read once, converted from the table: the US clock changes of
+ * 2027 at America/Denver (second Sunday of March and first Sunday of
+ * November, 2:00 local, Energy Policy Act of 2005), cross-checked with
+ * python3 zoneinfo: 2027-03-14T08:59:59Z is 01:59 MST and 09:00:00Z
+ * 03:00 MDT; 2027-11-07T07:59:59Z is 01:59 MDT and 08:00:00Z 01:00 MST.
+ */
+static void
+test_qzone_denver(void **state)
+{
+	static const struct { const char *utc, *local; } c[] = {
+		{"2027-03-14T08:59:59Z", "2027-03-14 01:59 MST"},
+		{"2027-03-14T09:00:00Z", "2027-03-14 03:00 MDT"},
+		{"2027-11-07T07:59:59Z", "2027-11-07 01:59 MDT"},
+		{"2027-11-07T08:00:00Z", "2027-11-07 01:00 MST"},
+	};
+	static struct tzone z;
+	char buf[48];
+
+	(void)state;
+	assert_int_equal(qzone_load("America/Denver", 61406.0, 61771.0, &z),
+	    ERRCODE_OK);	/* 2027-01-01 .. 2028-01-01 */
+	assert_true(z.n >= 3);
+	for (size_t i = 0; i < sizeof c / sizeof c[0]; i++) {
+		double u1, u2;
+
+		assert_int_equal(tscale_parse_utc(c[i].utc, &u1, &u2, NULL, 0),
+		    ERRCODE_OK);
+		assert_int_equal(tzone_format(&z, u1, u2, buf, sizeof buf),
+		    ERRCODE_OK);
+		assert_string_equal(buf, c[i].local);
+	}
+	/* Outside the table: not converted (the renderers fall back). */
+	assert_int_equal(tzone_format(&z, TEXT_MJD0, 70000.0, buf, sizeof buf),
+	    ERRCODE_NOT_FOUND);
+	assert_int_equal(qzone_load("Mars/Olympus", 61406.0, 61407.0, &z),
+	    ERRCODE_NOT_FOUND);
+	assert_false(qzone_known("../etc/passwd"));
+}
+
 int
 main(void)
 {
@@ -207,6 +273,8 @@ main(void)
 		cmocka_unit_test(test_winquery_span),
 		cmocka_unit_test(test_winquery_unknown_target),
 		cmocka_unit_test(test_phquery_rules),
+		cmocka_unit_test(test_tzone_civil),
+		cmocka_unit_test(test_qzone_denver),
 	};
 
 	return cmocka_run_group_tests(tests, NULL, NULL);

@@ -11,6 +11,7 @@
 #include "core/text.h"
 #include "core/tscale.h"
 #include "formats/render_time.h"
+#include "query/qzone.h"
 
 /* Index of option name in cmd's table, or -1. */
 static int
@@ -222,7 +223,7 @@ take_value(struct cli_args *a, int i, const char *val)
 		v->whole = w;
 		break;
 	case CLI_ZONE:
-		if (!render_zone_known(val))
+		if (!qzone_known(val))
 			return cli_usage_error("--%s: '%s' is not a time zone "
 			    "known to this system (an IANA name such as "
 			    "Europe/Madrid)", o->name, val);

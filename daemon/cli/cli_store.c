@@ -12,6 +12,7 @@
 #include "cli/cli_store.h"
 #include "core/derive.h"
 #include "formats/render_time.h"
+#include "query/qzone.h"
 
 int
 cli_store_open(struct cli_store *c, const char *db, int flags)
@@ -519,7 +520,7 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 int
 cli_store_check_zone(const struct site_station *st, const char *where)
 {
-	if (st->time_zone[0] != '\0' && !render_zone_known(st->time_zone))
+	if (st->time_zone[0] != '\0' && !qzone_known(st->time_zone))
 		return cli_usage_error("%s: station.time_zone: '%s' is not a "
 		    "time zone known to this system (an IANA name such as "
 		    "America/Denver; is tzdata installed?)", where,

@@ -15,6 +15,7 @@
 #include "core/geom.h"
 #include "formats/render_time.h"
 #include "formats/render_ephem.h"
+#include "query/qzone.h"
 
 #define EPHEM_MAX_TARGETS 64
 
@@ -143,6 +144,8 @@ run(const struct cli_args *a)
 	struct geom_eop eop = {0.0, 0.0, 0.0};
 	struct geom_instant g;
 	struct render_ephem rep;
+	static struct tzone zone;
+	const char *zname;
 	struct mbuf out;
 	enum errcode rc;
 
@@ -201,8 +204,11 @@ run(const struct cli_args *a)
 	rep.dut1_source = dut1_source;
 	rep.station_name = demo ? DEMO_NAME : db != NULL ? cs.station.name :
 	    NULL;
-	rep.time_zone = tz != NULL ? tz : demo ? DEMO_TZ : db != NULL ?
+	zname = tz != NULL ? tz : demo ? DEMO_TZ : db != NULL ?
 	    cs.station.time_zone : NULL;
+	if (zname != NULL && qzone_load(zname, (g.t.utc1 - TEXT_MJD0) +
+	    g.t.utc2, (g.t.utc1 - TEXT_MJD0) + g.t.utc2, &zone) == ERRCODE_OK)
+		rep.time_zone = &zone;
 	rep.eop_last_utc = eop_last[0] ? eop_last : NULL;
 	mbuf_init(&out);
 	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep,

@@ -10,8 +10,18 @@
 #include "core/attempt.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
+#include "query/qzone.h"
 
 /* Copy s into a fixed field, refusing what does not fit. */
+/* The station's zone over [from, to] for local times, or NULL. */
+static const struct tzone *
+log_zone(const struct site_station *st, double from, double to,
+    struct tzone *zone)
+{
+	return st->time_zone[0] != '\0' && qzone_load(st->time_zone, from, to,
+	    zone) == ERRCODE_OK ? zone : NULL;
+}
+
 static int
 copy_text(char *dst, size_t cap, const char *opt, const char *s)
 {
@@ -30,6 +40,7 @@ copy_text(char *dst, size_t cap, const char *opt, const char *s)
 static int
 log_add(const struct cli_args *a)
 {
+	static struct tzone zone;
 	struct cli_store c;
 	struct site_attempt at;
 	struct mbuf out;
@@ -78,8 +89,8 @@ log_add(const struct cli_args *a)
 	if (cli_given(a, "json"))
 		rc = render_site_attempt_json(&at, &out);
 	else
-		rc = render_site_attempts_text(&at, 1, c.station.time_zone,
-		    &out);
+		rc = render_site_attempts_text(&at, 1, log_zone(&c.station,
+		    at.start_mjd, at.start_mjd, &zone), &out);
 	st = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
 out:
@@ -92,6 +103,7 @@ out:
 static int
 log_list(const struct cli_args *a, int export)
 {
+	static struct tzone zone;
 	struct cli_store c;
 	struct store_query q;
 	struct site_attempt *rows = NULL;
@@ -135,8 +147,11 @@ log_list(const struct cli_args *a, int export)
 	else if (csv)
 		rc = render_site_attempts_csv(rows, n, 1, &out);
 	else
-		rc = render_site_attempts_text(rows, n,
-		    c.station.time_zone[0] ? c.station.time_zone : NULL, &out);
+		rc = render_site_attempts_text(rows, n, n > 0 ?
+		    log_zone(&c.station, rows[n - 1].start_mjd < rows[0].start_mjd ?
+		    rows[n - 1].start_mjd : rows[0].start_mjd,
+		    rows[n - 1].start_mjd < rows[0].start_mjd ? rows[0].start_mjd :
+		    rows[n - 1].start_mjd, &zone) : NULL, &out);
 	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
 	    cli_emit(&out);
 	mbuf_free(&out);

@@ -7,6 +7,7 @@
 #include "core/text.h"
 #include "formats/render_time.h"
 #include "query/phquery.h"
+#include "query/qzone.h"
 
 static int
 run(const struct cli_args *a)
@@ -39,7 +40,7 @@ run(const struct cli_args *a)
 		}
 		snprintf(zone, sizeof zone, "%s", cs.station.time_zone);
 		cli_store_close(&cs);
-		if (render_zone_known(zone))
+		if (qzone_known(zone))
 			tz = zone;
 		else if (zone[0] != '\0')
 			cli_warn("%s: the station's time zone '%s' is not known "

@@ -16,6 +16,7 @@
 #include "formats/render_time.h"
 #include "query/planquery.h"
 #include "store/store.h"
+#include "query/qzone.h"
 
 /* Elevation and azimuth (deg) of target id now, from the station of q. */
 static void
@@ -53,6 +54,7 @@ pointing_now(const struct plan_query *q, const char *id, double now,
 static int
 run(const struct cli_args *a)
 {
+	static struct tzone zone;
 	const char *night_tz, *show_tz;
 	double now1, now2, now, to;
 	int have_at = cli_time(a, "at", &now1, &now2);
@@ -99,7 +101,7 @@ run(const struct cli_args *a)
 	/* The night is the station's; --tz changes the clock shown only. */
 	night_tz = o.db != NULL ? q.station.time_zone : o.tz;
 	show_tz = o.tz != NULL ? o.tz : night_tz;
-	if (!render_zone_known(night_tz)) {
+	if (!qzone_known(night_tz)) {
 		plan_db_free(&hold);
 		return cli_usage_error("station time_zone: unknown zone '%s'",
 		    night_tz);
@@ -161,7 +163,10 @@ run(const struct cli_args *a)
 			    &rs.now_az_deg);
 	rs.r = &r;
 	rs.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
-	rs.time_zone = show_tz;
+	if (qzone_load(show_tz, q.from_mjd, isfinite(rs.next_night_mjd) &&
+	    rs.next_night_mjd > q.to_mjd ? rs.next_night_mjd + 1.0 : q.to_mjd,
+	    &zone) == ERRCODE_OK)
+		rs.time_zone = &zone;
 	rs.now_mjd = now;
 	rs.next_runs = (size_t)next_runs;
 	mbuf_init(&out);

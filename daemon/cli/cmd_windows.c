@@ -12,6 +12,7 @@
 #include "formats/render_plan.h"
 #include "core/text.h"
 #include "core/window.h"
+#include "query/qzone.h"
 
 /* The planner's default limits, for --help. */
 static void
@@ -75,14 +76,13 @@ run(const struct cli_args *a)
 		return st;
 	tz = o.tz;
 	if (tz == NULL && q.station.time_zone[0] != '\0' &&
-	    render_zone_known(q.station.time_zone))
+	    qzone_known(q.station.time_zone))
 		tz = q.station.time_zone;
 
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
-	rp.time_zone = tz;
 	rp.now_mjd = wp.now_mjd;
-	return plan_cli_run(&wp, &q, &hold, &rp, kind == OUT_JSON ?
+	return plan_cli_run(&wp, &q, &hold, tz, &rp, kind == OUT_JSON ?
 	    render_windows_json : kind == OUT_CSV ? render_windows_csv :
 	    kind == OUT_ICS ? render_windows_ics : render_windows_text);
 }

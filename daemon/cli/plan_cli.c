@@ -3,6 +3,7 @@
 #include "cli/cli.h"
 #include "cli/plan_cli.h"
 #include "formats/render_time.h"
+#include "query/qzone.h"
 
 int
 plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o)
@@ -47,8 +48,10 @@ plan_cli_load(const char *db, double lat, double lon, double h,
 
 int
 plan_cli_run(struct winquery_params *p, struct plan_query *q,
-    struct plan_db *hold, struct render_plan *rp, winquery_render_fn fn)
+    struct plan_db *hold, const char *zone, struct render_plan *rp,
+    winquery_render_fn fn)
 {
+	static struct tzone tz;
 	struct mbuf out;
 	char err[256];
 	enum errcode rc;
@@ -56,6 +59,9 @@ plan_cli_run(struct winquery_params *p, struct plan_query *q,
 
 	mbuf_init(&out);
 	rc = winquery_apply(p, q, err, sizeof err);
+	if (rc == ERRCODE_OK && zone != NULL &&
+	    qzone_load(zone, q->from_mjd, q->to_mjd, &tz) == ERRCODE_OK)
+		rp->time_zone = &tz;
 	if (rc == ERRCODE_OK)
 		rc = winquery_render(p, q, rp, fn, &out, NULL, err,
 		    sizeof err);

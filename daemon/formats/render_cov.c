@@ -345,8 +345,8 @@ text_fill(struct mbuf *out, const struct render_cov *c)
 			    "    %s to %-6s %-10s %9.4g", a,
 			    strncmp(a, b, 11) == 0 ? b + 11 : b, d->target,
 			    d->score);
-			if (c->time_zone != NULL && render_local_time(TEXT_MJD0,
-			    d->in_bin_start_mjd, c->time_zone, local,
+			if (c->time_zone != NULL && tzone_format(c->time_zone,
+			    TEXT_MJD0, d->in_bin_start_mjd, local,
 			    sizeof local) == ERRCODE_OK)
 				mbuf_printf(out, "  %s", local);
 			mbuf_puts(out, "\n");

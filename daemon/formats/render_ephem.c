@@ -153,7 +153,7 @@ render_ephem_text(const struct render_ephem *e, struct mbuf *out)
 		snprintf(utc, sizeof utc, "?");
 	mbuf_printf(out, "Ephemeris at %s", utc);
 	if (e->time_zone != NULL &&
-	    render_local_time(g->t.utc1, g->t.utc2, e->time_zone, local,
+	    tzone_format(e->time_zone, g->t.utc1, g->t.utc2, local,
 	    sizeof local) == ERRCODE_OK)
 		mbuf_printf(out, "  (%s)", local);
 	mbuf_puts(out, "\n");

@@ -66,7 +66,7 @@ render_phases_text(const struct render_phases *p, struct mbuf *out)
 		local[0] = '\0';
 		if (p->time_zone != NULL &&
 		    tscale_from_tt(p->ev[i].tt1, p->ev[i].tt2, 0.0, &t) == 0)
-			(void)render_local_time(t.utc1, t.utc2, p->time_zone,
+			(void)tzone_format(p->time_zone, t.utc1, t.utc2,
 			    local, sizeof local);
 		mbuf_printf(out, "%-14s %-21s %s\n", label[p->ev[i].kind], buf,
 		    local);

@@ -89,7 +89,7 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 		bad |= set(o, "lon_deg", render_json_num(st->lon_deg, 7));
 		bad |= set(o, "height_m", render_json_num(st->height_m, 2));
 		bad |= set(o, "time_zone", p->time_zone ?
-		    json_string(p->time_zone) : json_null());
+		    json_string(p->time_zone->name) : json_null());
 	}
 	o = json_object();
 	bad |= set(root, "limits", o);
@@ -388,15 +388,15 @@ score_text(double score, char *buf, size_t len)
  * UTC when there is no zone.
  */
 void
-render_local_parts(double mjd, const char *tz, char *day, char *hm, char *zone)
+render_local_parts(double mjd, const struct tzone *tz, char *day, char *hm,
+    char *zone)
 {
 	char buf[48];
 
 	strcpy(day, "?");
 	strcpy(hm, "?");
 	strcpy(zone, "");
-	if (tz == NULL || render_local_time(TEXT_MJD0, mjd, tz, buf,
-	    sizeof buf) !=
+	if (tz == NULL || tzone_format(tz, TEXT_MJD0, mjd, buf, sizeof buf) !=
 	    ERRCODE_OK) {
 		render_utc_text(mjd, 0, buf,
 		    sizeof buf);	/* YYYY-MM-DDTHH:MM:SSZ */
@@ -456,7 +456,7 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 	if (r->n == 0)
 		mbuf_puts(out, "(no window meets every limit in the span)\n");
 	if (p->time_zone != NULL)
-		mbuf_printf(out, "Local times: %s.\n", p->time_zone);
+		mbuf_printf(out, "Local times: %s.\n", p->time_zone->name);
 	return mbuf_status(out);
 }
 
@@ -505,7 +505,7 @@ enum errcode
 render_tonight_text(const struct render_plan *p, struct mbuf *out)
 {
 	const struct plan_result *r = p->r;
-	const char *tz = p->time_zone;
+	const struct tzone *tz = p->time_zone;
 	const struct plan_window *now = best_at(r, p->now_mjd), *nx;
 	double width = 360.0 / r->settings.nbins, tnext = INFINITY;
 	int bin = score_bin_of(p->now_synodic_deg, r->settings.nbins);
@@ -593,7 +593,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		snprintf(line, sizeof line, "Local times are %s. Planning aid "
 		    "only: the laser-safety officer, aircraft and satellite "
 		    "avoidance and sun interlocks decide, under local rules.",
-		    tz != NULL ? tz : "UTC");
+		    tz != NULL ? tz->name : "UTC");
 		wrap(out, "", "", line);
 	}
 	return mbuf_status(out);

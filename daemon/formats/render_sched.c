@@ -95,7 +95,7 @@ render_sched_json(const struct render_sched *p, struct mbuf *out)
 	bad |= set(root, "station", p->station_name ?
 	    json_string(p->station_name) : json_null());
 	bad |= set(root, "time_zone", p->time_zone ?
-	    json_string(p->time_zone) : json_null());
+	    json_string(p->time_zone->name) : json_null());
 	bad |= set(root, "why_empty", r->nruns == 0 && r->why_empty[0] ?
 	    json_string(r->why_empty) : json_null());
 	o = json_object();
@@ -286,7 +286,7 @@ render_sched_text(const struct render_sched *p, struct mbuf *out)
 		    r->expected_nps, r->total_value, r->greedy_value,
 		    r->exact ? ", proved optimal" : "");
 	if (p->time_zone != NULL)
-		mbuf_printf(out, "Local times: %s.\n", p->time_zone);
+		mbuf_printf(out, "Local times: %s.\n", p->time_zone->name);
 	return mbuf_status(out);
 }
 
@@ -425,7 +425,7 @@ render_sched_tonight(const struct render_sched *p, struct mbuf *out)
 		for (size_t k = 0; k < why->nreasons; k++)
 			wrapped(out, k == 0 ? "Why: " : "     ", why->reasons[k]);
 	if (p->time_zone != NULL)
-		mbuf_printf(out, "Local times: %s.\n", p->time_zone);
+		mbuf_printf(out, "Local times: %s.\n", p->time_zone->name);
 	return mbuf_status(out);
 }
 
@@ -663,7 +663,7 @@ render_sched_svg(const struct render_sched *p, struct mbuf *out)
 		svg_text(out, 16.0, h - 16.0, "start", "", buf);
 	} else {
 		snprintf(buf, sizeof buf, "Times in %s",
-		    p->time_zone ? p->time_zone : "UTC");
+		    p->time_zone ? p->time_zone->name : "UTC");
 		svg_text(out, 16.0, h - 16.0, "start", "small", buf);
 	}
 	mbuf_puts(out, "</svg>\n");

@@ -181,7 +181,7 @@ render_site_attempts_csv(const struct site_attempt *a, size_t n, int derived,
 
 enum errcode
 render_site_attempts_text(const struct site_attempt *a, size_t n,
-    const char *tz, struct mbuf *out)
+    const struct tzone *tz, struct mbuf *out)
 {
 	char t0[40], local[48];
 
@@ -196,8 +196,8 @@ render_site_attempts_text(const struct site_attempt *a, size_t n,
 		    a[i].returns, a[i].normal_points,
 		    site_outcome_name(a[i].outcome), a[i].synodic_deg,
 		    a[i].target_el_deg);
-		if (tz != NULL && render_local_time(TEXT_MJD0,
-		    a[i].start_mjd, tz, local, sizeof local) == ERRCODE_OK)
+		if (tz != NULL && tzone_format(tz, TEXT_MJD0, a[i].start_mjd,
+		    local, sizeof local) == ERRCODE_OK)
 			mbuf_printf(out, "%5s %-10s %s local\n", "", "", local);
 	}
 	if (n == 0)

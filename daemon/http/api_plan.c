@@ -29,6 +29,7 @@
 #include "formats/render_site.h"
 #include "store/store.h"
 #include "core/tscale.h"
+#include "query/qzone.h"
 
 void
 api_h_phases(struct api_ctx *ctx, const struct api_request *req,
@@ -92,6 +93,7 @@ windows_render(struct store *db, struct winquery_params *p, int ics,
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
+	struct tzone zone;
 	enum errcode rc;
 
 	plan_query_init(&q);
@@ -103,8 +105,9 @@ windows_render(struct store *db, struct winquery_params *p, int ics,
 		goto out;
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
-	rp.time_zone = q.station.time_zone[0] != '\0' &&
-	    render_zone_known(q.station.time_zone) ? q.station.time_zone : NULL;
+	if (qzone_load(q.station.time_zone, q.from_mjd, q.to_mjd, &zone) ==
+	    ERRCODE_OK)
+		rp.time_zone = &zone;
 	rp.now_mjd = p->now_mjd;
 	rc = winquery_render(p, &q, &rp, ics ? render_windows_ics :
 	    render_windows_json, out, nwindows, err, errlen);

@@ -190,7 +190,6 @@ api_h_now(struct api_ctx *ctx, const struct api_request *req,
 	rep.dut1_source = eop_source_name(src);
 	rep.eop_last_utc = last[0] ? last : NULL;
 	rep.station_name = st->name;
-	rep.time_zone = st->time_zone[0] ? st->time_zone : NULL;
 	rc = render_ephem_json(&rep, &resp->body);
 out:
 	api_ok_or_error(resp, rc, 200, "application/json");

@@ -15,6 +15,7 @@
 #include "formats/render_cov.h"
 #include "store/store.h"
 #include "core/tscale.h"
+#include "query/qzone.h"
 
 void
 covquery_params_init(struct covquery_params *p)
@@ -230,6 +231,8 @@ covquery_run(struct store *db, struct covquery_params *p,
 	struct store_query q;
 	struct coverage_input in;
 	struct render_cov rc;
+	static const double st_zone_epoch = 51544.5;	/* J2000, when no now */
+	struct tzone zone;
 	int have_station;
 	enum errcode rc_;
 	size_t nnp = 0, natt = 0;
@@ -307,7 +310,13 @@ covquery_run(struct store *db, struct covquery_params *p,
 	memset(&rc, 0, sizeof rc);
 	rc.r = res;
 	rc.station_name = have_station ? st.name : NULL;
-	rc.time_zone = have_station ? st.time_zone : NULL;
+	if (have_station) {
+		double z0 = isfinite(p->now_mjd) ? p->now_mjd : st_zone_epoch;
+
+		if (qzone_load(st.time_zone, z0, z0 + p->horizon_days,
+		    &zone) == ERRCODE_OK)
+			rc.time_zone = &zone;
+	}
 	rc.theme = p->theme;
 	if (p->horizon_days > 0 && !have_station) {
 		rc.fill_note = "No gap-filling dates: the database has no "

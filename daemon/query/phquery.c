@@ -8,6 +8,7 @@
 #include "core/tscale.h"
 #include "formats/render_phases.h"
 #include "query/phquery.h"
+#include "query/qzone.h"
 
 void
 phquery_params_init(struct phquery_params *p, enum qparam_style style,
@@ -41,6 +42,7 @@ phquery_run(struct phquery_params *p, enum phquery_format fmt,
 	struct geom_phase_event *ev;
 	struct tscale_instant a, b;
 	struct render_phases rp;
+	struct tzone zone;
 	double from, to;
 	size_t n = 0;
 	enum errcode rc;
@@ -72,7 +74,9 @@ phquery_run(struct phquery_params *p, enum phquery_format fmt,
 		rp.to2 = to;
 		rp.ev = ev;
 		rp.n = n;
-		rp.time_zone = time_zone;
+		if (time_zone != NULL && qzone_load(time_zone, from, to,
+		    &zone) == ERRCODE_OK)
+			rp.time_zone = &zone;
 		rc = fmt == PHQUERY_JSON ? render_phases_json(&rp, out) :
 		    render_phases_text(&rp, out);
 		if (rc != ERRCODE_OK)

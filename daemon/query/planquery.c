@@ -12,6 +12,7 @@
 #include "query/planquery.h"
 #include "store/plan_db.h"
 #include "store/store.h"
+#include "query/qzone.h"
 
 void
 planquery_params_init(struct planquery_params *p)
@@ -71,8 +72,7 @@ local_minutes(double mjd, const char *tz, double *min)
 	int hh, mm, y, mo, d, h, mi;
 	double sec;
 
-	if (render_local_time(TEXT_MJD0, mjd, tz, buf, sizeof buf) !=
-	    ERRCODE_OK || sscanf(buf + 11, "%2d:%2d", &hh, &mm) != 2 ||
+	if (qzone_format(tz, mjd, buf, sizeof buf) != ERRCODE_OK || sscanf(buf + 11, "%2d:%2d", &hh, &mm) != 2 ||
 	    tscale_utc_fields(TEXT_MJD0, mjd, &y, &mo, &d, &h, &mi, &sec) !=
 	    ERRCODE_OK)
 		return ERRCODE_BAD_ARG;
@@ -189,6 +189,7 @@ enum errcode
 planquery_run(struct store *db, const struct planquery_params *p,
     enum planquery_format fmt, struct mbuf *out, char *errbuf, size_t errlen)
 {
+	struct tzone zone;
 	struct site_station st;
 	struct night_result r;
 	struct render_sched rs;
@@ -210,7 +211,8 @@ planquery_run(struct store *db, const struct planquery_params *p,
 	memset(&rs, 0, sizeof rs);
 	rs.r = &r;
 	rs.station_name = st.name;
-	rs.time_zone = render_zone_known(st.time_zone) ? st.time_zone : NULL;
+	if (qzone_load(st.time_zone, from, to, &zone) == ERRCODE_OK)
+		rs.time_zone = &zone;
 	rs.now_mjd = isfinite(p->from_mjd) ? p->from_mjd : p->at_mjd;
 	switch (fmt) {
 	case PLANQUERY_JSON:

@@ -47,12 +47,14 @@ struct plan_cli_opts {
 int plan_cli_site(const struct cli_args *a, struct plan_cli_opts *o);
 
 /*
- * Apply p to q (winquery_apply), run q, render the result with fn
- * (rp->r is set here, the rest is the caller's) and print it.  Frees
- * hold.  Returns an exit status; errors are printed once, naming the
- * option as winquery says it (p->style QPARAM_OPTION).
+ * Apply p to q (winquery_apply), read zone (an IANA name, or NULL for
+ * UTC only) over the span for rp->time_zone, run q, render the result
+ * with fn (rp->r is set here, the rest is the caller's) and print it.
+ * Frees hold.  Returns an exit status; errors are printed once, naming
+ * the option as winquery says it (p->style QPARAM_OPTION).
  */
 int plan_cli_run(struct winquery_params *p, struct plan_query *q,
-    struct plan_db *hold, struct render_plan *rp, winquery_render_fn fn);
+    struct plan_db *hold, const char *zone, struct render_plan *rp,
+    winquery_render_fn fn);
 
 #endif

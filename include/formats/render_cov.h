@@ -7,6 +7,7 @@
 #include "core/coverage.h"
 #include "core/errcode.h"
 #include "core/mem.h"
+#include "core/tzone.h"
 
 /*
  * What a coverage report shows.  fill may be NULL (no gap-filling dates
@@ -31,7 +32,7 @@ struct render_cov {
 	const struct coverage_fill *fill;
 	const char *fill_note;
 	const char *station_name;	/* for titles, may be NULL */
-	const char *time_zone;		/* IANA zone for local times in the
+	const struct tzone *time_zone;		/* local times (qzone_load) in the
 					   text table, or NULL */
 	enum render_cov_theme theme;	/* the SVG's palette */
 };

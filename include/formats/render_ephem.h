@@ -9,6 +9,7 @@
 #include "core/errcode.h"
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/tzone.h"
 
 /*
  * Renderers append to a caller-owned mbuf and return ERRCODE_OK or
@@ -30,7 +31,7 @@ struct render_ephem {
 	const char *dut1_source;	/* "option", "table" or "none" */
 	const char *eop_last_utc;	/* last day of the EOP table, or NULL */
 	const char *station_name;	/* NULL for an ad-hoc station */
-	const char *time_zone;		/* IANA name for local times, or NULL */
+	const struct tzone *time_zone;		/* local times (qzone_load), or NULL */
 };
 
 enum errcode render_ephem_json(const struct render_ephem *e, struct mbuf *out);

@@ -9,6 +9,7 @@
 #include "core/errcode.h"
 #include "core/geom.h"
 #include "core/mem.h"
+#include "core/tzone.h"
 
 /* The span and its events, borrowed for the call.  The renderers append
    to out and return ERRCODE_OK or ERRCODE_NOMEM. */
@@ -16,7 +17,8 @@ struct render_phases {
 	double from1, from2, to1, to2;	/* UTC span */
 	const struct geom_phase_event *ev;
 	size_t n;
-	const char *time_zone;		/* for the text table, or NULL */
+	const struct tzone *time_zone;		/* local times of the text table
+				   (qzone_load), or NULL */
 };
 
 enum errcode render_phases_json(const struct render_phases *p,

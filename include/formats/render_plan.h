@@ -7,6 +7,7 @@
 #include "core/errcode.h"
 #include "core/mem.h"
 #include "core/plan.h"
+#include "core/tzone.h"
 
 /*
  * The planner's result and what the renderers show around it, borrowed
@@ -17,7 +18,8 @@
 struct render_plan {
 	const struct plan_result *r;
 	const char *station_name;	/* NULL for an ad-hoc station */
-	const char *time_zone;		/* IANA zone for local times, or NULL */
+	const struct tzone *time_zone;		/* local times (a table filled by
+				   qzone_load), or NULL */
 	double now_mjd;			/* UTC: DTSTAMP of iCalendar, "now" of
 					   tonight */
 	double now_synodic_deg;		/* tonight: the phase now */
@@ -48,9 +50,10 @@ void render_ics_line(struct mbuf *b, const char *s);
 void render_ics_prop_text(struct mbuf *out, const char *name,
     const char *value);
 
-/* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD in zone tz
-   (UTC when tz is NULL or unknown); day >= 8, hm >= 8, zone >= 8. */
-void render_local_parts(double mjd, const char *tz, char *day, char *hm,
-    char *zone);
+/* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD from the
+   zone table tz (UTC when tz is NULL or does not cover it); day >= 8,
+   hm >= 8, zone >= 8. */
+void render_local_parts(double mjd, const struct tzone *tz, char *day,
+    char *hm, char *zone);
 
 #endif

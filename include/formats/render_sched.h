@@ -7,11 +7,13 @@
 #include "core/errcode.h"
 #include "core/mem.h"
 #include "core/night.h"
+#include "core/tzone.h"
 
 struct render_sched {
 	const struct night_result *r;
 	const char *station_name;	/* NULL: none */
-	const char *time_zone;		/* IANA zone for local times, or NULL */
+	const struct tzone *time_zone;		/* local times (a table filled by
+				   qzone_load), or NULL */
 	double now_mjd;			/* UTC: DTSTAMP, the timeline's now */
 	/* tonight only */
 	double now_el_deg, now_az_deg;	/* the run now's target, or NaN */

@@ -9,6 +9,7 @@
 #include "core/errcode.h"
 #include "core/mem.h"
 #include "core/site.h"
+#include "core/tzone.h"
 
 /*
  * Like render.h: each function appends to a caller-owned mbuf and returns
@@ -39,9 +40,10 @@ enum errcode render_site_attempt_json(const struct site_attempt *a,
 	"returns,normal_points,outcome,operator,seeing_arcsec,notes"
 enum errcode render_site_attempts_csv(const struct site_attempt *a, size_t n,
     int derived, struct mbuf *out);
-/* A table for people, 80 columns; tz (IANA) adds local start times. */
+/* A table for people, 80 columns; tz (a zone table, qzone_load) adds
+   local start times. */
 enum errcode render_site_attempts_text(const struct site_attempt *a,
-    size_t n, const char *tz, struct mbuf *out);
+    size_t n, const struct tzone *tz, struct mbuf *out);
 
 /* --- station, targets, blackouts, normal points --- */
 

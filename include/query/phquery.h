@@ -40,7 +40,7 @@ enum phquery_format { PHQUERY_TEXT = 0, PHQUERY_JSON };
 /*
  * Find the phases of the span and append them rendered in fmt to out;
  * time_zone (an IANA name the system knows, or NULL) adds local times to
- * the text table.  Returns ERRCODE_OK, a span error (ERRCODE_BAD_ARG or
+ * the text table, converted here (qzone_load), not in the renderer.  Returns ERRCODE_OK, a span error (ERRCODE_BAD_ARG or
  * ERRCODE_BAD_TIME naming the parameter, p->fault set), ERRCODE_NOMEM or
  * the phase search's code.  On failure out may hold a part of the
  * output: the caller discards it.
