@@ -281,13 +281,15 @@ api_store_open_ok(struct api_ctx *ctx, struct api_response *resp)
 	return 1;
 }
 
-struct store *
-api_read_store(struct api_ctx *ctx, int *locked)
+/* A connection of its own opened with flags, else the shared one under
+   the lock (*locked says which). */
+static struct store *
+own_store(struct api_ctx *ctx, int flags, int *locked)
 {
 	struct store *db = NULL;
 
-	if (ctx->db_path != NULL && store_open(ctx->db_path,
-	    STORE_OPEN_READONLY, &db, NULL, 0) == ERRCODE_OK) {
+	if (ctx->db_path != NULL && store_open(ctx->db_path, flags, &db, NULL,
+	    0) == ERRCODE_OK) {
 		*locked = 0;
 		return db;
 	}
@@ -297,18 +299,15 @@ api_read_store(struct api_ctx *ctx, int *locked)
 }
 
 struct store *
+api_read_store(struct api_ctx *ctx, int *locked)
+{
+	return own_store(ctx, STORE_OPEN_READONLY, locked);
+}
+
+struct store *
 api_write_store(struct api_ctx *ctx, int *locked)
 {
-	struct store *db = NULL;
-
-	if (ctx->db_path != NULL && store_open(ctx->db_path,
-	    STORE_OPEN_NO_MIGRATE, &db, NULL, 0) == ERRCODE_OK) {
-		*locked = 0;
-		return db;
-	}
-	pthread_mutex_lock(&ctx->lock);
-	*locked = 1;
-	return ctx->db;
+	return own_store(ctx, STORE_OPEN_NO_MIGRATE, locked);
 }
 
 void

@@ -26,20 +26,6 @@ covquery_params_init(struct covquery_params *p)
 	p->now_mjd = NAN;
 }
 
-static int
-valid_word(const char *s, size_t max)
-{
-	size_t n = strlen(s);
-
-	if (n == 0 || n >= max)
-		return 0;
-	for (; *s; s++)
-		if (!isalnum((unsigned char)*s) && *s != '_' && *s != '-' &&
-		    *s != '.')
-			return 0;
-	return 1;
-}
-
 /* A bad value: the sentence names the parameter as the transport does. */
 static enum errcode
 bad(struct covquery_params *p, char *errbuf, size_t errlen,
@@ -105,12 +91,12 @@ covquery_param_set(struct covquery_params *p, const char *name,
 		return parse_mjd(p, name, value, &s->until_mjd, errbuf,
 		    errlen);
 	} else if (strcmp(name, "target") == 0) {
-		if (!valid_word(value, sizeof s->target))
+		if (!qparam_word(value, sizeof s->target))
 			return bad(p, errbuf, errlen, name, value, "is not a target "
 			    "id (1-32 letters, digits, '_', '-', '.')");
 		snprintf(s->target, sizeof s->target, "%s", value);
 	} else if (strcmp(name, "station") == 0) {
-		if (!valid_word(value, sizeof s->station))
+		if (!qparam_word(value, sizeof s->station))
 			return bad(p, errbuf, errlen, name, value,
 			    "is not a station code (1-15 letters or digits)");
 		snprintf(s->station, sizeof s->station, "%s", value);

@@ -1,6 +1,7 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* qparam.c: parameter names as each transport spells them, and the rules
    of a from/to/days span. */
+#include <ctype.h>
 #include <math.h>
 #include <string.h>
 
@@ -23,6 +24,20 @@ qparam_name(enum qparam_style style, const char *name)
 		    *name;
 	sp.s[i] = '\0';
 	return sp;
+}
+
+int
+qparam_word(const char *s, size_t max)
+{
+	size_t n = strlen(s);
+
+	if (n == 0 || n >= max)
+		return 0;
+	for (; *s; s++)
+		if (!isalnum((unsigned char)*s) && *s != '_' && *s != '-' &&
+		    *s != '.')
+			return 0;
+	return 1;
 }
 
 void

@@ -40,21 +40,6 @@ static const struct winquery_angle angles[] = {
 	    offsetof(struct winquery_params, min_sun_sep_deg)},
 };
 
-/* A target id: 1..SITE_ID_LEN-1 of [A-Za-z0-9_.-]. */
-static int
-valid_id(const char *s)
-{
-	size_t n = strlen(s);
-
-	if (n == 0 || n >= SITE_ID_LEN)
-		return 0;
-	for (; *s; s++)
-		if (!isalnum((unsigned char)*s) && *s != '_' && *s != '-' &&
-		    *s != '.')
-			return 0;
-	return 1;
-}
-
 enum errcode
 winquery_param_set(struct winquery_params *p, const char *name,
     const char *value, char *errbuf, size_t errlen)
@@ -85,7 +70,7 @@ winquery_param_set(struct winquery_params *p, const char *name,
 		return ERRCODE_OK;
 	}
 	if (strcmp(name, "target") == 0) {
-		if (!valid_id(value)) {
+		if (!qparam_word(value, SITE_ID_LEN)) {
 			p->fault = "target";
 			return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: "
 			    "'%.40s' is not a target id (1-32 letters, digits, "

@@ -35,6 +35,10 @@ struct qparam_spelling {
 struct qparam_spelling qparam_name(enum qparam_style style,
     const char *name);
 
+/* 1 when s is 1..max-1 characters of [A-Za-z0-9_.-] (a target id, a
+   station code), else 0: the one rule of such a parameter. */
+int qparam_word(const char *s, size_t max);
+
 /* --- the span: from, to, days ---------------------------------------------- */
 
 /*
