@@ -115,6 +115,35 @@ col_real(const char *s, size_t n, size_t first, size_t last, double *v,
 	return text_parse_real(f, -HUGE_VAL, HUGE_VAL, v);
 }
 
+/* A number in columns first..last (1-based) of a line, for field. */
+struct eop_col {
+	size_t first, last;
+	const char *field, *unit;
+};
+
+/*
+ * Read the polar motion x, y and UT1-UTC of a line from its three
+ * columns; on a bad one, report it (naming its field and columns) and
+ * return -1.
+ */
+static int
+eop_values(const char *ln, size_t n, const struct eop_col col[3],
+    double v[3], size_t line, struct import_report *rep)
+{
+	int empty;
+
+	for (size_t i = 0; i < 3; i++)
+		if (col_real(ln, n, col[i].first, col[i].last, &v[i],
+		    &empty) != 0) {
+			import_err(rep, line, col[i].field, "columns %zu-%zu "
+			    "are not a number of %s", col[i].first,
+			    col[i].last, col[i].unit);
+			rep->bad++;
+			return -1;
+		}
+	return 0;
+}
+
 enum errcode
 import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
     struct import_report *rep)
@@ -133,7 +162,12 @@ import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 	it.end = buf + len;
 	it.line = 0;
 	while (import_lines_next(&it, &ln, &n, &term)) {
-		double mjd, x, y, dut1;
+		static const struct eop_col finals_cols[3] = {
+			{19, 27, "PM_x", "arcseconds"},
+			{38, 46, "PM_y", "arcseconds"},
+			{59, 68, "UT1-UTC", "seconds"},
+		};
+		double mjd, x, y, dut1, v[3];
 		long yy, mm, dd;
 		char f[16], pmflag[4], utflag[4];
 		int e1, e2, e3;
@@ -189,30 +223,11 @@ import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 			rep->bad++;
 			continue;
 		}
-		if (col_real(ln, n, 19, 27, &x, &e1) != 0) {
-			import_err(rep, it.line, "PM_x",
-			    "columns 19-27 are not "
-			    "a number of arcseconds");
-			rep->bad++;
+		if (eop_values(ln, n, finals_cols, v, it.line, rep) != 0)
 			continue;
-		}
-		if (col_real(ln, n, 38, 46, &y, &e2) != 0) {
-			import_err(rep, it.line, "PM_y",
-			    "columns 38-46 are not "
-			    "a number of arcseconds");
-			rep->bad++;
-			continue;
-		}
-		if (col_real(ln, n, 59, 68, &dut1, &e3) != 0) {
-			import_err(rep, it.line, "UT1-UTC",
-			    "columns 59-68 are "
-			    "not a number of seconds");
-			rep->bad++;
-			continue;
-		}
 		rc = eop_row((int)(yy + (mjd <= 51543.0 ? 1900 : 2000)),
-		    (int)mm, (int)dd, mjd, x, y, dut1, &prev, it.line, fn, ctx,
-		    rep);
+		    (int)mm, (int)dd, mjd, v[0], v[1], v[2], &prev, it.line, fn,
+		    ctx, rep);
 		if (rc != ERRCODE_OK)
 			return rc;
 	}
@@ -241,7 +256,12 @@ import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 	it.end = buf + len;
 	it.line = 0;
 	while (import_lines_next(&it, &ln, &n, &term)) {
-		double mjd, x, y, dut1;
+		static const struct eop_col c04_cols[3] = {
+			{20, 30, "x", "arcseconds"},
+			{31, 41, "y", "arcseconds"},
+			{42, 53, "UT1-UTC", "seconds"},
+		};
+		double mjd, v[3];
 		long yy, mm, dd;
 		char f[16];
 		size_t i = 0;
@@ -293,29 +313,10 @@ import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 			rep->bad++;
 			continue;
 		}
-		if (col_real(ln, n, 20, 30, &x, &e) != 0) {
-			import_err(rep, it.line, "x",
-			    "columns 20-30 are not a "
-			    "number of arcseconds");
-			rep->bad++;
+		if (eop_values(ln, n, c04_cols, v, it.line, rep) != 0)
 			continue;
-		}
-		if (col_real(ln, n, 31, 41, &y, &e) != 0) {
-			import_err(rep, it.line, "y",
-			    "columns 31-41 are not a "
-			    "number of arcseconds");
-			rep->bad++;
-			continue;
-		}
-		if (col_real(ln, n, 42, 53, &dut1, &e) != 0) {
-			import_err(rep, it.line, "UT1-UTC",
-			    "columns 42-53 are "
-			    "not a number of seconds");
-			rep->bad++;
-			continue;
-		}
-		rc = eop_row((int)yy, (int)mm, (int)dd, mjd, x, y, dut1, &prev,
-		    it.line, fn, ctx, rep);
+		rc = eop_row((int)yy, (int)mm, (int)dd, mjd, v[0], v[1], v[2],
+		    &prev, it.line, fn, ctx, rep);
 		if (rc != ERRCODE_OK)
 			return rc;
 	}

@@ -14,11 +14,10 @@ void
 phquery_params_init(struct phquery_params *p, enum qparam_style style,
     double now_mjd)
 {
-	memset(p, 0, sizeof *p);
-	p->style = style;
-	p->fault = NULL;
-	p->now_mjd = now_mjd;
+	memset(p, 0, sizeof *p);	/* fault NULL, limit 0 */
 	qspan_init(&p->span);
+	p->style = style;
+	p->now_mjd = now_mjd;
 }
 
 enum errcode

@@ -14,12 +14,10 @@ void
 winquery_params_init(struct winquery_params *p, enum qparam_style style,
     double now_mjd)
 {
-	memset(p, 0, sizeof *p);
-	p->style = style;
-	p->fault = NULL;
-	p->now_mjd = now_mjd;
+	memset(p, 0, sizeof *p);	/* fault NULL, limit 0 */
 	qspan_init(&p->span);
-	p->limit = 0;
+	p->style = style;
+	p->now_mjd = now_mjd;
 	p->min_el_deg = NAN;
 	p->max_sun_el_deg = NAN;
 	p->min_sun_sep_deg = NAN;
