@@ -5,6 +5,7 @@
 #include <ctype.h>
 #include <errno.h>
 #include <limits.h>
+#include <math.h>
 #include <netinet/in.h>
 #include <pthread.h>
 #include <stdatomic.h>
@@ -39,9 +40,30 @@ struct web_server {
 	unsigned long log_repeats;	/* repeats of log_last not logged */
 	atomic_int starting;		/* in web_start: hold messages */
 	char start_msg[512];		/* the last one held (log_lock) */
+	/* Open connections, for the header deadline (sweeper thread). */
+	pthread_mutex_t sock_lock;
+	struct web_sock *socks;		/* doubly linked, sock_lock */
+	pthread_t sweeper;
+	atomic_int sweeping;		/* 1 while the sweeper should run */
 };
 
 #define WEB_LOG_REPEAT_S 10.0
+
+/*
+ * A client has WEB_HEADER_DEADLINE_S from connecting (or from the end of
+ * its previous request) to complete a request's headers; then its socket
+ * is shut down.  libmicrohttpd's own timeout counts idle time only, so a
+ * client sending a header line every few seconds was never timed out, and
+ * 32 of them filled the per-address limit for good.
+ */
+#define WEB_HEADER_DEADLINE_S 10.0
+
+struct web_sock {
+	struct web_sock *prev, *next;
+	int fd;
+	int busy;			/* headers complete, request running */
+	double since;			/* monotonic s: connected or idle */
+};
 
 /* Per-request state, kept in MHD's *con_cls until the request completes. */
 struct web_conn {
@@ -373,6 +395,39 @@ ms_since(const struct timespec *t0)
 	    (double)(t.tv_nsec - t0->tv_nsec) / 1e6;
 }
 
+static double
+mono_now(void)
+{
+	struct timespec t;
+
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	return (double)t.tv_sec + (double)t.tv_nsec / 1e9;
+}
+
+/* The socket record of a connection (set by on_connection), or NULL. */
+static struct web_sock *
+sock_of(struct MHD_Connection *conn)
+{
+	const union MHD_ConnectionInfo *ci = MHD_get_connection_info(conn,
+	    MHD_CONNECTION_INFO_SOCKET_CONTEXT);
+
+	return ci != NULL ? ci->socket_context : NULL;
+}
+
+/* Mark a connection's headers as complete (busy) or it idle again. */
+static void
+sock_mark(struct web_server *s, struct MHD_Connection *conn, int busy)
+{
+	struct web_sock *k = sock_of(conn);
+
+	if (k == NULL)
+		return;
+	pthread_mutex_lock(&s->sock_lock);
+	k->busy = busy;
+	k->since = mono_now();
+	pthread_mutex_unlock(&s->sock_lock);
+}
+
 static enum MHD_Result
 on_request(void *cls, struct MHD_Connection *conn, const char *url,
     const char *method, const char *version, const char *upload_data,
@@ -395,6 +450,7 @@ on_request(void *cls, struct MHD_Connection *conn, const char *url,
 		mbuf_init(&wc->body);
 		clock_gettime(CLOCK_MONOTONIC, &wc->t0);
 		*con_cls = wc;
+		sock_mark(s, conn, 1);	/* headers complete */
 		atomic_fetch_add(&s->inflight, 1);
 		/* A declared length over the cap is refused before reading. */
 		cl = MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
@@ -504,16 +560,74 @@ unescape(void *cls, struct MHD_Connection *conn, char *s)
 }
 
 static void
+on_connection(void *cls, struct MHD_Connection *conn, void **socket_context,
+    enum MHD_ConnectionNotificationCode toe)
+{
+	struct web_server *s = cls;
+	struct web_sock *k = *socket_context;
+	const union MHD_ConnectionInfo *ci;
+
+	if (toe == MHD_CONNECTION_NOTIFY_STARTED) {
+		ci = MHD_get_connection_info(conn,
+		    MHD_CONNECTION_INFO_CONNECTION_FD);
+		if (ci == NULL || (k = mem_calloc(1, sizeof *k)) == NULL)
+			return;
+		k->fd = ci->connect_fd;
+		k->since = mono_now();
+		pthread_mutex_lock(&s->sock_lock);
+		k->next = s->socks;
+		if (s->socks != NULL)
+			s->socks->prev = k;
+		s->socks = k;
+		pthread_mutex_unlock(&s->sock_lock);
+		*socket_context = k;
+	} else if (k != NULL) {
+		pthread_mutex_lock(&s->sock_lock);
+		if (k->prev != NULL)
+			k->prev->next = k->next;
+		else
+			s->socks = k->next;
+		if (k->next != NULL)
+			k->next->prev = k->prev;
+		pthread_mutex_unlock(&s->sock_lock);
+		mem_free(k);
+		*socket_context = NULL;
+	}
+}
+
+/* Once a second: shut down the sockets past the header deadline. */
+static void *
+sweeper(void *arg)
+{
+	struct web_server *s = arg;
+	struct timespec tick = {0, 250 * 1000 * 1000};
+
+	while (atomic_load(&s->sweeping)) {
+		double now = mono_now();
+
+		pthread_mutex_lock(&s->sock_lock);
+		for (struct web_sock *k = s->socks; k != NULL; k = k->next)
+			if (!k->busy && now - k->since > WEB_HEADER_DEADLINE_S) {
+				shutdown(k->fd, SHUT_RDWR);
+				k->since = INFINITY;	/* once */
+			}
+		pthread_mutex_unlock(&s->sock_lock);
+		nanosleep(&tick, NULL);
+	}
+	return NULL;
+}
+
+static void
 on_completed(void *cls, struct MHD_Connection *conn, void **con_cls,
     enum MHD_RequestTerminationCode toe)
 {
 	struct web_server *s = cls;
 	struct web_conn *wc = *con_cls;
 
-	(void)conn;
 	(void)toe;
 	if (wc == NULL)
 		return;
+	sock_mark(s, conn, 0);	/* the next request's deadline starts */
 	mbuf_free(&wc->body);
 	mem_free(wc);
 	*con_cls = NULL;
@@ -607,6 +721,11 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		mem_free(s);
 		return ERRCODE_NOMEM;
 	}
+	if (pthread_mutex_init(&s->sock_lock, NULL) != 0) {
+		pthread_mutex_destroy(&s->log_lock);
+		mem_free(s);
+		return ERRCODE_NOMEM;
+	}
 	if (cfg->web_dir != NULL) {
 		struct stat st;
 
@@ -655,6 +774,7 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 	    (size_t)(cfg->memory_limit ? cfg->memory_limit : 128 * 1024),
 	    MHD_OPTION_NOTIFY_COMPLETED, on_completed, s,
 	    MHD_OPTION_UNESCAPE_CALLBACK, unescape, NULL,
+	    MHD_OPTION_NOTIFY_CONNECTION, on_connection, s,
 	    MHD_OPTION_END);
 	if (s->d == NULL) {
 		int e = errno;
@@ -675,6 +795,11 @@ web_start(const struct web_config *cfg, struct api_ctx *ctx,
 		log_warn("http: %s", msg);
 	info = MHD_get_daemon_info(s->d, MHD_DAEMON_INFO_BIND_PORT);
 	s->port = info != NULL ? info->port : cfg->port;
+	atomic_store(&s->sweeping, 1);
+	if (pthread_create(&s->sweeper, NULL, sweeper, s) != 0) {
+		atomic_store(&s->sweeping, 0);
+		log_warn("http: no header deadline (thread not started)");
+	}
 	*out = s;
 	return ERRCODE_OK;
 }
@@ -702,8 +827,11 @@ web_stop(struct web_server *s, double grace_s)
 	if (atomic_load(&s->inflight) > 0)
 		log_warn("stopping with %d request(s) still open",
 		    atomic_load(&s->inflight));
+	if (atomic_exchange(&s->sweeping, 0))
+		pthread_join(s->sweeper, NULL);
 	MHD_stop_daemon(s->d);
 	mhd_log_flush(s);
+	pthread_mutex_destroy(&s->sock_lock);
 	pthread_mutex_destroy(&s->log_lock);
 	mem_free(s);
 }

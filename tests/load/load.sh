@@ -76,7 +76,7 @@ start_daemon "$T/db"
 poster() {	# 4 workers x 500 POSTs
 	for i in $(seq 0 499); do post "$(body "$1" "$i")"; done > "$T/posts$1"
 }
-t0=$(date +%s.%N)
+t0=$(date +%s%N)
 for w in 1 2 3 4; do poster "$w" & BG+=($!); done
 for p in status now "windows?days=3"; do
 	wrk -t1 -c4 -d"${WSECS}s" --timeout 10s "${URL}api/v1/$p" \
@@ -84,11 +84,12 @@ for p in status now "windows?days=3"; do
 done
 for p in "${BG[@]}"; do wait "$p"; done
 BG=()
-t1=$(date +%s.%N)
+t1=$(date +%s%N)
 new=$(( $(rows "$T/db") - before ))
 created=$(cat "$T"/posts? | grep -c '^201$' || true)
 others=$(cat "$T"/posts? | grep -vc '^201$' || true)
-echo "load: 2000 POSTs in $(printf '%.1f' "$(echo "$t1 - $t0" | bc)") s: $created answered 201, $others otherwise, $new rows added"
+ms=$(( (t1 - t0) / 1000000 ))
+echo "load: 2000 POSTs in $((ms / 1000)).$((ms % 1000 / 100)) s: $created answered 201, $others otherwise, $new rows added"
 for p in status now windows; do
 	rps=$(sed -n 's/^Requests\/sec: *//p' "$T/wrk-$p")
 	lat=$(awk '/Latency/ {print $2 " mean, " $4 " max"}' "$T/wrk-$p")
