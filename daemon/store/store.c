@@ -337,8 +337,7 @@ store_step_done(struct store *s, sqlite3_stmt *st, const char *what,
 
 	if (rc != SQLITE_DONE && rc != SQLITE_ROW)
 		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
-		    errbuf,
-		    errlen);
+		    errbuf, errlen);
 	store_stmt_done(st);
 	return e;
 }
@@ -390,9 +389,8 @@ store_collect(struct store *s, sqlite3_stmt *st, size_t esz, store_row_fn fn,
 
 			if (ncap > SIZE_MAX / esz ||
 			    (p = mem_realloc(arr, ncap * esz)) == NULL) {
-				(void)text_err(ERRCODE_OK, errbuf, errlen,
+				e = text_err(ERRCODE_NOMEM, errbuf, errlen,
 				    "%s: out of memory", what);
-				e = ERRCODE_NOMEM;
 				goto out;
 			}
 			arr = p;
@@ -404,8 +402,7 @@ store_collect(struct store *s, sqlite3_stmt *st, size_t esz, store_row_fn fn,
 	}
 	if (rc != SQLITE_DONE)
 		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
-		    errbuf,
-		    errlen);
+		    errbuf, errlen);
 out:
 	store_stmt_done(st);
 	if (e != ERRCODE_OK) {
@@ -428,13 +425,11 @@ store_fetch_one(struct store *s, sqlite3_stmt *st, store_row_fn fn, void *dst,
 	if (rc == SQLITE_ROW) {
 		fn(st, dst);
 	} else if (rc == SQLITE_DONE) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen, "%s: not found",
+		e = text_err(ERRCODE_NOT_FOUND, errbuf, errlen, "%s: not found",
 		    what);
-		e = ERRCODE_NOT_FOUND;
 	} else {
 		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
-		    errbuf,
-		    errlen);
+		    errbuf, errlen);
 	}
 	store_stmt_done(st);
 	return e;
@@ -497,18 +492,16 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 		return e;
 	if ((v = store_schema_version(s)) < 0 ||
 	    pragma_int(s, "SELECT count(*) FROM sqlite_schema", &objects)) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "cannot read the schema version: %s",
 		    sqlite3_errmsg(s->db));
-		e = ERRCODE_DB;
 		goto out;
 	}
 	if (v > version) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "the database has schema version %d, "
 		    "newer than %d (this program knows up to %d)", v, version,
 		    STORE_SCHEMA_VERSION);
-		e = ERRCODE_DB;
 		goto out;
 	}
 	if (v == 0 && objects > 0) {
@@ -605,10 +598,9 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 			    "directory read-only?): %s", path, path,
 			    sqlite3_errmsg(s->db));
 		else
-			(void)text_err(ERRCODE_OK, errbuf, errlen,
+			e = text_err(ERRCODE_DB, errbuf, errlen,
 			    "'%s' is not a readable SQLite "
 			    "database: %s", path, sqlite3_errmsg(s->db));
-		e = ERRCODE_DB;
 		goto out;
 	}
 	if (!(flags & STORE_OPEN_READONLY) && !memory &&
@@ -627,19 +619,17 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		}
 	}
 	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "%s: the database has schema version %d, "
 		    "newer than this program knows (up to %d)", path, v,
 		    STORE_SCHEMA_VERSION);
-		e = ERRCODE_DB;
 		goto out;
 	}
 	if ((flags & STORE_OPEN_READONLY) && v != STORE_SCHEMA_VERSION) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "%s: schema version %d, this program needs "
 		    "%d (open it once for writing to migrate it)", path, v,
 		    STORE_SCHEMA_VERSION);
-		e = ERRCODE_DB;
 		goto out;
 	}
 out:

@@ -113,10 +113,9 @@ store_eop_span(struct store *s, double *first_mjd, double *last_mjd,
 		    "EOP table",
 		    errbuf, errlen);
 	} else if (sqlite3_column_int64(st, 2) == 0) {
-		(void)text_err(ERRCODE_OK, errbuf, errlen,
+		e = text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
 		    "the EOP table is empty (load one with "
 		    "'moonrange eop import')");
-		e = ERRCODE_NOT_FOUND;
 	} else {
 		if (first_mjd != NULL)
 			*first_mjd = (double)sqlite3_column_int64(st, 0);

@@ -57,8 +57,7 @@ count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
 		*n = (size_t)sqlite3_column_int64(st, 0);
 	else
 		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
-		    errbuf,
-		    errlen);
+		    errbuf, errlen);
 	store_stmt_done(st);
 	return e;
 }
