@@ -1,6 +1,6 @@
 -- SPDX-License-Identifier: BSD-3-Clause
 -- schema.sql: the complete current schema of a moonrange database
--- (PRAGMA user_version 5).  A new database is created from this file; an
+-- (PRAGMA user_version 6).  A new database is created from this file; an
 -- older one is brought up to date by migrations/NNNN_*.sql in order.
 -- Both paths must give the same schema (tests/test_store.c checks it), so
 -- a change here is also a new migration.
@@ -44,7 +44,28 @@ CREATE TABLE station (
   zenith_tau      REAL NOT NULL CONSTRAINT zenith_tau
                     CHECK (zenith_tau BETWEEN 0 AND 10),
   fire_rate_hz    REAL NOT NULL CONSTRAINT fire_rate_hz
-                    CHECK (fire_rate_hz > 0 AND fire_rate_hz <= 1000000)
+                    CHECK (fire_rate_hz > 0 AND fire_rate_hz <= 1000000),
+  pulse_energy_mj REAL CONSTRAINT pulse_energy_mj
+                    CHECK (pulse_energy_mj IS NULL
+                           OR (pulse_energy_mj > 0 AND pulse_energy_mj <= 100000)),
+  aperture_m      REAL CONSTRAINT aperture_m
+                    CHECK (aperture_m IS NULL
+                           OR (aperture_m > 0 AND aperture_m <= 50)),
+  transmit_eff    REAL CONSTRAINT transmit_eff
+                    CHECK (transmit_eff IS NULL
+                           OR (transmit_eff > 0 AND transmit_eff <= 1)),
+  receive_eff     REAL CONSTRAINT receive_eff
+                    CHECK (receive_eff IS NULL
+                           OR (receive_eff > 0 AND receive_eff <= 1)),
+  detector_qe     REAL CONSTRAINT detector_qe
+                    CHECK (detector_qe IS NULL
+                           OR (detector_qe > 0 AND detector_qe <= 1)),
+  seeing_arcsec   REAL CONSTRAINT seeing_arcsec
+                    CHECK (seeing_arcsec IS NULL
+                           OR (seeing_arcsec > 0 AND seeing_arcsec <= 60)),
+  jitter_ps       REAL CONSTRAINT jitter_ps
+                    CHECK (jitter_ps IS NULL
+                           OR (jitter_ps > 0 AND jitter_ps <= 1000000))
 ) STRICT;
 
 CREATE TABLE targets (
@@ -66,7 +87,22 @@ CREATE TABLE targets (
   dark_only       INTEGER NOT NULL DEFAULT 0 CONSTRAINT dark_only
                     CHECK (dark_only IN (0, 1)),
   active          INTEGER NOT NULL DEFAULT 1 CONSTRAINT active
-                    CHECK (active IN (0, 1))
+                    CHECK (active IN (0, 1)),
+  cube_count      INTEGER CONSTRAINT cube_count
+                    CHECK (cube_count IS NULL
+                           OR cube_count BETWEEN 1 AND 100000),
+  cube_aperture_mm REAL CONSTRAINT cube_aperture_mm
+                    CHECK (cube_aperture_mm IS NULL
+                           OR (cube_aperture_mm > 0 AND cube_aperture_mm <= 5000)),
+  normal_lat_deg  REAL CONSTRAINT normal_lat_deg
+                    CHECK (normal_lat_deg IS NULL
+                           OR normal_lat_deg BETWEEN -90 AND 90),
+  normal_lon_deg  REAL CONSTRAINT normal_lon_deg
+                    CHECK (normal_lon_deg IS NULL
+                           OR normal_lon_deg BETWEEN -180 AND 360),
+  extent_m        REAL CONSTRAINT extent_m
+                    CHECK (extent_m IS NULL
+                           OR extent_m BETWEEN 0 AND 100)
 ) STRICT;
 
 CREATE UNIQUE INDEX targets_alias ON targets (alias) WHERE alias <> '';
@@ -177,6 +213,9 @@ CREATE TABLE attempts (
   -- 2 fired at under a tenth of the station's rate; left out of the yield
   suspect         INTEGER NOT NULL DEFAULT 0 CONSTRAINT suspect
                     CHECK (suspect BETWEEN 0 AND 3),
+  range_km        REAL CONSTRAINT range_km
+                    CHECK (range_km IS NULL
+                           OR range_km BETWEEN 300000 AND 500000),
   CONSTRAINT start_unique UNIQUE (target_id, start_utc)
 ) STRICT;
 
@@ -251,6 +290,8 @@ CREATE TABLE eop (
 ) STRICT;
 
 -- from 0003_settings.sql, remade by 0005_plan_settings.sql
+-- (the columns of 0006_reflector_physics.sql are in the tables above,
+-- where ALTER TABLE puts them)
 CREATE TABLE settings (
   key             TEXT PRIMARY KEY CONSTRAINT key
                     CHECK (key IN ('coverage_bins', 'coverage_alpha',

@@ -193,6 +193,7 @@ naive(const struct plan_query *q, const struct plan_result *r,
 					    q->station.fire_rate_hz * y->rate *
 					    score_transmission(
 					    q->station.zenith_tau, v.el) *
+					    score_range_factor(v.range) *
 					    (v.sunlit ? y->sunlit_factor : 1) *
 					    score_coverage_weight(r->pooled[b],
 					    mean, q->settings.k,

@@ -52,7 +52,7 @@ NNP=$(q "$DB" 'SELECT count(*) FROM normal_points')
 check "normal points loaded" "[ '$NNP' -gt 0 ]"
 check "EOP rows loaded" "[ \"\$(q '$DB' 'SELECT count(*) FROM eop')\" -gt 100 ]"
 check "WAL journal" "[ \"\$(q '$DB' 'PRAGMA journal_mode')\" = wal ]"
-check "schema version 5" "[ \"\$(q '$DB' 'PRAGMA user_version')\" = 5 ]"
+check "schema version 6" "[ \"\$(q '$DB' 'PRAGMA user_version')\" = 6 ]"
 check "every table STRICT" "[ \"\$(q '$DB' \"SELECT count(*) FROM pragma_table_list WHERE schema = 'main' AND name NOT LIKE 'sqlite%' AND strict = 0\")\" = 0 ]"
 check "derived angles in range" "[ \"\$(q '$DB' 'SELECT count(*) FROM attempts WHERE synodic_deg < 0 OR synodic_deg >= 360 OR abs(target_el_deg) > 90')\" = 0 ]"
 expect_fail "init refuses to overwrite" 2 "already exists" "$M" init --db "$DB" --site "$SITE"
@@ -103,11 +103,17 @@ attempt text in a count|cannot store TEXT|INSERT INTO attempts ($ATT) VALUES ('H
 attempt synodic 360|synodic_deg|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged','op',1.0,'',360,10,30,5)
 attempt operator over 95 bytes|operator|INSERT INTO attempts ($ATT) VALUES ('HERON','2030-01-01T00:00:00.000Z',62502.0,'2030-01-01T00:10:00.000Z',62502.0069444444,100,5,1,'ranged',printf('%.96c','x'),1.0,'',10,10,30,5)
 attempt duplicate start|UNIQUE|INSERT INTO attempts ($ATT) SELECT target_id,start_utc,start_mjd,end_utc,end_mjd,shots,returns,normal_points,outcome,operator,seeing_arcsec,notes,synodic_deg,mean_elong_deg,target_el_deg,sun_el_target_deg FROM attempts LIMIT 1
-station second row|failed: id|INSERT INTO station SELECT 2,name,code,lat_deg,lon_deg,height_m,time_zone,min_el_deg,max_sun_el_deg,min_sun_sep_deg,pressure_hpa,temperature_c,humidity,wavelength_nm,zenith_tau,fire_rate_hz FROM station
+station second row|failed: id|INSERT INTO station SELECT 2,name,code,lat_deg,lon_deg,height_m,time_zone,min_el_deg,max_sun_el_deg,min_sun_sep_deg,pressure_hpa,temperature_c,humidity,wavelength_nm,zenith_tau,fire_rate_hz,pulse_energy_mj,aperture_m,transmit_eff,receive_eff,detector_qe,seeing_arcsec,jitter_ps FROM station
 station latitude 91|lat_deg|UPDATE station SET lat_deg = 91
 station latitude -90.5|lat_deg|UPDATE station SET lat_deg = -90.5
 station humidity 2|humidity|UPDATE station SET humidity = 2
 station negative fire rate|fire_rate_hz|UPDATE station SET fire_rate_hz = -1
+station zero pulse energy|pulse_energy_mj|UPDATE station SET pulse_energy_mj = 0
+station efficiency over 1|receive_eff|UPDATE station SET receive_eff = 1.5
+station seeing 0|seeing_arcsec|UPDATE station SET seeing_arcsec = 0
+target zero cubes|cube_count|UPDATE targets SET cube_count = 0
+target normal latitude 91|normal_lat_deg|UPDATE targets SET normal_lat_deg = 91
+attempt range not lunar|range_km|UPDATE attempts SET range_km = 1000
 target latitude 95|lat_deg|INSERT INTO targets (id,name,lat_deg,lon_deg,strength) VALUES ('X1','x',95,0,1)
 target zero strength|strength|INSERT INTO targets (id,name,lat_deg,lon_deg,strength) VALUES ('X1','x',0,0,0)
 target bad id|failed: id|INSERT INTO targets (id,name,lat_deg,lon_deg,strength) VALUES ('X 1','x',0,0,1)

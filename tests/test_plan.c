@@ -222,8 +222,10 @@ test_plan_factors_against_full_chain(void **state)
 			    GEOM_PREC_FULL, &g), ERRCODE_OK);
 			geom_target_view(&g, &body, &v);
 			xx = score_airmass(v.el);
+			/* (R0/R)^4 with R0 = 384400 km (core/link.h) */
 			e += s.st.fire_rate_hz * m->y.rate *
 			    exp(-2.0 * s.st.zenith_tau * xx) *
+			    pow(384400e3 / v.range, 4.0) *
 			    (v.sunlit ? m->y.sunlit_factor : 1.0) * ds;
 			lit += v.sunlit ? ds : 0.0;
 			x += xx * ds;
@@ -285,7 +287,7 @@ test_plan_score_independent_of_filter(void **state)
 	assert_true(one.n > 0);
 	assert_int_equal(top.n, 3);
 	/* The filtered run's model is the unfiltered one (same log). */
-	check_near(one.model.base_rate, all.model.base_rate, 0.0, "",
+	check_near(one.model.base_efficiency, all.model.base_efficiency, 0.0, "",
 	    "pooled base rate with --target");
 	for (size_t i = 0; i < one.n; i++)
 		for (size_t j = 0; j < all.n; j++) {

@@ -11,6 +11,7 @@
 #include <libnova/airmass.h>
 
 #include "check.h"
+#include "core/link.h"
 #include "core/score.h"
 
 #define D2R ERFA_DD2R
@@ -85,15 +86,52 @@ test_score_airmass_against_libnova(void **state)
 
 /* --- the yield model --- */
 
+/* Truth of a simulated target: strength, efficiency against the link
+   equation, sunlit factor. */
 struct truth {
 	const char *id;
-	double strength, r, f;
+	double strength, e, f;
 };
 
-/* A log of n attempts per target drawn from the model with truth t. */
+/* An invented station with the default link budget (test data only). */
+static void
+sim_station(struct site_station *st, double tau)
+{
+	memset(st, 0, sizeof *st);
+	st->wavelength_nm = 532.0;
+	st->zenith_tau = tau;
+	st->pulse_energy_mj = NAN;	/* every link key at its default */
+	st->aperture_m = NAN;
+	st->transmit_eff = NAN;
+	st->receive_eff = NAN;
+	st->detector_qe = NAN;
+	st->seeing_arcsec = NAN;
+	st->jitter_ps = NAN;
+}
+
+/* n_j: the link-equation prior of a target, as score_fit forms it. */
+static double
+link_prior(const struct site_station *st, const struct site_target *t)
+{
+	struct link_station ls;
+	struct link_target lt;
+
+	site_station_link(st, &ls);
+	site_target_link(t, &lt);
+	return t->strength * link_photoelectrons(&ls, &lt, LINK_R0, 1.0);
+}
+
+/*
+ * A log of n attempts per target drawn from the model with truth t:
+ * expected returns = shots e_j n_j exp(-2 tau X) (theta_0/theta)^2
+ * (R0/R)^4 (f_j if sunlit).  With vary set, the range is drawn over
+ * 356500..406700 km (perigee to apogee) and the seeing over 1.5..4"
+ * (the typical 1.5" at the good end); otherwise range and seeing are
+ * not logged (NaN: the mean distance and the typical seeing).
+ */
 static struct site_attempt *
-simulate(const struct truth *t, size_t nt, size_t n, double tau,
-    size_t *na)
+simulate(const struct truth *t, const struct site_target *tg, size_t nt,
+    size_t n, const struct site_station *st, int vary, size_t *na)
 {
 	struct site_attempt *a = calloc(nt * n + 3, sizeof a[0]);
 	size_t k = 0;
@@ -104,15 +142,22 @@ simulate(const struct truth *t, size_t nt, size_t n, double tau,
 			struct site_attempt *x = &a[k++];
 			double el = 20.0 + 65.0 * urand();
 			int lit = urand() < 0.5;
-			double lam;
+			double lam, range = NAN, seeing = NAN;
 
+			if (vary) {
+				range = 356500.0 + 50200.0 * urand();
+				seeing = 1.5 + 2.5 * urand();
+			}
 			snprintf(x->target, sizeof x->target, "%s", t[j].id);
 			x->shots = 3000 + (long)(3000 * urand());
 			x->target_el_deg = el;
 			x->sun_el_target_deg = lit ? 10.0 : -10.0;
+			x->range_km = range;
+			x->seeing_arcsec = seeing;
 			x->outcome = SITE_OUTCOME_RANGED;
-			lam = (double)x->shots * t[j].r *
-			    score_transmission(tau, el * D2R) *
+			lam = (double)x->shots * t[j].e * link_prior(st, &tg[j]) *
+			    score_transmission(st->zenith_tau, el * D2R) *
+			    score_link_factor(st, seeing, range * 1e3) *
 			    (lit ? t[j].f : 1.0);
 			x->returns = poisson(lam);
 			if (x->returns == 0)
@@ -138,49 +183,67 @@ simulate(const struct truth *t, size_t nt, size_t n, double tau,
 	return a;
 }
 
+/* Three invented targets: 100 cubes of 38 mm, 300 of 38 mm, and one
+   70 mm reflector (single) or 100 cubes of 50 mm (test data only). */
+static void
+sim_targets(const struct truth *t, struct site_target *tg, int single)
+{
+	const long cubes[3] = {100, 300, single ? 1 : 100};
+	const double mm[3] = {38.0, 38.0, single ? 70.0 : 50.0};
+
+	for (int j = 0; j < 3; j++) {
+		site_target_init(&tg[j]);
+		snprintf(tg[j].id, sizeof tg[j].id, "%s", t[j].id);
+		tg[j].strength = t[j].strength;
+		tg[j].cube_count = cubes[j];
+		tg[j].cube_aperture_mm = mm[j];
+	}
+}
+
 static void
 test_score_yield_converges_to_truth(void **state)
 {
 	static const struct truth t[3] = {
-		{"A", 1.0, 2.0e-3, 0.30},
-		{"B", 0.5, 0.8e-3, 0.60},
-		{"C", 2.0, 5.0e-3, 0.45},
+		{"A", 1.0, 0.004, 0.30},
+		{"B", 0.5, 0.010, 0.60},
+		{"C", 2.0, 0.080, 0.45},
 	};
 	struct site_target tg[3];
+	struct site_station st;
 	struct score_settings s;
 	struct score_yield y[3];
 	struct score_model m;
 	double err_small[3], err_big[3];
-	const double tau = 0.12;
 
 	(void)state;
 	score_settings_default(&s);
-	memset(tg, 0, sizeof tg);
-	for (int j = 0; j < 3; j++) {
-		snprintf(tg[j].id, sizeof tg[j].id, "%s", t[j].id);
-		tg[j].strength = t[j].strength;
-		tg[j].active = 1;
-	}
+	sim_station(&st, 0.12);
+	sim_targets(t, tg, 1);
 	for (int pass = 0; pass < 2; pass++) {
 		size_t n = pass == 0 ? 10 : 4000, na;
-		struct site_attempt *a = simulate(t, 3, n, tau, &na);
+		struct site_attempt *a = simulate(t, tg, 3, n, &st, 0, &na);
 
-		assert_int_equal(score_fit(&s, tau, tg, 3, a, na, y, &m),
+		assert_int_equal(score_fit(&s, &st, tg, 3, a, na, y, &m),
 		    ERRCODE_OK);
 		assert_int_equal(m.attempts_used, (long)(3 * n));
 		assert_int_equal(m.attempts_skipped, 3);
 		for (int j = 0; j < 3; j++) {
-			double e = fabs(y[j].rate / t[j].r - 1.0);
+			double e = fabs(y[j].efficiency / t[j].e - 1.0);
 
+			check_near(y[j].link_rate, link_prior(&st, &tg[j]),
+			    1e-15 * y[j].link_rate, "returns/shot",
+			    "prior = strength x link equation");
+			check_near(y[j].rate, y[j].efficiency * y[j].link_rate,
+			    1e-15 * y[j].rate, "returns/shot", "r = e n");
 			if (pass == 0) {
 				err_small[j] = e;
 				continue;
 			}
 			err_big[j] = e;
 			/* Truth of the simulation; 4000 attempts of ~4500
-			   shots give ~1 % standard error on r, ~2 % on f. */
-			check_near(y[j].rate, t[j].r, 0.04 * t[j].r,
-			    "returns/shot", "r_j from a long log");
+			   shots give ~1 % standard error on e, ~2 % on f. */
+			check_near(y[j].efficiency, t[j].e, 0.04 * t[j].e, "",
+			    "e_j from a long log");
 			check_near(y[j].sunlit_factor, t[j].f, 0.06 * t[j].f, "",
 			    "f_j from a long log");
 		}
@@ -191,20 +254,76 @@ test_score_yield_converges_to_truth(void **state)
 	for (int j = 0; j < 3; j++)
 		assert_true(err_big[j] < err_small[j] + 0.02);
 
-	/* No history: the prior from the strength and the defaults. */
-	assert_int_equal(score_fit(&s, tau, tg, 3, NULL, 0, y, &m), ERRCODE_OK);
+	/* No history: the link equation itself (efficiency 1). */
+	assert_int_equal(score_fit(&s, &st, tg, 3, NULL, 0, y, &m), ERRCODE_OK);
 	for (int j = 0; j < 3; j++) {
-		check_near(y[j].rate, s.prior_rate * t[j].strength, 1e-15,
-		    "returns/shot", "prior rate = strength x default");
+		check_near(y[j].efficiency, 1.0, 1e-15, "", "prior efficiency");
+		check_near(y[j].rate, link_prior(&st, &tg[j]), 1e-15 * y[j].rate,
+		    "returns/shot", "prior rate = the link equation");
 		check_near(y[j].sunlit_factor, s.prior_sunlit, 1e-15, "",
 		    "prior sunlit factor");
 	}
 	tg[1].strength = 0.0;
-	assert_int_equal(score_fit(&s, tau, tg, 3, NULL, 0, y, &m),
+	assert_int_equal(score_fit(&s, &st, tg, 3, NULL, 0, y, &m),
 	    ERRCODE_BAD_ARG);
 	tg[1].strength = 1.0;
-	assert_int_equal(score_fit(&s, -1.0, tg, 3, NULL, 0, y, &m),
+	st.zenith_tau = -1.0;
+	assert_int_equal(score_fit(&s, &st, tg, 3, NULL, 0, y, &m),
 	    ERRCODE_BAD_ARG);
+}
+
+/*
+ * Range and seeing: a log simulated with the R^-4 and divergence^-2
+ * laws (perigee to apogee, seeing 1.5-4" against a typical 1.5") and a
+ * few hundred attempts per target gives back each efficiency within
+ * 10 % (the simulation's truth).  The same log with range and seeing
+ * withheld (the model then takes R0 and the typical seeing) is biased
+ * low by the mean seeing factor (2.25 (1/1.5 - 1/4) / 2.5 = 0.375), so
+ * the normalisation is what recovers it.
+ */
+static void
+test_score_range_and_seeing_recovered(void **state)
+{
+	static const struct truth t[3] = {
+		{"A", 1.0, 0.004, 0.50},
+		{"B", 1.0, 0.010, 0.50},
+		{"C", 1.0, 0.020, 0.50},
+	};
+	struct site_target tg[3];
+	struct site_station st;
+	struct score_settings s;
+	struct score_yield y[3];
+	struct score_model m;
+	size_t na;
+	struct site_attempt *a;
+
+	(void)state;
+	score_settings_default(&s);
+	sim_station(&st, 0.12);
+	sim_targets(t, tg, 0);
+	a = simulate(t, tg, 3, 300, &st, 1, &na);
+	assert_int_equal(score_fit(&s, &st, tg, 3, a, na, y, &m), ERRCODE_OK);
+	for (int j = 0; j < 3; j++) {
+		print_message("%s: efficiency %.5f (truth %.5f)\n", t[j].id,
+		    y[j].efficiency, t[j].e);
+		check_near(y[j].efficiency, t[j].e, 0.10 * t[j].e, "",
+		    "efficiency with range and seeing (simulation truth)");
+	}
+	for (size_t i = 0; i < na; i++) {
+		a[i].range_km = NAN;
+		a[i].seeing_arcsec = NAN;
+	}
+	assert_int_equal(score_fit(&s, &st, tg, 3, a, na, y, &m), ERRCODE_OK);
+	for (int j = 0; j < 3; j++)
+		assert_true(y[j].efficiency < 0.6 * t[j].e);
+	free(a);
+	/* The factor itself: (R0/R)^4 (theta_0/theta)^2 (core/link.h). */
+	check_near(score_link_factor(&st, 3.0, 0.9 * LINK_R0),
+	    0.25 / pow(0.9, 4.0), 1e-12, "", "range and seeing factor");
+	check_near(score_range_factor(LINK_R0 * 356500.0 / 384400.0) /
+	    score_range_factor(LINK_R0 * 406700.0 / 384400.0),
+	    pow(406700.0 / 356500.0, 4.0), 1e-12, "",
+	    "perigee to apogee (about 1.69 at these extremes)");
 }
 
 /* --- coverage weights --- */
@@ -310,8 +429,8 @@ test_score_sparse_phase_outranks_quarter(void **state)
 	s.prior_sunlit = 1.0;	/* no sunlit penalty ... */
 	p.tr = &m.tr;
 	p.s = &s;
-	p.tau = 0.0;		/* ... and no atmosphere: R is a constant, so */
-	p.fire_rate_hz = 10.0;	/* two 2 h windows are geometrically equal */
+	p.tau = 0.0;		/* ... and no atmosphere: R differs only by */
+	p.fire_rate_hz = 10.0;	/* the range factor (R0/R)^4 */
 	memset(&tg, 0, sizeof tg);
 	tg.body = NULL;
 	tg.yield.rate = 2e-3;
@@ -333,8 +452,11 @@ test_score_sparse_phase_outranks_quarter(void **state)
 			    ERRCODE_OK);
 			/* The factors reproduce the score. */
 			assert_int_equal(sw[i].bins_crossed, 0);
-			check_near(sw[i].expected_returns, 10.0 * 2e-3 * 7200.0,
-			    1e-9, "returns", "R x duration (tau 0, f 1)");
+			check_near(sw[i].expected_returns, 10.0 * 2e-3 * 7200.0 *
+			    sw[i].mean_range_factor, 1e-9, "returns",
+			    "R x duration x (R0/R)^4 (tau 0, f 1)");
+			assert_true(sw[i].mean_range_factor > 0.7 &&
+			    sw[i].mean_range_factor < 1.4);
 			check_near(sw[i].coverage_weight,
 			    score_coverage_weight(sw[i].bin_count,
 			    sw[i].bin_mean, s.k, s.alpha), 1e-12, "",
@@ -352,11 +474,13 @@ test_score_sparse_phase_outranks_quarter(void **state)
 			assert_int_equal(sw[0].phase_bin, 6);
 			assert_true(sw[0].score > 5.0 * sw[1].score);
 		} else {
-			/* alpha 0: equal scores; the tie goes to the earlier
-			   window (first quarter), phase plays no part. */
-			check_near(sw[0].score, sw[1].score, 1e-9, "",
-			    "equal without weighting");
-			assert_int_equal(sw[0].phase_bin, 3);
+			/* alpha 0: the scores differ by the range factor
+			   alone; phase plays no part. */
+			check_near(sw[0].score / sw[0].mean_range_factor,
+			    sw[1].score / sw[1].mean_range_factor, 1e-9, "",
+			    "equal without weighting, range aside");
+			assert_true(sw[0].mean_range_factor >=
+			    sw[1].mean_range_factor);
 		}
 		assert_int_equal(sw[0].rank, 1);
 		assert_int_equal(sw[1].rank, 2);
@@ -374,7 +498,9 @@ test_score_sparse_phase_outranks_quarter(void **state)
 		s.alpha = 0.0;
 		assert_int_equal(score_window(&p, &tg, &wn, &sn), ERRCODE_OK);
 		assert_int_equal(score_window(&p, &tg, &w[0], &sq), ERRCODE_OK);
-		check_near(sn.score, sq.score, 1e-9, "", "new vs quarter, alpha 0");
+		check_near(sn.score / sn.mean_range_factor,
+		    sq.score / sq.mean_range_factor, 1e-9, "",
+		    "new vs quarter, alpha 0, range aside");
 	}
 	free(m.nodes);
 }
@@ -438,6 +564,8 @@ midpoint_score(const struct score_params *p, const struct score_target *t,
 			el = t->body != NULL ? v.el : g.moon.el;
 			r = p->fire_rate_hz * t->yield.rate *
 			    score_transmission(p->tau, el) *
+			    score_range_factor(t->body != NULL ? v.range :
+			    g.moon.range) *
 			    (v.sunlit ? t->yield.sunlit_factor : 1.0);
 			*er += r * dt * DAY;
 			*sc += r * wgt * dt * DAY;
@@ -550,6 +678,7 @@ main(void)
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_score_airmass_against_libnova),
 		cmocka_unit_test(test_score_yield_converges_to_truth),
+		cmocka_unit_test(test_score_range_and_seeing_recovered),
 		cmocka_unit_test(test_score_bins_and_weights),
 		cmocka_unit_test(test_score_sparse_phase_outranks_quarter),
 		cmocka_unit_test(test_score_quadrature_beats_120s_sampling),

@@ -63,6 +63,13 @@ station(struct site_station *st)
 	st->wavelength_nm = 532.0;
 	st->zenith_tau = 0.1;
 	st->fire_rate_hz = 20.0;
+	st->pulse_energy_mj = 85.0;
+	st->aperture_m = 1.2;
+	st->transmit_eff = 0.45;
+	st->receive_eff = 0.08;
+	st->detector_qe = 0.25;
+	st->seeing_arcsec = 1.6;
+	st->jitter_ps = NAN;
 }
 
 static void
@@ -96,6 +103,7 @@ attempt(struct site_attempt *a, const char *tgt, double start_mjd)
 	a->mean_elong_deg = 88.0;
 	a->target_el_deg = 45.0;
 	a->sun_el_target_deg = 2.0;
+	a->range_km = 381234.5;
 }
 
 /* A file database with the station and two targets. */

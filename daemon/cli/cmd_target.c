@@ -103,10 +103,8 @@ target_add(const struct cli_args *a)
 	edit_of(a, &e, 0);
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
 		return st;
-	memset(&t, 0, sizeof t);
+	site_target_init(&t);
 	strcpy(t.id, a->ops[0]);
-	t.strength = 1.0;
-	t.active = 1;
 	if ((st = apply(&t, &e)) == CLI_EXIT_OK) {
 		if ((rc = store_target_add(c.s, &t, err, sizeof err)))
 			st = cli_store_fail(rc, "target add: %s", err);

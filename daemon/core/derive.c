@@ -57,6 +57,7 @@ derive_at(const struct site_station *st, const struct site_target *t,
 	out->mean_elong_deg = deg_0_360(g.moon.mean_elong);
 	out->target_el_deg = v.el * ERFA_DR2D;
 	out->sun_el_target_deg = v.sun_elevation * ERFA_DR2D;
+	out->range_km = v.range / 1e3;
 	return ERRCODE_OK;
 }
 
@@ -75,6 +76,7 @@ derive_attempt(const struct site_station *st, const struct site_target *t,
 	a->mean_elong_deg = d.mean_elong_deg;
 	a->target_el_deg = d.target_el_deg;
 	a->sun_el_target_deg = d.sun_el_target_deg;
+	a->range_km = d.range_km;
 	return ERRCODE_OK;
 }
 

@@ -561,10 +561,10 @@ fast_separation(const struct fast_frame *f)
 }
 
 double
-fast_target_el(const struct fast_track *ft, const struct fast_frame *f,
-    const struct geom_target *t, double *sun_el, double *dark)
+fast_target_topo(const struct fast_frame *f, const struct geom_target *t,
+    double topo[3], double radial[3])
 {
-	double radial[3], ri[3], topo[3], se = 0.0;
+	double ri[3];
 
 	for (int i = 0; i < 3; i++)	/* radial = lunar_rot^T body */
 		radial[i] = f->lunar_rot[0][i] * t->body[0] +
@@ -573,6 +573,16 @@ fast_target_el(const struct fast_track *ft, const struct fast_frame *f,
 	mxv((const double (*)[3])f->rc2t, radial, ri);
 	for (int i = 0; i < 3; i++)
 		topo[i] = f->moon_itrs[i] + ri[i];
+	return vnorm(topo);
+}
+
+double
+fast_target_el(const struct fast_track *ft, const struct fast_frame *f,
+    const struct geom_target *t, double *sun_el, double *dark)
+{
+	double radial[3], topo[3], se = 0.0;
+
+	(void)fast_target_topo(f, t, topo, radial);
 	if (sun_el != NULL || dark != NULL) {
 		double u[3], pos[3], r = vnorm(radial), d, c;
 

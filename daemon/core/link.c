@@ -14,7 +14,7 @@ link_station_default(struct link_station *s)
 	s->pulse_energy_j = 0.100;
 	s->wavelength_m = 532e-9;
 	s->transmit_eff = 0.5;
-	s->receive_eff = 0.3;
+	s->receive_eff = 0.1;
 	s->aperture_m = 1.0;
 	s->detector_qe = 0.3;
 	s->seeing_arcsec = 1.5;

@@ -376,7 +376,8 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 				w.lit[k] |= 1ULL << j;
 			w.ret[j * nslots + k] = score_rate(
 			    q.station.fire_rate_hz, &pr.models[j].y,
-			    score_transmission(q.station.zenith_tau, v.el),
+			    score_transmission(q.station.zenith_tau, v.el) *
+			    score_range_factor(moon ? gi.moon.range : v.range),
 			    v.sunlit) * g;
 			/* line of sight in the lunar frame */
 			eraRxp(gi.lunar_rot, gi.moon_topo, los);

@@ -140,11 +140,13 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		add_reason(w, "sunlit for %.0f%% of the window (sunlit factor "
 		    "%.2f)", 100.0 * f->sunlit_fraction, m->y.sunlit_factor);
 	if (m->y.attempts > 0)
-		add_reason(w, "%.3g returns per shot at zenith learned from %ld "
-		    "logged attempts", m->y.rate, m->y.attempts);
+		add_reason(w, "%.3g returns per shot above the atmosphere "
+		    "(%.2g of the link budget) learned from %ld logged attempts",
+		    m->y.rate, m->y.efficiency, m->y.attempts);
 	else
-		add_reason(w, "no usable history: %.3g returns per shot at "
-		    "zenith from strength %.2f", m->y.rate, m->strength);
+		add_reason(w, "no usable history: %.3g returns per shot above "
+		    "the atmosphere from the link budget (strength %.2f)",
+		    m->y.rate, m->strength);
 }
 
 /*
@@ -164,7 +166,7 @@ fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
 	for (size_t i = 0; i < q->ntargets; i++)
 		na += q->targets[i].active ? 1 : 0;
 	if (na == 0)
-		return score_fit(&q->settings, q->station.zenith_tau, tg, nt,
+		return score_fit(&q->settings, &q->station, tg, nt,
 		    q->attempts, q->nattempts, yield, model);
 	act = mem_calloc(na, sizeof act[0]);
 	ay = mem_calloc(na, sizeof ay[0]);
@@ -176,7 +178,7 @@ fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
 	for (size_t i = 0; i < q->ntargets; i++)
 		if (q->targets[i].active)
 			act[na++] = q->targets[i];
-	rc = score_fit(&q->settings, q->station.zenith_tau, act, na,
+	rc = score_fit(&q->settings, &q->station, act, na,
 	    q->attempts, q->nattempts, ay, model);
 	if (rc != ERRCODE_OK)
 		goto out;
@@ -302,11 +304,9 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		    strcmp(q->target, PLAN_MOON_ID) != 0))
 			return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
 			    "target: no active target '%s'", q->target);
-		memset(&tg[0], 0, sizeof tg[0]);
+		site_target_init(&tg[0]);
 		snprintf(tg[0].id, sizeof tg[0].id, "%s", PLAN_MOON_ID);
 		snprintf(tg[0].name, sizeof tg[0].name, "Moon (centre)");
-		tg[0].strength = 1.0;
-		tg[0].active = 1;
 		wt[0].body = NULL;
 		wt[0].dark_only = 0;
 		nt = 1;

@@ -7,6 +7,7 @@
 #include <erfa.h>
 #include <erfam.h>
 
+#include "core/link.h"
 #include "core/score.h"
 
 void
@@ -16,9 +17,8 @@ score_settings_default(struct score_settings *s)
 	s->alpha = 1.0;
 	s->k = 1.0;
 	s->per_target = 0;
-	s->prior_rate = 1e-3;
 	s->prior_sunlit = 0.5;
-	s->prior_exposure = 2e4;
+	s->prior_weight = 20.0;
 	s->step_s = 120.0;
 }
 
@@ -33,12 +33,10 @@ score_settings_check(const struct score_settings *s, const char **field)
 		bad = "coverage_alpha";
 	else if (!(s->k > 0.0 && s->k < 1e9))
 		bad = "coverage_k";
-	else if (!(s->prior_rate > 0.0 && s->prior_rate <= 1.0))
-		bad = "prior_rate";
 	else if (!(s->prior_sunlit > 0.0 && s->prior_sunlit <= 10.0))
 		bad = "prior_sunlit";
-	else if (!(s->prior_exposure > 0.0 && s->prior_exposure < 1e15))
-		bad = "prior_exposure";
+	else if (!(s->prior_weight > 0.0 && s->prior_weight < 1e15))
+		bad = "prior_weight";
 	else if (!(s->step_s >= 1.0 && s->step_s <= 120.0))
 		bad = "step_s";
 	if (field != NULL)
@@ -75,22 +73,52 @@ usable(const struct site_attempt *a)
 	    a->target_el_deg > 0.0 && isfinite(a->sun_el_target_deg);
 }
 
+double
+score_range_factor(double range_m)
+{
+	double r;
+
+	if (!(range_m > 0.0))
+		return 1.0;
+	r = LINK_R0 / range_m;
+	return r * r * r * r;
+}
+
+double
+score_link_factor(const struct site_station *st, double seeing_arcsec,
+    double range_m)
+{
+	struct link_station ls;
+
+	site_station_link(st, &ls);
+	return link_rate_factor(&ls, seeing_arcsec, range_m > 0.0 ? range_m :
+	    LINK_R0);
+}
+
 enum errcode
-score_fit(const struct score_settings *s, double tau,
+score_fit(const struct score_settings *s, const struct site_station *st,
     const struct site_target *targets, size_t nt,
     const struct site_attempt *att, size_t na, struct score_yield *yield,
     struct score_model *model)
 {
-	const double e0 = s->prior_exposure;
-	double rd = 0.0, sed = 0.0, lit_r = 0.0, lit_e = 0.0;
+	const double w = s->prior_weight;
+	const double tau = st->zenith_tau;
+	struct link_station ls;
+	double rd = 0.0, xd = 0.0, lit_r = 0.0, lit_x = 0.0;
 
 	if (!(tau >= 0.0) || !isfinite(tau))
 		return ERRCODE_BAD_ARG;
+	site_station_link(st, &ls);
 	memset(model, 0, sizeof *model);
 	for (size_t j = 0; j < nt; j++) {
+		struct link_target lt;
+
 		if (!(targets[j].strength > 0.0) || !isfinite(targets[j].strength))
 			return ERRCODE_BAD_ARG;
 		memset(&yield[j], 0, sizeof yield[j]);
+		site_target_link(&targets[j], &lt);
+		yield[j].link_rate = targets[j].strength *
+		    link_photoelectrons(&ls, &lt, LINK_R0, 1.0);
 	}
 	for (size_t i = 0; i < na; i++) {
 		const struct site_attempt *a = &att[i];
@@ -105,7 +133,9 @@ score_fit(const struct score_settings *s, double tau,
 			continue;
 		}
 		e = (double)a->shots *
-		    score_transmission(tau, a->target_el_deg * ERFA_DD2R);
+		    score_transmission(tau, a->target_el_deg * ERFA_DD2R) *
+		    link_rate_factor(&ls, a->seeing_arcsec, a->range_km > 0.0 ?
+		    a->range_km * 1e3 : LINK_R0);
 		if (a->sun_el_target_deg > 0.0) {
 			yield[j].lit_returns += (double)a->returns;
 			yield[j].lit_exposure += e;
@@ -118,24 +148,25 @@ score_fit(const struct score_settings *s, double tau,
 	}
 	for (size_t j = 0; j < nt; j++) {
 		rd += yield[j].dark_returns;
-		sed += targets[j].strength * yield[j].dark_exposure;
+		xd += yield[j].link_rate * yield[j].dark_exposure;
 	}
-	model->base_rate = (s->prior_rate * e0 + rd) / (e0 + sed);
+	model->base_efficiency = (w + rd) / (w + xd);
 	for (size_t j = 0; j < nt; j++) {
 		struct score_yield *y = &yield[j];
 
-		y->prior_rate = targets[j].strength * model->base_rate;
-		y->rate = (y->prior_rate * e0 + y->dark_returns) /
-		    (e0 + y->dark_exposure);
-		lit_r += y->lit_returns / y->rate;
-		lit_e += y->lit_exposure;
+		y->efficiency = (model->base_efficiency * w + y->dark_returns) /
+		    (w + y->link_rate * y->dark_exposure);
+		y->rate = y->efficiency * y->link_rate;
+		y->prior_rate = model->base_efficiency * y->link_rate;
+		lit_r += y->lit_returns;
+		lit_x += y->rate * y->lit_exposure;
 	}
-	model->base_sunlit = (s->prior_sunlit * e0 + lit_r) / (e0 + lit_e);
+	model->base_sunlit = (s->prior_sunlit * w + lit_r) / (w + lit_x);
 	for (size_t j = 0; j < nt; j++) {
 		struct score_yield *y = &yield[j];
 
-		y->sunlit_factor = (model->base_sunlit * e0 +
-		    y->lit_returns / y->rate) / (e0 + y->lit_exposure);
+		y->sunlit_factor = (model->base_sunlit * w + y->lit_returns) /
+		    (w + y->rate * y->lit_exposure);
 	}
 	return ERRCODE_OK;
 }
@@ -219,20 +250,35 @@ static const struct geom_target centre_point = {{GEOM_MOON_RADIUS, 0.0, 0.0}};
 /* Elevation of a target (or the Moon's centre) at t; *dark (if not NULL)
    its dark margin (geom_target_view's dark_margin: > 0 when dark). */
 static double
-target_el(const struct window_track *tr, const struct geom_target *body,
-    double t, double *dark)
+target_el_range(const struct window_track *tr, const struct geom_target *body,
+    double t, double *dark, double *range)
 {
 	struct fast_frame f;
 	double el;
 
 	fast_frame_at(&tr->ft, t, dark != NULL ? FAST_SUN | FAST_LUNAR :
-	    (body != NULL ? FAST_LUNAR : 0), &f);
+	    (body != NULL || range != NULL ? FAST_LUNAR : 0), &f);
+	if (range != NULL) {
+		double topo[3], radial[3];
+
+		*range = body != NULL ? fast_target_topo(&f, body, topo,
+		    radial) : sqrt(f.moon_itrs[0] * f.moon_itrs[0] +
+		    f.moon_itrs[1] * f.moon_itrs[1] +
+		    f.moon_itrs[2] * f.moon_itrs[2]);
+	}
 	if (body != NULL)
 		return fast_target_el(&tr->ft, &f, body, NULL, dark);
 	el = fast_elevation(&tr->ft, f.moon_itrs);
 	if (dark != NULL)
 		(void)fast_target_el(&tr->ft, &f, &centre_point, NULL, dark);
 	return el;
+}
+
+static double
+target_el(const struct window_track *tr, const struct geom_target *body,
+    double t, double *dark)
+{
+	return target_el_range(tr, body, t, dark, NULL);
 }
 
 /* Root-finding goals: the synodic angle less a boundary, and the dark
@@ -323,6 +369,7 @@ window_cuts(const struct score_params *p, const struct score_target *t,
 /* Running sums of the quadrature. */
 struct sums {
 	double er, sc, x, trm, lit;	/* returns, score, airmass, T, lit */
+	double rf;			/* (R0/R)^4 */
 	double best_el, best_t, best_h;	/* best node and its half-spacing */
 };
 
@@ -338,14 +385,17 @@ integrate_part(const struct score_params *p, const struct score_target *t,
 		double xi = (i < 4 ? -1.0 : 1.0) * gl_x[i % 4];
 		double wi = gl_w[i % 4] * h;	/* days */
 		double ti = c + xi * h;
-		double el = target_el(p->tr, t->body, ti, NULL);
+		double range, el = target_el_range(p->tr, t->body, ti, NULL,
+		    &range);
 		double x = score_airmass(el), trm = exp(-2.0 * p->tau * x);
-		double r = r0 * trm;
+		double rf = score_range_factor(range);
+		double r = r0 * trm * rf;
 
 		u->er += r * wi * ERFA_DAYSEC;
 		u->sc += r * wgt * wi * ERFA_DAYSEC;
 		u->x += x * wi;
 		u->trm += trm * wi;
+		u->rf += rf * wi;
 		u->lit += lit ? wi : 0.0;
 		if (el > u->best_el) {
 			u->best_el = el;
@@ -462,12 +512,15 @@ score_window(const struct score_params *p, const struct score_target *t,
 
 		out->mean_airmass = u.x / span;
 		out->mean_transmission = u.trm / span;
+		out->mean_range_factor = u.rf / span;
 		out->sunlit_fraction = u.lit / span;
 	} else {
-		double dark, el = target_el(p->tr, t->body, w->start, &dark);
+		double dark, range, el = target_el_range(p->tr, t->body,
+		    w->start, &dark, &range);
 
 		out->mean_airmass = score_airmass(el);
 		out->mean_transmission = exp(-2.0 * p->tau * out->mean_airmass);
+		out->mean_range_factor = score_range_factor(range);
 		out->sunlit_fraction = dark <= 0.0 ? 1.0 : 0.0;
 	}
 	out->expected_returns = u.er;

@@ -335,12 +335,15 @@ csv_run(const char *buf, size_t len, const struct csv_column *cols,
 /* --- targets --- */
 
 enum { TC_ID, TC_NAME, TC_ALIAS, TC_LAT, TC_LON, TC_HEIGHT, TC_STRENGTH,
-    TC_DARK, TC_ACTIVE, TC__N };
+    TC_DARK, TC_ACTIVE, TC_CUBES, TC_CUBE_MM, TC_NLAT, TC_NLON, TC_EXTENT,
+    TC__N };
 
 static const struct csv_column target_cols[TC__N] = {
 	{ "id", 1 }, { "name", 1 }, { "alias", 0 }, { "lat_deg", 1 },
 	{ "lon_deg", 1 }, { "height_m", 0 }, { "strength", 0 },
-	{ "dark_only", 0 }, { "active", 0 },
+	{ "dark_only", 0 }, { "active", 0 }, { "cube_count", 0 },
+	{ "cube_aperture_mm", 0 }, { "normal_lat_deg", 0 },
+	{ "normal_lon_deg", 0 }, { "extent_m", 0 },
 };
 
 /* A number column in [lo, hi], or dflt when empty and allowed. */
@@ -444,8 +447,9 @@ target_row(const struct csv *c, const struct csv_table *t,
     struct import_report *rep, void *rec)
 {
 	struct site_target *tg = rec;
+	double cubes;
 
-	memset(tg, 0, sizeof *tg);
+	site_target_init(tg);
 	if (row_ident(c, t, TC_ID, tg->id, sizeof tg->id, 0, rep) ||
 	    row_text(c, t, TC_NAME, 0, tg->name, sizeof tg->name, rep) ||
 	    row_ident(c, t, TC_ALIAS, tg->alias, sizeof tg->alias, 1, rep) ||
@@ -456,8 +460,22 @@ target_row(const struct csv *c, const struct csv_table *t,
 	    row_real(c, t, TC_STRENGTH, 1e-6, 1000, 1.0, rep,
 	    &tg->strength) ||
 	    row_bool(c, t, TC_DARK, 0, rep, &tg->dark_only) ||
-	    row_bool(c, t, TC_ACTIVE, 1, rep, &tg->active))
+	    row_bool(c, t, TC_ACTIVE, 1, rep, &tg->active) ||
+	    row_real(c, t, TC_CUBES, 1, 100000, SITE_DEFAULT_CUBES, rep,
+	    &cubes) ||
+	    row_real(c, t, TC_CUBE_MM, 0.1, 5000, SITE_DEFAULT_CUBE_MM, rep,
+	    &tg->cube_aperture_mm) ||
+	    row_real(c, t, TC_NLAT, -90, 90, NAN, rep, &tg->normal_lat_deg) ||
+	    row_real(c, t, TC_NLON, -180, 360, NAN, rep,
+	    &tg->normal_lon_deg) ||
+	    row_real(c, t, TC_EXTENT, 0, 100, NAN, rep, &tg->extent_m))
 		return -1;
+	if (cubes != floor(cubes)) {
+		import_err(rep, c->rec_line, "cube_count", "%g is not a whole "
+		    "number", cubes);
+		return -1;
+	}
+	tg->cube_count = (long)cubes;
 	if (tg->name[0] == '\0') {
 		import_err(rep, c->rec_line, "name", "empty; a name is "
 		    "required");

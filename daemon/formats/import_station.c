@@ -62,6 +62,24 @@ static const struct import_key station_keys[] = {
 	    "zenith optical depth at the laser wavelength (one way)"),
 	KEY("laser", "fire_rate_hz", IMPORT_KEY_REAL, 0.1, 100000, 0, 10.0,
 	    "shots per second"),
+	KEY("laser", "pulse_energy_mj", IMPORT_KEY_REAL, 0.001, 100000, 0,
+	    100.0, "energy of one pulse leaving the laser, millijoules (link "
+	    "budget)"),
+	KEY("telescope", "aperture_m", IMPORT_KEY_REAL, 0.01, 50, 0, 1.0,
+	    "receive aperture diameter, metres (link budget)"),
+	KEY("telescope", "transmit_efficiency", IMPORT_KEY_REAL, 0.001, 1, 0,
+	    0.5, "share of the pulse leaving the telescope (link budget)"),
+	KEY("telescope", "receive_efficiency", IMPORT_KEY_REAL, 0.001, 1, 0,
+	    0.1, "share of collected light reaching the detector, filter "
+	    "included (link budget)"),
+	KEY("detector", "quantum_efficiency", IMPORT_KEY_REAL, 0.001, 1, 0,
+	    0.3, "detector quantum efficiency at the laser wavelength (link "
+	    "budget)"),
+	KEY("detector", "jitter_ps", IMPORT_KEY_REAL, 0.1, 1000000, 0, NAN,
+	    "single-photon timing jitter (RMS), picoseconds; set, it weights "
+	    "normal points by their expected precision"),
+	KEY("site", "seeing_arcsec", IMPORT_KEY_REAL, 0.1, 60, 0, 1.5,
+	    "typical seeing (FWHM), arcseconds: sets the uplink divergence"),
 };
 
 #define NKEYS (sizeof station_keys / sizeof station_keys[0])
@@ -120,6 +138,18 @@ key_real(struct site_station *st, size_t k)
 		{ "zenith_tau", offsetof(struct site_station, zenith_tau) },
 		{ "fire_rate_hz", offsetof(struct site_station,
 		    fire_rate_hz) },
+		{ "pulse_energy_mj", offsetof(struct site_station,
+		    pulse_energy_mj) },
+		{ "aperture_m", offsetof(struct site_station, aperture_m) },
+		{ "transmit_efficiency", offsetof(struct site_station,
+		    transmit_eff) },
+		{ "receive_efficiency", offsetof(struct site_station,
+		    receive_eff) },
+		{ "quantum_efficiency", offsetof(struct site_station,
+		    detector_qe) },
+		{ "jitter_ps", offsetof(struct site_station, jitter_ps) },
+		{ "seeing_arcsec", offsetof(struct site_station,
+		    seeing_arcsec) },
 	};
 
 	for (size_t i = 0; i < sizeof map / sizeof map[0]; i++)
@@ -164,7 +194,8 @@ import_station_keys_doc(struct mbuf *out)
 		if (key->required)
 			mbuf_puts(out, " | required");
 		else if (isnan(key->def))
-			mbuf_puts(out, " | derived");
+			mbuf_puts(out, strcmp(key->section, "weather") == 0 ?
+			    " | derived" : " | none");
 		else
 			mbuf_printf(out, " | %g", key->def);
 		mbuf_printf(out, " | %s |\n", key->help);

@@ -113,8 +113,8 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 		bad |= set(o, "coverage_k", render_json_num(r->settings.k, 4));
 		bad |= set(o, "coverage_per_target",
 		    json_boolean(r->settings.per_target));
-		bad |= set(o, "base_rate", render_json_num(r->model.base_rate,
-		    9));
+		bad |= set(o, "base_efficiency",
+		    render_json_num(r->model.base_efficiency, 9));
 		bad |= set(o, "base_sunlit_factor",
 		    render_json_num(r->model.base_sunlit, 6));
 		bad |= set(o, "attempts_used",
@@ -138,8 +138,15 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 			bad |= set(a2, "id", json_string(m->id));
 			bad |= set(a2, "strength", render_json_num(m->strength,
 			    4));
-			bad |= set(a2, "returns_per_shot_zenith",
+			bad |= set(a2, "returns_per_shot_above_atmosphere",
 			    render_json_num(m->y.rate, 9));
+			bad |= set(a2, "returns_per_shot_at_zenith",
+			    render_json_num(m->y.rate *
+			    exp(-2.0 * st->zenith_tau), 9));
+			bad |= set(a2, "link_returns_per_shot",
+			    render_json_num(m->y.link_rate, 9));
+			bad |= set(a2, "efficiency",
+			    render_json_num(m->y.efficiency, 6));
 			bad |= set(a2, "prior_returns_per_shot",
 			    render_json_num(m->y.prior_rate, 9));
 			bad |= set(a2, "sunlit_factor",

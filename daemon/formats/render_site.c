@@ -12,6 +12,7 @@
 #include "formats/render_time.h"
 #include "core/attempt.h"
 #include "formats/render_site.h"
+#include "core/link.h"
 #include "core/tscale.h"
 
 /*
@@ -212,8 +213,13 @@ render_site_attempts_text(const struct site_attempt *a, size_t n,
 enum errcode
 render_site_station_json(const struct site_station *st, struct mbuf *out)
 {
-	json_t *root = json_pack("{s:s, s:s, s:o, s:o, s:o, s:s, s:o, s:o, "
-	    "s:o, s:o, s:o, s:o, s:o, s:o, s:o}",
+	struct link_station ls;
+	json_t *root;
+
+	site_station_link(st, &ls);
+	root = json_pack("{s:s, s:s, s:o, s:o, s:o, s:s, s:o, s:o, "
+	    "s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, s:o, "
+	    "s:o}",
 	    "name", st->name,
 	    "code", st->code,
 	    "lat_deg", render_json_num(st->lat_deg, 7),
@@ -228,7 +234,14 @@ render_site_station_json(const struct site_station *st, struct mbuf *out)
 	    "humidity", render_json_num(st->humidity, 3),
 	    "wavelength_nm", render_json_num(st->wavelength_nm, 3),
 	    "zenith_tau", render_json_num(st->zenith_tau, 4),
-	    "fire_rate_hz", render_json_num(st->fire_rate_hz, 3));
+	    "fire_rate_hz", render_json_num(st->fire_rate_hz, 3),
+	    "pulse_energy_mj", render_json_num(ls.pulse_energy_j * 1e3, 3),
+	    "aperture_m", render_json_num(ls.aperture_m, 3),
+	    "transmit_efficiency", render_json_num(ls.transmit_eff, 4),
+	    "receive_efficiency", render_json_num(ls.receive_eff, 4),
+	    "quantum_efficiency", render_json_num(ls.detector_qe, 4),
+	    "seeing_arcsec", render_json_num(ls.seeing_arcsec, 3),
+	    "jitter_ps", render_json_num(st->jitter_ps, 2));
 
 	return finish(root, 0, out);
 }
@@ -236,6 +249,9 @@ render_site_station_json(const struct site_station *st, struct mbuf *out)
 enum errcode
 render_site_station_text(const struct site_station *st, struct mbuf *out)
 {
+	struct link_station ls;
+
+	site_station_link(st, &ls);
 	mbuf_printf(out, "%s (%s)\n", st->name, st->code);
 	mbuf_printf(out, "  %-22s %.6f, %.6f deg, %.1f m (WGS84)\n", "position",
 	    st->lat_deg, st->lon_deg, st->height_m);
@@ -251,6 +267,15 @@ render_site_station_text(const struct site_station *st, struct mbuf *out)
 	    st->humidity * 100.0);
 	mbuf_printf(out, "  %-22s %.1f nm, %.1f Hz, zenith tau %.3f\n", "laser",
 	    st->wavelength_nm, st->fire_rate_hz, st->zenith_tau);
+	mbuf_printf(out, "  %-22s %.1f mJ, %.2f m aperture, efficiencies "
+	    "%.2f out, %.2f in, QE %.2f\n", "link budget",
+	    ls.pulse_energy_j * 1e3, ls.aperture_m, ls.transmit_eff,
+	    ls.receive_eff, ls.detector_qe);
+	mbuf_printf(out, "  %-22s %.2f arcsec\n", "typical seeing",
+	    ls.seeing_arcsec);
+	if (isfinite(st->jitter_ps))
+		mbuf_printf(out, "  %-22s %.1f ps\n", "timing jitter",
+		    st->jitter_ps);
 	return mbuf_status(out);
 }
 
@@ -263,9 +288,14 @@ render_site_targets_json(const struct site_target *t, size_t n,
 	json_t *arr, *root = wrapper("targets", &arr);
 	int failed = root == NULL;
 
-	for (size_t i = 0; i < n && !failed; i++)
+	for (size_t i = 0; i < n && !failed; i++) {
+		struct link_target lt;
+		double nlat, nlon, ext;
+
+		site_target_link(&t[i], &lt);
+		site_target_array(&t[i], &nlat, &nlon, &ext);
 		failed = json_array_append_new(arr, json_pack("{s:s, s:s, s:s, "
-		    "s:o, s:o, s:o, s:o, s:b, s:b}",
+		    "s:o, s:o, s:o, s:o, s:b, s:b, s:I, s:o, s:o, s:o, s:o}",
 		    "id", t[i].id,
 		    "name", t[i].name,
 		    "alias", t[i].alias,
@@ -274,7 +304,14 @@ render_site_targets_json(const struct site_target *t, size_t n,
 		    "height_m", render_json_num(t[i].height_m, 2),
 		    "strength", render_json_num(t[i].strength, 4),
 		    "dark_only", t[i].dark_only,
-		    "active", t[i].active)) != 0;
+		    "active", t[i].active,
+		    "cube_count", (json_int_t)lt.cube_count,
+		    "cube_aperture_mm", render_json_num(lt.cube_aperture_m * 1e3,
+		    2),
+		    "normal_lat_deg", render_json_num(nlat, 4),
+		    "normal_lon_deg", render_json_num(nlon, 4),
+		    "extent_m", render_json_num(ext, 3))) != 0;
+	}
 	return finish(root, failed, out);
 }
 

@@ -118,13 +118,16 @@ sqlite_setup(void)
 
 #define STATION_COLS "name, code, lat_deg, lon_deg, height_m, time_zone, " \
 	"min_el_deg, max_sun_el_deg, min_sun_sep_deg, pressure_hpa, " \
-	"temperature_c, humidity, wavelength_nm, zenith_tau, fire_rate_hz"
+	"temperature_c, humidity, wavelength_nm, zenith_tau, fire_rate_hz, " \
+	"pulse_energy_mj, aperture_m, transmit_eff, receive_eff, detector_qe, " \
+	"seeing_arcsec, jitter_ps"
 #define TARGET_COLS "id, name, alias, lat_deg, lon_deg, height_m, " \
-	"strength, dark_only, active"
+	"strength, dark_only, active, cube_count, cube_aperture_mm, " \
+	"normal_lat_deg, normal_lon_deg, extent_m"
 #define ATTEMPT_COLS "id, target_id, start_mjd, end_mjd, shots, returns, " \
 	"normal_points, outcome, operator, seeing_arcsec, notes, " \
 	"synodic_deg, mean_elong_deg, target_el_deg, sun_el_target_deg, " \
-	"suspect"
+	"suspect, range_km"
 #define NP_COLS "id, target_id, station_code, epoch_mjd, tof_s, photons, " \
 	"rms_ps, synodic_deg, mean_elong_deg, target_el_deg, " \
 	"sun_el_target_deg"
@@ -142,7 +145,7 @@ static const char *const stmt_sql[ST__COUNT] = {
 	[ST_STATION_GET] = "SELECT " STATION_COLS " FROM station WHERE id = 1",
 	[ST_STATION_PUT] = "INSERT INTO station (id, " STATION_COLS ") VALUES "
 	    "(1, ?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, "
-	    "?15) ON CONFLICT (id) DO UPDATE SET name = excluded.name, "
+	    "?15, ?16, ?17, ?18, ?19, ?20, ?21, ?22) ON CONFLICT (id) DO UPDATE SET name = excluded.name, "
 	    "code = excluded.code, lat_deg = excluded.lat_deg, "
 	    "lon_deg = excluded.lon_deg, height_m = excluded.height_m, "
 	    "time_zone = excluded.time_zone, min_el_deg = excluded.min_el_deg, "
@@ -153,12 +156,21 @@ static const char *const stmt_sql[ST__COUNT] = {
 	    "humidity = excluded.humidity, "
 	    "wavelength_nm = excluded.wavelength_nm, "
 	    "zenith_tau = excluded.zenith_tau, "
-	    "fire_rate_hz = excluded.fire_rate_hz",
+	    "fire_rate_hz = excluded.fire_rate_hz, "
+	    "pulse_energy_mj = excluded.pulse_energy_mj, "
+	    "aperture_m = excluded.aperture_m, "
+	    "transmit_eff = excluded.transmit_eff, "
+	    "receive_eff = excluded.receive_eff, "
+	    "detector_qe = excluded.detector_qe, "
+	    "seeing_arcsec = excluded.seeing_arcsec, "
+	    "jitter_ps = excluded.jitter_ps",
 	[ST_TARGET_ADD] = "INSERT INTO targets (" TARGET_COLS ") VALUES "
-	    "(?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9)",
+	    "(?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14)",
 	[ST_TARGET_UPDATE] = "UPDATE targets SET name = ?2, alias = ?3, "
 	    "lat_deg = ?4, lon_deg = ?5, height_m = ?6, strength = ?7, "
-	    "dark_only = ?8, active = ?9 WHERE id = ?1",
+	    "dark_only = ?8, active = ?9, cube_count = ?10, "
+	    "cube_aperture_mm = ?11, normal_lat_deg = ?12, normal_lon_deg = ?13, "
+	    "extent_m = ?14 WHERE id = ?1",
 	[ST_TARGET_GET] = "SELECT " TARGET_COLS " FROM targets WHERE id = ?1",
 	[ST_TARGET_ALIAS] = "SELECT " TARGET_COLS " FROM targets "
 	    "WHERE alias = ?1 OR id = ?1 ORDER BY alias = ?1 DESC LIMIT 1",
@@ -173,9 +185,10 @@ static const char *const stmt_sql[ST__COUNT] = {
 	[ST_ATTEMPT_ADD] = "INSERT INTO attempts (target_id, start_utc, "
 	    "start_mjd, end_utc, end_mjd, shots, returns, normal_points, "
 	    "outcome, operator, seeing_arcsec, notes, synodic_deg, "
-	    "mean_elong_deg, target_el_deg, sun_el_target_deg, suspect) VALUES "
+	    "mean_elong_deg, target_el_deg, sun_el_target_deg, suspect, "
+	    "range_km) VALUES "
 	    "(?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12, ?13, ?14, ?15, "
-	    "?16, ?17)",
+	    "?16, ?17, ?18)",
 	[ST_ATTEMPT_GET] = "SELECT " ATTEMPT_COLS " FROM attempts WHERE id = ?1",
 	[ST_ATTEMPTS_LIST] = "SELECT " ATTEMPT_COLS " FROM attempts"
 	    ATTEMPT_WHERE ORDER_BY("start_mjd"),

@@ -89,6 +89,7 @@ row_attempt(sqlite3_stmt *st, void *dst)
 	o->target_el_deg = sqlite3_column_double(st, 13);
 	o->sun_el_target_deg = sqlite3_column_double(st, 14);
 	o->suspect = (unsigned)sqlite3_column_int(st, 15);
+	o->range_km = store_col_real_or_nan(st, 16);
 }
 
 /*
@@ -160,6 +161,8 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	store_bind_real_or_null(st, 15, a->target_el_deg);
 	store_bind_real_or_null(st, 16, a->sun_el_target_deg);
 	sqlite3_bind_int(st, 17, (int)a->suspect);
+	/* 0 (a record never derived) is no range. */
+	store_bind_real_or_null(st, 18, a->range_km > 0.0 ? a->range_km : NAN);
 	e = store_step_done(s, st, what, errbuf, errlen);
 	if (e == ERRCODE_EXISTS)
 		(void)text_err(ERRCODE_OK, errbuf, errlen,

@@ -38,6 +38,20 @@ row_station(sqlite3_stmt *st, void *dst)
 	o->wavelength_nm = sqlite3_column_double(st, 12);
 	o->zenith_tau = sqlite3_column_double(st, 13);
 	o->fire_rate_hz = sqlite3_column_double(st, 14);
+	o->pulse_energy_mj = store_col_real_or_nan(st, 15);
+	o->aperture_m = store_col_real_or_nan(st, 16);
+	o->transmit_eff = store_col_real_or_nan(st, 17);
+	o->receive_eff = store_col_real_or_nan(st, 18);
+	o->detector_qe = store_col_real_or_nan(st, 19);
+	o->seeing_arcsec = store_col_real_or_nan(st, 20);
+	o->jitter_ps = store_col_real_or_nan(st, 21);
+}
+
+/* A physics value: a positive number, else NULL (the default). */
+static void
+bind_positive(sqlite3_stmt *st, int i, double v)
+{
+	store_bind_real_or_null(st, i, (isfinite(v) && v > 0.0) ? v : NAN);
 }
 
 enum errcode
@@ -82,6 +96,13 @@ store_station_put(struct store *s, const struct site_station *o,
 	store_bind_real_or_null(st, 13, o->wavelength_nm);
 	store_bind_real_or_null(st, 14, o->zenith_tau);
 	store_bind_real_or_null(st, 15, o->fire_rate_hz);
+	bind_positive(st, 16, o->pulse_energy_mj);
+	bind_positive(st, 17, o->aperture_m);
+	bind_positive(st, 18, o->transmit_eff);
+	bind_positive(st, 19, o->receive_eff);
+	bind_positive(st, 20, o->detector_qe);
+	bind_positive(st, 21, o->seeing_arcsec);
+	bind_positive(st, 22, o->jitter_ps);
 	return store_step_done(s, st, "station", errbuf, errlen);
 }
 
@@ -101,6 +122,12 @@ row_target(sqlite3_stmt *st, void *dst)
 	o->strength = sqlite3_column_double(st, 6);
 	o->dark_only = sqlite3_column_int(st, 7);
 	o->active = sqlite3_column_int(st, 8);
+	o->cube_count = sqlite3_column_type(st, 9) == SQLITE_NULL ? 0 :
+	    (long)sqlite3_column_int64(st, 9);
+	o->cube_aperture_mm = store_col_real_or_nan(st, 10);
+	o->normal_lat_deg = store_col_real_or_nan(st, 11);
+	o->normal_lon_deg = store_col_real_or_nan(st, 12);
+	o->extent_m = store_col_real_or_nan(st, 13);
 }
 
 static void
@@ -115,6 +142,14 @@ bind_target(sqlite3_stmt *st, const struct site_target *t)
 	store_bind_real_or_null(st, 7, t->strength);
 	sqlite3_bind_int(st, 8, t->dark_only);
 	sqlite3_bind_int(st, 9, t->active);
+	if (t->cube_count > 0)
+		sqlite3_bind_int64(st, 10, t->cube_count);
+	else
+		sqlite3_bind_null(st, 10);
+	bind_positive(st, 11, t->cube_aperture_mm);
+	store_bind_real_or_null(st, 12, t->normal_lat_deg);
+	store_bind_real_or_null(st, 13, t->normal_lon_deg);
+	store_bind_real_or_null(st, 14, t->extent_m);
 }
 
 enum errcode

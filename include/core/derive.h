@@ -24,6 +24,8 @@ struct derive_angles {
 					   at the station, -90..90 */
 	double sun_el_target_deg;	/* Sun above the target's lunar
 					   horizon, -90..90 */
+	double range_km;		/* station to target (stored with
+					   attempts, for the R^-4 law) */
 };
 
 /*

@@ -172,6 +172,12 @@ double fast_target_el(const struct fast_track *ft,
     const struct fast_frame *f, const struct geom_target *t,
     double *sun_el, double *dark);
 
+/* A lunar target in a frame with FAST_LUNAR: topo, the station-to-target
+   vector (ITRS, m), radial, the target from the Moon's centre (GCRS, m);
+   returns the range |topo|. */
+double fast_target_topo(const struct fast_frame *f,
+    const struct geom_target *t, double topo[3], double radial[3]);
+
 /* Synodic angle at offset t, rad, unwrapped along the track (as
    geom_synodic_of on the fitted bodies). */
 double fast_synodic(const struct fast_track *ft, double t);

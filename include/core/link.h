@@ -69,7 +69,8 @@ struct link_target {
 
 /*
  * Station and target defaults (documented in README "Link budget"):
- * 100 mJ, 532 nm, eta_t 0.5, eta_r 0.3, 1.0 m, QE 0.3, seeing 1.5";
+ * 100 mJ, 532 nm, eta_t 0.5, eta_r 0.1 (with the narrow-band filter and
+ * the detector's coupling), 1.0 m, QE 0.3, seeing 1.5" (common practice);
  * 100 cubes of 38 mm, rho LINK_REFLECTANCE.
  */
 void link_station_default(struct link_station *s);

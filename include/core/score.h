@@ -14,12 +14,18 @@
 /*
  * Expected yield rate of target j at time t (returns per second):
  *
- *   R_j(t) = q * r_j * exp(-2 tau X(h(t))) * (f_j if sunlit else 1)
+ *   R_j(t) = q * r_j * exp(-2 tau X(h(t))) * (R0 / R(t))^4
+ *            * (f_j if sunlit else 1)
  *
- * q the fire rate (shots/s), r_j returns per shot at the zenith in
- * lunar darkness, f_j the sunlit/dark factor, tau the zenith optical
- * depth (one way), X the Kasten & Young airmass at the target's
- * elevation h.  Coverage weight of synodic-angle bin b:
+ * q the fire rate (shots/s), r_j returns per shot above the atmosphere
+ * at the mean distance R0 (LINK_R0), in the station's typical seeing and
+ * in lunar darkness (in the Earth's umbra a target is dark), f_j the
+ * sunlit/dark factor, tau the zenith optical depth (one way), X the
+ * Kasten & Young airmass at the target's elevation h, R(t) the range.
+ * The true zenith rate at R0 is r_j exp(-2 tau).  r_j = e_j n_j: n_j the
+ * link-equation prior (core/link.h) times the target's strength, e_j its
+ * efficiency learned from the log.  Coverage weight of synodic-angle bin
+ * b:
  *
  *   W(b) = ((nbar + k) / (n_b + k))^alpha
  *
@@ -36,17 +42,16 @@ struct score_settings {
 	double alpha;		/* coverage-weight exponent, 0..4; 0 = off */
 	double k;		/* smoothing count, > 0 */
 	int per_target;		/* 1: n_b of the target; 0: pooled */
-	double prior_rate;	/* returns per shot at zenith, dark, for
-				   strength 1 with no history */
 	double prior_sunlit;	/* sunlit/dark factor with no history */
-	double prior_exposure;	/* prior weight, transmission-weighted shots */
+	double prior_weight;	/* weight of each gamma prior, in expected
+				   returns (pseudo-exposure) */
 	double step_s;		/* quadrature: parts of a window are at most
 				   60 step_s long (8 Gauss-Legendre nodes
 				   each), s */
 };
 
-/* Defaults: 12 bins, alpha 1, k 1, pooled, prior rate 1e-3, prior
-   sunlit factor 0.5, prior exposure 2e4 shots, step 120 s. */
+/* Defaults: 12 bins, alpha 1, k 1, pooled, prior sunlit factor 0.5,
+   prior weight 20 expected returns, step 120 s. */
 void score_settings_default(struct score_settings *s);
 
 /* ERRCODE_BAD_ARG when a field is out of range; *field names it. */
@@ -79,16 +84,21 @@ double score_transmission(double tau, double el_rad);
 /* --- the yield model --- */
 
 struct score_yield {
-	double rate;		/* r_j, returns per shot at zenith, dark */
+	double rate;		/* r_j, returns per shot above the atmosphere,
+				   R0, typical seeing, dark */
 	double sunlit_factor;	/* f_j */
-	double prior_rate;	/* the prior mean of r_j (strength x base) */
-	double dark_returns, dark_exposure;	/* sums over the log */
+	double link_rate;	/* n_j, the link-equation prior of r_j */
+	double efficiency;	/* e_j = r_j / n_j */
+	double prior_rate;	/* the prior mean of r_j (n_j x base) */
+	double dark_returns, dark_exposure;	/* sums over the log; exposure
+				   in shots x T x (R0/R)^4 x seeing factor */
 	double lit_returns, lit_exposure;
 	long attempts;		/* attempts used */
 };
 
 struct score_model {
-	double base_rate;	/* pooled rate per unit strength */
+	double base_efficiency;	/* pooled efficiency against the link
+				   equation (prior 1) */
 	double base_sunlit;	/* pooled sunlit factor */
 	long attempts_used, attempts_skipped;
 };
@@ -98,10 +108,10 @@ struct score_model {
  *
  * Given:
  *   s          settings (priors)
- *   tau        zenith optical depth at the laser wavelength, one way
- *   targets    nt targets (their strength sets the prior)
- *   att        na attempts (target_el_deg and sun_el_target_deg at the
- *              mid-time, as the store computes them)
+ *   st         station: zenith_tau and the link budget (site_station_link)
+ *   targets    nt targets (cubes and strength set the prior)
+ *   att        na attempts (target_el_deg, sun_el_target_deg and
+ *              range_km at the mid-time, as the store computes them)
  * Returned:
  *   yield      nt entries, in the order of targets
  *   model      the pooled quantities
@@ -111,26 +121,46 @@ struct score_model {
  *   1. Attempts used: outcome ranged or no_returns, shots > 0, target
  *      elevation above 0; others (weather, technical, safety, other) say
  *      nothing about the target and are skipped.  Exposure of an attempt
- *      E = shots exp(-2 tau X(h)); it is dark when the Sun is below the
- *      target's horizon, else sunlit.
- *   2. Gamma-Poisson shrinkage, prior weight E0 = prior_exposure:
- *        base = (prior_rate E0 + sum R_dark) / (E0 + sum s_j E_dark,j)
- *        r_j  = (s_j base E0 + R_dark,j) / (E0 + E_dark,j)
- *        fbase = (prior_sunlit E0 + sum R_lit,j / r_j) / (E0 + sum E_lit,j)
- *        f_j  = (fbase E0 + R_lit,j / r_j) / (E0 + E_lit,j)
- *      Each is the posterior mean of a Poisson rate under a gamma prior
- *      with that mean and E0 shots of weight; as exposure grows the
- *      estimate tends to the observed rate.
+ *      E = shots exp(-2 tau X(h)) (theta_0/theta)^2 (R0/R)^4, theta its
+ *      seeing (the station's typical theta_0 when not logged), R its
+ *      range (R0 when not stored): the link equation's scaling laws
+ *      (link_rate_factor).  It is dark when the Sun is below the target's
+ *      horizon, else sunlit.
+ *   2. n_j = strength_j x link_photoelectrons(station, target, R0, 1).
+ *      Gamma-Poisson shrinkage, prior weight w = prior_weight (in
+ *      expected returns at efficiency 1):
+ *        base = (w + sum R_dark) / (w + sum n_j E_dark,j)
+ *        e_j  = (base w + R_dark,j) / (w + n_j E_dark,j),  r_j = e_j n_j
+ *        fbase = (prior_sunlit w + sum R_lit,j) / (w + sum r_j E_lit,j)
+ *        f_j  = (fbase w + R_lit,j) / (w + r_j E_lit,j)
+ *      Each is the posterior mean of a Poisson rate factor under a gamma
+ *      prior with that mean and w of weight: the efficiency is shrunk
+ *      toward the station's pooled efficiency, itself shrunk toward 1
+ *      (the link equation as it stands); as exposure grows the estimate
+ *      tends to the observed one.
  * Called:
- *   score_transmission
+ *   score_transmission, link_photoelectrons, link_rate_factor,
+ *   site_station_link, site_target_link
  */
-enum errcode score_fit(const struct score_settings *s, double tau,
-    const struct site_target *targets, size_t nt,
-    const struct site_attempt *att, size_t na, struct score_yield *yield,
-    struct score_model *model);
+enum errcode score_fit(const struct score_settings *s,
+    const struct site_station *st, const struct site_target *targets,
+    size_t nt, const struct site_attempt *att, size_t na,
+    struct score_yield *yield, struct score_model *model);
 
-/* R_j(t) = q r_j T (f_j if sunlit else 1), returns per second, given the
-   two-way transmission T = exp(-2 tau X(h)) at the target's elevation. */
+/*
+ * The range and seeing factor of a rate relative to the mean distance
+ * and the station's typical seeing (link_rate_factor with the station's
+ * link budget); NaN seeing is the typical one, NaN or <= 0 range is R0.
+ */
+double score_link_factor(const struct site_station *st, double seeing_arcsec,
+    double range_m);
+
+/* (R0 / R)^4 at range R (m); 1 for a range that is not positive. */
+double score_range_factor(double range_m);
+
+/* R_j(t) = q r_j T (f_j if sunlit else 1), returns per second, given
+   T = exp(-2 tau X(h)) (R0/R)^4: the two-way transmission at the target's
+   elevation times the range factor (score_range_factor). */
 double score_rate(double fire_rate_hz, const struct score_yield *y,
     double transmission, int sunlit);
 
@@ -174,6 +204,7 @@ struct score_window {
 	double sunlit_fraction;		/* share of the time sunlit */
 	double mean_airmass;		/* time mean of X */
 	double mean_transmission;	/* time mean of exp(-2 tau X) */
+	double mean_range_factor;	/* time mean of (R0 / R)^4 */
 	double expected_returns;	/* integral of R dt */
 	double score;			/* integral of R W dt */
 };
@@ -210,11 +241,14 @@ struct score_params {
  *      (fast_frame_at): only what the integrand reads is computed.
  *   3. The maximum elevation is refined by golden section to 1 s around
  *      the best node.
+ *   4. The rate carries (R0/R)^4 at each node, R the target's range
+ *      (fast_target_topo); mean_range_factor is its time mean.
  * References:
  *   Abramowitz & Stegun (1964), 25.4.30 and table 25.4.
  * Called:
- *   fast_frame_at, fast_elevation, fast_target_el, window_track_synodic,
- *   geom_root_illinois, score_airmass, score_coverage_weight, eraAnp
+ *   fast_frame_at, fast_elevation, fast_target_el, fast_target_topo,
+ *   window_track_synodic, geom_root_illinois, score_airmass,
+ *   score_coverage_weight, score_range_factor, eraAnp
  */
 enum errcode score_window(const struct score_params *p,
     const struct score_target *t, const struct window *w,

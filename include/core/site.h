@@ -38,6 +38,15 @@ struct site_station {
 	double zenith_tau;		/* zenith optical depth at the laser
 					   wavelength (one way) */
 	double fire_rate_hz;		/* shots per second */
+	/* the link budget (core/link.h); NaN or <= 0: the documented
+	   default (site_station_link) */
+	double pulse_energy_mj;		/* laser pulse energy */
+	double aperture_m;		/* receive telescope diameter */
+	double transmit_eff, receive_eff; /* optics efficiencies, 0..1 */
+	double detector_qe;		/* detector quantum efficiency */
+	double seeing_arcsec;		/* typical seeing, FWHM */
+	double jitter_ps;		/* single-photon timing jitter (RMS);
+					   NaN: not set */
 };
 
 struct site_target {
@@ -49,6 +58,13 @@ struct site_target {
 	double strength;		/* relative return strength, > 0 */
 	int dark_only;			/* plan only when the target is dark */
 	int active;			/* 0 = retired */
+	/* reflector physics; <= 0 or NaN: the documented default
+	   (site_target_link, site_target_array) */
+	long cube_count;		/* corner cubes; 1 = a single reflector */
+	double cube_aperture_mm;	/* aperture of each (or of the one) */
+	double normal_lat_deg, normal_lon_deg; /* array normal, selenographic
+					   direction; NaN: +x (0, 0) */
+	double extent_m;		/* panel extent along its face */
 };
 
 struct site_blackout {
@@ -84,6 +100,7 @@ struct site_attempt {
 	double target_el_deg, sun_el_target_deg;
 	unsigned suspect;		/* ATTEMPT_SUSPECT_* bits (attempt.h):
 					   stored, left out of the yield */
+	double range_km;		/* station to target; NaN if unknown */
 };
 
 struct site_normal_point {
@@ -104,6 +121,28 @@ struct site_eop_row {
 	double dut1_s;			/* UT1-UTC */
 	double xp_arcsec, yp_arcsec;	/* polar motion */
 };
+
+/* Documented defaults of the reflector fields (README "Link budget"):
+   100 cubes of 38 mm, normal +x, extent 0.5 m (a single reflector,
+   cube_count 1, has no extent: it does not spread the pulse). */
+#define SITE_DEFAULT_CUBES 100
+#define SITE_DEFAULT_CUBE_MM 38.0
+#define SITE_DEFAULT_EXTENT_M 0.5
+
+/* A new target record: zeroed, strength 1, active, physics defaults. */
+void site_target_init(struct site_target *t);
+
+/* The resolved array of a target: normal (selenographic, deg) and extent
+   (m; 0 for a single reflector). */
+void site_target_array(const struct site_target *t, double *normal_lat_deg,
+    double *normal_lon_deg, double *extent_m);
+
+struct link_station;
+struct link_target;
+/* The link-budget view of a station and of a target (defaults filled). */
+void site_station_link(const struct site_station *st,
+    struct link_station *out);
+void site_target_link(const struct site_target *t, struct link_target *out);
 
 /* Names of the outcome values as stored and accepted on input. */
 const char *site_outcome_name(enum site_outcome o);

@@ -142,7 +142,8 @@ enum errcode import_station_ini(const char *buf, size_t len,
  * writes, so that export and import round-trip.
  */
 #define IMPORT_TARGETS_COLUMNS \
-	"id,name,alias,lat_deg,lon_deg,height_m,strength,dark_only,active"
+	"id,name,alias,lat_deg,lon_deg,height_m,strength,dark_only,active," \
+	"cube_count,cube_aperture_mm,normal_lat_deg,normal_lon_deg,extent_m"
 #define IMPORT_ATTEMPTS_COLUMNS \
 	"target,start_utc,end_utc,shots,returns,normal_points,outcome," \
 	"operator,seeing_arcsec,notes"
