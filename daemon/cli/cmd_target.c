@@ -128,9 +128,16 @@ target_change(const struct cli_args *a, int retire)
 
 	if ((st = check_id(a)) != CLI_EXIT_OK)
 		return st;
-	edit_of(a, &e, !retire);
-	if (retire)
-		e.active = 0;
+	if (retire) {
+		/* retire has only --db: ask for no other option (the table
+		   asserts that an option read is one of the command's) */
+		struct target_edit none = {NULL, NULL, NAN, NAN, NAN, NAN, -1,
+		    0};
+
+		e = none;
+	} else {
+		edit_of(a, &e, 1);
+	}
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
 		return st;
 	if ((rc = store_target_get(c.s, a->ops[0], &t, err, sizeof err)))
