@@ -70,6 +70,8 @@ struct web_conn {
 	struct mbuf body;
 	size_t total;			/* bytes received, kept or not */
 	int too_large;			/* over API_BODY_MAX: stop keeping */
+	const char *bad_field;		/* a header refused (framing), or NULL */
+	const char *bad_msg;
 	int started;			/* the first callback has run */
 	struct timespec t0;
 };
@@ -428,6 +430,42 @@ sock_mark(struct web_server *s, struct MHD_Connection *conn, int busy)
 	pthread_mutex_unlock(&s->sock_lock);
 }
 
+/* Count the Host headers of a request (MHD_KeyValueIterator). */
+static enum MHD_Result
+count_host(void *cls, enum MHD_ValueKind kind, const char *key,
+    const char *value)
+{
+	(void)kind;
+	(void)value;
+	if (strcasecmp(key, MHD_HTTP_HEADER_HOST) == 0)
+		(*(int *)cls)++;
+	return MHD_YES;
+}
+
+/*
+ * Headers that make a request ambiguous (RFC 9112 3.2, 6.3): not exactly
+ * one Host, or both Transfer-Encoding and Content-Length (a proxy in
+ * front could read another body length than libmicrohttpd).  Sets
+ * wc->bad_field and wc->bad_msg.
+ */
+static void
+check_framing(struct MHD_Connection *conn, struct web_conn *wc)
+{
+	int hosts = 0;
+
+	MHD_get_connection_values(conn, MHD_HEADER_KIND, count_host, &hosts);
+	if (hosts > 1) {
+		wc->bad_field = "Host";
+		wc->bad_msg = "more than one Host header";
+	} else if (MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_TRANSFER_ENCODING) != NULL &&
+	    MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
+	    MHD_HTTP_HEADER_CONTENT_LENGTH) != NULL) {
+		wc->bad_field = "Content-Length";
+		wc->bad_msg = "both Content-Length and Transfer-Encoding";
+	}
+}
+
 static enum MHD_Result
 on_request(void *cls, struct MHD_Connection *conn, const char *url,
     const char *method, const char *version, const char *upload_data,
@@ -452,10 +490,14 @@ on_request(void *cls, struct MHD_Connection *conn, const char *url,
 		*con_cls = wc;
 		sock_mark(s, conn, 1);	/* headers complete */
 		atomic_fetch_add(&s->inflight, 1);
-		/* A declared length over the cap is refused before reading. */
+		/* A declared length over the cap is refused before reading,
+		   and so is an ambiguous request. */
 		cl = MHD_lookup_connection_value(conn, MHD_HEADER_KIND,
 		    MHD_HTTP_HEADER_CONTENT_LENGTH);
-		if (cl != NULL && strtoull(cl, NULL, 10) > API_BODY_MAX)
+		check_framing(conn, wc);
+		if (wc->bad_msg != NULL)
+			wc->too_large = 1;	/* keep none of the body */
+		else if (cl != NULL && strtoull(cl, NULL, 10) > API_BODY_MAX)
 			wc->too_large = 1;
 		else
 			return MHD_YES;
@@ -492,7 +534,10 @@ on_request(void *cls, struct MHD_Connection *conn, const char *url,
 		req.now1 = 2451545.0;	/* unreachable for a sane clock */
 		req.now2 = 0.0;
 	}
-	if (mbuf_status(&wc->body) != ERRCODE_OK) {
+	if (wc->bad_msg != NULL) {
+		api_response_init(&ar);
+		api_error(&ar, ERRCODE_BAD_ARG, wc->bad_field, wc->bad_msg);
+	} else if (mbuf_status(&wc->body) != ERRCODE_OK) {
 		api_response_init(&ar);
 		api_error(&ar, ERRCODE_NOMEM, NULL, NULL);
 	} else if (s->loopback && !web_host_is_local(

@@ -203,6 +203,10 @@ CASES = [
     ("unknown route", "GET", "/api/v2/status", None, 404, {}),
     ("Host of another site", "GET", "/api/v1/status", None, 400,
      {"host": b"evil.example"}),
+    ("second Host header", "GET", "/api/v1/status", None, 400,
+     {"auth": False, "extra": b"Host: evil.example\r\n"}),
+    ("Content-Length and chunked", "POST", P, att(), 400,
+     {"extra": b"Transfer-Encoding: chunked\r\n"}),
 ]
 
 before = sqlite3.connect(db).execute("SELECT count(*) FROM attempts").fetchone()[0]
