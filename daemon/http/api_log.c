@@ -1,6 +1,7 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* api_log.c: the ranging-log handlers: list, get and add attempts (the
    write path: token, JSON body, its members). */
+#include <limits.h>
 #include <math.h>
 #include <pthread.h>
 #include <stdio.h>
@@ -13,6 +14,7 @@
 
 #include "http/api.h"
 #include "http/api_int.h"
+#include "core/text.h"
 #include "formats/render_json.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
@@ -87,14 +89,16 @@ api_h_attempt_get(struct api_ctx *ctx, const struct api_request *req,
 {
 	const char *digits = strrchr(req->path, '/') + 1;
 	struct site_attempt a;
-	char err[300], *end;
+	char err[300];
 	long id;
 	enum errcode rc;
 
 	if (!api_store_open_ok(ctx, resp))
 		return;
-	id = strtol(digits, &end, 10);
-	rc = store_attempt_get(ctx->db, id, &a, err, sizeof err);
+	/* The route matched 1 to 18 digits. */
+	rc = text_parse_long(digits, 1, LONG_MAX, &id);
+	if (rc == ERRCODE_OK)
+		rc = store_attempt_get(ctx->db, id, &a, err, sizeof err);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, NULL, rc == ERRCODE_NOT_FOUND ?
 		    "no attempt with this id" : err);

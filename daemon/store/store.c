@@ -611,9 +611,10 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 			    "directory read-only?): %s", path, path,
 			    sqlite3_errmsg(s->db));
 		else
-			e = text_err(ERRCODE_DB, errbuf, errlen,
+			(void)text_err(ERRCODE_OK, errbuf, errlen,
 			    "'%s' is not a readable SQLite "
 			    "database: %s", path, sqlite3_errmsg(s->db));
+		e = ERRCODE_DB;
 		goto out;
 	}
 	if (!(flags & STORE_OPEN_READONLY) && !memory &&
@@ -859,7 +860,6 @@ setting_find(const char *key)
 static int
 setting_valid(const struct setting_def *d, const char *v, double *num)
 {
-	char *end;
 	double x;
 
 	if (v == NULL || *v == '\0' || strlen(v) > 20)
@@ -874,8 +874,7 @@ setting_valid(const struct setting_def *d, const char *v, double *num)
 	if (strspn(v, d->kind == SET_INT ? "0123456789" : "0123456789.") !=
 	    strlen(v) || v[0] == '.')
 		return 0;
-	x = strtod(v, &end);
-	if (*end != '\0' || !isfinite(x) || x < d->min || x > d->max ||
+	if (text_parse_real(v, d->min, d->max, &x) != ERRCODE_OK ||
 	    (d->min_open && x <= d->min))
 		return 0;
 	*num = x;
