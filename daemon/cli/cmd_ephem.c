@@ -11,6 +11,7 @@
 #include "core/eop.h"
 #include "core/text.h"
 #include "cli/cli_store.h"
+#include "core/array.h"
 #include "core/derive.h"
 #include "core/geom.h"
 #include "formats/render_time.h"
@@ -196,6 +197,9 @@ run(const struct cli_args *a)
 	for (size_t i = 0; i < ntargets; i++) {
 		rows[i].id = ids[i];
 		geom_target_view(&g, &targets[i], &rows[i].view);
+		array_of_target(&g, &targets[i], db != NULL ?
+		    cli_store_target(&cs, ids[i]) : NULL, &rows[i].tilt,
+		    &rows[i].spread_ps);
 	}
 	memset(&rep, 0, sizeof rep);
 	rep.g = &g;

@@ -126,6 +126,14 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 		bad |= set(o, "sunlit", json_boolean(v->sunlit));
 		bad |= set(o, "earth_elevation_deg",
 		    render_json_num(v->earth_elevation * R2D, 4));
+		bad |= set(o, "shadow",
+		    json_string(eclipse_shadow_name(v->shadow)));
+		bad |= set(o, "sun_visible_fraction",
+		    render_json_num(v->sun_visible, 4));
+		bad |= set(o, "tilt_deg",
+		    render_json_num(e->targets[i].tilt * R2D, 3));
+		bad |= set(o, "spread_ps",
+		    render_json_num(e->targets[i].spread_ps, 1));
 	}
 	if (bad) {
 		json_decref(root);

@@ -16,6 +16,7 @@
 #include "core/text.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
+#include "core/array.h"
 #include "core/derive.h"
 #include "core/eop.h"
 #include "core/geom.h"
@@ -181,6 +182,7 @@ api_h_now(struct api_ctx *ctx, const struct api_request *req,
 			continue;
 		rows[n].id = t->id;
 		geom_target_view(g, &gt, &rows[n].view);
+		array_of_target(g, &gt, t, &rows[n].tilt, &rows[n].spread_ps);
 		n++;
 	}
 	memset(&rep, 0, sizeof rep);

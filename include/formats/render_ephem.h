@@ -22,6 +22,8 @@
 struct render_target_row {
 	const char *id;
 	struct geom_target_view view;
+	double tilt;			/* array tilt to the line of sight, rad */
+	double spread_ps;		/* RMS pulse spread of the array, ps */
 };
 
 struct render_ephem {
