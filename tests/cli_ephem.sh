@@ -4,6 +4,7 @@
 # the JSON holds every documented field, bad input exits 2 with one line
 # naming the field, --help exits 0.
 # Exercises: daemon/cli/cmd_ephem.c daemon/cli/cmd_phases.c daemon/cli/cli.c
+#            daemon/cli/cmd_eclipses.c daemon/formats/render_eclipse.c
 #            daemon/formats/render.c
 set -u
 BIN=${1:-${MOONRANGE_BIN:?set MOONRANGE_BIN or pass the binary}}
@@ -199,8 +200,43 @@ expect_bad "'Eu?rope'" phases --tz $'Eu\xffrope'
 expect_bad "..." ephem --target "T1=$(printf '1%.0s' $(seq 1 5000))"
 [ "$(wc -c <"$TMP/err")" -le 600 ] || fail "a 5000-byte value gives a message of $(wc -c <"$TMP/err") bytes"
 
+# --- eclipses: the 2025-2030 list (count and kinds as test_eclipse
+# checks against published predictions and astronomy-engine), a contact
+# that does not occur is absent, mid-totality of 2025-03-14 puts a target
+# in the umbra, bad spans exit 2 ----------------------------------------
+if "$BIN" eclipses --from 2025-01-01T00:00:00Z --to 2031-01-01T00:00:00Z \
+    --json >"$TMP/ecl.json" 2>"$TMP/err"; then
+	"$PY" - "$TMP/ecl.json" <<'PYEOF' || fail "eclipses --json"
+import json, sys
+e = json.load(open(sys.argv[1]))["eclipses"]
+kinds = [x["kind"] for x in e]
+assert len(e) == 14, len(e)
+assert kinds.count("total") == 6 and kinds.count("partial") == 4, kinds
+for x in e:
+    c = x["contacts"]
+    assert set(["P1", "P4"]) <= set(c), x
+    assert ("U2" in c) == (x["kind"] == "total"), x
+    assert ("U1" in c) == (x["kind"] != "penumbral"), x
+    assert c["P1"] < x["greatest"] < c["P4"], x
+assert e[0]["greatest"].startswith("2025-03-14T06:58"), e[0]
+PYEOF
+else
+	fail "eclipses --json exited non-zero: $(cat "$TMP/err")"
+fi
+"$BIN" ephem --station 32,-105,2000 --target X=0,0 \
+    --at 2025-03-14T06:58:48Z --json >"$TMP/tot.json" &&
+	"$PY" -c 'import json,sys; t=json.load(open(sys.argv[1]))["targets"][0]; assert t["shadow"] == "umbra" and t["sunlit"] is False and t["sun_visible_fraction"] == 0 and t["sun_elevation_deg"] > 0 and "tilt_deg" in t and "spread_ps" in t, t' "$TMP/tot.json" ||
+	fail "ephem at mid-totality: umbra, not sunlit"
+for bad in "--days 0" "--to 2000-01-01T00:00:00Z" "--from yesterday" \
+    "--json --csv"; do
+	# shellcheck disable=SC2086
+	"$BIN" eclipses $bad >/dev/null 2>"$TMP/err"
+	[ $? -eq 2 ] || fail "eclipses $bad: want exit 2"
+	[ "$(wc -l <"$TMP/err")" -eq 1 ] || fail "eclipses $bad: one line"
+done
+
 # --- --help on every subcommand ----------------------------------------
-for cmd in ephem phases; do
+for cmd in ephem phases eclipses; do
 	if ! "$BIN" "$cmd" --help >"$TMP/out" 2>"$TMP/err"; then
 		fail "$cmd --help exited non-zero"
 	elif ! grep -q "usage: moonrange $cmd" "$TMP/out"; then
