@@ -227,6 +227,15 @@ fi
     --at 2025-03-14T06:58:48Z --json >"$TMP/tot.json" &&
 	"$PY" -c 'import json,sys; t=json.load(open(sys.argv[1]))["targets"][0]; assert t["shadow"] == "umbra" and t["sunlit"] is False and t["sun_visible_fraction"] == 0 and t["sun_elevation_deg"] > 0 and "tilt_deg" in t and "spread_ps" in t, t' "$TMP/tot.json" ||
 	fail "ephem at mid-totality: umbra, not sunlit"
+# Windows across the eclipse carry it (first reason); a week later none.
+"$BIN" windows --station 32,-105,2000 --from 2025-03-13T18:00:00Z \
+    --to 2025-03-14T18:00:00Z --json >"$TMP/win.json" &&
+	"$PY" -c 'import json,sys; w=json.load(open(sys.argv[1]))["windows"]; assert w and w[0]["reasons"][0].startswith("total lunar eclipse, greatest 2025-03-14 06:58 UTC"), w' "$TMP/win.json" ||
+	fail "windows across the 2025-03-14 eclipse carry it"
+"$BIN" windows --station 32,-105,2000 --from 2025-03-20T18:00:00Z \
+    --to 2025-03-21T18:00:00Z --json >"$TMP/win2.json" &&
+	"$PY" -c 'import json,sys; w=json.load(open(sys.argv[1]))["windows"]; assert not any("eclipse" in r for x in w for r in x["reasons"]), w' "$TMP/win2.json" ||
+	fail "windows a week later carry no eclipse"
 for bad in "--days 0" "--to 2000-01-01T00:00:00Z" "--from yesterday" \
     "--json --csv"; do
 	# shellcheck disable=SC2086

@@ -104,6 +104,54 @@ add_reason(struct plan_window *w, const char *fmt, ...)
 	va_end(ap);
 }
 
+/* "HH:MM" (with_date: "YYYY-MM-DD HH:MM") of a UTC MJD; "?" if none.
+   buf holds 24 bytes. */
+static void
+hhmm_of(double mjd, char *buf, int with_date)
+{
+	int y, mo, d, hh, mi;
+	double sec;
+
+	snprintf(buf, 24, "?");
+	if (tscale_utc_fields(TEXT_MJD0, mjd, &y, &mo, &d, &hh, &mi, &sec) !=
+	    ERRCODE_OK)
+		return;
+	if (with_date)
+		snprintf(buf, 24, "%04d-%02d-%02d %02d:%02d", y % 10000, mo % 100,
+		    d % 100, hh % 100, mi % 100);
+	else
+		snprintf(buf, 24, "%02d:%02d", hh % 100, mi % 100);
+}
+
+/*
+ * The first reason of a window that overlaps a lunar eclipse (P1..P4 of
+ * one of ev[ne], TT JDs; t0, t1 the window's TT offsets on tr).
+ */
+static void
+explain_eclipse(struct plan_window *w, const struct window_track *tr,
+    const struct eclipse_event *ev, size_t ne, double t0, double t1)
+{
+	for (size_t i = 0; i < ne; i++) {
+		double a = (ev[i].contact_tt1[ECLIPSE_P1] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P1] - tr->base2);
+		double b = (ev[i].contact_tt1[ECLIPSE_P4] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P4] - tr->base2);
+		double g = (ev[i].greatest_tt1 - tr->base1) +
+		    (ev[i].greatest_tt2 - tr->base2);
+		char ga[24], pa[24], pb[24];
+
+		if (b < t0 || a > t1)
+			continue;
+		hhmm_of(mjd_of(tr, g), ga, 1);
+		hhmm_of(mjd_of(tr, a), pa, 0);
+		hhmm_of(mjd_of(tr, b), pb, 0);
+		add_reason(w, "%s lunar eclipse, greatest %s UTC (P1 %s, P4 %s): "
+		    "a rare full-moon chance; in the umbra the reflector is "
+		    "dark", eclipse_kind_name(ev[i].kind), ga, pa, pb);
+		return;
+	}
+}
+
 static void
 explain(struct plan_window *w, const struct plan_target_model *m,
     const struct score_settings *s, double tau)
@@ -111,9 +159,7 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 	const struct score_window *f = &w->f;
 	double width = 360.0 / s->nbins;
 	double lo = f->phase_bin * width;
-	char hhmm[40];
-	int y, mo, d, hh, mi;
-	double sec;
+	char hhmm[24];
 
 	if (s->alpha == 0.0)
 		add_reason(w, "coverage weighting is off (alpha = 0)");
@@ -127,10 +173,7 @@ explain(struct plan_window *w, const struct plan_target_model *m,
 		add_reason(w, "the window crosses %d bin boundar%s; the weight "
 		    "is the yield-weighted mean", f->bins_crossed,
 		    f->bins_crossed == 1 ? "y" : "ies");
-	snprintf(hhmm, sizeof hhmm, "?");
-	if (tscale_utc_fields(TEXT_MJD0, w->max_el_mjd, &y, &mo, &d, &hh, &mi,
-	    &sec) == ERRCODE_OK)
-		snprintf(hhmm, sizeof hhmm, "%02d:%02d", hh, mi);
+	hhmm_of(w->max_el_mjd, hhmm, 0);
 	add_reason(w, "highest elevation %.1f deg at %s UTC; mean airmass %.2f, "
 	    "two-way transmission %.2f at tau %.2f", f->max_el * ERFA_DR2D,
 	    hhmm, f->mean_airmass, f->mean_transmission, tau);
@@ -235,6 +278,8 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	struct window *win = NULL;
 	struct score_window *sw = NULL;
 	struct window_track tr;
+	struct eclipse_event ecl[64];
+	size_t necl = 0;
 	struct window_limits lim;
 	struct tscale_instant a, b;
 	struct geom_eop eop;
@@ -469,6 +514,12 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
+	/* Lunar eclipses of the span (with a day of margin): the windows
+	   that overlap one say so first. */
+	if (eclipse_find(tr.base1, tr.base2 - 1.0, tr.base1,
+	    tr.base2 + span + 1.0, ecl, sizeof ecl / sizeof ecl[0], &necl) !=
+	    ERRCODE_OK)
+		necl = 0;
 	for (size_t i = 0; i < keep; i++) {
 		struct plan_window *pw = &out->w[i];
 
@@ -477,6 +528,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		pw->start_mjd = mjd_of(&tr, sw[i].start);
 		pw->end_mjd = mjd_of(&tr, sw[i].end);
 		pw->max_el_mjd = mjd_of(&tr, sw[i].max_el_t);
+		explain_eclipse(pw, &tr, ecl, necl, sw[i].start, sw[i].end);
 		explain(pw, &out->models[sw[i].target], &q->settings,
 		    st->zenith_tau);
 	}

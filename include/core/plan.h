@@ -11,7 +11,7 @@
 #include "core/score.h"
 #include "core/site.h"
 
-#define PLAN_MAX_REASONS 5
+#define PLAN_MAX_REASONS 6
 #define PLAN_REASON_LEN 160
 #define PLAN_MAX_WINDOWS 20000	/* per query */
 #define PLAN_MOON_ID "moon"	/* the Moon's centre, when no targets */
