@@ -42,8 +42,10 @@ slurp(const char *name, size_t *len)
 
 	snprintf(path, sizeof path, "%s/sample-site/%s", MOONRANGE_SOURCE_DIR,
 	    name);
-	if (buf == NULL || (f = fopen(path, "rb")) == NULL)
+	if (buf == NULL || (f = fopen(path, "rb")) == NULL) {
+		fprintf(stderr, "fuzz: cannot read %s\n", path);
 		abort();
+	}
 	*len = fread(buf, 1, (1 << 20) - 1, f);
 	buf[*len] = '\0';
 	fclose(f);
@@ -72,8 +74,10 @@ LLVMFuzzerInitialize(int *argc, char ***argv)
 	memset(&site, 0, sizeof site);
 	buf = slurp("station.ini", &n);
 	if (import_station_ini(buf, n, &site.station, &rep) != ERRCODE_OK ||
-	    store_station_put(db, &site.station, NULL, 0) != ERRCODE_OK)
+	    store_station_put(db, &site.station, NULL, 0) != ERRCODE_OK) {
+		fprintf(stderr, "fuzz: the sample station file is refused\n");
 		abort();
+	}
 	free(buf);
 	buf = slurp("targets.csv", &n);
 	if (import_targets_csv(buf, n, put_target, db, &rep) != ERRCODE_OK ||

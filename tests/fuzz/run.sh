@@ -29,8 +29,8 @@ for h in "${HARNESSES[@]}"; do
 	    "$scratch" "$HERE/corpus/$h" > "$ART/$h.log" 2>&1
 	st=$?
 	set -e
-	runs=$(sed -n 's/^stat::number_of_executed_units: *//p' "$ART/$h.log")
-	cov=$(grep -o 'cov: [0-9]*' "$ART/$h.log" | tail -1)
+	runs=$(sed -n 's/^stat::number_of_executed_units: *//p' "$ART/$h.log" || true)
+	cov=$(grep -o 'cov: [0-9]*' "$ART/$h.log" | tail -1 || true)
 	rm -rf "$scratch"
 	if (( st != 0 )); then
 		echo "FAIL: $h (exit $st); log and input in $ART:" >&2
