@@ -53,6 +53,9 @@ cli_store_load(struct cli_store *c)
 	    sizeof err)) ||
 	    (rc = store_eop_load(c->s, &c->eop, &c->neop, err, sizeof err)))
 		return cli_fail("%s: %s", c->path, err);
+	/* Without it, records are derived one by one on the direct path. */
+	if ((c->dc = mem_alloc(sizeof *c->dc)) != NULL)
+		derive_cache_init(c->dc);
 	return CLI_EXIT_OK;
 }
 
@@ -61,6 +64,7 @@ cli_store_close(struct cli_store *c)
 {
 	mem_free(c->targets);
 	mem_free(c->eop);
+	mem_free(c->dc);
 	store_close(c->s);
 	memset(c, 0, sizeof *c);
 }
@@ -89,7 +93,8 @@ cli_store_derive_attempt(const struct cli_store *c, struct site_attempt *a,
 	}
 	(void)eop_lookup_rows(c->eop, c->neop,
 	    0.5 * (a->start_mjd + a->end_mjd), &eop);
-	rc = derive_attempt(&c->station, t, &eop, a);
+	rc = c->dc != NULL ? derive_attempt_cached(c->dc, &c->station, t, &eop,
+	    a) : derive_attempt(&c->station, t, &eop, a);
 	if (rc != ERRCODE_OK)
 		snprintf(errbuf, errlen, "field 'start_utc': cannot compute "
 		    "the geometry (%s)", errcode_str(rc));
@@ -110,7 +115,8 @@ cli_store_derive_np(const struct cli_store *c, struct site_normal_point *np,
 		return ERRCODE_NOT_FOUND;
 	}
 	(void)eop_lookup_rows(c->eop, c->neop, np->epoch_mjd, &eop);
-	rc = derive_normal_point(&c->station, t, &eop, np);
+	rc = c->dc != NULL ? derive_normal_point_cached(c->dc, &c->station, t,
+	    &eop, np) : derive_normal_point(&c->station, t, &eop, np);
 	/* The elevation is this station's: unknown for another's points. */
 	if (strcmp(np->station_code, c->station.code) != 0)
 		np->target_el_deg = NAN;

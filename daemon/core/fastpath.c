@@ -461,20 +461,28 @@ c2i_xys(double x, double y, double s, double r[3][3])
 	}
 }
 
-/* GCRS->CIRS and GCRS->ITRS at t in segment s (x its coordinate). */
-static void
-orient(const struct fast_track *ft, const struct fast_seg *s, double t,
-    double x, double rc2i[3][3], double rc2t[3][3])
+/* Earth rotation angle at t in segment s, from the track's UT1. */
+static double
+seg_era(const struct fast_track *ft, const struct fast_seg *s, double t)
 {
-	double era, ce, se, m[3][3];
+	/* ERA at the segment's start plus the rotation since (IERS 2010
+	   eq. 5.15: 1.00273781191135448 turns a UT1 day). */
+	return s->era + ERFA_D2PI * 1.00273781191135448 *
+	    ((t - (s->mid - 0.5 * ft->len)) - (seg_ut1(ft, s, t) -
+	    s->dut[0][0]));
+}
+
+/* GCRS->CIRS and GCRS->ITRS at x in segment s for a given Earth rotation
+   angle and polar-motion matrix. */
+static void
+orient(const struct fast_seg *s, double x, double era,
+    const double (*rpom)[3], double rc2i[3][3], double rc2t[3][3])
+{
+	double ce, se, m[3][3];
 
 	c2i_xys(cheb(s->ori[0], FAST_ORI_NODES, x),
 	    cheb(s->ori[1], FAST_ORI_NODES, x),
 	    cheb(s->ori[2], FAST_ORI_NODES, x), rc2i);
-	/* ERA at the segment's start plus the rotation since (IERS 2010
-	   eq. 5.15: 1.00273781191135448 turns a UT1 day). */
-	era = s->era + ERFA_D2PI * 1.00273781191135448 *
-	    ((t - (s->mid - 0.5 * ft->len)) - (seg_ut1(ft, s, t) - s->dut[0][0]));
 	ce = cos(era);
 	se = sin(era);
 	for (int j = 0; j < 3; j++) {	/* m = R3(era) rc2i */
@@ -484,8 +492,8 @@ orient(const struct fast_track *ft, const struct fast_seg *s, double t,
 	}
 	for (int i = 0; i < 3; i++)	/* rc2t = rpom m */
 		for (int j = 0; j < 3; j++)
-			rc2t[i][j] = ft->rpom[i][0] * m[0][j] +
-			    ft->rpom[i][1] * m[1][j] + ft->rpom[i][2] * m[2][j];
+			rc2t[i][j] = rpom[i][0] * m[0][j] + rpom[i][1] * m[1][j] +
+			    rpom[i][2] * m[2][j];
 }
 
 static void
@@ -501,17 +509,19 @@ vnorm(const double a[3])
 	return sqrt(a[0] * a[0] + a[1] * a[1] + a[2] * a[2]);
 }
 
-void
-fast_frame_at(const struct fast_track *ft, double t, unsigned need,
+/* The frame at x of segment s, for an Earth rotation angle and a
+   polar-motion matrix. */
+static void
+frame(const struct fast_track *ft, const struct fast_seg *s, double t,
+    double x, double era, const double (*rpom)[3], unsigned need,
     struct fast_frame *f)
 {
-	double x, rc2i[3][3], d[3], mi[3];
-	const struct fast_seg *s = locate(ft, &t, &x);
+	double rc2i[3][3], d[3], mi[3];
 	const double dxdt = 2.0 / (ft->len * ERFA_DAYSEC);	/* per s */
 
 	f->t = t;
 	f->have = need & (FAST_SUN | FAST_LUNAR);
-	orient(ft, s, t, x, rc2i, f->rc2t);
+	orient(s, x, era, rpom, rc2i, f->rc2t);
 	for (int i = 0; i < 3; i++) {
 		f->moon_p[i] = cheb(s->moon[i], FAST_MOON_NC, x);
 		f->moon_v[i] = cheb(s->dmoon[i], FAST_VEL_NC, x) * dxdt;
@@ -541,6 +551,30 @@ fast_frame_at(const struct fast_track *ft, double t, unsigned need,
 			ang[i] = cheb(s->lun[i], FAST_ORI_NODES, xr);
 		geom_lunar_matrix(ang, f->lunar_rot);
 	}
+}
+
+void
+fast_frame_at(const struct fast_track *ft, double t, unsigned need,
+    struct fast_frame *f)
+{
+	double x;
+	const struct fast_seg *s = locate(ft, &t, &x);
+
+	frame(ft, s, t, x, seg_era(ft, s, t), (const double (*)[3])ft->rpom,
+	    need, f);
+}
+
+void
+fast_frame_earth(const struct fast_track *ft, double t, double ut11,
+    double ut12, const struct geom_eop *eop, unsigned need,
+    struct fast_frame *f)
+{
+	double x, rpom[3][3];
+	const struct fast_seg *s = locate(ft, &t, &x);
+
+	eraPom00(eop->xp, eop->yp, eraSp00(ft->base1, ft->base2 + t), rpom);
+	frame(ft, s, t, x, eraEra00(ut11, ut12), (const double (*)[3])rpom,
+	    need, f);
 }
 
 double
@@ -656,7 +690,8 @@ fast_instant(const struct fast_track *ft, double t, struct geom_instant *out)
 	b.synodic = eraAnp(seg_synodic(s, x, 2.0 / (ft->len * ERFA_DAYSEC)));
 	b.mean_elong = eraAnp(eraFad03(((ft->base1 - ERFA_DJ00) + b.tt2) /
 	    ERFA_DJC));
-	orient(ft, s, t, x, rc2i, e.rc2t);
+	orient(s, x, seg_era(ft, s, t), (const double (*)[3])ft->rpom, rc2i,
+	    e.rc2t);
 	memcpy(e.rbpn, rc2i, sizeof e.rbpn);	/* true of date = R3(EO) */
 	eraRz(cheb(s->ori[3], FAST_ORI_NODES, x), e.rbpn);
 

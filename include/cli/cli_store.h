@@ -7,6 +7,7 @@
 #include <stddef.h>
 #include <stdio.h>
 
+#include "core/derive.h"
 #include "core/eop.h"
 #include "core/geom.h"
 #include "formats/import.h"
@@ -28,6 +29,8 @@ struct cli_store {
 	size_t ntargets;
 	struct site_eop_row *eop;
 	size_t neop;
+	struct derive_cache *dc;	/* the fast path for the records of an
+					   import (cli_store_load; may be NULL) */
 };
 
 /* Open --db (NULL: error "--db FILE is required"); flags of store_open. */

@@ -5,6 +5,7 @@
 #define MOONRANGE_DERIVE_H
 
 #include "core/errcode.h"
+#include "core/fastpath.h"
 #include "core/geom.h"
 #include "core/site.h"
 
@@ -75,5 +76,45 @@ enum errcode derive_attempt(const struct site_station *st,
 enum errcode derive_normal_point(const struct site_station *st,
     const struct site_target *t, const struct geom_eop *eop,
     struct site_normal_point *np);
+
+/*
+ * The same angles for many records through the fast path: the bodies,
+ * the CIP and the lunar frame fitted over one FAST_SEG_DAYS segment that
+ * is refitted when a record falls outside it (so records in time order
+ * share one fit each 8 days); each record's own UT1 and polar motion
+ * (fast_frame_earth).  The cache is the caller's (zero it, or
+ * derive_cache_init, before the first use); it holds no pointers.
+ */
+struct derive_cache {
+	int valid;
+	double lat_deg, lon_deg, height_m;	/* station of the fit */
+	struct fast_track ft;
+	struct fast_seg seg[1];
+};
+
+void derive_cache_init(struct derive_cache *c);
+
+/*
+ * derive_at through a cache.
+ *
+ * Notes:
+ *   Within 0.04" of derive_at (test_derive; test_fastpath bounds the fast
+ *   path at 0.1" over 1900-2100): about 1e-5 deg.
+ * Called:
+ *   derive_site, geom_target_from_selen, tscale_from_utc,
+ *   fast_track_init, fast_frame_earth, fast_target_el, fast_synodic,
+ *   eraFad03
+ */
+enum errcode derive_at_cached(struct derive_cache *c,
+    const struct site_station *st, const struct site_target *t,
+    const struct geom_eop *eop, double utc_mjd, struct derive_angles *out);
+
+/* derive_attempt and derive_normal_point through a cache. */
+enum errcode derive_attempt_cached(struct derive_cache *c,
+    const struct site_station *st, const struct site_target *t,
+    const struct geom_eop *eop, struct site_attempt *a);
+enum errcode derive_normal_point_cached(struct derive_cache *c,
+    const struct site_station *st, const struct site_target *t,
+    const struct geom_eop *eop, struct site_normal_point *np);
 
 #endif

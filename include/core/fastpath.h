@@ -152,6 +152,19 @@ struct fast_frame {
 void fast_frame_at(const struct fast_track *ft, double t, unsigned need,
     struct fast_frame *f);
 
+/*
+ * The frame at offset t for an instant's own Earth orientation: UT1 (two
+ * parts) and polar motion given, not the track's; what is fitted (bodies,
+ * X, Y, s, the lunar frame) still comes from the track.  For records each
+ * with its own EOP (derive_cache).
+ *
+ * Called:
+ *   eraPom00, eraSp00, eraEra00, eraAb, geom_lunar_matrix
+ */
+void fast_frame_earth(const struct fast_track *ft, double t, double ut11,
+    double ut12, const struct geom_eop *eop, unsigned need,
+    struct fast_frame *f);
+
 /* Geometric elevation of an ITRS topocentric vector at the station. */
 double fast_elevation(const struct fast_track *ft, const double itrs[3]);
 
