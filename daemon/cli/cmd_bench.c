@@ -987,8 +987,8 @@ jobs_site(struct bench *b)
 			child_error(d, sizeof d);
 			row(job, "failed", "-", "-", "-", "-", d);
 		} else {
-			cell_ms(a, sizeof a, w);
-			snprintf(d, sizeof d, "CPU %.2f s (once)", c / 1e3);
+			cell_ms(a, sizeof a, c);
+			snprintf(d, sizeof d, "wall %.2f s (run once)", w / 1e3);
 			row(job, a, "-", "-", "-", "-", d);
 		}
 	}
@@ -1031,6 +1031,16 @@ jobs_site(struct bench *b)
 		struct wrk_result wr;
 		char job[128];
 
+		snprintf(url, sizeof url, "http://127.0.0.1:%d/api/v1/now", port);
+		snprintf(job, sizeof job, "daemon `GET /api/v1/now`, 16 "
+		    "connections, %.0f s", b->wrk_s);
+		progress(job);
+		run_wrk(b, url, &wr);
+		snprintf(a, sizeof a, !wr.ok ? "wrk failed" : wr.rps > 0.0 ?
+		    "%.0f req/s" : "no answer in the run", wr.rps);
+		snprintf(d, sizeof d, "p99 %.2f ms, %ld time-outs, %ld errors",
+		    wr.p99_ms, wr.timeouts, wr.errors);
+		row(job, a, "-", "-", "-", "-", d);
 		snprintf(url, sizeof url,
 		    "http://127.0.0.1:%d/api/v1/windows?days=3", port);
 		snprintf(job, sizeof job, "daemon `GET /api/v1/windows?days=3` "
@@ -1038,19 +1048,9 @@ jobs_site(struct bench *b)
 		    b->wrk_s);
 		progress(job);
 		run_wrk(b, url, &wr);
-		snprintf(a, sizeof a, wr.ok ? "%.1f req/s" : "wrk failed",
-		    wr.rps);
+		snprintf(a, sizeof a, !wr.ok ? "wrk failed" : wr.rps > 0.0 ?
+		    "%.1f req/s" : "no answer in the run", wr.rps);
 		snprintf(d, sizeof d, "p99 %.1f ms, %ld time-outs, %ld errors",
-		    wr.p99_ms, wr.timeouts, wr.errors);
-		row(job, a, "-", "-", "-", "-", d);
-		snprintf(url, sizeof url, "http://127.0.0.1:%d/api/v1/now", port);
-		snprintf(job, sizeof job, "daemon `GET /api/v1/now`, 16 "
-		    "connections, %.0f s", b->wrk_s);
-		progress(job);
-		run_wrk(b, url, &wr);
-		snprintf(a, sizeof a, wr.ok ? "%.0f req/s" : "wrk failed",
-		    wr.rps);
-		snprintf(d, sizeof d, "p99 %.2f ms, %ld time-outs, %ld errors",
 		    wr.p99_ms, wr.timeouts, wr.errors);
 		row(job, a, "-", "-", "-", "-", d);
 		snprintf(a, sizeof a, "%.1f MB", peak_rss_mb(pid));
@@ -1102,7 +1102,7 @@ run(const struct cli_args *a)
 	b.naive_frac = cli_real(a, "naive-share", 0.1);
 	b.wrk_s = cli_real(a, "seconds", 5.0);
 	b.attempts = cli_whole(a, "attempts", 200000);
-	b.scripts = cli_text(a, "scripts", MOONRANGE_SOURCE_DIR "/tests/bench");
+	b.scripts = cli_text(a, "scripts", MOONRANGE_SOURCE_DIR "/bench");
 	b.site = cli_text(a, "site", MOONRANGE_SOURCE_DIR "/sample-site");
 	n = readlink("/proc/self/exe", b.self, sizeof b.self - 1);
 	if (n <= 0)
@@ -1162,7 +1162,7 @@ static const struct cli_option options[] = {
 	    .max = 1000000, .help = "attempts in the big log (default 200000)"},
 	{.name = "scripts", .kind = CLI_TEXT, .arg = "DIR",
 	    .help = "the library scripts and astronomy-engine's node_modules "
-	    "(default: tests/bench of the source tree)"},
+	    "(default: bench/ of the source tree)"},
 	{.name = "site", .kind = CLI_TEXT, .arg = "DIR",
 	    .help = "the sample site (default: that of the source tree)"},
 	{.name = "no-site", .kind = CLI_FLAG,
@@ -1177,8 +1177,9 @@ const struct cli_command cmd_bench = {
 	    "Markdown table: a year of Moon-centre windows and 525,600 "
 	    "elevations by moonrange, by the naive baseline (the full ERFA "
 	    "chain every minute), by PyEphem (/usr/bin/python3 with Debian's "
-	    "python3-ephem) and by astronomy-engine (npm, in tests/bench: cd "
-	    "tests/bench && npm ci), with ratios and the largest disagreement "
+	    "python3-ephem) and by astronomy-engine (npm, in bench/ of the "
+	    "source tree: cd bench && npm ci), with ratios and the largest "
+	    "disagreement "
 	    "in event times and angles; then the sample site's windows and "
 	    "coverage, a generated log's import and queries, and the daemon "
 	    "under wrk on loopback.  A library that is missing is named and "

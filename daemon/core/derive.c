@@ -35,6 +35,16 @@ enum errcode
 derive_at(const struct site_station *st, const struct site_target *t,
     const struct geom_eop *eop, double utc_mjd, struct derive_angles *out)
 {
+	struct derive_cache c;
+
+	derive_cache_init(&c);
+	return derive_at_cached(&c, st, t, eop, utc_mjd, out);
+}
+
+enum errcode
+derive_at_direct(const struct site_station *st, const struct site_target *t,
+    const struct geom_eop *eop, double utc_mjd, struct derive_angles *out)
+{
 	static const struct geom_eop zero = {0.0, 0.0, 0.0};
 	struct geom_site site;
 	struct geom_target tg;
@@ -91,25 +101,27 @@ derive_at_cached(struct derive_cache *c, const struct site_station *st,
 	    ERRCODE_OK)
 		return rc;
 	off = c->valid ? (ti.tt1 - c->ft.base1) + (ti.tt2 - c->ft.base2) : -1;
-	if (!c->valid || !(off >= 0.0 && off <= FAST_SEG_DAYS) ||
+	if (!c->valid || !(off >= 0.0 && off < FAST_SEG_DAYS) ||
 	    c->lat_deg != st->lat_deg || c->lon_deg != st->lon_deg ||
 	    c->height_m != st->height_m) {
 		struct geom_site site;
+		/* Segments on a fixed grid from J2000: a record's angles do
+		   not depend on which records came before it. */
+		double k = floor(((ti.tt1 - ERFA_DJ00) + ti.tt2) /
+		    FAST_SEG_DAYS);
 
 		c->valid = 0;
 		if ((rc = derive_site(st, &site)) != ERRCODE_OK)
 			return rc;
-		/* Half a day before this record: records in time order
-		   then share the fit for 7.5 days. */
-		rc = fast_track_init(&c->ft, &site, &zero, ti.tt1,
-		    ti.tt2 - 0.5, 0.0, FAST_SEG_DAYS, c->seg, 1);
+		rc = fast_track_init(&c->ft, &site, &zero, ERFA_DJ00,
+		    k * FAST_SEG_DAYS, 0.0, FAST_SEG_DAYS, c->seg, 1);
 		if (rc != ERRCODE_OK)
 			return rc == ERRCODE_BAD_ARG ? ERRCODE_BAD_TIME : rc;
 		c->valid = 1;
 		c->lat_deg = st->lat_deg;
 		c->lon_deg = st->lon_deg;
 		c->height_m = st->height_m;
-		off = 0.5;
+		off = (ti.tt1 - c->ft.base1) + (ti.tt2 - c->ft.base2);
 	}
 	fast_frame_earth(&c->ft, off, ti.ut11, ti.ut12, eop,
 	    FAST_SUN | FAST_LUNAR, &f);
