@@ -59,6 +59,13 @@ struct bench {
 	int have_ephem, have_ae, have_wrk;
 };
 
+/* A line on stderr saying which job runs. */
+static void
+progress(const char *what)
+{
+	fprintf(stderr, "bench: %s\n", what);
+}
+
 /* --- timing --- */
 
 static double
@@ -249,6 +256,39 @@ ev_compare(const struct events *a, const struct events *b,
 			d->rs_s = fmax(d->rs_s, fabs(best->t - x->t));
 		}
 	}
+}
+
+/* A library's year job: its in-process CPU ms (NAN on failure), and its
+   events into v. */
+static double
+script_events(const struct bench *b, char *const argv[], struct events *v)
+{
+	double c, ms = NAN;
+	json_t *j = run_script(b, argv, &c);
+
+	if (j != NULL) {
+		ms = json_number_value(json_object_get(j, "cpu_ms"));
+		ev_from_json(j, v);
+		json_decref(j);
+	}
+	return ms;
+}
+
+/* A library script as a whole process: its best CPU ms over the runs. */
+static double
+best_script(const struct bench *b, char *const argv[])
+{
+	double best = INFINITY, c;
+
+	for (int i = 0; i < b->repeat; i++) {
+		json_t *j = run_script(b, argv, &c);
+
+		if (j != NULL) {
+			best = fmin(best, c);
+			json_decref(j);
+		}
+	}
+	return best;
 }
 
 /* --- moonrange in-process --- */
@@ -648,6 +688,23 @@ run_wrk(const struct bench *b, const char *url, struct wrk_result *w)
 	unlink(path);
 }
 
+/* One daemon line: wrk on url, its rate, p99 and failures. */
+static void
+wrk_row(const struct bench *b, const char *job, const char *url)
+{
+	struct wrk_result wr;
+	char a[64], d[128];
+
+	progress(job);
+	run_wrk(b, url, &wr);
+	snprintf(a, sizeof a, !wr.ok ? "wrk failed" : wr.rps > 0.0 ?
+	    "%.1f req/s" : "no answer in the run", wr.rps);
+	snprintf(d, sizeof d, "p99 %.2f ms, %ld time-outs, %ld errors",
+	    wr.p99_ms, wr.timeouts, wr.errors);
+	printf("| %s | %s | - | - | - | - | %s |\n", job, a, d);
+	fflush(stdout);
+}
+
 /* Peak resident memory of a process, MB (VmHWM), or NAN. */
 static double
 peak_rss_mb(pid_t pid)
@@ -700,12 +757,6 @@ cell_ratio(char *buf, size_t len, double lib, double ours)
 		snprintf(buf, len, "-");
 }
 
-static void
-progress(const char *what)
-{
-	fprintf(stderr, "bench: %s\n", what);
-}
-
 /* --- the jobs --- */
 
 static int
@@ -741,26 +792,16 @@ jobs_libraries(struct bench *b)
 	if (b->have_ephem) {
 		char *argv[] = {"/usr/bin/python3", "bench_pyephem.py", "year",
 		    lat, lon, h, Y_FROM, Y_TO, el, rep, NULL};
-		json_t *j;
 
 		progress("the year job, PyEphem");
-		if ((j = run_script(b, argv, &c)) != NULL) {
-			pe_ms = json_number_value(json_object_get(j, "cpu_ms"));
-			ev_from_json(j, &pe);
-			json_decref(j);
-		}
+		pe_ms = script_events(b, argv, &pe);
 	}
 	if (b->have_ae) {
 		char *argv[] = {"node", "bench_astro.mjs", "year", lat, lon, h,
 		    Y_FROM, Y_TO, el, rep, NULL};
-		json_t *j;
 
 		progress("the year job, astronomy-engine");
-		if ((j = run_script(b, argv, &c)) != NULL) {
-			ae_ms = json_number_value(json_object_get(j, "cpu_ms"));
-			ev_from_json(j, &ae);
-			json_decref(j);
-		}
+		ae_ms = script_events(b, argv, &ae);
 	}
 	printf("| job | moonrange | naive baseline (full ERFA every minute) "
 	    "| PyEphem | astronomy-engine | faster library / moonrange | "
@@ -806,29 +847,13 @@ jobs_libraries(struct bench *b)
 			char *pv[] = {"/usr/bin/python3", "bench_pyephem.py",
 			    "year", lat, lon, h, Y_FROM, Y_TO, el, one, NULL};
 
-			pe_proc = INFINITY;
-			for (int i = 0; i < b->repeat; i++) {
-				json_t *j = run_script(b, pv, &c);
-
-				if (j != NULL) {
-					pe_proc = fmin(pe_proc, c);
-					json_decref(j);
-				}
-			}
+			pe_proc = best_script(b, pv);
 		}
 		if (b->have_ae) {
 			char *av[] = {"node", "bench_astro.mjs", "year", lat, lon,
 			    h, Y_FROM, Y_TO, el, one, NULL};
 
-			ae_proc = INFINITY;
-			for (int i = 0; i < b->repeat; i++) {
-				json_t *j = run_script(b, av, &c);
-
-				if (j != NULL) {
-					ae_proc = fmin(ae_proc, c);
-					json_decref(j);
-				}
-			}
+			ae_proc = best_script(b, av);
 		}
 		cell_ms(a, sizeof a, mr_proc);
 		cell_ms(z, sizeof z, pe_proc);
@@ -1028,31 +1053,18 @@ jobs_site(struct bench *b)
 		row("daemon lines", "the daemon did not start", "-", "-", "-",
 		    "-", "-");
 	} else {
-		struct wrk_result wr;
 		char job[128];
 
 		snprintf(url, sizeof url, "http://127.0.0.1:%d/api/v1/now", port);
 		snprintf(job, sizeof job, "daemon `GET /api/v1/now`, 16 "
 		    "connections, %.0f s", b->wrk_s);
-		progress(job);
-		run_wrk(b, url, &wr);
-		snprintf(a, sizeof a, !wr.ok ? "wrk failed" : wr.rps > 0.0 ?
-		    "%.0f req/s" : "no answer in the run", wr.rps);
-		snprintf(d, sizeof d, "p99 %.2f ms, %ld time-outs, %ld errors",
-		    wr.p99_ms, wr.timeouts, wr.errors);
-		row(job, a, "-", "-", "-", "-", d);
+		wrk_row(b, job, url);
 		snprintf(url, sizeof url,
 		    "http://127.0.0.1:%d/api/v1/windows?days=3", port);
 		snprintf(job, sizeof job, "daemon `GET /api/v1/windows?days=3` "
 		    "with a %s-attempt log, 16 connections, %.0f s", ncsv,
 		    b->wrk_s);
-		progress(job);
-		run_wrk(b, url, &wr);
-		snprintf(a, sizeof a, !wr.ok ? "wrk failed" : wr.rps > 0.0 ?
-		    "%.1f req/s" : "no answer in the run", wr.rps);
-		snprintf(d, sizeof d, "p99 %.1f ms, %ld time-outs, %ld errors",
-		    wr.p99_ms, wr.timeouts, wr.errors);
-		row(job, a, "-", "-", "-", "-", d);
+		wrk_row(b, job, url);
 		snprintf(a, sizeof a, "%.1f MB", peak_rss_mb(pid));
 		snprintf(job, sizeof job, "daemon peak resident memory (VmHWM) "
 		    "with a %s-attempt log", ncsv);

@@ -154,24 +154,22 @@ attempt_mid(const struct site_attempt *a)
 	return a->start_mjd + 0.5 * (a->end_mjd - a->start_mjd);
 }
 
+/* The four stored fields of a record (an attempt's or a point's). */
 static void
-attempt_set(struct site_attempt *a, const struct derive_angles *d)
+put(const struct derive_angles *d, double *syn, double *elong, double *el,
+    double *sun)
 {
-	a->synodic_deg = d->synodic_deg;
-	a->mean_elong_deg = d->mean_elong_deg;
-	a->target_el_deg = d->target_el_deg;
-	a->sun_el_target_deg = d->sun_el_target_deg;
-	a->range_km = d->range_km;
+	*syn = d->synodic_deg;
+	*elong = d->mean_elong_deg;
+	*el = d->target_el_deg;
+	*sun = d->sun_el_target_deg;
 }
 
-static void
-np_set(struct site_normal_point *np, const struct derive_angles *d)
-{
-	np->synodic_deg = d->synodic_deg;
-	np->mean_elong_deg = d->mean_elong_deg;
-	np->target_el_deg = d->target_el_deg;
-	np->sun_el_target_deg = d->sun_el_target_deg;
-}
+#define attempt_set(a, d) (put((d), &(a)->synodic_deg, \
+	&(a)->mean_elong_deg, &(a)->target_el_deg, &(a)->sun_el_target_deg), \
+	(a)->range_km = (d)->range_km)
+#define np_set(p, d) put((d), &(p)->synodic_deg, &(p)->mean_elong_deg, \
+	&(p)->target_el_deg, &(p)->sun_el_target_deg)
 
 enum errcode
 derive_attempt_cached(struct derive_cache *c, const struct site_station *st,

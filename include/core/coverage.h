@@ -279,10 +279,17 @@ struct coverage_fill {
  * Returned (function value):
  *   ERRCODE_OK, or the first error of coverage_axis_value
  * Notes:
- *   The angle is sampled every COVERAGE_FILL_STEP_S seconds across each
- *   window and at both ends; the part in a bin is given to that
- *   resolution.  The synodic angle advances about 0.5 deg an hour, the
- *   hour angle 14.5 deg an hour.
+ *   1. The angle is sampled every COVERAGE_FILL_STEP_S seconds across
+ *      each window and at both ends; the part in a bin is given to that
+ *      resolution.  The synodic angle advances about 0.5 deg an hour, the
+ *      hour angle 14.5 deg an hour.
+ *   2. The samples are taken on the fast path (a track fitted over the
+ *      horizon, allocated with mem_calloc and freed here), within 0.04"
+ *      of coverage_axis_value; without memory, or for a horizon over
+ *      3000 days, on the direct chain.
+ * Called:
+ *   fast_track_segments, fast_track_init, fast_synodic, fast_frame_at,
+ *   coverage_axis_value, tscale_from_utc, eraFal03, eraFaf03
  */
 enum errcode coverage_fill_compute(const struct coverage_result *r,
     const struct coverage_window *w, size_t nw, double from_mjd,
