@@ -289,7 +289,8 @@ struct coverage_fill {
  *      3000 days, on the direct chain.
  * Called:
  *   fast_track_segments, fast_track_init, fast_synodic, fast_frame_at,
- *   coverage_axis_value, tscale_from_utc, eraFal03, eraFaf03
+ *   coverage_axis_value, tscale_from_utc, eraFal03, eraFaf03, eraAnp,
+ *   eraAnpm
  */
 enum errcode coverage_fill_compute(const struct coverage_result *r,
     const struct coverage_window *w, size_t nw, double from_mjd,
