@@ -295,48 +295,69 @@ coverage_bin_of(double deg, int nbins)
 	return score_bin_of(deg, nbins);
 }
 
-enum errcode
-coverage_axis_value(enum coverage_axis axis, const struct geom_site *site,
-    double utc_mjd, double *deg)
+/*
+ * The angle of an axis at a UTC MJD, on the direct chain (ft NULL) or on
+ * a fitted track (the fast path: within 0.04" of it, so a sample changes
+ * bin only within that of a boundary).  UT1 is UTC and polar motion nil
+ * either way.
+ */
+static enum errcode
+axis_eval(enum coverage_axis axis, const struct geom_site *site,
+    const struct fast_track *ft, double utc_mjd, double *deg)
 {
 	struct tscale_instant t;
 	struct geom_instant g;
 	struct geom_eop eop = {0.0, 0.0, 0.0};
-	double c, a;
+	struct fast_frame f;
+	double c, a, off = 0.0;
 
 	if (!isfinite(utc_mjd))
 		return ERRCODE_BAD_TIME;
-	if (axis == COVERAGE_AXIS_HOUR_ANGLE) {
-		if (site == NULL)
-			return ERRCODE_BAD_ARG;
-		if (geom_instant_at(site, &eop, TEXT_MJD0, utc_mjd,
-		    GEOM_PREC_FAST, &g) != ERRCODE_OK)
-			return ERRCODE_BAD_TIME;
-		a = g.moon.ha;
-	} else {
-		if (tscale_from_utc(TEXT_MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
-			return ERRCODE_BAD_TIME;
-		c = ((t.tt1 - ERFA_DJ00) + t.tt2) / ERFA_DJC;
-		switch (axis) {
-		case COVERAGE_AXIS_SYNODIC:
-			a = geom_synodic_at(t.tt1, t.tt2);
-			break;
-		case COVERAGE_AXIS_ANOMALY:
-			a = eraFal03(c);
-			break;
-		case COVERAGE_AXIS_LATITUDE:
-			a = eraFaf03(c);
-			break;
-		case COVERAGE_AXIS_HOUR_ANGLE:
-		case COVERAGE_AXIS__COUNT:
-		default:
-			return ERRCODE_BAD_ARG;
+	if (axis == COVERAGE_AXIS_HOUR_ANGLE && site == NULL)
+		return ERRCODE_BAD_ARG;
+	if (tscale_from_utc(TEXT_MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
+		return ERRCODE_BAD_TIME;
+	if (ft != NULL)
+		off = (t.tt1 - ft->base1) + (t.tt2 - ft->base2);
+	c = ((t.tt1 - ERFA_DJ00) + t.tt2) / ERFA_DJC;
+	switch (axis) {
+	case COVERAGE_AXIS_SYNODIC:
+		a = ft != NULL ? fast_synodic(ft, off) :
+		    geom_synodic_at(t.tt1, t.tt2);
+		break;
+	case COVERAGE_AXIS_ANOMALY:
+		a = eraFal03(c);
+		break;
+	case COVERAGE_AXIS_LATITUDE:
+		a = eraFaf03(c);
+		break;
+	case COVERAGE_AXIS_HOUR_ANGLE:
+		if (ft != NULL) {
+			fast_frame_at(ft, off, 0, &f);
+			a = eraAnpm(ft->site.lon - atan2(f.moon_itrs[1],
+			    f.moon_itrs[0]));
+		} else {
+			if (geom_instant_at(site, &eop, TEXT_MJD0, utc_mjd,
+			    GEOM_PREC_FAST, &g) != ERRCODE_OK)
+				return ERRCODE_BAD_TIME;
+			a = g.moon.ha;
 		}
+		break;
+	case COVERAGE_AXIS__COUNT:
+	default:
+		return ERRCODE_BAD_ARG;
 	}
 	*deg = eraAnp(a) * ERFA_DR2D;
 	if (*deg >= 360.0)
 		*deg = 0.0;
 	return ERRCODE_OK;
+}
+
+enum errcode
+coverage_axis_value(enum coverage_axis axis, const struct geom_site *site,
+    double utc_mjd, double *deg)
+{
+	return axis_eval(axis, site, NULL, utc_mjd, deg);
 }
 
 /* --- binning --- */
@@ -533,48 +554,6 @@ fill_insert(struct coverage_fill_bin *fb, const struct coverage_fill_date *d)
 	fb->dates[i] = *d;
 }
 
-/*
- * coverage_axis_value on a fitted track (the fast path: within 0.04" of
- * the direct chain, so a sample changes bin only within that of a
- * boundary).  The track's UT1 is UTC and its polar motion nil, as there.
- */
-static enum errcode
-axis_on_track(const struct fast_track *ft, enum coverage_axis axis,
-    double utc_mjd, double *deg)
-{
-	struct tscale_instant t;
-	struct fast_frame f;
-	double off, a, c;
-
-	if (tscale_from_utc(TEXT_MJD0, utc_mjd, 0.0, &t) != ERRCODE_OK)
-		return ERRCODE_BAD_TIME;
-	off = (t.tt1 - ft->base1) + (t.tt2 - ft->base2);
-	c = ((t.tt1 - ERFA_DJ00) + t.tt2) / ERFA_DJC;
-	switch (axis) {
-	case COVERAGE_AXIS_SYNODIC:
-		a = fast_synodic(ft, off);
-		break;
-	case COVERAGE_AXIS_ANOMALY:
-		a = eraFal03(c);
-		break;
-	case COVERAGE_AXIS_LATITUDE:
-		a = eraFaf03(c);
-		break;
-	case COVERAGE_AXIS_HOUR_ANGLE:
-		fast_frame_at(ft, off, 0, &f);
-		a = eraAnpm(ft->site.lon - atan2(f.moon_itrs[1],
-		    f.moon_itrs[0]));
-		break;
-	case COVERAGE_AXIS__COUNT:
-	default:
-		return ERRCODE_BAD_ARG;
-	}
-	*deg = eraAnp(a) * ERFA_DR2D;
-	if (*deg >= 360.0)
-		*deg = 0.0;
-	return ERRCODE_OK;
-}
-
 /* A fitted track over [from_mjd, to_mjd] UTC for the fill, or NULL (too
    long, out of range or no memory: the direct chain is used).  The
    caller frees *seg with mem_free. */
@@ -660,8 +639,7 @@ coverage_fill_compute(const struct coverage_result *r,
 			t = t0 + (double)i * step;
 			if (t > t1)
 				t = t1;
-			rc = ft != NULL ? axis_on_track(ft, s->axis, t, &deg) :
-			    coverage_axis_value(s->axis, &s->site, t, &deg);
+			rc = axis_eval(s->axis, &s->site, ft, t, &deg);
 			if (rc != ERRCODE_OK)
 				break;
 			b = coverage_bin_of(deg, s->nbins);

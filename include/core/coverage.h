@@ -198,7 +198,7 @@ struct coverage_result {
  *   IERS Conventions (2003), IERS Technical Note 32, ch. 5, eq. (5.43).
  * Called:
  *   tscale_from_utc, geom_synodic_at, eraFal03, eraFaf03, geom_instant_at,
- *   eraAnp
+ *   eraAnp, eraAnpm
  */
 enum errcode coverage_axis_value(enum coverage_axis axis,
     const struct geom_site *site, double utc_mjd, double *deg);
@@ -289,8 +289,8 @@ struct coverage_fill {
  *      3000 days, on the direct chain.
  * Called:
  *   fast_track_segments, fast_track_init, fast_synodic, fast_frame_at,
- *   coverage_axis_value, tscale_from_utc, eraFal03, eraFaf03, eraAnp,
- *   eraAnpm
+ *   geom_synodic_at, geom_instant_at, tscale_from_utc, eraFal03,
+ *   eraFaf03, eraAnp, eraAnpm
  */
 enum errcode coverage_fill_compute(const struct coverage_result *r,
     const struct coverage_window *w, size_t nw, double from_mjd,
