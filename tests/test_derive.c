@@ -216,7 +216,7 @@ test_derive_cached_matches_direct(void **state)
 	struct site_station st;
 	struct site_target t[3];
 	struct derive_cache c;
-	double worst = 0.0, mjd = 46066.0;	/* 1985-01-01 */
+	double worst = 0.0, worst_km = 0.0, mjd = 46066.0; /* 1985-01-01 */
 	unsigned long long r = 12345;
 
 	(void)state;
@@ -252,6 +252,7 @@ test_derive_cached_matches_direct(void **state)
 			    &z), ERRCODE_OK);
 			assert_true(z.target_el_deg == b.target_el_deg &&
 			    z.sun_el_target_deg == b.sun_el_target_deg &&
+			    z.range_km == b.range_km &&
 			    z.synodic_deg == b.synodic_deg &&
 			    z.mean_elong_deg == b.mean_elong_deg);
 		}
@@ -262,10 +263,13 @@ test_derive_cached_matches_direct(void **state)
 		    360.0)));
 		worst = fmax(worst, fabs(remainder(a.mean_elong_deg -
 		    b.mean_elong_deg, 360.0)));
+		worst_km = fmax(worst_km, fabs(a.range_km - b.range_km));
 	}
-	printf("cached vs direct: worst %.2e deg (%.4f\")\n", worst,
-	    worst * 3600.0);
+	printf("cached vs direct: worst %.2e deg (%.4f\"), range %.4f km\n",
+	    worst, worst * 3600.0, worst_km);
 	assert_true(worst * 3600.0 <= 0.1);
+	/* test_fastpath bounds the Moon's range at 10 m. */
+	assert_true(worst_km <= 0.01);
 }
 
 static void
