@@ -97,8 +97,8 @@ cli targets.txt target list --db "$DB" --all
 cli targets.json target list --db "$DB" --all --json
 cli settings.txt setting list --db "$DB"
 cli blackouts.txt blackout list --db "$DB" --since 2025-01-01T00:00:00Z --until 2028-01-01T00:00:00Z
-cli log.txt log list --db "$DB" --since 2026-01-01T00:00:00Z --until 2026-03-01T00:00:00Z
-cli log.json log list --db "$DB" --since 2026-01-01T00:00:00Z --until 2026-03-01T00:00:00Z --json
+cli log.txt log list --db "$DB" --since 2026-01-01T00:00:00Z --until 2026-03-01T00:00:00Z --all
+cli log.json log list --db "$DB" --since 2026-01-01T00:00:00Z --until 2026-03-01T00:00:00Z --json --all --order oldest
 cli log_export.csv log export --db "$DB" --csv --since 2026-01-01T00:00:00Z
 cli np_count.txt np count --db "$DB" --since 2025-01-01T00:00:00Z --until 2027-01-01T00:00:00Z
 

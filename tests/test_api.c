@@ -853,8 +853,9 @@ test_api_attempts_create_and_list(void **state)
 	http_reply_free(&r);
 }
 
-/* GET attempts?order=oldest prints what "moonrange log list --json" prints;
-   the default order is the same rows newest first. */
+/* GET attempts prints what "moonrange log list --json" prints, newest
+   first by default and with order=oldest / --order oldest alike; the
+   default order is the same rows as oldest first, reversed. */
 static void
 test_api_attempts_same_bytes_as_cli(void **state)
 {
@@ -869,13 +870,16 @@ test_api_attempts_same_bytes_as_cli(void **state)
 		"\"operator\":\"Invented Three\",\"notes\":\"a, \\\"quoted\\\" note\"}",
 	};
 	static const char *q[][2] = {
-		{"order=oldest&limit=50", "--limit 50"},
-		{"order=oldest&limit=2", "--limit 2"},
-		{"order=oldest&limit=9&target=ALPHA", "--limit 9 --target ALPHA"},
+		{"order=oldest&limit=50", "--limit 50 --order oldest"},
+		{"order=oldest&limit=2", "--limit 2 --order oldest"},
+		{"order=oldest&limit=9&target=ALPHA",
+		    "--limit 9 --target ALPHA --order oldest"},
 		{"order=oldest&limit=9&since=2027-03-15T00:00:00Z&"
 		    "until=2027-03-16T00:00:00Z",
 		    "--limit 9 --since 2027-03-15T00:00:00Z "
-		    "--until 2027-03-16T00:00:00Z"},
+		    "--until 2027-03-16T00:00:00Z --order oldest"},
+		{"limit=50", "--limit 50"},
+		{"limit=2&target=ALPHA", "--limit 2 --target ALPHA"},
 	};
 	struct http_reply r, o;
 	char path[256], args[512];

@@ -9,6 +9,8 @@
 #include "check.h"
 #include "core/mem.h"
 #include "formats/render_json.h"
+#include "core/text.h"
+#include "core/tzone.h"
 #include "formats/render_site.h"
 
 static void
@@ -148,6 +150,70 @@ test_render_site_tables_parse(void **state)
  * either reports ERRCODE_NOMEM or produces exactly the bytes of a run
  * without failure (never a damaged document).
  */
+/* Number of code points of a UTF-8 line (what a terminal shows, for the
+   characters used here). */
+static size_t
+columns(const char *s, size_t n)
+{
+	size_t c = 0;
+
+	for (size_t i = 0; i < n; i++)
+		c += ((unsigned char)s[i] & 0xC0) != 0x80;
+	return c;
+}
+
+/* The log table fits 80 columns whatever the operator and notes hold:
+   long text is cut with an ellipsis, a line break in the notes is a
+   space, a multi-byte name is not cut inside a character; the count
+   says when a limit left rows out. */
+static void
+test_render_site_attempts_text_fits(void **state)
+{
+	static struct tzone zone;
+	struct site_attempt a[2];
+	struct mbuf b;
+	const char *line, *end;
+
+	(void)state;
+	attempt(&a[0]);
+	attempt(&a[1]);
+	strcpy(a[1].operator_name, "\xc3\x89milie Ferrand-Long");	/* É */
+	strcpy(a[1].notes, "cloud at 30 deg, then clear; long note\nend");
+	strcpy(a[1].target, "A-VERY-LONG-TARGET-ID");
+	mbuf_init(&b);
+	assert_int_equal(render_site_attempts_text(a, 2, 40, NULL, &b),
+	    ERRCODE_OK);
+	for (line = b.data; *line; line = end + 1) {
+		end = strchr(line, '\n');
+		assert_non_null(end);
+		assert_true(columns(line, (size_t)(end - line)) <= 80);
+	}
+	assert_non_null(strstr(b.data, "2027-03-01 04:00 UTC"));
+	assert_non_null(strstr(b.data, "say \"hi\", t\xe2\x80\xa6"));
+	assert_non_null(strstr(b.data, "\xc3\x89milie F\xe2\x80\xa6"));
+	assert_non_null(strstr(b.data, "A-VERY-L\xe2\x80\xa6"));
+	assert_null(strstr(b.data, "then\nstop"));
+	assert_non_null(strstr(b.data, "2 of 40 attempts, the newest\n"));
+	assert_true(text_utf8_valid(b.data, b.len));
+	mbuf_free(&b);
+	/* A zone of one offset, UTC-7 named MST, from 1970 to 2100: 04:00
+	   UTC is 21:00 MST the day before (by hand). */
+	memset(&zone, 0, sizeof zone);
+	strcpy(zone.name, "Test/Mountain");
+	zone.first_s = 0;
+	zone.last_s = 4102444800LL;
+	zone.n = 1;
+	zone.span[0].offset_s = -7 * 3600;
+	strcpy(zone.span[0].abbr, "MST");
+	mbuf_init(&b);
+	assert_int_equal(render_site_attempts_text(a, 1, 1, &zone, &b),
+	    ERRCODE_OK);
+	assert_non_null(strstr(b.data, "start (local)"));
+	assert_non_null(strstr(b.data, "2027-02-28 21:00 MST"));
+	assert_non_null(strstr(b.data, "\n1 attempt\n"));
+	mbuf_free(&b);
+}
+
 static void
 test_render_site_allocation_failure(void **state)
 {
@@ -183,7 +249,7 @@ test_render_site_allocation_failure(void **state)
 		mem_fail_after(i);
 		e1 = render_site_attempts_json(a, 3, &b);
 		e2 = render_site_attempts_csv(a, 3, 1, &b);
-		e3 = render_site_attempts_text(a, 3, NULL, &b);
+		e3 = render_site_attempts_text(a, 3, 3, NULL, &b);
 		used = mem_fail_after(0);
 		mbuf_free(&b);
 		if (used < i) {
@@ -206,6 +272,7 @@ main(void)
 		cmocka_unit_test(test_render_site_attempt_json_fields),
 		cmocka_unit_test(test_render_site_csv_is_rfc4180),
 		cmocka_unit_test(test_render_site_tables_parse),
+		cmocka_unit_test(test_render_site_attempts_text_fits),
 		cmocka_unit_test(test_render_site_allocation_failure),
 	};
 

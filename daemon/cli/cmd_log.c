@@ -12,7 +12,8 @@
 #include "formats/render_site.h"
 #include "query/qzone.h"
 
-/* Copy s into a fixed field, refusing what does not fit. */
+#define LOG_LIST_DEFAULT 20	/* attempts 'log list' shows by default */
+
 /* The station's zone over [from, to] for local times, or NULL. */
 static const struct tzone *
 log_zone(const struct site_station *st, double from, double to,
@@ -22,6 +23,7 @@ log_zone(const struct site_station *st, double from, double to,
 	    zone) == ERRCODE_OK ? zone : NULL;
 }
 
+/* Copy s into a fixed field, refusing what does not fit. */
 static int
 copy_text(char *dst, size_t cap, const char *opt, const char *s)
 {
@@ -89,7 +91,7 @@ log_add(const struct cli_args *a)
 	if (cli_given(a, "json"))
 		rc = render_site_attempt_json(&at, &out);
 	else
-		rc = render_site_attempts_text(&at, 1, log_zone(&c.station,
+		rc = render_site_attempts_text(&at, 1, 1, log_zone(&c.station,
 		    at.start_mjd, at.start_mjd, &zone), &out);
 	st = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
@@ -107,12 +109,16 @@ log_list(const struct cli_args *a, int export)
 	struct cli_store c;
 	struct store_query q;
 	struct site_attempt *rows = NULL;
-	size_t n = 0;
+	size_t n = 0, total = 0;
 	struct mbuf out;
 	char err[512];
 	int st, json = !export && cli_given(a, "json");
 	int csv = !export && cli_given(a, "csv");
-	long limit = export ? 0 : cli_whole(a, "limit", 0);
+	/* list: the newest LOG_LIST_DEFAULT (or --limit N, or --all), newest
+	   first (or --order oldest); export: all, oldest first. */
+	long limit = export || cli_given(a, "all") ? 0 :
+	    cli_whole(a, "limit", LOG_LIST_DEFAULT);
+	int oldest = export || cli_whole(a, "order", 0) == 1;
 	enum errcode rc;
 
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
@@ -122,16 +128,15 @@ log_list(const struct cli_args *a, int export)
 	q.since_mjd = cli_real(a, "since", NAN);
 	q.until_mjd = cli_real(a, "until", NAN);
 	q.target = cli_text(a, "target", NULL);
-	if (limit > 0) {
-		/* The newest N, shown oldest first. */
-		q.limit = (size_t)limit;
-		q.newest_first = 1;
-	}
-	if ((rc = store_attempts_list(c.s, &q, &rows, &n, err, sizeof err))) {
+	q.limit = (size_t)limit;
+	q.newest_first = limit > 0 || !oldest;
+	if ((rc = store_attempts_list(c.s, &q, &rows, &n, err, sizeof err)) ||
+	    (!export && !json && !csv && (rc = store_attempts_count(c.s, &q,
+	    &total, err, sizeof err)))) {
 		st = cli_fail("%s: %s", c.path, err);
 		goto out;
 	}
-	for (size_t i = 0; q.newest_first && i < n / 2; i++) {
+	for (size_t i = 0; q.newest_first && oldest && i < n / 2; i++) {
 		struct site_attempt tmp = rows[i];
 
 		rows[i] = rows[n - 1 - i];
@@ -147,7 +152,7 @@ log_list(const struct cli_args *a, int export)
 	else if (csv)
 		rc = render_site_attempts_csv(rows, n, 1, &out);
 	else
-		rc = render_site_attempts_text(rows, n, n > 0 ?
+		rc = render_site_attempts_text(rows, n, total, n > 0 ?
 		    log_zone(&c.station, rows[n - 1].start_mjd < rows[0].start_mjd ?
 		    rows[n - 1].start_mjd : rows[0].start_mjd,
 		    rows[n - 1].start_mjd < rows[0].start_mjd ? rows[0].start_mjd :
@@ -250,7 +255,14 @@ static const struct cli_option add_options[] = {
 static const struct cli_option list_options[] = {
 	CLI_OPT_DB, OPT_SINCE, OPT_UNTIL, OPT_TARGET,
 	{.name = "limit", .kind = CLI_WHOLE, .arg = "N", .min = 1,
-	    .max = 100000000, .help = "the newest N attempts"},
+	    .max = 100000000, .group = 2,
+	    .help = "the newest N attempts (default 20)"},
+	{.name = "all", .kind = CLI_FLAG, .group = 2,
+	    .help = "every matching attempt"},
+	{.name = "order", .kind = CLI_WORD, .arg = "WORD",
+	    .words = "newest oldest",
+	    .help = "newest first (default) or oldest first, as the API's "
+	    "order="},
 	{.name = "json", .kind = CLI_FLAG, .group = 1,
 	    .help = "{\"attempts\":[...]} (fields in the README)"},
 	{.name = "csv", .kind = CLI_FLAG, .group = 1,
@@ -281,9 +293,13 @@ static const struct cli_command log_add_cmd = {
 
 static const struct cli_command log_list_cmd = {
 	.name = "list",
-	.summary = "attempts, oldest first (--limit: the newest N)",
-	.about = "The attempts of the log, oldest first; with --limit the "
-	    "newest N.  --since is inclusive, --until exclusive.",
+	.summary = "the newest attempts (20 unless --limit N or --all)",
+	.about = "The attempts of the log, newest first: the newest 20 "
+	    "unless --limit N or --all says otherwise.  The table shows the "
+	    "start in the station's time zone, the target, outcome, returns, "
+	    "normal points, operator and notes (cut to fit 80 columns); "
+	    "--csv and --json hold every field.  --since is inclusive, --until "
+	    "exclusive.",
 	.options = list_options,
 	.run = run_list,
 };

@@ -180,29 +180,74 @@ render_site_attempts_csv(const struct site_attempt *a, size_t n, int derived,
 	return mbuf_status(out);
 }
 
+/*
+ * Append s as a cell of width characters (code points): control
+ * characters as spaces, cut with "\u2026" when longer, padded with spaces
+ * unless last (then only cut).
+ */
+static void
+text_cell(struct mbuf *out, const char *s, size_t width, int last)
+{
+	const unsigned char *p = (const unsigned char *)s;
+	size_t chars = 0, i = 0, len = strlen(s), k, total = 0;
+
+	for (size_t q = 0; q < len; q += k, total++)
+		if ((k = text_utf8_seq(p + q, len - q)) == 0)
+			k = 1;
+	while (i < len) {
+		if ((k = text_utf8_seq(p + i, len - i)) == 0)
+			k = 1;
+		if (chars + 1 == width && total > width) {
+			mbuf_puts(out, "\u2026");
+			chars++;
+			break;
+		}
+		if (p[i] < 0x20 || p[i] == 0x7F || (k == 1 && p[i] >= 0x80))
+			mbuf_add(out, " ", 1);
+		else
+			mbuf_add(out, s + i, k);
+		i += k;
+		chars++;
+	}
+	while (!last && chars++ < width)
+		mbuf_add(out, " ", 1);
+}
+
 enum errcode
 render_site_attempts_text(const struct site_attempt *a, size_t n,
-    const struct tzone *tz, struct mbuf *out)
+    size_t total, const struct tzone *tz, struct mbuf *out)
 {
-	char t0[40], local[48];
+	char t0[48], utc[48];
 
-	mbuf_printf(out, "%5s %-10s %-20s %4s %6s %5s %3s %-10s %6s %5s\n",
-	    "id", "target", "start UTC", "min", "shots", "ret", "NP",
-	    "outcome", "synod", "el");
+	mbuf_printf(out, "%5s %-21s %-9s %-10s %5s %2s %-9s %s\n", "id",
+	    tz != NULL ? "start (local)" : "start", "target", "outcome", "ret",
+	    "NP", "operator", "notes");
 	for (size_t i = 0; i < n; i++) {
-		render_utc_text(a[i].start_mjd, 0, t0, sizeof t0);
-		mbuf_printf(out, "%5ld %-10.10s %-20s %4.0f %6ld %5ld %3ld "
-		    "%-10s %6.1f %5.1f\n", a[i].id, a[i].target, t0,
-		    (a[i].end_mjd - a[i].start_mjd) * 1440.0, a[i].shots,
-		    a[i].returns, a[i].normal_points,
-		    site_outcome_name(a[i].outcome), a[i].synodic_deg,
-		    a[i].target_el_deg);
-		if (tz != NULL && tzone_format(tz, TEXT_MJD0, a[i].start_mjd,
-		    local, sizeof local) == ERRCODE_OK)
-			mbuf_printf(out, "%5s %-10s %s local\n", "", "", local);
+		if (tz == NULL || tzone_format(tz, TEXT_MJD0, a[i].start_mjd,
+		    t0, sizeof t0) != ERRCODE_OK) {
+			/* "YYYY-MM-DDTHH:MM:SSZ" as "YYYY-MM-DD HH:MM UTC" */
+			render_utc_text(a[i].start_mjd, 0, utc, sizeof utc);
+			snprintf(t0, sizeof t0, "%.10s %.5s UTC", utc,
+			    strlen(utc) >= 16 ? utc + 11 : "?");
+		}
+		mbuf_printf(out, "%5ld ", a[i].id);
+		text_cell(out, t0, 21, 0);
+		mbuf_add(out, " ", 1);
+		text_cell(out, a[i].target, 9, 0);
+		mbuf_printf(out, " %-10s %5ld %2ld ",
+		    site_outcome_name(a[i].outcome), a[i].returns,
+		    a[i].normal_points);
+		text_cell(out, a[i].operator_name, 9, a[i].notes[0] == '\0');
+		if (a[i].notes[0] != '\0') {
+			mbuf_add(out, " ", 1);
+			text_cell(out, a[i].notes, 12, 1);
+		}
+		mbuf_add(out, "\n", 1);
 	}
 	if (n == 0)
 		mbuf_puts(out, "(no attempts match)\n");
+	else if (total > n)
+		mbuf_printf(out, "%zu of %zu attempts, the newest\n", n, total);
 	else
 		mbuf_printf(out, "%zu attempt%s\n", n, n == 1 ? "" : "s");
 	return mbuf_status(out);

@@ -40,10 +40,13 @@ enum errcode render_site_attempt_json(const struct site_attempt *a,
 	"returns,normal_points,outcome,operator,seeing_arcsec,notes"
 enum errcode render_site_attempts_csv(const struct site_attempt *a, size_t n,
     int derived, struct mbuf *out);
-/* A table for people, 80 columns; tz (a zone table, qzone_load) adds
-   local start times. */
+/* A table for people in 80 columns: id, start (local, from the zone table
+   tz of qzone_load, when not NULL, else UTC), target, outcome, returns,
+   normal points, operator and notes (cut to fit, control characters as
+   spaces); then a count, "N of TOTAL attempts" when a limit left some
+   out (total > n). */
 enum errcode render_site_attempts_text(const struct site_attempt *a,
-    size_t n, const struct tzone *tz, struct mbuf *out);
+    size_t n, size_t total, const struct tzone *tz, struct mbuf *out);
 
 /* --- station, targets, blackouts, normal points --- */
 
