@@ -33,7 +33,7 @@ TOTAL=$((TOTAL + 1))
 "$M" log list --db "$DB" >"$T/list.txt"
 check "header names operator and notes" "head -1 '$T/list.txt' | grep -q 'operator *notes\$'"
 check "the newest 20 rows" "[ \$(sed '1d;\$d' '$T/list.txt' | wc -l) = 20 ]"
-check "the count says how many of how many" "tail -1 '$T/list.txt' | grep -qx '20 of $TOTAL attempts, the newest'"
+check "the count says how many of how many" "tail -1 '$T/list.txt' | grep -qx '20 attempts shown, the newest of $TOTAL'"
 NEWEST=$(q 'SELECT id FROM attempts ORDER BY start_mjd DESC LIMIT 1')
 check "newest first" "[ \"\$(sed -n 2p '$T/list.txt' | awk '{print \$1}')\" = '$NEWEST' ]"
 check "the operator is shown, cut to fit" "sed -n 2p '$T/list.txt' | grep -q 'Zoë Inve… a long note…\$'"
@@ -52,6 +52,59 @@ check "--json: the newest 20, newest first" "'$M' log list --db '$DB' --json | $
 "$M" log list --db "$DB" --all --limit 3 >/dev/null 2>"$T/err"
 check "--all and --limit exclude each other" "[ \$? = 2 ] && grep -q -- '--all' '$T/err'"
 check "help states the default" "'$M' log list --help | grep -q 'newest 20'"
+
+# --- long imports ----------------------------------------------------------------
+# 30000 invented rows (about 2.7 MB): long enough to show progress.
+mkdir -p "$T/empty"
+cp "$SRC"/sample-site/station.ini "$SRC"/sample-site/targets.csv "$T/empty/"
+$PY - "$T/big.csv" <<'PYEOF'
+import sys, datetime
+t0 = datetime.datetime(2027, 1, 1)
+with open(sys.argv[1], "w", newline="") as f:
+    f.write("target,start_utc,end_utc,shots,returns,normal_points,outcome,"
+            "operator,seeing_arcsec,notes\r\n")
+    for i in range(30000):
+        s = t0 + datetime.timedelta(minutes=3 * i)
+        e = s + datetime.timedelta(minutes=2)
+        f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
+            ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
+            e.isoformat(), 1000 + i, i % 7, i))
+PYEOF
+B=$T/big.db
+"$M" init --db "$B" --site "$T/empty" >/dev/null
+"$M" log import --db "$B" "$T/big.csv" >"$T/imp.out" 2>"$T/imp.err"
+check "an import into a pipe: no progress text" "[ ! -s '$T/imp.err' ] && grep -q '30000 attempts read, 30000 added' '$T/imp.out'"
+if command -v script >/dev/null; then
+	"$M" init --db "$T/tty.db" --site "$T/empty" --force >/dev/null
+	# On a terminal (script(1) gives one): "line N of 30001 (P%)".
+	script -qec "'$M' log import --db '$T/tty.db' '$T/big.csv'; echo EXIT=\$?" \
+	    /dev/null >"$T/tty.out" 2>&1 &
+	SP=$!
+	for _ in $(seq 1 400); do
+		grep -q 'line [0-9]* of 30001 ([0-9]*%)' "$T/tty.out" 2>/dev/null && break
+		sleep 0.05
+	done
+	check "on a terminal: progress with the total and a percentage" "grep -q 'moonrange: .*big.csv: line [0-9]* of 30001 ([0-9]*%)' '$T/tty.out'"
+	# Ctrl-C: the moonrange process under script's shell gets SIGINT.
+	MP=
+	for c in $(pgrep -P "$SP"); do
+		MP=$(pgrep -P "$c" | head -1)
+	done
+	if [ -n "$MP" ]; then
+		kill -INT "$MP"
+		wait "$SP"
+		tr '\r' '\n' <"$T/tty.out" >"$T/tty.txt"
+		check "SIGINT: says nothing was stored" "grep -q '^moonrange: error: .*big.csv: interrupted; nothing of it was stored' '$T/tty.txt'"
+		check "SIGINT: exit status 130" "grep -q '^EXIT=130' '$T/tty.txt'"
+		check "SIGINT: nothing stored" "[ \"\$(sqlite3 '$T/tty.db' 'SELECT count(*) FROM attempts')\" = 0 ]"
+		check "SIGINT: the database is intact" "[ \"\$(sqlite3 '$T/tty.db' 'PRAGMA integrity_check')\" = ok ]"
+	else
+		wait "$SP"
+		bad "SIGINT: the import ended before it could be interrupted"
+	fi
+else
+	echo "# skip: script(1) not installed (bsdutils)"
+fi
 
 echo "1..$n"
 [ "$fails" -eq 0 ]

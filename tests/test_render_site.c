@@ -193,7 +193,7 @@ test_render_site_attempts_text_fits(void **state)
 	assert_non_null(strstr(b.data, "\xc3\x89milie F\xe2\x80\xa6"));
 	assert_non_null(strstr(b.data, "A-VERY-L\xe2\x80\xa6"));
 	assert_null(strstr(b.data, "then\nstop"));
-	assert_non_null(strstr(b.data, "2 of 40 attempts, the newest\n"));
+	assert_non_null(strstr(b.data, "2 attempts shown, the newest of 40\n"));
 	assert_true(text_utf8_valid(b.data, b.len));
 	mbuf_free(&b);
 	/* A zone of one offset, UTC-7 named MST, from 1970 to 2100: 04:00

@@ -5,7 +5,10 @@
 #include <math.h>
 #include <stdarg.h>
 #include <stdio.h>
+#include <signal.h>
 #include <string.h>
+#include <time.h>
+#include <unistd.h>
 
 #include "cli/cli.h"
 #include "core/text.h"
@@ -226,9 +229,52 @@ cli_store_target_by_alias(const struct cli_store *c, const char *name)
 
 /* --- importers ------------------------------------------------------------ */
 
-/* Records between progress lines of a long import (on stderr). */
-#define PROGRESS_EVERY 5000
+/* A file this long shows its progress (on a terminal only). */
 #define PROGRESS_BYTES (512u * 1024u)
+#define PROGRESS_S 0.25		/* seconds between updates */
+
+/* --- interruption ------------------------------------------------------------
+ * An import is one transaction: Ctrl-C (SIGINT) while it runs sets a
+ * flag; the parse stops at the next record, the transaction is rolled
+ * back, and the command says that nothing was stored. */
+
+static volatile sig_atomic_t interrupted;
+static struct sigaction old_int;
+static int int_depth;
+
+static void
+on_sigint(int sig)
+{
+	(void)sig;
+	interrupted = 1;
+}
+
+void
+cli_store_interrupt_begin(void)
+{
+	struct sigaction sa;
+
+	if (int_depth++ > 0)
+		return;
+	interrupted = 0;
+	memset(&sa, 0, sizeof sa);
+	sa.sa_handler = on_sigint;
+	sigemptyset(&sa.sa_mask);
+	(void)sigaction(SIGINT, &sa, &old_int);
+}
+
+int
+cli_store_interrupted(void)
+{
+	return interrupted != 0;
+}
+
+void
+cli_store_interrupt_end(void)
+{
+	if (int_depth > 0 && --int_depth == 0)
+		(void)sigaction(SIGINT, &old_int, NULL);
+}
 
 /* Per-target tallies of a CRD file (its summary). */
 #define CRD_MAX_TALLY 64
@@ -238,7 +284,10 @@ struct job {
 	struct import_report *rep;
 	const char *file;
 	struct cli_store_counts *n;
-	int progress;
+	int progress;			/* show it (a long file, a terminal) */
+	size_t lines;			/* lines of the file */
+	double next;			/* monotonic time of the next update */
+	int shown;			/* width of the progress line shown */
 	struct {
 		char id[SITE_ID_LEN];
 		size_t added, present;
@@ -246,13 +295,42 @@ struct job {
 	size_t ntally;
 };
 
-static void
-job_seen(struct job *j)
+static double
+mono_s(void)
 {
+	struct timespec t;
+
+	clock_gettime(CLOCK_MONOTONIC, &t);
+	return (double)t.tv_sec + (double)t.tv_nsec / 1e9;
+}
+
+/* One record at line: count it, show progress; 1 when interrupted (the
+   callback then stops the parse). */
+static int
+job_seen(struct job *j, size_t line)
+{
+	double now;
+
 	j->n->read++;
-	if (j->progress && j->n->read % PROGRESS_EVERY == 0)
-		fprintf(stderr, "moonrange: progress: %s: %zu records read\n",
-		    j->file, j->n->read);
+	if (interrupted)
+		return 1;
+	if (j->progress && (now = mono_s()) >= j->next) {
+		j->next = now + PROGRESS_S;
+		j->shown = fprintf(stderr, "\rmoonrange: %s: line %zu of %zu "
+		    "(%.0f%%)", j->file, line, j->lines, j->lines ? 100.0 *
+		    (double)line / (double)j->lines : 100.0);
+		fflush(stderr);
+	}
+	return 0;
+}
+
+/* Clear the progress line. */
+static void
+job_progress_done(struct job *j)
+{
+	if (j->shown > 0)
+		fprintf(stderr, "\r%*s\r", j->shown, "");
+	j->shown = 0;
 }
 
 /*
@@ -296,7 +374,8 @@ one_target(void *ctx, const struct site_target *t, size_t line)
 	struct job *j = ctx;
 	char err[512];
 
-	job_seen(j);
+	if (job_seen(j, line))
+		return ERRCODE_IO;
 	return job_result(j, store_target_add(j->c->s, t, err, sizeof err),
 	    line, err);
 }
@@ -309,7 +388,8 @@ one_attempt(void *ctx, const struct site_attempt *in, size_t line)
 	char err[512];
 	enum errcode rc;
 
-	job_seen(j);
+	if (job_seen(j, line))
+		return ERRCODE_IO;
 	if (cli_store_target(j->c, a.target) == NULL) {
 		cli_store_rep_add(j->rep, line, "target", "no target '%s' in "
 		    "the database", a.target);
@@ -332,7 +412,8 @@ one_np(void *ctx, const struct import_crd_np *in, size_t line)
 	size_t k;
 	int inserted = 0;
 
-	job_seen(j);
+	if (job_seen(j, line))
+		return ERRCODE_IO;
 	if ((t = cli_store_target_by_alias(j->c, in->target_name)) == NULL) {
 		cli_store_rep_add(j->rep, line, "target", "no target has the "
 		    "alias or id '%s'", in->target_name);
@@ -364,7 +445,8 @@ one_eop(void *ctx, const struct site_eop_row *r, size_t line)
 	struct job *j = ctx;
 	char err[512];
 
-	job_seen(j);
+	if (job_seen(j, line))
+		return ERRCODE_IO;
 	return job_result(j, store_eop_put(j->c->s, r, err, sizeof err), line,
 	    err);
 }
@@ -392,7 +474,10 @@ run_job(struct cli_store *c, const char *file, size_t len, int kind,
 	j->rep = rep;
 	j->file = file;
 	j->n = n;
-	j->progress = len > PROGRESS_BYTES;
+	j->progress = len > PROGRESS_BYTES && isatty(STDERR_FILENO);
+	for (size_t k = 0; j->progress && k < len; k++)
+		j->lines += buf[k] == '\n';
+	j->next = mono_s();
 	switch (kind) {
 	case 't':
 		rc = import_targets_csv(buf, len, one_target, j, rep);
@@ -413,7 +498,10 @@ run_job(struct cli_store *c, const char *file, size_t len, int kind,
 		break;
 	}
 	n->unused = rep->skipped;
-	if (rc == ERRCODE_NOMEM || rc == ERRCODE_DB) {
+	job_progress_done(j);
+	if (interrupted) {
+		st = CLI_EXIT_INTERRUPTED;
+	} else if (rc == ERRCODE_NOMEM || rc == ERRCODE_DB) {
 		cli_store_rep_print(rep, file);
 		st = cli_fail("%s: the database failed during the import (%s)",
 		    file, errcode_str(rc));
@@ -514,11 +602,18 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 		mem_free(buf);
 		return cli_fail("%s: %s", c->path, err);
 	}
+	cli_store_interrupt_begin();
 	st = run_job(c, file, len, kind, buf, n, 0);
+	if (st == CLI_EXIT_OK && cli_store_interrupted())
+		st = CLI_EXIT_INTERRUPTED;
 	if (st == CLI_EXIT_OK && (rc = store_commit(c->s, err, sizeof err)))
 		st = cli_fail("%s: %s", c->path, err);
 	if (st != CLI_EXIT_OK)
 		store_rollback(c->s);
+	if (st == CLI_EXIT_INTERRUPTED)
+		(void)cli_fail("%s: interrupted; nothing of it was stored (the "
+		    "import is one transaction)", file);
+	cli_store_interrupt_end();
 	mem_free(buf);
 	return st;
 }

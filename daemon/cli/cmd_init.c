@@ -143,6 +143,7 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 	an = en = tn;
 	if ((rc = store_begin(c->s, err, sizeof err)))
 		return cli_fail("%s: %s", c->path, err);
+	cli_store_interrupt_begin();
 	snprintf(path, sizeof path, "%s/station.ini", dir);
 	if ((st = read_site_file(path, &buf, &len)) ||
 	    (st = cli_store_import_station(c, path, buf, len)) ||
@@ -188,6 +189,10 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 		mem_free(buf);
 		buf = NULL;
 	}
+	if (cli_store_interrupted()) {
+		st = CLI_EXIT_INTERRUPTED;
+		goto out;
+	}
 	if ((rc = store_commit(c->s, err, sizeof err))) {
 		st = cli_fail("%s: %s", c->path, err);
 		goto out;
@@ -199,6 +204,10 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 out:
 	if (st != CLI_EXIT_OK)
 		store_rollback(c->s);
+	if (st == CLI_EXIT_INTERRUPTED)
+		(void)cli_fail("%s: interrupted; nothing was stored (no "
+		    "database was made)", name);
+	cli_store_interrupt_end();
 	for (size_t i = 0; i < ncrd; i++)
 		mem_free(crd[i]);
 	mem_free(buf);

@@ -52,8 +52,11 @@ np_import(const struct cli_args *a)
 			    "already present, %zu records of unused types "
 			    "skipped\n", a->ops[i], n.read, n.read == 1 ? "" :
 			    "s", n.added, n.present, n.unused);
-		else if (st == CLI_EXIT_OK || fst == CLI_EXIT_FAIL)
+		else if (st == CLI_EXIT_OK || fst == CLI_EXIT_FAIL ||
+		    fst == CLI_EXIT_INTERRUPTED)
 			st = fst;
+		if (fst == CLI_EXIT_INTERRUPTED)
+			break;		/* the files before it are stored */
 	}
 out:
 	cli_store_close(&c);

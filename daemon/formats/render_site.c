@@ -247,7 +247,8 @@ render_site_attempts_text(const struct site_attempt *a, size_t n,
 	if (n == 0)
 		mbuf_puts(out, "(no attempts match)\n");
 	else if (total > n)
-		mbuf_printf(out, "%zu of %zu attempts, the newest\n", n, total);
+		mbuf_printf(out, "%zu attempt%s shown, the newest of %zu\n", n,
+		    n == 1 ? "" : "s", total);
 	else
 		mbuf_printf(out, "%zu attempt%s\n", n, n == 1 ? "" : "s");
 	return mbuf_status(out);

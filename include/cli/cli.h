@@ -14,6 +14,7 @@
 #define CLI_EXIT_OK	0
 #define CLI_EXIT_FAIL	1	/* runtime failure: database, file, network */
 #define CLI_EXIT_USAGE	2	/* bad input: option, value, time, file row */
+#define CLI_EXIT_INTERRUPTED 130	/* stopped by SIGINT (128 + 2) */
 
 /*
  * The command table.  Every subcommand is declared once, as a

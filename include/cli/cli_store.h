@@ -98,6 +98,7 @@ struct cli_store_counts {
 	size_t unused;			/* record types not used (CRD) */
 };
 
+/* Long files show "line N of M (P%)" on stderr when it is a terminal. */
 int cli_store_import_station(struct cli_store *c, const char *file,
     const char *buf, size_t len);
 int cli_store_import_targets(struct cli_store *c, const char *file,
@@ -113,9 +114,21 @@ int cli_store_import_eop(struct cli_store *c, const char *file,
     const char *buf, size_t len, int c04, struct cli_store_counts *n);
 
 /* Read a file and run one of the above in its own transaction.
-   kind: 'a' attempts, 'n' CRD, 'e' finals, 'c' C04. */
+   kind: 'a' attempts, 'n' CRD, 'e' finals, 'c' C04.  Ctrl-C (SIGINT)
+   stops it: rolled back, "interrupted; nothing of it was stored" on
+   stderr, CLI_EXIT_INTERRUPTED. */
 int cli_store_import_file(struct cli_store *c, const char *file, int kind,
     struct cli_store_counts *n);
+
+/*
+ * While a transaction of imports runs (begin ... end, nestable), SIGINT
+ * only sets a flag: the importers above stop at the next record and give
+ * CLI_EXIT_INTERRUPTED (nothing printed), and the caller rolls back.
+ * cli_store_interrupted() says whether it came.
+ */
+void cli_store_interrupt_begin(void);
+int cli_store_interrupted(void);
+void cli_store_interrupt_end(void);
 
 /* The loaded target whose alias is name, else whose id is name. */
 const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
