@@ -26,7 +26,7 @@ TOTAL=$(q 'SELECT count(*) FROM attempts')
 "$M" log add --db "$DB" --target HERON --start 2026-12-01T05:00:00Z \
     --end 2026-12-01T05:20:00Z --shots 9000 --returns 44 --normal-points 2 \
     --outcome ranged --operator 'Zoë Invented-Operator' \
-    --notes 'a long note that will not fit in the column' >/dev/null
+    --notes 'a long note that will not fit in the column' >/dev/null 2>&1
 TOTAL=$((TOTAL + 1))
 
 # --- the default table -------------------------------------------------------
@@ -68,7 +68,7 @@ with open(sys.argv[1], "w", newline="") as f:
         e = s + datetime.timedelta(minutes=2)
         f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
             ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
-            e.isoformat(), 1000 + i, i % 7, i))
+            e.isoformat(), 1000 + i % 1000, i % 7, i))
 PYEOF
 B=$T/big.db
 "$M" init --db "$B" --site "$T/empty" >/dev/null
