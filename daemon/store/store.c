@@ -605,7 +605,7 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		/* A WAL database is read through its -shm file, which SQLite
 		   must be able to create beside it. */
 		if ((sqlite3_extended_errcode(s->db) & 0xff) == SQLITE_READONLY)
-			(void)text_err(ERRCODE_OK, errbuf, errlen,
+			e = text_err(ERRCODE_DB, errbuf, errlen,
 			    "cannot read database '%s': "
 			    "SQLite needs to create '%s-shm' beside it (is its "
 			    "directory read-only?): %s", path, path,
