@@ -7,6 +7,7 @@
 #include <string.h>
 #include <sys/stat.h>
 #include <time.h>
+#include <unistd.h>
 
 #include "http/api.h"
 #include "cli/cli.h"
@@ -195,6 +196,13 @@ run(const struct cli_args *a)
 	cfg.db_path = db_path;
 	cfg.token = token[0] ? token : NULL;
 	cfg.token_file = token[0] ? token_file : NULL;
+	/* A file the daemon may not write (mode 0444, a read-only mount):
+	   say so at once instead of a 500 on the first POST. */
+	if (access(db_path, W_OK) != 0) {
+		cfg.db_read_only = 1;
+		log_warn("%s cannot be written (%s): writes are disabled",
+		    db_path, strerror(errno));
+	}
 	cfg.refresh_s = refresh;
 	cfg.start_posix = (double)time(NULL);
 	cfg.plan_days = 0;

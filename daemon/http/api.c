@@ -438,6 +438,7 @@ api_new(const struct api_config *cfg)
 		ctx->token_len = n;
 	}
 	ctx->plan_days = cfg->plan_days;	/* 0: the store's setting */
+	ctx->db_read_only = cfg->db_read_only;
 	mbuf_init(&ctx->plan_windows);
 	mbuf_init(&ctx->plan_coverage);
 	ctx->refresh_s = cfg->refresh_s;

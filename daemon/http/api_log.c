@@ -372,6 +372,11 @@ write_body(struct api_ctx *ctx, const struct api_request *req,
 		    "was started without --token-file");
 		return -1;
 	}
+	if (ctx->db_read_only) {
+		api_error(resp, ERRCODE_CONFIG, NULL, "writes are disabled: "
+		    "the daemon cannot write its database file (read-only)");
+		return -1;
+	}
 	if (req->body_too_large) {
 		snprintf(msg, sizeof msg, "the body is larger than %d bytes",
 		    API_BODY_MAX);

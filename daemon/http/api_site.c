@@ -64,7 +64,7 @@ api_h_status(struct api_ctx *ctx, const struct api_request *req,
 	bad |= json_object_set_new(root, "targets_active",
 	    json_integer((json_int_t)active));
 	bad |= json_object_set_new(root, "writes_enabled",
-	    json_boolean(ctx->token_len > 0));
+	    json_boolean(ctx->token_len > 0 && !ctx->db_read_only));
 	bad |= json_object_set_new(root, "token_file",
 	    ctx->token_file ? json_string(ctx->token_file) : json_null());
 

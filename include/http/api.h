@@ -90,6 +90,10 @@ struct api_config {
 					   /status (the path, never the token)
 					   so that the page can say where it
 					   lives; may be NULL */
+	int db_read_only;		/* the database file cannot be written
+					   (e.g. mode 0444): writes answer 503
+					   and /status says writes_enabled
+					   false */
 	double plan_days;		/* span of the plan cache, days; 0:
 					   the store's plan_days setting */
 	double refresh_s;		/* plan refresh interval, seconds */

@@ -28,6 +28,7 @@ struct api_ctx {
 	char *token_file;		/* NULL: none given */
 	char token[API_TOKEN_MAX + 1];
 	size_t token_len;		/* 0: writes are refused */
+	int db_read_only;		/* api_config.db_read_only */
 	double plan_days, refresh_s, start_posix;
 	struct api_site site;
 	struct store *db;		/* borrowed */
