@@ -45,13 +45,16 @@ PORT = int(m.group(1))
 def raw(data, timeout=20):
     """Send bytes as written; return (status, headers, body)."""
     s = socket.create_connection(("127.0.0.1", PORT), timeout=timeout)
-    s.sendall(data)
-    s.shutdown(socket.SHUT_WR)
+    try:
+        s.sendall(data)
+        s.shutdown(socket.SHUT_WR)
+    except OSError:
+        pass  # the server answered (and closed) before the whole request
     out = b""
     while True:
         try:
             chunk = s.recv(65536)
-        except socket.timeout:
+        except (socket.timeout, ConnectionResetError):
             break
         if not chunk:
             break
