@@ -425,10 +425,55 @@ test_sched_deterministic(void **state)
 	sched_plan_free(&b);
 }
 
+/*
+ * Precision weighting (detector.jitter_ps set): each normal point of a
+ * run counts w = jitter^2 / (jitter^2 + spread^2) of an untilted one's
+ * information.  The same runs evaluated with w = 1 everywhere give the
+ * unweighted value exactly, with w = 0 no information at all, and with
+ * w = 1/2 less than with 1; each run records its weight.
+ */
+static void
+test_sched_precision_weight(void **state)
+{
+	static struct inst in;
+	static double w1[MAXT * MAXS], w0[MAXT * MAXS], wh[MAXT * MAXS];
+	struct sched_plan a;
+	double v_null, v1, v0, vh;
+
+	(void)state;
+	make(&in, 300, 4, 0);
+	in.vs.phase_weight = in.vs.orientation_weight = 1.0;
+	for (size_t i = 0; i < MAXT * MAXS; i++) {
+		w1[i] = 1.0;
+		w0[i] = 0.0;
+		wh[i] = 0.5;
+	}
+	assert_int_equal(sched_solve(&in.p, SCHED_GREEDY, &a), ERRCODE_OK);
+	assert_true(a.n > 0);
+	assert_int_equal(sched_evaluate(&in.p, a.runs, a.n, &v_null),
+	    ERRCODE_OK);
+	in.p.precision = w1;
+	assert_int_equal(sched_evaluate(&in.p, a.runs, a.n, &v1), ERRCODE_OK);
+	check_near(v1, v_null, 1e-12 * fabs(v_null), "", "w = 1: unweighted");
+	in.p.precision = wh;
+	assert_int_equal(sched_evaluate(&in.p, a.runs, a.n, &vh), ERRCODE_OK);
+	for (size_t i = 0; i < a.n; i++)
+		if (a.runs[i].target != SCHED_CALIBRATION)
+			check_near(a.runs[i].precision_weight, 0.5, 0.0, "",
+			    "recorded weight");
+	in.p.precision = w0;
+	assert_int_equal(sched_evaluate(&in.p, a.runs, a.n, &v0), ERRCODE_OK);
+	check_near(v0, 0.0, 1e-12, "", "w = 0: no information");
+	assert_true(vh > 0.0 && vh < v1);
+	in.p.precision = NULL;
+	sched_plan_free(&a);
+}
+
 int
 main(void)
 {
 	const struct CMUnitTest tests[] = {
+		cmocka_unit_test(test_sched_precision_weight),
 		cmocka_unit_test(test_sched_constraints_random),
 		cmocka_unit_test(test_sched_equals_brute_force),
 		cmocka_unit_test(test_sched_never_below_greedy),

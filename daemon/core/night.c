@@ -10,6 +10,7 @@
 #include <erfa.h>
 #include <erfam.h>
 
+#include "core/array.h"
 #include "core/mem.h"
 #include "core/night.h"
 #include "core/text.h"
@@ -114,6 +115,7 @@ struct work {
 	struct value_phase *ph;
 	size_t *phase_of;
 	double *npr;
+	double *prec;		/* nt x nslots: precision weight (jitter set) */
 	double *dd, *ww;	/* held angles and weights */
 	long *counts;		/* (nt + 1) x nbins */
 	struct window_node *nodes;
@@ -137,6 +139,7 @@ work_free(struct work *w)
 	mem_free(w->ph);
 	mem_free(w->phase_of);
 	mem_free(w->npr);
+	mem_free(w->prec);
 	mem_free(w->dd);
 	mem_free(w->ww);
 	mem_free(w->counts);
@@ -275,6 +278,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	w.ph = mem_calloc(nt + 1, sizeof(struct value_phase));
 	w.phase_of = mem_calloc(nt + 1, sizeof(size_t));
 	w.npr = mem_calloc(nt + 1, sizeof(double));
+	w.prec = mem_calloc(nt * nslots + 1, sizeof(double));
 	w.dd = mem_calloc(q.nnps + q.nattempts + 1, sizeof(double));
 	w.ww = mem_calloc(q.nnps + q.nattempts + 1, sizeof(double));
 	w.counts = mem_calloc((nt + 1) * nb, sizeof(long));
@@ -283,7 +287,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	w.nodes = mem_calloc(nn, sizeof(struct window_node));
 	if (!w.avail || !w.clear || !w.ret || !w.h || !w.syn || !w.binw ||
 	    !w.el || !w.moon_el || !w.sun_el || !w.sun_sep || !w.lit ||
-	    !w.ph || !w.phase_of || !w.npr || !w.dd || !w.ww || !w.counts ||
+	    !w.ph || !w.phase_of || !w.npr || !w.prec || !w.dd || !w.ww || !w.counts ||
 	    !w.bodies || !w.nodes) {
 		rc = ERRCODE_NOMEM;
 		goto out;
@@ -389,6 +393,20 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 				u[c] = los[c] / r;
 			value_orient_vector(w.bodies[j].body, u,
 			    w.h + (j * nslots + k) * VALUE_ODIM);
+			/* Precision: jitter^2 / (jitter^2 + spread^2) of a
+			   return, when the station gives its jitter. */
+			w.prec[j * nslots + k] = 1.0;
+			if (isfinite(q.station.jitter_ps) &&
+			    q.station.jitter_ps > 0.0 && !moon) {
+				double tilt, spread, jj;
+
+				array_of_target(&gi, &w.bodies[j],
+				    find_target(&q, pr.models[j].id), &tilt,
+				    &spread);
+				jj = q.station.jitter_ps * q.station.jitter_ps;
+				w.prec[j * nslots + k] = jj / (jj + spread *
+				    spread);
+			}
 		}
 	}
 
@@ -471,6 +489,7 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	sp.synodic = w.syn;
 	sp.bin_weight = w.binw;
 	sp.npr = w.npr;
+	sp.precision = w.prec;
 	sp.vs = &ns->value;
 	sp.phase0 = w.ph;
 	sp.phase_of = w.phase_of;

@@ -126,23 +126,27 @@ run_gain(const struct sched_problem *p, const struct state *st,
 	size_t mid = r->start + (r->len - 1) / 2;
 	const double *h = p->h + (j * p->nslots + mid) * VALUE_ODIM;
 	double d = p->synodic[mid];
-	double n;
+	double n, w;
 
 	r->returns = returns;
 	n = r->nps = value_expected_nps(p->npr[j], returns,
 	    (double)r->len * p->slot_s);
+	/* A normal point of a tilted array is worth w of an untilted
+	   one's information (its variance grows by the pulse spread). */
+	w = r->precision_weight = p->precision != NULL ?
+	    p->precision[j * p->nslots + mid] : 1.0;
 	if (p->vs->model == VALUE_MODEL_BINS) {
 		r->phase_leverage = p->bin_weight[j * p->nslots + mid];
-		r->phase = n * r->phase_leverage;
+		r->phase = n * w * r->phase_leverage;
 	} else {
 		const struct value_phase *ph = &st->ph[p->phase_of[j]];
 
 		r->phase_leverage = value_phase_leverage(ph, d);
-		r->phase = value_phase_gain(ph, d, n, 1.0);
+		r->phase = value_phase_gain(ph, d, n, w);
 	}
 	r->orient_leverage = value_orient_leverage(&st->o, h);
-	r->orientation = value_orient_gain(&st->o, h, n);
-	r->value = value_combine(p->vs, n, r->phase, r->orientation);
+	r->orientation = value_orient_gain(&st->o, h, n * w);
+	r->value = value_combine(p->vs, n * w, r->phase, r->orientation);
 }
 
 /* Take a run whose gain r holds into the state. */
@@ -155,9 +159,9 @@ run_apply(const struct sched_problem *p, struct state *st,
 
 	if (p->vs->model == VALUE_MODEL_DESIGN)
 		value_phase_add(&st->ph[p->phase_of[j]], p->synodic[mid],
-		    r->nps, 1.0);
+		    r->nps, r->precision_weight);
 	value_orient_add(&st->o, p->h + (j * p->nslots + mid) * VALUE_ODIM,
-	    r->nps);
+	    r->nps * r->precision_weight);
 	st->g += r->value;
 	st->nps += r->nps;
 	st->last_end = (long)(r->start + r->len);

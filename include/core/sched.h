@@ -58,6 +58,10 @@ struct sched_problem {
 	const double *bin_weight;	/* ntargets x nslots: W (bins model;
 					   may be NULL under design) */
 	const double *npr;		/* ntargets: normal points per return */
+	const double *precision;	/* ntargets x nslots: information of a
+					   normal point relative to one from
+					   an untilted array, 0..1 (jitter^2 /
+					   (jitter^2 + spread^2)); NULL = 1 */
 	const struct value_settings *vs;
 	const struct value_phase *phase0; /* nphase information states */
 	size_t nphase;
@@ -73,6 +77,8 @@ struct sched_run {
 	size_t start, len;		/* slots */
 	double returns;			/* expected returns */
 	double nps;			/* expected normal points */
+	double precision_weight;	/* information per normal point, 0..1
+					   (sched_problem.precision) */
 	double phase;			/* phase term (nats; n W for bins) */
 	double orientation;		/* orientation gain, nats */
 	double value;			/* value_combine of the two */
