@@ -146,6 +146,12 @@ cli_main(int argc, char **argv)
 		return help_command(0, NULL);
 	if (strcmp(argv[1], "help") == 0)
 		return help_command(argc - 2, argv + 2);
+	if (strcmp(argv[1], "--man") == 0) {
+		cli_man(stdout);
+		return CLI_EXIT_OK;
+	}
+	if (strcmp(argv[1], "__complete") == 0)
+		return cli_complete(argc - 2, argv + 2);
 	if (strcmp(argv[1], "--version") == 0) {
 		printf("moonrange %s\n", MOONRANGE_VERSION);
 		return CLI_EXIT_OK;

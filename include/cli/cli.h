@@ -147,6 +147,14 @@ const char *cli_nearest(const char *s, const void *words, size_t n,
 void cli_help(FILE *f, const struct cli_command *cmd, const char *path);
 /* The program's help: the commands and their summaries. */
 void cli_help_main(FILE *f);
+/* The manual page moonrange(1) in troff, every command and action with
+   its options ('moonrange --man'; the build installs it). */
+void cli_man(FILE *f);
+/* Shell completion: argv holds the words typed before the one being
+   completed (after "moonrange"); prints the candidates, one a line:
+   commands, actions, options, an option's words, target ids from --db,
+   or "__files__" where a file name goes ('moonrange __complete ...'). */
+int cli_complete(int argc, char **argv);
 /* Write text from column col (the cursor is there; spaces up to indent
    first), wrapping at spaces before column 80 and indenting continuation
    lines to indent; '\n' in text breaks the line.  Ends with a newline.
