@@ -399,6 +399,20 @@ test_api_phases_same_bytes_as_cli(void **state)
 	}
 }
 
+/* GET /api/v1/eclipses is "moonrange eclipses --json", byte for byte. */
+static void
+test_api_eclipses_same_bytes_as_cli(void **state)
+{
+	struct http_reply r;
+
+	(void)state;
+	assert_int_equal(get("/api/v1/eclipses?from=2025-01-01T00:00:00Z"
+	    "&to=2027-01-01T00:00:00Z", &r), 200);
+	assert_cli_prints(&r, "eclipses --from 2025-01-01T00:00:00Z "
+	    "--to 2027-01-01T00:00:00Z --json");
+	http_reply_free(&r);
+}
+
 static void
 test_api_bad_parameters(void **state)
 {
@@ -422,6 +436,9 @@ test_api_bad_parameters(void **state)
 		    "&to=2027-01-01T00:00:00Z", "bad_arg", "to"},
 		{"/api/v1/phases?days=1&days=2", "bad_arg", "days"},
 		{"/api/v1/now?at=2027-03-14", "bad_time", "at"},
+		{"/api/v1/eclipses?days=0", "bad_arg", "days"},
+		{"/api/v1/eclipses?from=2027-02-01T00:00:00Z"
+		    "&to=2027-01-01T00:00:00Z", "bad_arg", "to"},
 	};
 	struct http_reply r;
 
@@ -1237,6 +1254,7 @@ main(void)
 		cmocka_unit_test(test_api_now_same_bytes_as_cli),
 		cmocka_unit_test(test_api_now_uses_clock),
 		cmocka_unit_test(test_api_phases_same_bytes_as_cli),
+		cmocka_unit_test(test_api_eclipses_same_bytes_as_cli),
 		cmocka_unit_test(test_api_bad_parameters),
 		cmocka_unit_test(test_api_not_found_and_method),
 		cmocka_unit_test(test_api_static_files),

@@ -15,6 +15,7 @@
 #include "http/api.h"
 #include "http/api_int.h"
 #include "core/text.h"
+#include "query/eclquery.h"
 #include "query/phquery.h"
 #include "query/winquery.h"
 #include "query/covquery.h"
@@ -364,6 +365,9 @@ static const struct route routes[] = {
 	    api_h_now, 0},
 	{{"GET", "/api/v1/phases", PHQUERY_PARAMS,
 	    "new moon, quarters and full moon in a span"}, api_h_phases, 1},
+	{{"GET", "/api/v1/eclipses", ECLQUERY_PARAMS,
+	    "lunar eclipses in a span (default a year): kind, magnitudes, "
+	    "contacts"}, api_h_eclipses, 1},
 	{{"GET", "/api/v1/windows", WINQUERY_PARAMS,
 	    "ranked observing windows (no parameters: the cached plan)"},
 	    api_h_windows, 1},

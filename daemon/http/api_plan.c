@@ -25,6 +25,7 @@
 #include "store/plan_db.h"
 #include "formats/render_time.h"
 #include "formats/render_phases.h"
+#include "query/eclquery.h"
 #include "formats/render_plan.h"
 #include "formats/render_site.h"
 #include "store/store.h"
@@ -52,6 +53,41 @@ api_h_phases(struct api_ctx *ctx, const struct api_request *req,
 		    sizeof err);
 	if (rc != ERRCODE_OK)
 		api_query_error(resp, rc, p.fault, err);
+	else
+		api_ok_or_error(resp, rc, 200, "application/json");
+}
+
+/* GET /api/v1/eclipses: the eclipses of a span (default a year from
+   now) as "moonrange eclipses --json" prints them. */
+void
+api_h_eclipses(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp)
+{
+	double now = (req->now1 - TEXT_MJD0) + req->now2, from, to;
+	const char *fault = NULL;
+	struct qspan sp;
+	char err[300];
+	enum errcode rc = ERRCODE_OK;
+
+	(void)ctx;
+	qspan_init(&sp);
+	err[0] = '\0';
+	for (size_t i = 0; i < req->nparams && rc == ERRCODE_OK; i++)
+		rc = qspan_set(&sp, req->params[i].key, req->params[i].value,
+		    now, ECLQUERY_DAYS_MAX, QPARAM_QUERY, &fault, err,
+		    sizeof err);
+	if (rc == ERRCODE_OK)
+		rc = qspan_resolve(&sp, now, ECLQUERY_DAYS_DEFAULT,
+		    ECLQUERY_DAYS_MAX, QPARAM_QUERY, &from, &to, &fault, err,
+		    sizeof err);
+	if (rc == ERRCODE_OK) {
+		rc = eclquery_run(from, to, NULL, ECLQUERY_JSON, &resp->body,
+		    err, sizeof err);
+		if (rc == ERRCODE_BAD_ARG)
+			fault = "to";
+	}
+	if (rc != ERRCODE_OK)
+		api_query_error(resp, rc, fault, err);
 	else
 		api_ok_or_error(resp, rc, 200, "application/json");
 }

@@ -52,6 +52,8 @@ void api_h_targets(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
 void api_h_now(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
+void api_h_eclipses(struct api_ctx *ctx, const struct api_request *req,
+    struct api_response *resp);
 void api_h_phases(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
 void api_h_windows(struct api_ctx *ctx, const struct api_request *req,
