@@ -524,19 +524,12 @@ store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 		e = ERRCODE_DB;
 		goto out;
 	}
-	if (v == 0 && version == (int)store_sql_nmigrations) {
-		if ((e = exec_sql(s, store_sql_schema, "creating the schema "
-		    "(schema.sql)", errbuf, errlen)) != ERRCODE_OK)
-			goto out;
-	} else {
-		for (int i = v; i < version; i++) {
-			const struct store_sql_migration *m =
-			    &store_sql_migrations[i];
+	for (int i = v; i < version; i++) {
+		const struct store_sql_migration *m = &store_sql_migrations[i];
 
-			if ((e = exec_sql(s, m->sql, m->name, errbuf, errlen)) !=
-			    ERRCODE_OK)
-				goto out;
-		}
+		if ((e = exec_sql(s, m->sql, m->name, errbuf, errlen)) !=
+		    ERRCODE_OK)
+			goto out;
 	}
 	snprintf(sql, sizeof sql, "PRAGMA user_version = %d", version);
 	if ((e = exec_sql(s, sql, "setting the schema version", errbuf,

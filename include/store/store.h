@@ -65,9 +65,9 @@ int store_schema_version(struct store *s);
 
 /*
  * Bring the schema to version (1..STORE_SCHEMA_VERSION), in one
- * transaction.  An empty file going straight to the current version gets
- * sql/schema.sql; every other step runs sql/migrations/NNNN_*.sql in
- * order.  Going down is refused.  store_open does this unless told not to.
+ * transaction, by running sql/migrations/NNNN_*.sql in order (an empty
+ * file runs them all: the migrations are the one source of the schema).
+ * Going down is refused.  store_open does this unless told not to.
  */
 enum errcode store_migrate(struct store *s, int version, char *errbuf,
     size_t errlen);

@@ -13,10 +13,8 @@ struct store_sql_migration {
 	const char *sql;		/* NUL-terminated statements */
 };
 
-/* sql/schema.sql: a new database at the last migration's version. */
-extern const char *const store_sql_schema;
-
-/* sql/migrations/NNNN_words.sql in order; entry i has version i + 1. */
+/* sql/migrations/NNNN_words.sql in order; entry i has version i + 1.  They
+   are the one source of the schema: a new database runs them all. */
 extern const struct store_sql_migration store_sql_migrations[];
 extern const size_t store_sql_nmigrations;
 
