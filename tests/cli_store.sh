@@ -13,6 +13,8 @@ SRC=$(cd "$2" && pwd)
 SITE=$SRC/sample-site
 T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-cli-store.XXXXXX")
 trap 'rm -rf "$T"' EXIT
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
 PY=/usr/bin/python3
 fails=0
 n=0
@@ -319,19 +321,7 @@ grep -v '^moonrange: warning: ' "$T/conc.err" | head -5 | sed 's/^/#   /'
 # --- kill -9 during a large import -----------------------------------------------
 K=$T/kill.db
 "$M" init --db "$K" --site "$T/noattempts" >/dev/null
-$PY - "$T/big.csv" <<'EOF'
-import sys, datetime
-t0 = datetime.datetime(2027, 1, 1)
-with open(sys.argv[1], "w", newline="") as f:
-    f.write("target,start_utc,end_utc,shots,returns,normal_points,outcome,"
-            "operator,seeing_arcsec,notes\r\n")
-    for i in range(60000):
-        s = t0 + datetime.timedelta(minutes=3 * i)
-        e = s + datetime.timedelta(minutes=2)
-        f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
-            ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
-            e.isoformat(), 1000 + i % 1000, i % 7, i))
-EOF
+lib_big_attempts_csv "$T/big.csv" 2027 60000
 "$M" log import --db "$K" "$T/big.csv" >/dev/null 2>"$T/kill.err" & kp=$!
 # Let the import get under way (progress is shown on a terminal only, so
 # there is no line to wait for here), then kill.

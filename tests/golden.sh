@@ -14,6 +14,8 @@ SRC=${2:?usage: golden.sh MOONRANGE_BINARY SOURCE_DIR [--update]}
 UPDATE=${3:-}
 G=$SRC/tests/golden
 T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-golden.XXXXXX")
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
 PID=
 cleanup() {
 	if [[ -n "$PID" ]] && kill -0 "$PID" 2>/dev/null; then
@@ -106,11 +108,7 @@ cli np_count.txt np count --db "$DB" --since 2025-01-01T00:00:00Z --until 2027-0
 "$BIN" serve --db "$DB" --listen 127.0.0.1:0 --refresh 86400 \
 	> "$T/serve.out" 2> "$T/serve.err" &
 PID=$!
-for _ in $(seq 100); do
-	grep -q '^moonrange: serving http' "$T/serve.out" 2>/dev/null && break
-	sleep 0.1
-done
-URL=$(sed -n 's/^moonrange: serving //p' "$T/serve.out")
+URL=$(lib_serve_url "$T/serve.out" 100 0.1)
 if [[ -z $URL ]]; then
 	echo "golden: the daemon did not start: $(cat "$T/serve.err")"
 	exit 1

@@ -22,14 +22,9 @@ PY=/usr/bin/python3
 T=$(mktemp -d /tmp/moonrange-load-XXXXXX)
 PID=
 BG=()
-cleanup() {
-	for p in "${BG[@]}"; do kill "$p" 2>/dev/null || true; done
-	if [[ -n "$PID" ]] && kill -0 "$PID" 2>/dev/null; then
-		kill -KILL "$PID" 2>/dev/null || true
-	fi
-	rm -rf "$T"
-}
-trap cleanup EXIT
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/../lib.sh"
+trap lib_cleanup EXIT
 fail() { echo "FAIL: $*" >&2; tail -n 20 "$T/err" >&2 2>/dev/null || true; exit 1; }
 command -v wrk > /dev/null || fail "wrk is not installed (apt-get install wrk)"
 
@@ -42,11 +37,7 @@ start_daemon() {	# $1: database
 	"$BIN" serve --db "$1" --listen 127.0.0.1:0 --token-file "$T/token" \
 		--refresh 600 --log-level warn > "$T/out" 2>> "$T/err" &
 	PID=$!
-	for _ in $(seq 300); do
-		grep -q '^moonrange: serving' "$T/out" 2>/dev/null && break
-		sleep 0.05
-	done
-	URL=$(sed -n 's/^moonrange: serving //p' "$T/out")
+	URL=$(lib_serve_url "$T/out" 300 0.05)
 	[[ -n "$URL" ]] || fail "the daemon did not start"
 }
 stop_daemon() {
@@ -141,19 +132,7 @@ done
 # --- 3. kill -9 during an import ---------------------------------------------
 "$BIN" init --db "$T/imp" > /dev/null
 base=$(rows "$T/imp")
-$PY - "$T/big.csv" <<'PYEOF'
-import sys, datetime
-t0 = datetime.datetime(2028, 1, 1)
-with open(sys.argv[1], "w", newline="") as f:
-    f.write("target,start_utc,end_utc,shots,returns,normal_points,outcome,"
-            "operator,seeing_arcsec,notes\r\n")
-    for i in range(20000):
-        s = t0 + datetime.timedelta(minutes=3 * i)
-        e = s + datetime.timedelta(minutes=2)
-        f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
-            ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
-            e.isoformat(), 1000 + i % 1000, i % 7, i))
-PYEOF
+lib_big_attempts_csv "$T/big.csv" 2028 20000
 for r in $(seq "$ROUNDS"); do
 	"$BIN" log import --db "$T/imp" "$T/big.csv" > /dev/null 2>&1 & ip=$!
 	sleep "0.$((RANDOM % 9 + 1))"

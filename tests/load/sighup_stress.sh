@@ -14,15 +14,10 @@ BIN=${1:?usage: sighup_stress.sh MOONRANGE_BINARY [SECONDS]}
 SECS=${2:-5}
 T=$(mktemp -d /tmp/moonrange-hup-XXXXXX)
 PID=
-WORKERS=()
-cleanup() {
-	for w in "${WORKERS[@]}"; do kill "$w" 2>/dev/null || true; done
-	if [[ -n "$PID" ]] && kill -0 "$PID" 2>/dev/null; then
-		kill -KILL "$PID" 2>/dev/null || true
-	fi
-	rm -rf "$T"
-}
-trap cleanup EXIT
+BG=()
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/../lib.sh"
+trap lib_cleanup EXIT
 fail() { echo "FAIL: $*" >&2; tail -n 40 "$T/err" >&2 || true; exit 1; }
 
 "$BIN" init --db "$T/db" > /dev/null
@@ -33,11 +28,7 @@ chmod 600 "$T/token"
 "$BIN" serve --db "$T/db" --listen 127.0.0.1:0 --token-file "$T/token" \
 	--refresh 10 --log-level warn > "$T/out" 2> "$T/err" &
 PID=$!
-for _ in $(seq 300); do
-	grep -q '^moonrange: serving' "$T/out" 2>/dev/null && break
-	sleep 0.1
-done
-URL=$(sed -n 's/^moonrange: serving //p' "$T/out")
+URL=$(lib_serve_url "$T/out" 300 0.1)
 [[ -n "$URL" ]] || fail "the daemon did not start"
 END=$((SECONDS + SECS))
 
@@ -67,8 +58,8 @@ get_worker() {
 	done > "$T/get$1"
 }
 for w in 1 2 3; do
-	post_worker "$w" & WORKERS+=($!)
-	get_worker "$w" & WORKERS+=($!)
+	post_worker "$w" & BG+=($!)
+	get_worker "$w" & BG+=($!)
 done
 hups=0
 while ((SECONDS < END)); do
@@ -77,8 +68,8 @@ while ((SECONDS < END)); do
 	hups=$((hups + 1))
 	sleep 0.05
 done
-for w in "${WORKERS[@]}"; do wait "$w" || true; done
-WORKERS=()
+for w in "${BG[@]}"; do wait "$w" || true; done
+BG=()
 kill -0 "$PID" 2>/dev/null || fail "the daemon died after $hups SIGHUPs"
 kill -TERM "$PID"
 set +e
