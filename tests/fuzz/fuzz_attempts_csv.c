@@ -26,12 +26,4 @@ row(void *ctx, const struct site_attempt *a, size_t line)
 	return ERRCODE_OK;
 }
 
-int
-LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
-{
-	struct import_report rep;
-
-	import_attempts_csv((const char *)data, size, row, NULL, &rep);
-	check_report(&rep);
-	return 0;
-}
+FUZZ_IMPORTER(import_attempts_csv, row)

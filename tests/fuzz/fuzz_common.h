@@ -66,4 +66,20 @@ check_report(const struct import_report *rep)
 	}
 }
 
+/*
+ * The entry point of a harness that feeds the input to one row-by-row
+ * importer (import_crd, import_targets_csv, ...) with the row callback cb,
+ * then checks the report.
+ */
+#define FUZZ_IMPORTER(importer, cb)					\
+	int								\
+	LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)	\
+	{								\
+		struct import_report rep;				\
+									\
+		importer((const char *)data, size, (cb), NULL, &rep);	\
+		check_report(&rep);					\
+		return 0;						\
+	}
+
 #endif

@@ -7,12 +7,4 @@
 #include "formats/import.h"
 #include "fuzz_common.h"
 
-int
-LLVMFuzzerTestOneInput(const uint8_t *data, size_t size)
-{
-	struct import_report rep;
-
-	import_targets_csv((const char *)data, size, any_target, NULL, &rep);
-	check_report(&rep);
-	return 0;
-}
+FUZZ_IMPORTER(import_targets_csv, any_target)
