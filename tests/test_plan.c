@@ -13,6 +13,7 @@
 #include <jansson.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/derive.h"
 #include "core/mem.h"
 #include "core/plan.h"
@@ -27,29 +28,6 @@
 
 /* A zone table for the text renderers (qzone_load: the C library). */
 static struct tzone denver;
-
-static char tmpdir[256];
-
-static int
-setup_dir(void **state)
-{
-	const char *base = getenv("TMPDIR");
-
-	(void)state;
-	snprintf(tmpdir, sizeof tmpdir, "%s/moonrange-plan-XXXXXX",
-	    base != NULL && *base ? base : "/tmp");
-	return mkdtemp(tmpdir) != NULL ? 0 : -1;
-}
-
-static int
-teardown_dir(void **state)
-{
-	char cmd[300];
-
-	(void)state;
-	snprintf(cmd, sizeof cmd, "rm -rf '%s'", tmpdir);
-	return system(cmd) == 0 ? 0 : -1;
-}
 
 /* --- an invented site --- */
 
@@ -494,7 +472,7 @@ test_plan_db_and_cli_same_bytes(void **state)
 
 	(void)state;
 	site_make(&s);
-	snprintf(db, sizeof db, "%s/site.db", tmpdir);
+	snprintf(db, sizeof db, "%s/site.db", fixture_dir);
 	assert_int_equal(store_open(db, STORE_OPEN_CREATE, &st, err,
 	    sizeof err), ERRCODE_OK);
 	assert_int_equal(store_station_put(st, &s.st, err, sizeof err),
@@ -542,7 +520,7 @@ test_plan_db_and_cli_same_bytes(void **state)
 	assert_int_equal(render_windows_json(&rp, &js), ERRCODE_OK);
 
 	assert_non_null(bin);
-	snprintf(outp, sizeof outp, "%s/cli.json", tmpdir);
+	snprintf(outp, sizeof outp, "%s/cli.json", fixture_dir);
 	snprintf(cmd, sizeof cmd, "'%s' windows --db '%s' --from "
 	    "2027-03-16T00:00:00Z --to 2027-03-18T00:00:00Z --json > '%s'",
 	    bin, db, outp);
@@ -671,6 +649,6 @@ main(void)
 	};
 
 	render_json_setup();
-	return cmocka_run_group_tests_name("plan", tests, setup_dir,
-	    teardown_dir);
+	return cmocka_run_group_tests_name("plan", tests, fixture_dir_setup,
+	    fixture_dir_teardown);
 }

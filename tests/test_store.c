@@ -8,39 +8,18 @@
 #include <unistd.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/derive.h"
 #include "core/mem.h"
 #include "store/store.h"
 
-static char tmpdir[256];
 static int fileno_seq;
 
 /* A fresh database path in the temporary directory. */
 static void
 db_path(char *buf, size_t len)
 {
-	snprintf(buf, len, "%s/t%d.db", tmpdir, ++fileno_seq);
-}
-
-static int
-setup_dir(void **state)
-{
-	const char *base = getenv("TMPDIR");
-
-	(void)state;
-	snprintf(tmpdir, sizeof tmpdir, "%s/moonrange-store-XXXXXX",
-	    base != NULL && *base ? base : "/tmp");
-	return mkdtemp(tmpdir) != NULL ? 0 : -1;
-}
-
-static int
-teardown_dir(void **state)
-{
-	char cmd[300];
-
-	(void)state;
-	snprintf(cmd, sizeof cmd, "rm -rf '%s'", tmpdir);
-	return system(cmd) == 0 ? 0 : -1;
+	snprintf(buf, len, "%s/t%d.db", fixture_dir, ++fileno_seq);
 }
 
 /* The invented sample station of these tests. */
@@ -842,6 +821,6 @@ main(void)
 		cmocka_unit_test(test_store_allocation_failure_is_clean),
 	};
 
-	return cmocka_run_group_tests_name("store", tests, setup_dir,
-	    teardown_dir);
+	return cmocka_run_group_tests_name("store", tests, fixture_dir_setup,
+	    fixture_dir_teardown);
 }
