@@ -692,6 +692,28 @@ dump_of(const char *path)
 	return mbuf_take(&b);
 }
 
+/* An empty file is not a database: refused without CREATE (it was given
+   a schema and became an empty station). */
+static void
+test_store_empty_file_refused(void **state)
+{
+	char path[300], err[300];
+	struct store *s = NULL;
+	FILE *f;
+
+	(void)state;
+	db_path(path, sizeof path);
+	assert_non_null(f = fopen(path, "w"));
+	fclose(f);
+	assert_int_equal(store_open(path, 0, &s, err, sizeof err), ERRCODE_DB);
+	assert_null(s);
+	assert_non_null(strstr(err, "empty file"));
+	/* With CREATE (init) it becomes a database. */
+	assert_int_equal(store_open(path, STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	store_close(s);
+}
+
 static void
 test_store_migrations_reach_the_same_schema(void **state)
 {
@@ -817,6 +839,7 @@ main(void)
 		cmocka_unit_test(test_store_settings),
 		cmocka_unit_test(test_store_transaction_all_or_nothing),
 		cmocka_unit_test(test_store_attempt_log_derives_with_stored_eop),
+		cmocka_unit_test(test_store_empty_file_refused),
 		cmocka_unit_test(test_store_migrations_reach_the_same_schema),
 		cmocka_unit_test(test_store_allocation_failure_is_clean),
 	};

@@ -8,6 +8,7 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
+#include <sys/stat.h>
 #include <unistd.h>
 
 #include <sqlite3.h>
@@ -569,6 +570,19 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
 		    "database '%s' does not exist (create it "
 		    "with 'moonrange init --db %s')", path, path);
+	}
+	if (!memory && !(flags & STORE_OPEN_CREATE)) {
+		struct stat st;
+
+		/* SQLite would take an empty file as a new database and the
+		   migration give it a schema: a truncated or mistyped file
+		   would quietly become an empty station. */
+		if (stat(path, &st) == 0 && S_ISREG(st.st_mode) &&
+		    st.st_size == 0)
+			return text_err(ERRCODE_DB, errbuf, errlen,
+			    "'%s' is an empty file, not a moonrange database "
+			    "(create one with 'moonrange init --db %s')", path,
+			    path);
 	}
 	if ((s = mem_calloc(1, sizeof *s)) == NULL) {
 		return text_err(ERRCODE_NOMEM, errbuf, errlen,
