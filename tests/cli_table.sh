@@ -95,5 +95,19 @@ check "... and stored" "'$M' target list --db '$DB' --json | /usr/bin/python3 -c
 check "target set --dark-only Off is taken" "'$M' target set --db '$DB' HERON --dark-only Off >/dev/null"
 expect_usage "a word that is not a boolean" "--dark-only: 'maybe'" target set --db "$DB" HERON --dark-only maybe
 
+# --- tables for people fit 80 columns; --wide gives the old layout ---------
+span=(--from 2027-03-14T00:00:00Z --to 2027-03-24T00:00:00Z)
+"$M" windows --db "$DB" "${span[@]}" >"$T/w80.txt"
+"$M" windows --db "$DB" "${span[@]}" --wide >"$T/wwide.txt"
+check "windows on the sample site fits 80 columns" "[ -s '$T/w80.txt' ] && awk 'length(\$0) > 80 { exit 1 }' '$T/w80.txt'"
+check "... the same windows as --wide, in the same order" "[ \"\$(awk 'NR > 4 { print \$1, \$2, \$3, \$4 }' '$T/w80.txt')\" = \"\$(awk 'NR > 4 { print \$1, \$2, \$3, \$4 }' '$T/wwide.txt')\" ]"
+check "windows --wide keeps the local dates (89 columns)" "awk 'length(\$0) > 80 { f = 1 } END { exit !f }' '$T/wwide.txt'"
+for args in "--db $DB" "" "--station 41.25,-105.5,2200 --target T-A=12.5,-20 --tz Europe/Madrid"; do
+	# shellcheck disable=SC2086
+	"$M" ephem $args --at 2027-03-01T04:00:00Z >"$T/e80.txt"
+	check "ephem ${args:-(demo station)} fits 80 columns" "[ -s '$T/e80.txt' ] && awk 'length(\$0) > 80 { exit 1 }' '$T/e80.txt'"
+done
+check "ephem --wide: station and DUT1 on one line" "'$M' ephem --db '$DB' --at 2027-03-01T04:00:00Z --wide | grep -q '^Station .* m   DUT1 '"
+
 echo "1..$n"
 [ "$fails" -eq 0 ]

@@ -68,19 +68,21 @@ ST=38.9712,-114.3098,2950
 AT=2027-03-15T04:00:00Z
 SPAN=(--from 2027-03-14T00:00:00Z --to 2027-03-21T00:00:00Z)
 
-cli ephem.txt ephem --db "$DB" --at "$AT"
+cli ephem.txt ephem --db "$DB" --at "$AT" --wide
+cli ephem_80.txt ephem --db "$DB" --at "$AT"
 cli ephem.json ephem --db "$DB" --at "$AT" --json
-cli ephem_station.txt ephem --station "$ST" --at "$AT" --dut1 0.1 --tz Europe/Berlin
+cli ephem_station.txt ephem --station "$ST" --at "$AT" --dut1 0.1 --tz Europe/Berlin --wide
 cli ephem_station.json ephem --station "$ST" --at "$AT" --target X=10,20,0 --json
 cli phases.txt phases --from 2027-01-01T00:00:00Z --days 90
 cli phases_tz.txt phases --from 2027-01-01T00:00:00Z --to 2027-03-01T00:00:00Z --db "$DB"
 cli phases.json phases --from 2027-01-01T00:00:00Z --days 90 --json
-cli windows.txt windows --db "$DB" "${SPAN[@]}"
+cli windows.txt windows --db "$DB" "${SPAN[@]}" --wide
+cli windows_80.txt windows --db "$DB" "${SPAN[@]}"
 cli windows.json windows --db "$DB" "${SPAN[@]}" --json
 cli windows.csv windows --db "$DB" "${SPAN[@]}" --csv
 cli windows.ics windows --db "$DB" "${SPAN[@]}" --ics
 cli windows_target.json windows --db "$DB" --from 2027-03-14T00:00:00Z --days 10 --target HERON --limit 3 --json
-cli windows_limits.txt windows --db "$DB" "${SPAN[@]}" --min-el 30 --max-sun-el -18 --min-sun-sep 40 --tz UTC
+cli windows_limits.txt windows --db "$DB" "${SPAN[@]}" --min-el 30 --max-sun-el -18 --min-sun-sep 40 --tz UTC --wide
 cli windows_station.json windows --station "$ST" "${SPAN[@]}" --json
 cli tonight.txt tonight --db "$DB" --at 2027-03-15T20:00:00Z
 cli tonight.json tonight --db "$DB" --at 2027-03-15T20:00:00Z --json

@@ -206,6 +206,7 @@ run(const struct cli_args *a)
 	rep.targets = rows;
 	rep.ntargets = ntargets;
 	rep.dut1_source = dut1_source;
+	rep.wide = cli_given(a, "wide");
 	rep.station_name = demo ? DEMO_NAME : db != NULL ? cs.station.name :
 	    NULL;
 	zname = tz != NULL ? tz : demo ? DEMO_TZ : db != NULL ?
@@ -244,6 +245,8 @@ static const struct cli_option options[] = {
 	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE",
 	    .help = "local time in this IANA zone in the table (default: the "
 	    "station's zone)"},
+	{.name = "wide", .kind = CLI_FLAG,
+	    .help = "the station and DUT1 on one line, wider than 80 columns"},
 	{.name = "json", .kind = CLI_FLAG,
 	    .help = "machine-readable output (see README)"},
 	CLI_OPT_END

@@ -81,6 +81,7 @@ run(const struct cli_args *a)
 
 	memset(&rp, 0, sizeof rp);
 	rp.station_name = q.station.name[0] != '\0' ? q.station.name : NULL;
+	rp.wide = cli_given(a, "wide");
 	rp.now_mjd = wp.now_mjd;
 	return plan_cli_run(&wp, &q, &hold, tz, &rp, kind == OUT_JSON ?
 	    render_windows_json : kind == OUT_CSV ? render_windows_csv :
@@ -109,6 +110,9 @@ static const struct cli_option options[] = {
 	    .help = "override the minimum Sun-Moon separation (0..180)"},
 	PLAN_CLI_OPT_TZ("IANA zone for local times (default: the "
 	    "station's)"),
+	{.name = "wide", .kind = CLI_FLAG,
+	    .help = "the table with local dates, 89 columns (default: 80, "
+	    "local hours only)"},
 	{.name = "json", .kind = CLI_FLAG, .group = 3,
 	    .help = "{\"windows\":[...]} (fields in the README)"},
 	{.name = "csv", .kind = CLI_FLAG, .group = 3,

@@ -165,10 +165,19 @@ render_ephem_text(const struct render_ephem *e, struct mbuf *out)
 	    sizeof local) == ERRCODE_OK)
 		mbuf_printf(out, "  (%s)", local);
 	mbuf_puts(out, "\n");
-	mbuf_printf(out, "Station %s%s%.5f, %.5f, %.1f m   DUT1 %+.4f s (%s",
-	    e->station_name ? e->station_name : "", e->station_name ? " " : "",
-	    g->site.lat * R2D, g->site.lon * R2D, g->site.height, g->t.dut1,
-	    e->dut1_source ? e->dut1_source : "option");
+	if (e->wide)
+		mbuf_printf(out, "Station %s%s%.5f, %.5f, %.1f m   DUT1 %+.4f s "
+		    "(%s", e->station_name ? e->station_name : "",
+		    e->station_name ? " " : "", g->site.lat * R2D,
+		    g->site.lon * R2D, g->site.height, g->t.dut1,
+		    e->dut1_source ? e->dut1_source : "option");
+	else
+		/* 80 columns: name, position and DUT1 on lines of their own. */
+		mbuf_printf(out, "Station %s%s%.5f, %.5f, %.1f m\nDUT1 %+.4f s "
+		    "(%s", e->station_name ? e->station_name : "",
+		    e->station_name ? "\n        " : "", g->site.lat * R2D,
+		    g->site.lon * R2D, g->site.height, g->t.dut1,
+		    e->dut1_source ? e->dut1_source : "option");
 	if (e->eop_last_utc != NULL)
 		mbuf_printf(out, "; EOP table ends %s", e->eop_last_utc);
 	mbuf_puts(out, ")\n");
@@ -204,14 +213,19 @@ render_ephem_text(const struct render_ephem *e, struct mbuf *out)
 	line_kv(out, "colongitude", 3, g->lib.colongitude * R2D, "deg");
 	if (e->ntargets > 0) {
 		mbuf_puts(out, "\nTargets\n");
-		mbuf_printf(out, "  %-12s %8s %7s %11s %11s %8s %8s %6s\n",
+		/* Wide: the columns of old; else narrower ones in 80. */
+		mbuf_printf(out, e->wide ?
+		    "  %-12s %8s %7s %11s %11s %8s %8s %6s\n" :
+		    "  %-10s %8s %7s %10s %10s %7s %7s %6s\n",
 		    "id", "az", "el", "range km", "round s", "dRA\"", "dDec\"",
 		    "sun el");
 		for (size_t i = 0; i < e->ntargets; i++) {
 			const struct geom_target_view *v = &e->targets[i].view;
 
-			mbuf_printf(out,
+			mbuf_printf(out, e->wide ?
 			    "  %-12.12s %8.3f %7.3f %11.1f %11.7f %8.1f %8.1f "
+			    "%6.1f %s\n" :
+			    "  %-10.10s %8.3f %7.3f %10.1f %10.7f %7.1f %7.1f "
 			    "%6.1f %s\n", e->targets[i].id, v->az * R2D,
 			    v->el * R2D, v->range / 1e3, v->round_trip,
 			    v->offset_ra * R2D * 3600,

@@ -435,9 +435,14 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 	mbuf_printf(out, "Limits: elevation >= %.1f deg, Sun <= %.1f deg, "
 	    "Sun-Moon >= %.1f deg\n", r->station.min_el_deg,
 	    r->station.max_sun_el_deg, r->station.min_sun_sep_deg);
-	mbuf_printf(out, "%4s %-10s %-17s %-17s %4s %5s %3s %5s %6s %9s\n",
-	    "rank", "target", "UTC", p->time_zone ? "local" : "", "min",
-	    "maxel", "bin", "n", "W", "score");
+	if (p->wide)
+		mbuf_printf(out, "%4s %-10s %-17s %-17s %4s %5s %3s %5s %6s "
+		    "%9s\n", "rank", "target", "UTC", p->time_zone ? "local" :
+		    "", "min", "maxel", "bin", "n", "W", "score");
+	else
+		mbuf_printf(out, "%4s %-9s %-17s %s%4s %5s %3s %4s %5s %8s\n",
+		    "rank", "target", "UTC", p->time_zone ? "local       " :
+		    "", "min", "maxel", "bin", "n", "W", "score");
 	for (size_t i = 0; i < r->n; i++) {
 		const struct plan_window *w = &r->w[i];
 		const struct score_window *f = &w->f;
@@ -451,14 +456,24 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 		if (p->time_zone != NULL) {
 			render_local_parts(w->start_mjd, p->time_zone, d1, h1, z1);
 			render_local_parts(w->end_mjd, p->time_zone, d2, h2, z2);
-			snprintf(l, sizeof l, "%s %s-%s", d1, h1, h2);
+			/* 80 columns: the local hours; the date is UTC's. */
+			if (p->wide)
+				snprintf(l, sizeof l, "%s %s-%s", d1, h1, h2);
+			else
+				snprintf(l, sizeof l, "%s-%s ", h1, h2);
 		}
 		snprintf(u2, sizeof u2, "%.0f", f->duration_s / 60.0);
 		score_text(f->score, sc, sizeof sc);
-		mbuf_printf(out, "%4zu %-10.10s %-17s %-17s %4s %5.1f %3d %5ld "
-		    "%6.2f %9s\n", f->rank, w->target, u1, l, u2,
-		    f->max_el * R2D, f->phase_bin, f->bin_count,
-		    f->coverage_weight, sc);
+		if (p->wide)
+			mbuf_printf(out, "%4zu %-10.10s %-17s %-17s %4s %5.1f "
+			    "%3d %5ld %6.2f %9s\n", f->rank, w->target, u1, l,
+			    u2, f->max_el * R2D, f->phase_bin, f->bin_count,
+			    f->coverage_weight, sc);
+		else
+			mbuf_printf(out, "%4zu %-9.9s %-17s %s%4s %5.1f %3d "
+			    "%4ld %5.2f %8s\n", f->rank, w->target, u1, l, u2,
+			    f->max_el * R2D, f->phase_bin, f->bin_count,
+			    f->coverage_weight, sc);
 	}
 	if (r->n == 0)
 		mbuf_puts(out, "(no window meets every limit in the span)\n");

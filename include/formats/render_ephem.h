@@ -34,6 +34,8 @@ struct render_ephem {
 	const char *eop_last_utc;	/* last day of the EOP table, or NULL */
 	const char *station_name;	/* NULL for an ad-hoc station */
 	const struct tzone *time_zone;		/* local times (qzone_load), or NULL */
+	int wide;			/* text: the station and DUT1 on one
+					   line, wider than 80 columns */
 };
 
 enum errcode render_ephem_json(const struct render_ephem *e, struct mbuf *out);

@@ -23,6 +23,8 @@ struct render_plan {
 	double now_mjd;			/* UTC: DTSTAMP of iCalendar, "now" of
 					   tonight */
 	double now_synodic_deg;		/* tonight: the phase now */
+	int wide;			/* windows text: local dates too,
+					   wider than 80 columns */
 };
 
 /* {"windows":[...]} and metadata; field names in README "windows". */
@@ -35,7 +37,8 @@ enum errcode render_windows_csv(const struct render_plan *p,
 /* RFC 5545: one VEVENT per window, folded at 75 octets, CRLF. */
 enum errcode render_windows_ics(const struct render_plan *p,
     struct mbuf *out);
-/* A table with UTC and station local time side by side. */
+/* A table with UTC and station local time side by side: 80 columns
+   (local hours only), or with p->wide the local dates too (89). */
 enum errcode render_windows_text(const struct render_plan *p,
     struct mbuf *out);
 /* The operator's view of the coming night, 80 columns. */
