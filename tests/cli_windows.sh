@@ -116,6 +116,13 @@ grep -q '^  now: elevation [0-9.]* deg, azimuth [0-9.]* deg$' "$tmp/t.txt" ||
   fail "tonight: elevation and azimuth now"
 grep -q '^Next runs:$' "$tmp/t.txt" || fail "tonight: next runs"
 awk 'length($0) > 80 { exit 1 }' "$tmp/t.txt" || fail "tonight wider than 80"
+grep -q 'Lunar eclipse' "$tmp/t.txt" && fail "tonight: no eclipse that night"
+# The night of the 2025-03-14 total eclipse says so, within 80 columns.
+"$bin" tonight --station "$st" --tz America/Los_Angeles \
+	--at 2025-03-14T04:00:00Z >"$tmp/te.txt" || fail "tonight at the eclipse"
+grep -q '^Lunar eclipse tonight: total, greatest 2025-03-14T06:58:4[0-9]Z$' \
+  "$tmp/te.txt" || fail "tonight: the eclipse is announced"
+awk 'length($0) > 80 { exit 1 }' "$tmp/te.txt" || fail "eclipse notice wider than 80"
 # The sample site through a real database: every target, the DB's limits,
 # dark-only targets never sunlit, iCalendar of the database's windows.
 "$bin" init --db "$tmp/site.db" --site "$src/sample-site" >/dev/null

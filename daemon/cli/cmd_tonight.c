@@ -10,6 +10,7 @@
 #include "core/geom.h"
 #include "core/plan.h"
 #include "core/text.h"
+#include "core/tscale.h"
 #include "cli/plan_cli.h"
 #include "core/night.h"
 #include "formats/render_sched.h"
@@ -50,6 +51,50 @@ pointing_now(const struct plan_query *q, const char *id, double now,
 }
 
 #define NEXT_NIGHTS 30
+
+/* UTC MJD of a TT JD (NaN if it cannot be converted). */
+static double
+mjd_of_tt(double tt1, double tt2)
+{
+	struct tscale_instant t;
+
+	if (tscale_from_tt(tt1, tt2, 0.0, &t) != ERRCODE_OK)
+		return NAN;
+	return (t.utc1 - TEXT_MJD0) + t.utc2;
+}
+
+/* A line for each lunar eclipse whose P1..P4 overlaps [from, to) (UTC
+   MJDs): a rare full-moon chance the operator should know of ahead. */
+static void
+eclipse_notice(double from, double to, struct mbuf *out)
+{
+	struct eclipse_event ev[4];
+	struct tscale_instant a, b;
+	size_t n = 0;
+
+	if (tscale_from_utc(TEXT_MJD0, from - 0.5, 0.0, &a) != ERRCODE_OK ||
+	    tscale_from_utc(TEXT_MJD0, to + 0.5, 0.0, &b) != ERRCODE_OK ||
+	    eclipse_find(a.tt1, a.tt2, b.tt1, b.tt2, ev, 4, &n) != ERRCODE_OK)
+		return;
+	for (size_t i = 0; i < n; i++) {
+		double p1 = mjd_of_tt(ev[i].contact_tt1[ECLIPSE_P1],
+		    ev[i].contact_tt2[ECLIPSE_P1]);
+		double p4 = mjd_of_tt(ev[i].contact_tt1[ECLIPSE_P4],
+		    ev[i].contact_tt2[ECLIPSE_P4]);
+		double g = mjd_of_tt(ev[i].greatest_tt1, ev[i].greatest_tt2);
+		char gs[40], ps[40], qs[40];
+
+		if (!(p4 > from && p1 < to) ||
+		    tscale_format_utc(TEXT_MJD0, g, 0, gs, sizeof gs) ||
+		    tscale_format_utc(TEXT_MJD0, p1, 0, ps, sizeof ps) ||
+		    tscale_format_utc(TEXT_MJD0, p4, 0, qs, sizeof qs))
+			continue;
+		mbuf_printf(out, "Lunar eclipse tonight: %s, greatest %s\n"
+		    "  (P1 %s, P4 %s): a rare full-moon chance; reflectors in "
+		    "the\n  umbra are dark (moonrange eclipses).\n",
+		    eclipse_kind_name(ev[i].kind), gs, ps + 11, qs + 11);
+	}
+}
 
 static int
 run(const struct cli_args *a)
@@ -172,6 +217,8 @@ run(const struct cli_args *a)
 	mbuf_init(&out);
 	rc = json ? render_sched_json(&rs, &out) :
 	    render_sched_tonight(&rs, &out);
+	if (rc == ERRCODE_OK && !json)
+		eclipse_notice(q.from_mjd, q.to_mjd, &out);
 	night_result_free(&r);
 	plan_db_free(&hold);
 	st = cli_emit_rendered(rc, &out);
