@@ -54,6 +54,21 @@ slurp(const char *name, size_t *len)
 
 int LLVMFuzzerInitialize(int *argc, char ***argv);
 
+/* The database and its WAL files go when the fuzzer exits. */
+static void
+remove_db(void)
+{
+	char p[160];
+
+	store_close(db);
+	db = NULL;
+	unlink(dbpath);
+	snprintf(p, sizeof p, "%s-wal", dbpath);
+	unlink(p);
+	snprintf(p, sizeof p, "%s-shm", dbpath);
+	unlink(p);
+}
+
 int
 LLVMFuzzerInitialize(int *argc, char ***argv)
 {
@@ -71,6 +86,7 @@ LLVMFuzzerInitialize(int *argc, char ***argv)
 	unlink(dbpath);
 	if (store_open(dbpath, STORE_OPEN_CREATE, &db, NULL, 0) != ERRCODE_OK)
 		abort();
+	atexit(remove_db);
 	memset(&site, 0, sizeof site);
 	buf = slurp("station.ini", &n);
 	if (import_station_ini(buf, n, &site.station, &rep) != ERRCODE_OK ||
