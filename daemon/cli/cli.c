@@ -362,6 +362,27 @@ cli_emit(struct mbuf *b)
 }
 
 int
+cli_query_params(const struct cli_args *a, const char *const *names,
+    size_t n, cli_param_fn set, void *params, const char *prefix)
+{
+	char name[64], err[256];
+
+	for (size_t i = 0; i < n; i++) {
+		const char *v = cli_text(a, names[i], NULL);
+
+		if (v == NULL)
+			continue;
+		snprintf(name, sizeof name, "%s", names[i]);
+		for (char *c = name; *c; c++)
+			if (*c == '-')
+				*c = '_';
+		if (set(params, name, v, err, sizeof err) != ERRCODE_OK)
+			return cli_usage_error("%s%s", prefix, err);
+	}
+	return CLI_EXIT_OK;
+}
+
+int
 cli_emit_rendered(enum errcode rc, struct mbuf *b)
 {
 	if (rc != ERRCODE_OK)

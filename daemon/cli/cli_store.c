@@ -72,6 +72,32 @@ cli_store_close(struct cli_store *c)
 	memset(c, 0, sizeof *c);
 }
 
+int
+cli_store_run(const struct cli_args *a, int flags, cli_store_job job,
+    void *ctx)
+{
+	struct cli_store c;
+	struct mbuf out;
+	char err[512];
+	int st;
+	enum errcode rc;
+
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), flags)))
+		return st;
+	mbuf_init(&out);
+	err[0] = '\0';
+	if ((rc = job(&c, a, ctx, &out, err, sizeof err)) == ERRCODE_OK)
+		st = cli_emit(&out);
+	else if (err[0] == '\0')
+		st = cli_fail("%s", errcode_str(rc));
+	else
+		st = cli_store_fail(rc, "%s: %s", (flags & STORE_OPEN_READONLY) ?
+		    c.path : a->path, err);
+	mbuf_free(&out);
+	cli_store_close(&c);
+	return st;
+}
+
 const struct site_target *
 cli_store_target(const struct cli_store *c, const char *id)
 {
@@ -81,52 +107,66 @@ cli_store_target(const struct cli_store *c, const char *id)
 	return NULL;
 }
 
+/* The loaded target of id and the EOP row at mjd; NULL (errbuf names the
+   field) for an unknown target. */
+static const struct site_target *
+derive_inputs(const struct cli_store *c, const char *id, double mjd,
+    struct geom_eop *eop, char *errbuf, size_t errlen)
+{
+	const struct site_target *t = cli_store_target(c, id);
+
+	if (t == NULL) {
+		snprintf(errbuf, errlen, "field 'target': no target '%s' in "
+		    "the database", id);
+		return NULL;
+	}
+	(void)eop_lookup_rows(c->eop, c->neop, mjd, eop);
+	return t;
+}
+
+/* rc; when it is an error, errbuf names the time field. */
+static enum errcode
+derive_status(enum errcode rc, const char *field, char *errbuf,
+    size_t errlen)
+{
+	if (rc != ERRCODE_OK)
+		snprintf(errbuf, errlen, "field '%s': cannot compute the "
+		    "geometry (%s)", field, errcode_str(rc));
+	return rc;
+}
+
 enum errcode
 cli_store_derive_attempt(const struct cli_store *c, struct site_attempt *a,
     char *errbuf, size_t errlen)
 {
-	const struct site_target *t = cli_store_target(c, a->target);
 	struct geom_eop eop;
-	enum errcode rc;
+	const struct site_target *t = derive_inputs(c, a->target,
+	    0.5 * (a->start_mjd + a->end_mjd), &eop, errbuf, errlen);
 
-	if (t == NULL) {
-		snprintf(errbuf, errlen, "field 'target': no target '%s' in "
-		    "the database", a->target);
+	if (t == NULL)
 		return ERRCODE_NOT_FOUND;
-	}
-	(void)eop_lookup_rows(c->eop, c->neop,
-	    0.5 * (a->start_mjd + a->end_mjd), &eop);
-	rc = c->dc != NULL ? derive_attempt_cached(c->dc, &c->station, t, &eop,
-	    a) : derive_attempt(&c->station, t, &eop, a);
-	if (rc != ERRCODE_OK)
-		snprintf(errbuf, errlen, "field 'start_utc': cannot compute "
-		    "the geometry (%s)", errcode_str(rc));
-	return rc;
+	return derive_status(c->dc != NULL ? derive_attempt_cached(c->dc,
+	    &c->station, t, &eop, a) : derive_attempt(&c->station, t, &eop, a),
+	    "start_utc", errbuf, errlen);
 }
 
 enum errcode
 cli_store_derive_np(const struct cli_store *c, struct site_normal_point *np,
     char *errbuf, size_t errlen)
 {
-	const struct site_target *t = cli_store_target(c, np->target);
 	struct geom_eop eop;
+	const struct site_target *t = derive_inputs(c, np->target,
+	    np->epoch_mjd, &eop, errbuf, errlen);
 	enum errcode rc;
 
-	if (t == NULL) {
-		snprintf(errbuf, errlen, "field 'target': no target '%s' in "
-		    "the database", np->target);
+	if (t == NULL)
 		return ERRCODE_NOT_FOUND;
-	}
-	(void)eop_lookup_rows(c->eop, c->neop, np->epoch_mjd, &eop);
 	rc = c->dc != NULL ? derive_normal_point_cached(c->dc, &c->station, t,
 	    &eop, np) : derive_normal_point(&c->station, t, &eop, np);
 	/* The elevation is this station's: unknown for another's points. */
 	if (strcmp(np->station_code, c->station.code) != 0)
 		np->target_el_deg = NAN;
-	if (rc != ERRCODE_OK)
-		snprintf(errbuf, errlen, "field 'epoch': cannot compute the "
-		    "geometry (%s)", errcode_str(rc));
-	return rc;
+	return derive_status(rc, "epoch", errbuf, errlen);
 }
 
 enum errcode

@@ -9,15 +9,24 @@
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
 
+static enum errcode
+add_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	struct site_blackout *b = ctx;
+	enum errcode rc;
+
+	(void)a;
+	if ((rc = store_blackout_add(c->s, b, err, errlen)) == ERRCODE_OK)
+		mbuf_printf(out, "blackout %ld added\n", b->id);
+	return rc;
+}
+
 static int
 blackout_add(const struct cli_args *a)
 {
 	const char *reason = cli_text(a, "reason", "");
 	struct site_blackout b;
-	struct cli_store c;
-	char err[512];
-	int st;
-	enum errcode rc;
 
 	memset(&b, 0, sizeof b);
 	b.start_mjd = cli_real(a, "start", NAN);
@@ -28,67 +37,55 @@ blackout_add(const struct cli_args *a)
 		return cli_usage_error("--reason: at most %zu bytes of UTF-8 "
 		    "text on one line", sizeof b.reason - 1);
 	strcpy(b.reason, reason);
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
-		return st;
-	if ((rc = store_blackout_add(c.s, &b, err, sizeof err)))
-		st = cli_store_fail(rc, "blackout add: %s", err);
-	else
-		printf("blackout %ld added\n", b.id);
-	cli_store_close(&c);
-	return st;
+	return cli_store_run(a, 0, add_job, &b);
+}
+
+static enum errcode
+list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	struct site_blackout *list = NULL;
+	size_t n = 0;
+	enum errcode rc;
+
+	(void)ctx;
+	if ((rc = store_blackouts_list(c->s, cli_real(a, "since", NAN),
+	    cli_real(a, "until", NAN), &list, &n, err, errlen)))
+		return rc;
+	rc = cli_given(a, "json") ? render_site_blackouts_json(list, n, out) :
+	    render_site_blackouts_text(list, n, out);
+	mem_free(list);
+	return rc;
 }
 
 static int
 blackout_list(const struct cli_args *a)
 {
-	struct site_blackout *list = NULL;
-	struct cli_store c;
-	struct mbuf out;
-	char err[512];
-	size_t n = 0;
-	int st;
+	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
+}
+
+static enum errcode
+remove_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	long id = *(long *)ctx;
 	enum errcode rc;
 
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
-	    STORE_OPEN_READONLY)))
-		return st;
-	if ((rc = store_blackouts_list(c.s, cli_real(a, "since", NAN),
-	    cli_real(a, "until", NAN), &list, &n, err, sizeof err))) {
-		st = cli_store_fail(rc, "%s: %s", c.path, err);
-	} else {
-		mbuf_init(&out);
-		if (cli_given(a, "json"))
-			rc = render_site_blackouts_json(list, n, &out);
-		else
-			rc = render_site_blackouts_text(list, n, &out);
-		st = cli_emit_rendered(rc, &out);
-		mbuf_free(&out);
-		mem_free(list);
-	}
-	cli_store_close(&c);
-	return st;
+	(void)a;
+	if ((rc = store_blackout_remove(c->s, id, err, errlen)) == ERRCODE_OK)
+		mbuf_printf(out, "blackout %ld removed\n", id);
+	return rc;
 }
 
 static int
 blackout_remove(const struct cli_args *a)
 {
-	struct cli_store c;
-	char err[512];
 	long id = 0;
-	int st;
-	enum errcode rc;
 
 	if (cli_parse_long(a->ops[0], 1, 2000000000L, &id))
 		return cli_usage_error("blackout remove: one blackout id (a "
 		    "whole number, see 'blackout list') is required");
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
-		return st;
-	if ((rc = store_blackout_remove(c.s, id, err, sizeof err)))
-		st = cli_store_fail(rc, "blackout remove: %s", err);
-	else
-		printf("blackout %ld removed\n", id);
-	cli_store_close(&c);
-	return st;
+	return cli_store_run(a, 0, remove_job, &id);
 }
 
 /* --- the table ----------------------------------------------------------- */
@@ -138,9 +135,7 @@ static const struct cli_command blackout_remove_cmd = {
 	.summary = "remove a blackout by its id",
 	.about = "Remove a blackout by the id 'blackout list' shows.",
 	.options = remove_options,
-	.operands = "ID",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("ID"),
 	.run = blackout_remove,
 };
 

@@ -34,6 +34,14 @@ write_file(const char *path, struct mbuf *b)
 static const char *const query_params[] = {"source", "since", "until",
     "target", "station", "axis", "bins", "min-count", "horizon", "theme"};
 
+/* covquery_param_set with the query's parameters as void *. */
+static enum errcode
+set_param(void *params, const char *name, const char *value, char *errbuf,
+    size_t errlen)
+{
+	return covquery_param_set(params, name, value, errbuf, errlen);
+}
+
 static int
 run(const struct cli_args *a)
 {
@@ -45,7 +53,7 @@ run(const struct cli_args *a)
 	struct covquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[256], name[32];
+	char err[256];
 	double u1, u2;
 	int st;
 	enum errcode rc;
@@ -55,20 +63,9 @@ run(const struct cli_args *a)
 		    "chart's palette)");
 	covquery_params_init(&p);
 	p.style = QPARAM_OPTION;
-	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
-	    i++) {
-		const char *v = cli_text(a, query_params[i], NULL);
-
-		if (v == NULL)
-			continue;
-		snprintf(name, sizeof name, "%s", query_params[i]);
-		for (char *c = name; *c; c++)
-			if (*c == '-')
-				*c = '_';
-		if (covquery_param_set(&p, name, v, err, sizeof err) !=
-		    ERRCODE_OK)
-			return cli_usage_error("%s", err);
-	}
+	if ((st = cli_query_params(a, query_params, sizeof query_params /
+	    sizeof query_params[0], set_param, &p, "")) != CLI_EXIT_OK)
+		return st;
 	if (covquery_params_check(&p, err, sizeof err) != ERRCODE_OK)
 		return cli_usage_error("%s", err);
 	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')

@@ -80,9 +80,7 @@ static const struct cli_command eop_import_cmd = {
 	    "C04 series, in one transaction; a day already in the table is "
 	    "replaced.  Prints what the table then covers.",
 	.options = import_options,
-	.operands = "EOP_FILE",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("EOP_FILE"),
 	.run = eop_import,
 };
 

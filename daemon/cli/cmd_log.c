@@ -312,9 +312,7 @@ static const struct cli_command log_import_cmd = {
 	    "and nothing is stored; rows already present (same target and "
 	    "start) are skipped and counted.",
 	.options = import_options,
-	.operands = "FILE.csv",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("FILE.csv"),
 	.run = log_import,
 	.more = import_more,
 };

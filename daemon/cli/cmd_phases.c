@@ -9,6 +9,14 @@
 #include "query/phquery.h"
 #include "query/qzone.h"
 
+/* phquery_param_set with the query's parameters as void *. */
+static enum errcode
+set_param(void *params, const char *name, const char *value, char *errbuf,
+    size_t errlen)
+{
+	return phquery_param_set(params, name, value, errbuf, errlen);
+}
+
 static int
 run(const struct cli_args *a)
 {
@@ -24,14 +32,9 @@ run(const struct cli_args *a)
 
 	cli_now(&now1, &now2);
 	phquery_params_init(&pq, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
-	    i++) {
-		const char *v = cli_text(a, query_params[i], NULL);
-
-		if (v != NULL && phquery_param_set(&pq, query_params[i], v, err,
-		    sizeof err) != ERRCODE_OK)
-			return cli_usage_error("%s", err);
-	}
+	if ((st = cli_query_params(a, query_params, sizeof query_params /
+	    sizeof query_params[0], set_param, &pq, "")) != CLI_EXIT_OK)
+		return st;
 	if (db != NULL) {
 		if ((st = cli_store_open(&cs, db, STORE_OPEN_READONLY)) ||
 		    (st = cli_store_load(&cs))) {

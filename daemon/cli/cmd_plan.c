@@ -13,6 +13,14 @@
    names). */
 static const char *const query_params[] = {"at", "from", "to", "method"};
 
+/* planquery_param_set with the query's parameters as void *. */
+static enum errcode
+set_param(void *params, const char *name, const char *value, char *errbuf,
+    size_t errlen)
+{
+	return planquery_param_set(params, name, value, errbuf, errlen);
+}
+
 static int
 run(const struct cli_args *a)
 {
@@ -31,14 +39,9 @@ run(const struct cli_args *a)
 	planquery_params_init(&p);
 	cli_now(&u1, &u2);
 	p.at_mjd = (u1 - TEXT_MJD0) + u2;
-	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
-	    i++) {
-		const char *v = cli_text(a, query_params[i], NULL);
-
-		if (v != NULL && planquery_param_set(&p, query_params[i], v, err,
-		    sizeof err) != ERRCODE_OK)
-			return cli_usage_error("--%s", err);
-	}
+	if ((st = cli_query_params(a, query_params, sizeof query_params /
+	    sizeof query_params[0], set_param, &p, "--")) != CLI_EXIT_OK)
+		return st;
 	rc = store_open(db_path, STORE_OPEN_READONLY, &db, err, sizeof err);
 	if (rc != ERRCODE_OK)
 		return rc == ERRCODE_NOT_FOUND ?

@@ -21,45 +21,44 @@ more(FILE *f)
 	}
 }
 
+static enum errcode
+list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	const struct store_setting_info *k;
+	char v[64];
+	enum errcode rc;
+
+	(void)a;
+	(void)ctx;
+	for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++) {
+		if ((rc = store_setting_get(c->s, k->key, v, sizeof v, err,
+		    errlen)))
+			return rc;
+		mbuf_printf(out, "%-16s %s\n", k->key, v);
+	}
+	return ERRCODE_OK;
+}
+
 static int
 setting_list(const struct cli_args *a)
 {
-	const struct store_setting_info *k;
-	struct cli_store c;
-	char err[512], v[64];
-	int st;
-	enum errcode rc;
+	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
+}
 
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
-	    STORE_OPEN_READONLY)))
-		return st;
-	for (size_t i = 0; (k = store_setting_info(i)) != NULL; i++) {
-		if ((rc = store_setting_get(c.s, k->key, v, sizeof v, err,
-		    sizeof err))) {
-			st = cli_store_fail(rc, "%s: %s", c.path, err);
-			break;
-		}
-		printf("%-16s %s\n", k->key, v);
-	}
-	cli_store_close(&c);
-	return st;
+static enum errcode
+set_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	(void)ctx;
+	(void)out;
+	return store_setting_set(c->s, a->ops[0], a->ops[1], err, errlen);
 }
 
 static int
 setting_set(const struct cli_args *a)
 {
-	struct cli_store c;
-	char err[512];
-	int st;
-	enum errcode rc;
-
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
-		return st;
-	if ((rc = store_setting_set(c.s, a->ops[0], a->ops[1], err,
-	    sizeof err)))
-		st = cli_store_fail(rc, "setting set: %s", err);
-	cli_store_close(&c);
-	return st;
+	return cli_store_run(a, 0, set_job, NULL);
 }
 
 static const struct cli_option options[] = {

@@ -165,35 +165,28 @@ target_retire(const struct cli_args *a)
 	return target_change(a, 1);
 }
 
+static enum errcode
+list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+    struct mbuf *out, char *err, size_t errlen)
+{
+	struct site_target *list = NULL;
+	size_t n = 0;
+	enum errcode rc;
+
+	(void)ctx;
+	if ((rc = store_targets_list(c->s, !cli_given(a, "all"), &list, &n,
+	    err, errlen)))
+		return rc;
+	rc = cli_given(a, "json") ? render_site_targets_json(list, n, out) :
+	    render_site_targets_text(list, n, out);
+	mem_free(list);
+	return rc;
+}
+
 static int
 target_list(const struct cli_args *a)
 {
-	struct site_target *list = NULL;
-	struct cli_store c;
-	struct mbuf out;
-	char err[512];
-	size_t n = 0;
-	int st;
-	enum errcode rc;
-
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
-	    STORE_OPEN_READONLY)))
-		return st;
-	if ((rc = store_targets_list(c.s, !cli_given(a, "all"), &list, &n, err,
-	    sizeof err))) {
-		st = cli_fail("%s: %s", c.path, err);
-	} else {
-		mbuf_init(&out);
-		if (cli_given(a, "json"))
-			rc = render_site_targets_json(list, n, &out);
-		else
-			rc = render_site_targets_text(list, n, &out);
-		st = cli_emit_rendered(rc, &out);
-		mbuf_free(&out);
-		mem_free(list);
-	}
-	cli_store_close(&c);
-	return st;
+	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }
 
 /* --- the table ----------------------------------------------------------- */
@@ -244,9 +237,7 @@ static const struct cli_command target_add_cmd = {
 	.summary = "add a target",
 	.about = "Add a target.  ID: 1-32 letters, digits, '_', '-' or '.'.",
 	.options = add_options,
-	.operands = "ID",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("ID"),
 	.run = target_add,
 };
 
@@ -255,9 +246,7 @@ static const struct cli_command target_set_cmd = {
 	.summary = "change fields of a target",
 	.about = "Change the given fields of a target; the others stay.",
 	.options = set_options,
-	.operands = "ID",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("ID"),
 	.run = target_set,
 };
 
@@ -268,9 +257,7 @@ static const struct cli_command target_retire_cmd = {
 	    "but is no longer planned ('target set ID --active yes' brings it "
 	    "back).",
 	.options = retire_options,
-	.operands = "ID",
-	.nmin = 1,
-	.nmax = 1,
+	CLI_ONE_OPERAND("ID"),
 	.run = target_retire,
 };
 

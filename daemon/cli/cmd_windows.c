@@ -38,6 +38,14 @@ static const char *const query_params[] = {
 	"min-sun-sep",
 };
 
+/* winquery_param_set with the query's parameters as void *. */
+static enum errcode
+set_param(void *params, const char *name, const char *value, char *errbuf,
+    size_t errlen)
+{
+	return winquery_param_set(params, name, value, errbuf, errlen);
+}
+
 static int
 run(const struct cli_args *a)
 {
@@ -50,26 +58,14 @@ run(const struct cli_args *a)
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
-	char err[256], name[32];
 
 	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
 	cli_now(&now1, &now2);
 	winquery_params_init(&wp, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	for (size_t i = 0; i < sizeof query_params / sizeof query_params[0];
-	    i++) {
-		const char *v = cli_text(a, query_params[i], NULL);
-
-		if (v == NULL)
-			continue;
-		snprintf(name, sizeof name, "%s", query_params[i]);
-		for (char *c = name; *c; c++)
-			if (*c == '-')
-				*c = '_';
-		if (winquery_param_set(&wp, name, v, err, sizeof err) !=
-		    ERRCODE_OK)
-			return cli_usage_error("%s", err);
-	}
+	if ((st = cli_query_params(a, query_params, sizeof query_params /
+	    sizeof query_params[0], set_param, &wp, "")) != CLI_EXIT_OK)
+		return st;
 
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)

@@ -56,6 +56,10 @@ struct cli_option {
 	const char *help;	/* wrapped to 80 columns; '\n' breaks */
 };
 
+/* The operand fields of a command taking exactly one operand, named
+   what in its usage line: CLI_ONE_OPERAND("ID"). */
+#define CLI_ONE_OPERAND(what) .operands = (what), .nmin = 1, .nmax = 1
+
 /* The row that ends an option table. */
 #define CLI_OPT_END {.name = NULL}
 
@@ -208,6 +212,20 @@ void cli_now(double *utc1, double *utc2);
 /* A UTC time option: "now" or ISO 8601. */
 enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
     double *utc2);
+
+/* A query's parameter setter (covquery_param_set and its kin, through a
+   wrapper taking the query's parameters as params). */
+typedef enum errcode (*cli_param_fn)(void *params, const char *name,
+    const char *value, char *errbuf, size_t errlen);
+
+/*
+ * Set the parameters of a query from the n options of a named in names
+ * that were given, through set, with '-' in an option's name as '_' (the
+ * query's spelling).  The first value refused prints prefix and the
+ * query's sentence and gives CLI_EXIT_USAGE; else CLI_EXIT_OK.
+ */
+int cli_query_params(const struct cli_args *a, const char *const *names,
+    size_t n, cli_param_fn set, void *params, const char *prefix);
 
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
