@@ -563,8 +563,10 @@ run_job(struct cli_store *c, const char *file, size_t len, int kind,
 	if (st == CLI_EXIT_OK && (kind == 't' || kind == 'e' || kind == 'c')) {
 		mem_free(c->targets);
 		mem_free(c->eop);
+		mem_free(c->dc);	/* cli_store_load makes a new one */
 		c->targets = NULL;
 		c->eop = NULL;
+		c->dc = NULL;
 		st = cli_store_load(c);
 	}
 	return st;
