@@ -351,17 +351,90 @@ test_store_every_attempt_rule_refuses_its_bad_row(void **state)
 	store_close(s);
 }
 
+/* A new database in memory, its schema made. */
+static struct store *
+memory_store(void)
+{
+	struct store *s = NULL;
+	char err[300];
+
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	return s;
+}
+
+/*
+ * Every stored text field, not only an attempt's, refuses C1 controls and
+ * bidirectional overrides and isolates (issue 11, defect 8): the station's
+ * name, the target's name and alias, a blackout's reason, whichever entry
+ * point (CLI, station.ini and CSV importers, HTTP) calls the store.  The
+ * code points are those of Unicode's C1 block and UAX #9 (quoted from
+ * memory; the same list as text_unsafe_at in core/text.h).
+ */
+static void
+test_store_text_fields_refuse_c1_and_bidi(void **state)
+{
+	static const char *const bad[] = {
+		"K\xc2\x80x", "K\xc2\x85x", "K\xc2\x9fx",	/* C1 */
+		"K\xe2\x80\xaax", "K\xe2\x80\xaex",		/* LRE, RLO */
+		"K\xe2\x81\xa6x", "K\xe2\x81\xa9x",		/* LRI, PDI */
+	};
+	struct site_station st;
+	struct site_target t;
+	struct site_blackout b;
+	struct store *s = memory_store();
+	char err[300];
+
+	(void)state;
+	station(&st);
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_OK);
+	target(&t, "T1", "");
+	assert_int_equal(store_target_add(s, &t, err, sizeof err), ERRCODE_OK);
+	for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
+		station(&st);
+		snprintf(st.name, sizeof st.name, "%s", bad[i]);
+		assert_int_equal(store_station_put(s, &st, err, sizeof err),
+		    ERRCODE_BAD_ARG);
+		assert_non_null(strstr(err, "station name"));
+		target(&t, "T2", "");
+		snprintf(t.name, sizeof t.name, "%s", bad[i]);
+		assert_int_equal(store_target_add(s, &t, err, sizeof err),
+		    ERRCODE_BAD_ARG);
+		assert_non_null(strstr(err, "target name"));
+		target(&t, "T1", "");
+		snprintf(t.alias, sizeof t.alias, "%s", bad[i]);
+		assert_int_equal(store_target_update(s, &t, err, sizeof err),
+		    ERRCODE_BAD_ARG);
+		assert_non_null(strstr(err, "target alias"));
+		memset(&b, 0, sizeof b);
+		b.start_mjd = 61000.0;
+		b.end_mjd = 61001.0;
+		snprintf(b.reason, sizeof b.reason, "%s", bad[i]);
+		assert_int_equal(store_blackout_add(s, &b, err, sizeof err),
+		    ERRCODE_BAD_ARG);
+		assert_non_null(strstr(err, "blackout reason"));
+		/* settings hold words and digits only */
+		assert_int_equal(store_setting_set(s, "coverage_bins", bad[i],
+		    err, sizeof err), ERRCODE_BAD_ARG);
+	}
+	/* Other non-ASCII text is kept. */
+	station(&st);
+	snprintf(st.name, sizeof st.name, "K\xc3\xa9strel \xe2\x80\x94 ridge");
+	assert_int_equal(store_station_put(s, &st, err, sizeof err),
+	    ERRCODE_OK);
+	store_close(s);
+}
+
 static void
 test_store_station_and_target_rules(void **state)
 {
 	struct site_station st;
 	struct site_target t;
-	struct store *s = NULL;
+	struct store *s = memory_store();
 	char err[300];
 
 	(void)state;
-	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
-	    sizeof err), ERRCODE_OK);
 	station(&st);
 	st.lat_deg = 90.5;
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
@@ -833,6 +906,7 @@ main(void)
 		cmocka_unit_test(
 		    test_store_every_attempt_rule_refuses_its_bad_row),
 		cmocka_unit_test(test_store_station_and_target_rules),
+		cmocka_unit_test(test_store_text_fields_refuse_c1_and_bidi),
 		cmocka_unit_test(test_store_blackouts),
 		cmocka_unit_test(test_store_normal_points_idempotent),
 		cmocka_unit_test(test_store_eop),

@@ -25,32 +25,13 @@ refuse(const char **field, const char *name, char *errbuf, size_t errlen,
 	return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: %s", name, why);
 }
 
-/* A text member: bounded, terminated, no unsafe character. */
-static int
-text_ok(const char *s, size_t cap, int newline, char *why, size_t whylen)
-{
-	size_t n = strnlen(s, cap), at;
-
-	if (n == cap) {
-		text_err(ERRCODE_BAD_ARG, why, whylen, "longer than %zu bytes",
-		    cap - 1);
-		return 0;
-	}
-	if ((at = text_unsafe_at(s, n, newline)) < n) {
-		text_err(ERRCODE_BAD_ARG, why, whylen, "byte %zu is not UTF-8 "
-		    "or is a control or bidirectional-override character%s",
-		    at + 1, newline ? " (only line feeds are allowed)" : "");
-		return 0;
-	}
-	return 1;
-}
-
 enum errcode
 attempt_check(const struct site_attempt *a, double fire_rate_hz,
     const char **field, char *errbuf, size_t errlen)
 {
 	char why[200];
 	double days, max_shots;
+	enum errcode e;
 
 	if (field != NULL)
 		*field = NULL;
@@ -131,11 +112,18 @@ attempt_check(const struct site_attempt *a, double fire_rate_hz,
 		return refuse(field, "outcome", errbuf, errlen, "one of ranged, "
 		    "no_returns, weather, technical, safety, other");
 	}
-	if (!text_ok(a->operator_name, sizeof a->operator_name, 0, why,
-	    sizeof why))
-		return refuse(field, "operator", errbuf, errlen, why);
-	if (!text_ok(a->notes, sizeof a->notes, 1, why, sizeof why))
-		return refuse(field, "notes", errbuf, errlen, why);
+	if ((e = text_field_check("operator", a->operator_name,
+	    sizeof a->operator_name, 0, errbuf, errlen))) {
+		if (field != NULL)
+			*field = "operator";
+		return e;
+	}
+	if ((e = text_field_check("notes", a->notes, sizeof a->notes, 1,
+	    errbuf, errlen))) {
+		if (field != NULL)
+			*field = "notes";
+		return e;
+	}
 	if (!isnan(a->seeing_arcsec) && !(a->seeing_arcsec >=
 	    ATTEMPT_SEEING_MIN && a->seeing_arcsec <= ATTEMPT_SEEING_MAX))
 		return refuse(field, "seeing_arcsec", errbuf, errlen, "a number "

@@ -209,6 +209,23 @@ text_unsafe_at(const char *s, size_t n, int allow_newline)
 	return n;
 }
 
+enum errcode
+text_field_check(const char *field, const char *s, size_t cap,
+    int allow_newline, char *errbuf, size_t errlen)
+{
+	size_t n = strnlen(s, cap), at;
+
+	if (n == cap)
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: longer "
+		    "than %zu bytes", field, cap - 1);
+	if ((at = text_unsafe_at(s, n, allow_newline)) < n)
+		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: byte %zu "
+		    "is not UTF-8 or is a control or bidirectional-override "
+		    "character%s", field, at + 1, allow_newline ?
+		    " (only line feeds are allowed)" : "");
+	return ERRCODE_OK;
+}
+
 char *
 text_quote(const char *s, size_t n, char *out, size_t outlen)
 {

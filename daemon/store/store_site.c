@@ -79,6 +79,13 @@ store_station_put(struct store *s, const struct site_station *o,
 	sqlite3_stmt *st = NULL;
 	enum errcode e;
 
+	if ((e = text_field_check("station name", o->name, sizeof o->name, 0,
+	    errbuf, errlen)) ||
+	    (e = text_field_check("station code", o->code, sizeof o->code, 0,
+	    errbuf, errlen)) ||
+	    (e = text_field_check("station time_zone", o->time_zone,
+	    sizeof o->time_zone, 0, errbuf, errlen)))
+		return e;
 	if ((e = store_stmt_get(s, ST_STATION_PUT, &st, errbuf, errlen)))
 		return e;
 	store_bind_text(st, 1, o->name);
@@ -152,6 +159,22 @@ bind_target(sqlite3_stmt *st, const struct site_target *t)
 	store_bind_real_or_null(st, 14, t->extent_m);
 }
 
+/* The target's text members, through the one check of core/text.h. */
+static enum errcode
+target_text_check(const struct site_target *t, char *errbuf, size_t errlen)
+{
+	enum errcode e;
+
+	if ((e = text_field_check("target id", t->id, sizeof t->id, 0, errbuf,
+	    errlen)) ||
+	    (e = text_field_check("target name", t->name, sizeof t->name, 0,
+	    errbuf, errlen)) ||
+	    (e = text_field_check("target alias", t->alias, sizeof t->alias, 0,
+	    errbuf, errlen)))
+		return e;
+	return ERRCODE_OK;
+}
+
 enum errcode
 store_target_add(struct store *s, const struct site_target *t, char *errbuf,
     size_t errlen)
@@ -160,6 +183,8 @@ store_target_add(struct store *s, const struct site_target *t, char *errbuf,
 	char what[SITE_ID_LEN + 16];
 	enum errcode e;
 
+	if ((e = target_text_check(t, errbuf, errlen)))
+		return e;
 	if ((e = store_stmt_get(s, ST_TARGET_ADD, &st, errbuf, errlen)))
 		return e;
 	snprintf(what, sizeof what, "target '%s'", t->id);
@@ -175,6 +200,8 @@ store_target_update(struct store *s, const struct site_target *t,
 	char what[SITE_ID_LEN + 16];
 	enum errcode e;
 
+	if ((e = target_text_check(t, errbuf, errlen)))
+		return e;
 	if ((e = store_stmt_get(s, ST_TARGET_UPDATE, &st, errbuf, errlen)))
 		return e;
 	snprintf(what, sizeof what, "target '%s'", t->id);
@@ -262,6 +289,9 @@ store_blackout_add(struct store *s, struct site_blackout *b, char *errbuf,
 	char t0[40], t1[40];
 	enum errcode e;
 
+	if ((e = text_field_check("blackout reason", b->reason,
+	    sizeof b->reason, 0, errbuf, errlen)))
+		return e;
 	if ((e = store_canon(&b->start_mjd, STORE_TIME_NDP, t0, sizeof t0,
 	    "blackout", "start", errbuf, errlen)) ||
 	    (e = store_canon(&b->end_mjd, STORE_TIME_NDP, t1, sizeof t1,

@@ -86,6 +86,16 @@ size_t text_utf8_cut(const char *s, size_t max);
 size_t text_unsafe_at(const char *s, size_t n, int allow_newline);
 
 /*
+ * The one check of a stored text field (station name and code, target
+ * id, name and alias, blackout reason, attempt operator and notes): s must
+ * be terminated within cap bytes (at most cap - 1 characters' bytes, as a
+ * char[cap] member holds) and hold nothing text_unsafe_at finds.  Returns
+ * ERRCODE_OK, or ERRCODE_BAD_ARG with "FIELD: why" in errbuf.
+ */
+enum errcode text_field_check(const char *field, const char *s, size_t cap,
+    int allow_newline, char *errbuf, size_t errlen);
+
+/*
  * Copy s[0..n) into out (outlen bytes, always terminated) for quoting in
  * a message: valid printable UTF-8 as it is, every other byte (invalid
  * UTF-8, C0, DEL) as the four characters \xNN, so that the copy is valid
