@@ -144,14 +144,139 @@ eop_values(const char *ln, size_t n, const struct eop_col col[3],
 	return 0;
 }
 
-enum errcode
-import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
-    struct import_report *rep)
+/* The value columns (PM_x, PM_y, UT1-UTC) of finals [0] and C04 [1]. */
+static const struct eop_col eop_cols[2][3] = {
+	{{19, 27, "PM_x", "arcseconds"}, {38, 46, "PM_y", "arcseconds"},
+	    {59, 68, "UT1-UTC", "seconds"}},
+	{{20, 30, "x", "arcseconds"}, {31, 41, "y", "arcseconds"},
+	    {42, 53, "UT1-UTC", "seconds"}},
+};
+
+/* One more bad record in rep (its sentence already reported); -1. */
+static int
+counted_bad(struct import_report *rep)
+{
+	rep->bad++;
+	return -1;
+}
+
+/*
+ * One line of an IERS format: 0 with the date, MJD and the three values
+ * (PM_x, PM_y, UT1-UTC) of a data row; -1 for any other line (reported or
+ * counted in rep).  *state starts at 0 for a file and is the format's own.
+ */
+typedef int (*eop_line_fn)(const char *ln, size_t n, size_t line,
+    int *state, long ymd[3], double *mjd, double v[3],
+    struct import_report *rep);
+
+static int
+finals_line(const char *ln, size_t n, size_t line, int *state, long ymd[3],
+    double *mjd, double v[3], struct import_report *rep)
+{
+	double x, y, dut1;
+	char f[16], pmflag[4], utflag[4];
+	int e1, e2, e3;
+
+	(void)state;
+	if (n > LINE_MAX_EOP) {
+		import_err(rep, line, "", "line longer than %d bytes",
+		    LINE_MAX_EOP);
+		return counted_bad(rep);
+	}
+	if (text_parse_long(column(ln, n, 1, 2, f, sizeof f), 0, 99,
+	    &ymd[0]) || text_parse_long(column(ln, n, 3, 4, f, sizeof f),
+	    1, 12, &ymd[1]) || text_parse_long(column(ln, n, 5, 6, f,
+	    sizeof f), 1, 31, &ymd[2])) {
+		import_err(rep, line, "date", "columns 1-6 are not a "
+		    "YYMMDD date");
+		return counted_bad(rep);
+	}
+	if (col_real(ln, n, 8, 15, mjd, &e1) != 0 ||
+	    *mjd != floor(*mjd) || *mjd < 0.0 || *mjd > 200000.0) {
+		import_err(rep, line, "MJD", "columns 8-15 are not a "
+		    "whole MJD");
+		return counted_bad(rep);
+	}
+	ymd[0] += *mjd <= 51543.0 ? 1900 : 2000;
+	column(ln, n, 17, 17, pmflag, sizeof pmflag);
+	column(ln, n, 58, 58, utflag, sizeof utflag);
+	col_real(ln, n, 19, 27, &x, &e1);
+	col_real(ln, n, 38, 46, &y, &e2);
+	col_real(ln, n, 59, 68, &dut1, &e3);
+	if (e1 && e2 && e3 && pmflag[0] == '\0' && utflag[0] == '\0') {
+		rep->skipped++;	/* a date beyond the predictions */
+		return -1;
+	}
+	if (n < 68) {
+		import_err(rep, line, "UT1-UTC", "the line ends at "
+		    "column %zu, before UT1-UTC (columns 59-68): "
+		    "truncated?", n);
+		return counted_bad(rep);
+	}
+	if ((pmflag[0] != 'I' && pmflag[0] != 'P') ||
+	    (utflag[0] != 'I' && utflag[0] != 'P')) {
+		import_err(rep, line, pmflag[0] != 'I' &&
+		    pmflag[0] != 'P' ? "PM_flag" : "UT1_flag",
+		    "flag is not I (IERS) or P (prediction)");
+		return counted_bad(rep);
+	}
+	return eop_values(ln, n, eop_cols[0], v, line, rep);
+}
+
+/* *state: 1 once a data row has been seen (text after it is an error). */
+static int
+c04_line(const char *ln, size_t n, size_t line, int *state, long ymd[3],
+    double *mjd, double v[3], struct import_report *rep)
+{
+	char f[16];
+	size_t i = 0;
+	int e;
+
+	while (i < n && ln[i] == ' ')
+		i++;
+	if (!isdigit((unsigned char)ln[i])) {	/* the header */
+		if (!*state)
+			return -1;
+		import_err(rep, line, "", "text among the data rows");
+		return counted_bad(rep);
+	}
+	*state = 1;
+	if (n > LINE_MAX_EOP) {
+		import_err(rep, line, "", "line longer than %d bytes",
+		    LINE_MAX_EOP);
+		return counted_bad(rep);
+	}
+	if (n < 53) {
+		import_err(rep, line, "UT1-UTC", "the line ends at "
+		    "column %zu, before the end of UT1-UTC (column "
+		    "53): truncated?", n);
+		return counted_bad(rep);
+	}
+	if (text_parse_long(column(ln, n, 1, 4, f, sizeof f), 1900,
+	    2999, &ymd[0]) || text_parse_long(column(ln, n, 5, 8, f,
+	    sizeof f), 1, 12, &ymd[1]) || text_parse_long(column(ln, n, 9,
+	    12, f, sizeof f), 1, 31, &ymd[2])) {
+		import_err(rep, line, "date", "columns 1-12 are not "
+		    "a year, month and day");
+		return counted_bad(rep);
+	}
+	if (col_real(ln, n, 13, 19, mjd, &e) != 0 || *mjd != floor(*mjd)) {
+		import_err(rep, line, "MJD", "columns 13-19 are not "
+		    "a whole MJD");
+		return counted_bad(rep);
+	}
+	return eop_values(ln, n, eop_cols[1], v, line, rep);
+}
+
+/* An IERS file read line by line with parse: the rows to fn, in order. */
+static enum errcode
+eop_import_lines(const char *buf, size_t len, eop_line_fn parse,
+    import_eop_fn fn, void *ctx, struct import_report *rep)
 {
 	struct import_lines it;
 	const char *ln;
 	size_t n;
-	int term;
+	int term, state = 0;
 	double prev = NAN;
 	enum errcode rc;
 
@@ -162,72 +287,15 @@ import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 	it.end = buf + len;
 	it.line = 0;
 	while (import_lines_next(&it, &ln, &n, &term)) {
-		static const struct eop_col finals_cols[3] = {
-			{19, 27, "PM_x", "arcseconds"},
-			{38, 46, "PM_y", "arcseconds"},
-			{59, 68, "UT1-UTC", "seconds"},
-		};
-		double mjd, x, y, dut1, v[3];
-		long yy, mm, dd;
-		char f[16], pmflag[4], utflag[4];
-		int e1, e2, e3;
+		double mjd, v[3];
+		long ymd[3];
 
 		if (import_blank(ln, n) || ln[0] == '#')
 			continue;
-		if (n > LINE_MAX_EOP) {
-			import_err(rep, it.line, "",
-			    "line longer than %d bytes",
-			    LINE_MAX_EOP);
-			rep->bad++;
+		if (parse(ln, n, it.line, &state, ymd, &mjd, v, rep) != 0)
 			continue;
-		}
-		if (text_parse_long(column(ln, n, 1, 2, f, sizeof f), 0, 99,
-		    &yy) || text_parse_long(column(ln, n, 3, 4, f, sizeof f),
-		    1, 12, &mm) || text_parse_long(column(ln, n, 5, 6, f,
-		    sizeof f), 1, 31, &dd)) {
-			import_err(rep, it.line, "date",
-			    "columns 1-6 are not a "
-			    "YYMMDD date");
-			rep->bad++;
-			continue;
-		}
-		if (col_real(ln, n, 8, 15, &mjd, &e1) != 0 ||
-		    mjd != floor(mjd) || mjd < 0.0 || mjd > 200000.0) {
-			import_err(rep, it.line, "MJD",
-			    "columns 8-15 are not a "
-			    "whole MJD");
-			rep->bad++;
-			continue;
-		}
-		column(ln, n, 17, 17, pmflag, sizeof pmflag);
-		column(ln, n, 58, 58, utflag, sizeof utflag);
-		col_real(ln, n, 19, 27, &x, &e1);
-		col_real(ln, n, 38, 46, &y, &e2);
-		col_real(ln, n, 59, 68, &dut1, &e3);
-		if (e1 && e2 && e3 && pmflag[0] == '\0' && utflag[0] == '\0') {
-			rep->skipped++;	/* a date beyond the predictions */
-			continue;
-		}
-		if (n < 68) {
-			import_err(rep, it.line, "UT1-UTC", "the line ends at "
-			    "column %zu, before UT1-UTC (columns 59-68): "
-			    "truncated?", n);
-			rep->bad++;
-			continue;
-		}
-		if ((pmflag[0] != 'I' && pmflag[0] != 'P') ||
-		    (utflag[0] != 'I' && utflag[0] != 'P')) {
-			import_err(rep, it.line, pmflag[0] != 'I' &&
-			    pmflag[0] != 'P' ? "PM_flag" : "UT1_flag",
-			    "flag is not I (IERS) or P (prediction)");
-			rep->bad++;
-			continue;
-		}
-		if (eop_values(ln, n, finals_cols, v, it.line, rep) != 0)
-			continue;
-		rc = eop_row((int)(yy + (mjd <= 51543.0 ? 1900 : 2000)),
-		    (int)mm, (int)dd, mjd, v[0], v[1], v[2], &prev, it.line, fn,
-		    ctx, rep);
+		rc = eop_row((int)ymd[0], (int)ymd[1], (int)ymd[2], mjd, v[0],
+		    v[1], v[2], &prev, it.line, fn, ctx, rep);
 		if (rc != ERRCODE_OK)
 			return rc;
 	}
@@ -239,92 +307,17 @@ import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 }
 
 enum errcode
+import_eop_finals(const char *buf, size_t len, import_eop_fn fn, void *ctx,
+    struct import_report *rep)
+{
+	return eop_import_lines(buf, len, finals_line, fn, ctx, rep);
+}
+
+enum errcode
 import_eop_c04(const char *buf, size_t len, import_eop_fn fn, void *ctx,
     struct import_report *rep)
 {
-	struct import_lines it;
-	const char *ln;
-	size_t n;
-	int term, data = 0;
-	double prev = NAN;
-	enum errcode rc;
-
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
-		return rc;
-	it.p = buf + import_bom_len(buf, len);
-	it.end = buf + len;
-	it.line = 0;
-	while (import_lines_next(&it, &ln, &n, &term)) {
-		static const struct eop_col c04_cols[3] = {
-			{20, 30, "x", "arcseconds"},
-			{31, 41, "y", "arcseconds"},
-			{42, 53, "UT1-UTC", "seconds"},
-		};
-		double mjd, v[3];
-		long yy, mm, dd;
-		char f[16];
-		size_t i = 0;
-		int e;
-
-		if (import_blank(ln, n) || ln[0] == '#')
-			continue;
-		while (i < n && ln[i] == ' ')
-			i++;
-		if (!isdigit((unsigned char)ln[i])) {
-			if (data) {
-				import_err(rep, it.line, "",
-				    "text among the data "
-				    "rows");
-				rep->bad++;
-			}
-			continue;	/* the header */
-		}
-		data = 1;
-		if (n > LINE_MAX_EOP) {
-			import_err(rep, it.line, "",
-			    "line longer than %d bytes",
-			    LINE_MAX_EOP);
-			rep->bad++;
-			continue;
-		}
-		if (n < 53) {
-			import_err(rep, it.line, "UT1-UTC", "the line ends at "
-			    "column %zu, before the end of UT1-UTC (column "
-			    "53): truncated?", n);
-			rep->bad++;
-			continue;
-		}
-		if (text_parse_long(column(ln, n, 1, 4, f, sizeof f), 1900,
-		    2999, &yy) || text_parse_long(column(ln, n, 5, 8, f,
-		    sizeof f), 1, 12, &mm) || text_parse_long(column(ln, n, 9,
-		    12, f, sizeof f), 1, 31, &dd)) {
-			import_err(rep, it.line, "date",
-			    "columns 1-12 are not "
-			    "a year, month and day");
-			rep->bad++;
-			continue;
-		}
-		if (col_real(ln, n, 13, 19, &mjd, &e) != 0 ||
-		    mjd != floor(mjd)) {
-			import_err(rep, it.line, "MJD",
-			    "columns 13-19 are not "
-			    "a whole MJD");
-			rep->bad++;
-			continue;
-		}
-		if (eop_values(ln, n, c04_cols, v, it.line, rep) != 0)
-			continue;
-		rc = eop_row((int)yy, (int)mm, (int)dd, mjd, v[0], v[1], v[2],
-		    &prev, it.line, fn, ctx, rep);
-		if (rc != ERRCODE_OK)
-			return rc;
-	}
-	if (rep->records == 0 && rep->bad == 0) {
-		import_err(rep, 0, "", "no Earth-orientation rows found");
-		rep->bad++;
-	}
-	return import_status(rep);
+	return eop_import_lines(buf, len, c04_line, fn, ctx, rep);
 }
 
 enum import_eop_format
