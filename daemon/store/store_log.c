@@ -40,6 +40,24 @@ bind_query(sqlite3_stmt *st, const struct store_query *q, int with_station)
 		store_bind_text_or_null(st, 6, q->station_code);
 }
 
+/* The rows of statement id under the filters of q, each read by row into
+   a new array of n records of size bytes (free with mem_free). */
+static enum errcode
+list_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
+    int with_station, size_t size, store_row_fn row,
+    void **out, size_t *n, const char *what, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+
+	*out = NULL;
+	*n = 0;
+	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+		return e;
+	bind_query(st, q, with_station);
+	return store_collect(s, st, size, row, out, n, what, errbuf, errlen);
+}
+
 static enum errcode
 count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
     int with_station, size_t *n, const char *what, char *errbuf,
@@ -228,16 +246,8 @@ enum errcode
 store_attempts_list(struct store *s, const struct store_query *q,
     struct site_attempt **out, size_t *n, char *errbuf, size_t errlen)
 {
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = store_stmt_get(s, ST_ATTEMPTS_LIST, &st, errbuf, errlen)))
-		return e;
-	bind_query(st, q, 0);
-	return store_collect(s, st, sizeof **out, row_attempt, (void **)out, n,
-	    "attempts", errbuf, errlen);
+	return list_rows(s, ST_ATTEMPTS_LIST, q, 0, sizeof **out, row_attempt,
+	    (void **)out, n, "attempts", errbuf, errlen);
 }
 
 enum errcode
@@ -312,16 +322,8 @@ enum errcode
 store_nps_list(struct store *s, const struct store_query *q,
     struct site_normal_point **out, size_t *n, char *errbuf, size_t errlen)
 {
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
-
-	*out = NULL;
-	*n = 0;
-	if ((e = store_stmt_get(s, ST_NPS_LIST, &st, errbuf, errlen)))
-		return e;
-	bind_query(st, q, 1);
-	return store_collect(s, st, sizeof **out, row_np, (void **)out, n,
-	    "normal points", errbuf, errlen);
+	return list_rows(s, ST_NPS_LIST, q, 1, sizeof **out, row_np,
+	    (void **)out, n, "normal points", errbuf, errlen);
 }
 
 enum errcode

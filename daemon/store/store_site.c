@@ -215,18 +215,29 @@ store_target_update(struct store *s, const struct site_target *t,
 	return ERRCODE_OK;
 }
 
-enum errcode
-store_target_get(struct store *s, const char *id, struct site_target *out,
-    char *errbuf, size_t errlen)
+/* The target that statement id (ST_TARGET_GET, ST_TARGET_ALIAS) finds by
+   key; ERRCODE_NOT_FOUND when there is none (the caller says why). */
+static enum errcode
+target_by(struct store *s, enum store_stmt_id id, const char *key,
+    struct site_target *out, char *errbuf, size_t errlen)
 {
 	sqlite3_stmt *st = NULL;
 	enum errcode e;
 
-	if ((e = store_stmt_get(s, ST_TARGET_GET, &st, errbuf, errlen)))
+	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
 		return e;
-	store_bind_text(st, 1, id);
+	store_bind_text(st, 1, key);
 	memset(out, 0, sizeof *out);
-	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
+	return store_fetch_one(s, st, row_target, out, "target", errbuf,
+	    errlen);
+}
+
+enum errcode
+store_target_get(struct store *s, const char *id, struct site_target *out,
+    char *errbuf, size_t errlen)
+{
+	enum errcode e = target_by(s, ST_TARGET_GET, id, out, errbuf, errlen);
+
 	if (e == ERRCODE_NOT_FOUND)
 		(void)text_err(ERRCODE_OK, errbuf, errlen, "no target '%s'",
 		    id);
@@ -237,14 +248,9 @@ enum errcode
 store_target_by_alias(struct store *s, const char *name,
     struct site_target *out, char *errbuf, size_t errlen)
 {
-	sqlite3_stmt *st = NULL;
-	enum errcode e;
+	enum errcode e = target_by(s, ST_TARGET_ALIAS, name, out, errbuf,
+	    errlen);
 
-	if ((e = store_stmt_get(s, ST_TARGET_ALIAS, &st, errbuf, errlen)))
-		return e;
-	store_bind_text(st, 1, name);
-	memset(out, 0, sizeof *out);
-	e = store_fetch_one(s, st, row_target, out, "target", errbuf, errlen);
 	if (e == ERRCODE_NOT_FOUND)
 		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "no target has the alias or id '%s'",
