@@ -17,10 +17,8 @@ cleanup() {
 	rm -rf "$T"
 }
 trap cleanup EXIT
-fails=0
-n=0
-ok() { n=$((n + 1)); echo "ok $n - $1"; }
-bad() { n=$((n + 1)); fails=$((fails + 1)); echo "not ok $n - $1"; }
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
 
 # expect NAME STATUS PATTERN ARGS...: exit STATUS, exactly one stderr line,
 # "moonrange: error: " and PATTERN in it, nothing on stdout.

@@ -13,11 +13,8 @@ SRC=$2
 T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-cli-log.XXXXXX")
 trap 'rm -rf "$T"' EXIT
 PY=/usr/bin/python3
-fails=0
-n=0
-ok() { n=$((n + 1)); echo "ok $n - $1"; }
-bad() { n=$((n + 1)); fails=$((fails + 1)); echo "not ok $n - $1"; }
-check() { if eval "$2"; then ok "$1"; else bad "$1"; fi; }
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
 q() { sqlite3 "$DB" "$1"; }
 
 DB=$T/site.db
@@ -57,19 +54,7 @@ check "help states the default" "'$M' log list --help | grep -q 'newest 20'"
 # 30000 invented rows (about 2.7 MB): long enough to show progress.
 mkdir -p "$T/empty"
 cp "$SRC"/sample-site/station.ini "$SRC"/sample-site/targets.csv "$T/empty/"
-$PY - "$T/big.csv" <<'PYEOF'
-import sys, datetime
-t0 = datetime.datetime(2027, 1, 1)
-with open(sys.argv[1], "w", newline="") as f:
-    f.write("target,start_utc,end_utc,shots,returns,normal_points,outcome,"
-            "operator,seeing_arcsec,notes\r\n")
-    for i in range(30000):
-        s = t0 + datetime.timedelta(minutes=3 * i)
-        e = s + datetime.timedelta(minutes=2)
-        f.write("%s,%sZ,%sZ,%d,%d,0,no_returns,op,,invented row %d\r\n" % (
-            ("HERON", "OSPREY", "PLOVER")[i % 3], s.isoformat(),
-            e.isoformat(), 1000 + i % 1000, i % 7, i))
-PYEOF
+lib_big_attempts_csv "$T/big.csv" 2027 30000
 B=$T/big.db
 "$M" init --db "$B" --site "$T/empty" >/dev/null
 "$M" log import --db "$B" "$T/big.csv" >"$T/imp.out" 2>"$T/imp.err"

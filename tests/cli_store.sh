@@ -16,12 +16,6 @@ trap 'rm -rf "$T"' EXIT
 # shellcheck source=tests/lib.sh
 source "$(dirname "$0")/lib.sh"
 PY=/usr/bin/python3
-fails=0
-n=0
-
-ok() { n=$((n + 1)); echo "ok $n - $1"; }
-bad() { n=$((n + 1)); fails=$((fails + 1)); echo "not ok $n - $1"; }
-check() { if eval "$2"; then ok "$1"; else bad "$1"; fi; }
 q() { sqlite3 "$1" "$2"; }
 
 # expect_fail NAME STATUS PATTERN CMD...: CMD exits with STATUS and its

@@ -11,11 +11,8 @@ M=$1
 SRC=$2
 T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-cli-table.XXXXXX")
 trap 'rm -rf "$T"' EXIT
-fails=0
-n=0
-ok() { n=$((n + 1)); echo "ok $n - $1"; }
-bad() { n=$((n + 1)); fails=$((fails + 1)); echo "not ok $n - $1"; }
-check() { if eval "$2"; then ok "$1"; else bad "$1"; fi; }
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
 
 # expect_usage NAME PATTERN ARGS...: exit 2, one line naming PATTERN.
 expect_usage() {

@@ -1,7 +1,15 @@
 # SPDX-License-Identifier: BSD-3-Clause
 # lib.sh: what the black-box scripts share, sourced by tests/*.sh and
-# tests/load/*.sh: the daemon's URL once it serves, stopping what a script
-# started, and a large invented attempts CSV.
+# tests/load/*.sh: TAP check lines, the daemon's URL once it serves,
+# stopping what a script started, and a large invented attempts CSV.
+
+# TAP lines of the black-box checks: ok NAME, bad NAME, check NAME EXPR
+# (EXPR is eval'd); n counts the checks, fails the failures.
+fails=0
+n=0
+ok() { n=$((n + 1)); echo "ok $n - $1"; }
+bad() { n=$((n + 1)); fails=$((fails + 1)); echo "not ok $n - $1"; }
+check() { if eval "$2"; then ok "$1"; else bad "$1"; fi; }
 
 # lib_serve_url OUT TRIES PAUSE: wait (TRIES times PAUSE seconds at most)
 # for the "moonrange: serving URL" line in the daemon's stdout file OUT;

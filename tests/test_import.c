@@ -93,6 +93,19 @@ expect_error(const struct import_report *rep, size_t line, const char *field,
 /* Collectors for the callbacks. */
 #define MAXREC 400
 
+/* Keep record rec (size bytes) and its line as number *n of arr and
+   lines when there is room (cap); count it either way. */
+static void
+seen_add(size_t *n, size_t cap, void *arr, size_t *lines, const void *rec,
+    size_t size, size_t line)
+{
+	if (*n < cap) {
+		memcpy((char *)arr + *n * size, rec, size);
+		lines[*n] = line;
+	}
+	(*n)++;
+}
+
 struct targets_seen {
 	size_t n;
 	struct site_target t[16];
@@ -104,11 +117,7 @@ on_target(void *ctx, const struct site_target *t, size_t line)
 {
 	struct targets_seen *s = ctx;
 
-	if (s->n < 16) {
-		s->t[s->n] = *t;
-		s->line[s->n] = line;
-	}
-	s->n++;
+	seen_add(&s->n, 16, s->t, s->line, t, sizeof *t, line);
 	return ERRCODE_OK;
 }
 
@@ -124,11 +133,7 @@ on_attempt(void *ctx, const struct site_attempt *a, size_t line)
 {
 	struct attempts_seen *s = ctx;
 
-	if (s->n < MAXREC) {
-		s->a[s->n] = *a;
-		s->line[s->n] = line;
-	}
-	s->n++;
+	seen_add(&s->n, MAXREC, s->a, s->line, a, sizeof *a, line);
 	if (s->n == 2 && s->stop_at_2 != ERRCODE_OK)
 		return s->stop_at_2;
 	return ERRCODE_OK;
@@ -145,11 +150,7 @@ on_np(void *ctx, const struct import_crd_np *np, size_t line)
 {
 	struct nps_seen *s = ctx;
 
-	if (s->n < 64) {
-		s->np[s->n] = *np;
-		s->line[s->n] = line;
-	}
-	s->n++;
+	seen_add(&s->n, 64, s->np, s->line, np, sizeof *np, line);
 	return ERRCODE_OK;
 }
 
