@@ -73,6 +73,20 @@ cli_store_close(struct cli_store *c)
 }
 
 int
+cli_query_db(const char *path, struct store **db)
+{
+	char err[300];
+	enum errcode rc;
+
+	rc = store_open(path, STORE_OPEN_READONLY, db, err, sizeof err);
+	if (rc != ERRCODE_OK)
+		return rc == ERRCODE_NOT_FOUND ?
+		    cli_usage_error("--db: no database '%s'", path) :
+		    cli_fail("--db '%s': %s", path, err);
+	return CLI_EXIT_OK;
+}
+
+int
 cli_store_run(const struct cli_args *a, int flags, cli_store_job job,
     void *ctx)
 {

@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cli_store.h"
 #include "core/text.h"
 #include "query/covquery.h"
 #include "store/store.h"
@@ -75,11 +76,8 @@ run(const struct cli_args *a)
 	cli_now(&u1, &u2);
 	p.now_mjd = (u1 - TEXT_MJD0) + u2;
 
-	rc = store_open(db_path, STORE_OPEN_READONLY, &db, err, sizeof err);
-	if (rc != ERRCODE_OK)
-		return rc == ERRCODE_NOT_FOUND ?
-		    cli_usage_error("--db: no database '%s'", db_path) :
-		    cli_fail("--db '%s': %s", db_path, err);
+	if ((st = cli_query_db(db_path, &db)) != CLI_EXIT_OK)
+		return st;
 	mbuf_init(&out);
 	err[0] = '\0';
 	rc = covquery_run(db, &p, fmt, &out, err, sizeof err);

@@ -10,10 +10,11 @@
 #include "core/text.h"
 #include "core/tscale.h"
 
-/* eop import (import = 1) and eop status: then the table's span. */
+/* eop import (mode 1) and eop status: then the table's span. */
 static int
-eop(const struct cli_args *a, int import)
+eop(const struct cli_args *a)
 {
+	int import = a->cmd->mode;
 	struct cli_store c;
 	struct cli_store_counts n;
 	char err[512], d0[40], d1[40];
@@ -50,18 +51,6 @@ eop(const struct cli_args *a, int import)
 	return st;
 }
 
-static int
-eop_import(const struct cli_args *a)
-{
-	return eop(a, 1);
-}
-
-static int
-eop_status(const struct cli_args *a)
-{
-	return eop(a, 0);
-}
-
 
 static const struct cli_option import_options[] = {
 	CLI_OPT_DB,
@@ -81,7 +70,8 @@ static const struct cli_command eop_import_cmd = {
 	    "replaced.  Prints what the table then covers.",
 	.options = import_options,
 	CLI_ONE_OPERAND("EOP_FILE"),
-	.run = eop_import,
+	.run = eop,
+	.mode = 1,
 };
 
 static const struct cli_command eop_status_cmd = {
@@ -89,7 +79,7 @@ static const struct cli_command eop_status_cmd = {
 	.summary = "the days the table covers",
 	.about = "The first and last day of the Earth orientation table.",
 	.options = status_options,
-	.run = eop_status,
+	.run = eop,
 };
 
 static const struct cli_command *const actions[] = {

@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_ephem.c: "moonrange ephem", the geometry of one instant. */
-#include <ctype.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -14,6 +13,7 @@
 #include "core/array.h"
 #include "core/derive.h"
 #include "core/geom.h"
+#include "formats/import_util.h"
 #include "formats/render_time.h"
 #include "formats/render_ephem.h"
 #include "query/qzone.h"
@@ -28,18 +28,6 @@
 #define DEMO_HEIGHT 2950.0
 #define DEMO_TZ "America/Los_Angeles"
 
-static int
-valid_id(const char *s, size_t n)
-{
-	if (n == 0 || n > 32)
-		return 0;
-	for (size_t i = 0; i < n; i++)
-		if (!isalnum((unsigned char)s[i]) && s[i] != '_' &&
-		    s[i] != '-' && s[i] != '.')
-			return 0;
-	return 1;
-}
-
 /* Parse "ID=LAT,LON[,H]" into an id (copied into idbuf) and a target. */
 static int
 parse_target(const char *arg, char *idbuf, size_t idlen,
@@ -48,15 +36,17 @@ parse_target(const char *arg, char *idbuf, size_t idlen,
 	const char *eq = strchr(arg, '=');
 	char tmp[128], *f[3];
 	double lat, lon, h = 0.0;
-	int n;
+	int n, ok = eq != NULL && (size_t)(eq - arg) < idlen;
 
-	if (eq == NULL || !valid_id(arg, (size_t)(eq - arg)) ||
-	    (size_t)(eq - arg) >= idlen)
+	if (ok) {
+		memcpy(idbuf, arg, (size_t)(eq - arg));
+		idbuf[eq - arg] = '\0';
+		ok = import_valid_ident(idbuf, 32, 1);
+	}
+	if (!ok)
 		return cli_usage_error("--target '%s': expected ID=LAT,LON"
 		    "[,HEIGHT_M] with an ID of 1-32 letters, digits, '_', "
 		    "'-' or '.'", arg);
-	memcpy(idbuf, arg, (size_t)(eq - arg));
-	idbuf[eq - arg] = '\0';
 	if (strlen(eq + 1) >= sizeof tmp)
 		return cli_usage_error("--target '%s': too long", arg);
 	strcpy(tmp, eq + 1);

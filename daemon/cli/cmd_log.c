@@ -103,8 +103,9 @@ out:
 /* --- list and export ------------------------------------------------------ */
 
 static int
-log_list(const struct cli_args *a, int export)
+log_list(const struct cli_args *a)
 {
+	int export = a->cmd->mode;
 	static struct tzone zone;
 	struct cli_store c;
 	struct store_query q;
@@ -205,18 +206,6 @@ import_more(FILE *f)
 	cli_wrap(f, text, 0, 2);
 }
 
-static int
-run_list(const struct cli_args *a)
-{
-	return log_list(a, 0);
-}
-
-static int
-run_export(const struct cli_args *a)
-{
-	return log_list(a, 1);
-}
-
 #define OPT_SINCE {.name = "since", .kind = CLI_TIME, .arg = "UTC", \
 	.help = "attempts starting at or after this time"}
 #define OPT_UNTIL {.name = "until", .kind = CLI_TIME, .arg = "UTC", \
@@ -301,7 +290,7 @@ static const struct cli_command log_list_cmd = {
 	    "--csv and --json hold every field.  --since is inclusive, --until "
 	    "exclusive.",
 	.options = list_options,
-	.run = run_list,
+	.run = log_list,
 };
 
 static const struct cli_command log_import_cmd = {
@@ -323,7 +312,8 @@ static const struct cli_command log_export_cmd = {
 	.about = "The log as CSV (RFC 4180) in the format 'log import' "
 	    "reads.",
 	.options = export_options,
-	.run = run_export,
+	.run = log_list,
+	.mode = 1,
 };
 
 static const struct cli_command *const actions[] = {

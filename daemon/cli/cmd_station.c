@@ -49,10 +49,11 @@ set_one(struct site_station *st, const char *arg)
 	return CLI_EXIT_OK;
 }
 
-/* station show, and station set (set = 1). */
+/* station show, and station set (mode 1). */
 static int
-station(const struct cli_args *a, int set)
+station(const struct cli_args *a)
 {
+	int set = a->cmd->mode;
 	struct site_station st;
 	struct cli_store c;
 	struct mbuf out;
@@ -89,18 +90,6 @@ out:
 	return status;
 }
 
-static int
-station_show(const struct cli_args *a)
-{
-	return station(a, 0);
-}
-
-static int
-station_set(const struct cli_args *a)
-{
-	return station(a, 1);
-}
-
 static const struct cli_option options[] = {
 	CLI_OPT_DB,
 	{.name = "json", .kind = CLI_FLAG, .help = "the station as JSON"},
@@ -112,7 +101,7 @@ static const struct cli_command station_show_cmd = {
 	.summary = "the stored station",
 	.about = "The station record (one per database).",
 	.options = options,
-	.run = station_show,
+	.run = station,
 };
 
 static const struct cli_command station_set_cmd = {
@@ -124,7 +113,8 @@ static const struct cli_command station_set_cmd = {
 	.operands = "SECTION.KEY=VALUE...",
 	.nmin = 1,
 	.nmax = -1,
-	.run = station_set,
+	.run = station,
+	.mode = 1,
 	.more = more,
 };
 

@@ -1,28 +1,14 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_target.c: "moonrange target", the lunar targets of the station:
    add, list, set, retire. */
-#include <ctype.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
 #include "cli/cli.h"
 #include "cli/cli_store.h"
+#include "formats/import_util.h"
 #include "formats/render_site.h"
-
-static int
-valid_ident(const char *s, size_t max)
-{
-	size_t n = strlen(s);
-
-	if (n == 0 || n > max)
-		return 0;
-	for (size_t i = 0; i < n; i++)
-		if (!isalnum((unsigned char)s[i]) && s[i] != '_' &&
-		    s[i] != '-' && s[i] != '.')
-			return 0;
-	return 1;
-}
 
 /* Which fields an option set touched, applied over a stored target. */
 struct target_edit {
@@ -42,8 +28,8 @@ apply(struct site_target *t, const struct target_edit *e)
 		strcpy(t->name, e->name);
 	}
 	if (e->alias != NULL) {
-		if (*e->alias != '\0' && !valid_ident(e->alias,
-		    sizeof t->alias - 1))
+		if (*e->alias != '\0' && !import_valid_ident(e->alias,
+		    sizeof t->alias - 1, 1))
 			return cli_usage_error("--alias: '%s' is not 1..%zu "
 			    "letters, digits, '_', '-' or '.'", e->alias,
 			    sizeof t->alias - 1);
@@ -82,7 +68,7 @@ edit_of(const struct cli_args *a, struct target_edit *e, int set)
 static int
 check_id(const struct cli_args *a)
 {
-	if (!valid_ident(a->ops[0], SITE_ID_LEN - 1))
+	if (!import_valid_ident(a->ops[0], SITE_ID_LEN - 1, 1))
 		return cli_usage_error("%s: an ID of 1-32 letters, digits, "
 		    "'_', '-' or '.' is required", a->path);
 	return CLI_EXIT_OK;
@@ -115,10 +101,11 @@ target_add(const struct cli_args *a)
 	return st;
 }
 
-/* target set, and target retire (retire = 1). */
+/* target set, and target retire (mode 1). */
 static int
-target_change(const struct cli_args *a, int retire)
+target_change(const struct cli_args *a)
 {
+	int retire = a->cmd->mode;
 	struct target_edit e;
 	struct site_target t;
 	struct cli_store c;
@@ -151,18 +138,6 @@ target_change(const struct cli_args *a, int retire)
 		    "updated");
 	cli_store_close(&c);
 	return st;
-}
-
-static int
-target_set(const struct cli_args *a)
-{
-	return target_change(a, 0);
-}
-
-static int
-target_retire(const struct cli_args *a)
-{
-	return target_change(a, 1);
 }
 
 static enum errcode
@@ -247,7 +222,7 @@ static const struct cli_command target_set_cmd = {
 	.about = "Change the given fields of a target; the others stay.",
 	.options = set_options,
 	CLI_ONE_OPERAND("ID"),
-	.run = target_set,
+	.run = target_change,
 };
 
 static const struct cli_command target_retire_cmd = {
@@ -258,7 +233,8 @@ static const struct cli_command target_retire_cmd = {
 	    "back).",
 	.options = retire_options,
 	CLI_ONE_OPERAND("ID"),
-	.run = target_retire,
+	.run = target_change,
+	.mode = 1,
 };
 
 static const struct cli_command target_list_cmd = {

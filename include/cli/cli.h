@@ -78,6 +78,7 @@ struct cli_command {
 	int nmin, nmax;		/* operands allowed (nmax -1: no limit) */
 	unsigned one_of;	/* bit g: one option of group g is required */
 	int (*run)(const struct cli_args *a);	/* NULL when actions */
+	int mode;	/* a->cmd->mode: which variant of a shared run */
 	const struct cli_command *const *actions;	/* NULL ended */
 	void (*more)(FILE *f);	/* help printed after the options, or NULL */
 };

@@ -41,6 +41,11 @@ int cli_store_open(struct cli_store *c, const char *db, int flags);
 int cli_store_fail(enum errcode rc, const char *fmt, ...)
     MEM_PRINTFLIKE(2, 3);
 
+/* Open path read-only for a query's run: CLI_EXIT_OK and *db (close it
+   with store_close), else the status after "--db: no database 'PATH'"
+   (usage) or "--db 'PATH': why". */
+int cli_query_db(const char *path, struct store **db);
+
 /* Load station, targets and EOP table (the station must exist). */
 int cli_store_load(struct cli_store *c);
 
