@@ -9,22 +9,13 @@
 #include <time.h>
 
 #include "core/night.h"
+#include "sample_targets.h"
 #include "core/tscale.h"
 
 static const struct {
 	const char *id;
 	double lat, lon, h, strength;
-} targets[8] = {
-	/* sample-site/targets.csv (invented), and three more (invented) */
-	{"HERON", 12.4817, -21.3764, -1180, 1.00},
-	{"OSPREY", -8.7231, 31.6402, -2310, 0.45},
-	{"PLOVER", 24.1538, 8.9317, -640, 0.30},
-	{"SANDPIPER", -17.0622, -36.8115, 420, 0.55},
-	{"TERN", 3.2719, 40.1206, -1530, 0.20},
-	{"AVOCET", 35.0, -5.0, 0, 0.40},
-	{"DUNLIN", -30.0, 15.0, 0, 0.35},
-	{"EGRET", 0.5, 60.0, 0, 0.25},
-};
+} targets[SAMPLE_TARGETS_N] = SAMPLE_TARGETS;
 
 static double
 seconds(void)

@@ -9,10 +9,9 @@
 set -u
 M=$1
 SRC=$2
-T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-cli-table.XXXXXX")
-trap 'rm -rf "$T"' EXIT
 # shellcheck source=tests/lib.sh
 source "$(dirname "$0")/lib.sh"
+lib_tmpdir cli-table
 
 # expect_usage NAME PATTERN ARGS...: exit 2, one line naming PATTERN.
 expect_usage() {

@@ -10,10 +10,9 @@
 set -u
 B=$1
 SRC=$2
-T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-install.XXXXXX")
-trap 'rm -rf "$T"' EXIT
 # shellcheck source=tests/lib.sh
 source "$(dirname "$0")/lib.sh"
+lib_tmpdir install
 
 P=$T/prefix
 cmake --install "$B" --prefix "$P" >"$T/install.log" 2>&1 ||

@@ -22,11 +22,18 @@ lib_serve_url() {
 	sed -n 's/^moonrange: serving //p' "$1"
 }
 
+# lib_tmpdir NAME: a new scratch directory T (moonrange-NAME.XXXXXX under
+# $TMPDIR, else /tmp), removed when the script exits.
+lib_tmpdir() {
+	T=$(mktemp -d "${TMPDIR:-/tmp}/moonrange-$1.XXXXXX")
+	trap 'rm -rf "$T"' EXIT
+}
+
 # lib_cleanup: the EXIT trap of a script that keeps its background jobs in
 # the array BG, the daemon's process id in PID and its files under T.
 lib_cleanup() {
 	local p
-	for p in "${BG[@]}"; do kill "$p" 2>/dev/null || true; done
+	for p in ${BG[@]+"${BG[@]}"}; do kill "$p" 2>/dev/null || true; done
 	if [[ -n "${PID:-}" ]] && kill -0 "$PID" 2>/dev/null; then
 		kill -KILL "$PID" 2>/dev/null || true
 	fi

@@ -11,11 +11,9 @@ BIN=${1:?usage: readonly_db.sh MOONRANGE_BINARY}
 [[ $(id -u) -eq 0 ]] && command -v setpriv > /dev/null || exit 77
 T=$(mktemp -d /tmp/moonrange-ro-XXXXXX)
 PID=
-cleanup() {
-	[[ -n "$PID" ]] && kill -KILL "$PID" 2>/dev/null || true
-	rm -rf "$T"
-}
-trap cleanup EXIT
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
+trap lib_cleanup EXIT
 fail() { echo "FAIL: $*" >&2; cat "$T/err" >&2 || true; exit 1; }
 "$BIN" init --db "$T/db" > /dev/null
 printf 'readonly-test-token-%s\n' "$RANDOM$RANDOM" > "$T/token"

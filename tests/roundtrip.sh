@@ -12,11 +12,9 @@ BIN=${1:?usage: roundtrip.sh MOONRANGE_BINARY SOURCE_DIR}
 SRC=${2:?}
 T=$(mktemp -d /tmp/moonrange-rt-XXXXXX)
 PID=
-cleanup() {
-	[[ -n "$PID" ]] && kill -KILL "$PID" 2>/dev/null || true
-	rm -rf "$T"
-}
-trap cleanup EXIT
+# shellcheck source=tests/lib.sh
+source "$(dirname "$0")/lib.sh"
+trap lib_cleanup EXIT
 fail() { echo "FAIL: $*" >&2; exit 1; }
 
 mkdir "$T/site"

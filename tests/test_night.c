@@ -7,37 +7,23 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "rng.h"
 #include "check.h"
+#include "sample_targets.h"
 #include "core/mem.h"
 #include "core/night.h"
 #include "core/tscale.h"
 
-#define NTG 8
+#define NTG SAMPLE_TARGETS_N
 #define NATT 200
 
-static unsigned long long rng_state = 0x853C49E6748FEA9BULL;
-
-static double
-urand(void)
-{
-	rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
-	return ((double)(rng_state >> 11) + 0.5) / 9007199254740992.0;
-}
+RNG_FILE(0x853C49E6748FEA9BULL)
 
 /* The invented targets of sample-site/targets.csv, and three more. */
 static const struct {
 	const char *id;
 	double lat, lon, h, strength;
-} targets[NTG] = {
-	{"HERON", 12.4817, -21.3764, -1180, 1.00},
-	{"OSPREY", -8.7231, 31.6402, -2310, 0.45},
-	{"PLOVER", 24.1538, 8.9317, -640, 0.30},
-	{"SANDPIPER", -17.0622, -36.8115, 420, 0.55},
-	{"TERN", 3.2719, 40.1206, -1530, 0.20},
-	{"AVOCET", 35.0, -5.0, 0, 0.40},
-	{"DUNLIN", -30.0, 15.0, 0, 0.35},
-	{"EGRET", 0.5, 60.0, 0, 0.25},
-};
+} targets[NTG] = SAMPLE_TARGETS;
 
 struct world {
 	struct plan_query q;

@@ -6,6 +6,7 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "rng.h"
 #include "check.h"
 #include "core/mem.h"
 #include "core/sched.h"
@@ -14,14 +15,7 @@
 #define MAXT 8
 #define MAXS 800
 
-static unsigned long long rng_state = 0xD1B54A32D192ED03ULL;
-
-static double
-urand(void)
-{
-	rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
-	return ((double)(rng_state >> 11) + 0.5) / 9007199254740992.0;
-}
+RNG_FILE(0xD1B54A32D192ED03ULL)
 
 static int
 irand(int lo, int hi)		/* lo..hi inclusive */

@@ -10,6 +10,7 @@
 #include <erfam.h>
 #include <libnova/airmass.h>
 
+#include "rng.h"
 #include "check.h"
 #include "core/link.h"
 #include "core/score.h"
@@ -17,14 +18,7 @@
 #define D2R ERFA_DD2R
 #define DAY ERFA_DAYSEC
 
-static unsigned long long rng_state = 0x2545F4914F6CDD1DULL;
-
-static double
-urand(void)
-{
-	rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
-	return ((double)(rng_state >> 11) + 0.5) / 9007199254740992.0;
-}
+RNG_FILE(0x2545F4914F6CDD1DULL)
 
 /* Poisson deviate by multiplying uniforms (Knuth, TAOCP vol. 2, 3.4.1),
    fine for the means below 100 used here. */

@@ -5,20 +5,14 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "rng.h"
 #include "check.h"
 #include "core/value.h"
 
 #define PI 3.14159265358979323846
 #define D2R (PI / 180.0)
 
-static unsigned long long rng_state = 0x9E3779B97F4A7C15ULL;
-
-static double
-urand(void)
-{
-	rng_state = rng_state * 6364136223846793005ULL + 1442695040888963407ULL;
-	return ((double)(rng_state >> 11) + 0.5) / 9007199254740992.0;
-}
+RNG_FILE(0x9E3779B97F4A7C15ULL)
 
 /* ln det of a symmetric positive definite matrix by Gaussian elimination
    without pivoting (fine for SPD; Golub & Van Loan 2013, 4.2), written
