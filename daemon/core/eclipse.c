@@ -247,6 +247,17 @@ examine(double tt1, double full2, struct eclipse_event *ev, int *found)
 	enum errcode rc;
 
 	*found = 0;
+	/* At full moon (opposition in longitude) sigma is the latitude of
+	   the Moon from the shadow's axis; the least sigma of the passage is
+	   that times the cosine of the path's tilt to the ecliptic (under
+	   7 deg: >= 0.99).  With margins of 5% and 0.002 rad (the limit moves
+	   by ~0.005 deg in 0.3 d) a passage that cannot touch the penumbra
+	   needs no search. */
+	rc = eclipse_geo_tt(tt1, full2, &g);
+	if (rc != ERRCODE_OK)
+		return rc;
+	if (0.95 * g.sigma > g.penumbra + g.moon_sd + 0.002)
+		return ERRCODE_OK;
 	t0 = least_sigma(tt1, full2 - 0.3, full2 + 0.3);
 	rc = eclipse_geo_tt(tt1, t0, &g);
 	if (rc != ERRCODE_OK)
@@ -306,8 +317,9 @@ eclipse_find(double from1, double from2, double to1, double to2,
 	for (double a = -0.6; a < span + 0.6; a += chunk) {
 		double b = fmin(a + chunk, span + 0.6);
 		size_t np = 0;
-		enum errcode r2 = geom_phases_find(from1, from2 + a, from1,
-		    from2 + b, ph, sizeof ph / sizeof ph[0], &np);
+		enum errcode r2 = geom_phases_find_kinds(from1, from2 + a,
+		    from1, from2 + b, 1u << GEOM_PHASE_FULL, ph,
+		    sizeof ph / sizeof ph[0], &np);
 
 		if (r2 != ERRCODE_OK)
 			return r2;

@@ -573,60 +573,105 @@ phase_goal_offset(void *ctx, double tt2)
 	return synodic_offset(g->tt1, tt2, g->target);
 }
 
+/* 1 when a phase of a kind in mask lies in the unwrapped (da, db]. */
+static int
+phase_wanted_in(double da, double db, unsigned mask)
+{
+	const double eps = 1e-6;	/* rad: only widens the test */
+
+	for (int k = (int)floor((da - eps) / (ERFA_DPI / 2.0)) + 1;
+	    k * (ERFA_DPI / 2.0) <= db + eps; k++)
+		if (mask & (1u << (((k % 4) + 4) % 4)))
+			return 1;
+	return 0;
+}
+
 enum errcode
 geom_phases_find(double from1, double from2, double to1, double to2,
     struct geom_phase_event *out, size_t cap, size_t *n)
+{
+	return geom_phases_find_kinds(from1, from2, to1, to2,
+	    GEOM_PHASE_MASK_ALL, out, cap, n);
+}
+
+enum errcode
+geom_phases_find_kinds(double from1, double from2, double to1, double to2,
+    unsigned kinds, struct geom_phase_event *out, size_t cap, size_t *n)
 {
 	const double step = 0.5;
 	double span = (to1 - from1) + (to2 - from2);
 	double base = from1, a = from2, end = from2 + span;
 	double pa;
 	size_t count = 0;
+	int per_coarse;
 	enum errcode rc = ERRCODE_OK;
 
 	*n = 0;
 	if (!isfinite(span) || span < 0.0 || span > 400 * 366.0)
 		return ERRCODE_BAD_ARG;
+	kinds &= GEOM_PHASE_MASK_ALL;
+	/* Half-day steps grouped in coarse steps (2 d, or 4 d for one kind:
+	   at most 62 deg of the angle) that are skipped whole when they hold
+	   no phase sought: the half-day brackets, and so the results, are
+	   those of a scan of every half day. */
+	per_coarse = (kinds & (kinds - 1u)) ? 4 : 8;
 	pa = geom_synodic_at(base, a);
 	while (a < end) {
-		double b = fmin(a + step, end);
-		double pb = geom_synodic_at(base, b);
-		double da = pa, db = pa + eraAnpm(pb - pa);	/* unwrapped */
+		double c = a, pc;
+		int m = 0;
 
-		for (int k = (int)floor(da / (ERFA_DPI / 2.0)) + 1;
-		    k * (ERFA_DPI / 2.0) <= db; k++) {
-			double target = eraAnp(k * (ERFA_DPI / 2.0));
-			double fa = synodic_offset(base, a, target);
-			double fb = synodic_offset(base, b, target);
-			double root;
-			enum errcode r2;
-
-			if (fa == 0.0) {
-				root = a;
-			} else {
-				struct phase_goal goal = {base, target};
-
-				/* Smooth and monotone over the half-day
-				   bracket: a handful of steps to 9 ms. */
-				r2 = geom_root_illinois(phase_goal_offset,
-				    &goal, a, fa, b, fb, 1e-7, 60, &root);
-				if (r2 != ERRCODE_OK)
-					return r2;
-			}
-			if (root >= end || root < from2)
-				continue;
-			if (count < cap) {
-				out[count].kind =
-				    (enum geom_phase_kind)(((k % 4) + 4) % 4);
-				out[count].tt1 = base;
-				out[count].tt2 = root;
-			} else {
-				rc = ERRCODE_TOO_LARGE;
-			}
-			count++;
+		while (m < per_coarse && c < end) {
+			c = fmin(c + step, end);
+			m++;
 		}
-		a = b;
-		pa = pb;
+		pc = geom_synodic_at(base, c);
+		if (!phase_wanted_in(pa, pa + eraAnpm(pc - pa), kinds)) {
+			a = c;
+			pa = pc;
+			continue;
+		}
+		for (int j = 0; j < m; j++) {
+			double b = fmin(a + step, end);
+			double pb = (j == m - 1) ? pc : geom_synodic_at(base, b);
+			double da = pa, db = pa + eraAnpm(pb - pa);	/* unwrapped */
+
+			for (int k = (int)floor(da / (ERFA_DPI / 2.0)) + 1;
+			    k * (ERFA_DPI / 2.0) <= db; k++) {
+				double target = eraAnp(k * (ERFA_DPI / 2.0));
+				int kind = ((k % 4) + 4) % 4;
+				double fa, fb, root;
+				enum errcode r2;
+
+				if (!(kinds & (1u << kind)))
+					continue;
+				fa = synodic_offset(base, a, target);
+				fb = synodic_offset(base, b, target);
+				if (fa == 0.0) {
+					root = a;
+				} else {
+					struct phase_goal goal = {base, target};
+
+					/* Smooth and monotone over the half-day
+					   bracket: a handful of steps to 9 ms. */
+					r2 = geom_root_illinois(phase_goal_offset,
+					    &goal, a, fa, b, fb, 1e-7, 60, &root);
+					if (r2 != ERRCODE_OK)
+						return r2;
+				}
+				if (root >= end || root < from2)
+					continue;
+				if (count < cap) {
+					out[count].kind = (enum geom_phase_kind)kind;
+					out[count].tt1 = base;
+					out[count].tt2 = root;
+				} else {
+					rc = ERRCODE_TOO_LARGE;
+				}
+				count++;
+			}
+			a = b;
+			pa = pb;
+		}
 	}
 	*n = count;
 	return rc;

@@ -156,9 +156,13 @@ struct eclipse_event {
  *   ERRCODE_TOO_LARGE (more than cap: the first cap written),
  *   ERRCODE_NO_CONVERGE
  * Notes:
- *   1. Each full moon (geom_phases_find) within 0.6 d of the span is
- *      examined: sigma is minimised by golden section over +-0.3 d to
- *      0.01 s; an eclipse is there when sigma < rho_p + s_M.
+ *   1. Each full moon (geom_phases_find_kinds, full moons only) within
+ *      0.6 d of the span is examined: when sigma at the full moon (the
+ *      latitude from the shadow's axis) is beyond 1/0.95 of
+ *      rho_p + s_M + 0.002 rad, no eclipse is possible (the least sigma
+ *      of the passage is >= 0.99 of it); otherwise sigma is minimised by
+ *      golden section over +-0.3 d to 0.01 s; an eclipse is there when
+ *      sigma < rho_p + s_M.
  *   2. Each contact is the root of sigma - limit on either side of
  *      greatest eclipse (limit as in the table above, re-evaluated at
  *      each instant), by regula falsi (Illinois) to 1e-7 d (9 ms).
@@ -168,8 +172,8 @@ struct eclipse_event {
  * References:
  *   Meeus (1998), ch. 54; Explanatory Supplement (1992), 8.4.
  * Called:
- *   geom_phases_find, geom_bodies_at, geom_root_illinois, eraC2s, eraEcm06,
- *   eraRxp
+ *   geom_phases_find_kinds, geom_bodies_at, geom_root_illinois, eraC2s,
+ *   eraEcm06, eraRxp
  */
 enum errcode eclipse_find(double from1, double from2, double to1,
     double to2, struct eclipse_event *out, size_t cap, size_t *n);

@@ -433,8 +433,39 @@ const char *geom_phase_name(enum geom_phase_kind kind);
  *   Sun theories: a 1" error in longitude is ~2 s in time.
  * References:
  *   Meeus, Astronomical Algorithms, 2nd ed. (1998), ch. 49 (definition).
+ * Called:
+ *   geom_phases_find_kinds
  */
 enum errcode geom_phases_find(double from1, double from2, double to1,
     double to2, struct geom_phase_event *out, size_t cap, size_t *n);
+
+/* Bit (1u << kind) of each enum geom_phase_kind; all four. */
+#define GEOM_PHASE_MASK_ALL 0xfu
+
+/*
+ * Principal phases of the kinds asked for in a TT span.
+ *
+ * Given:
+ *   from1,2, to1,2  double    TT JD span, [from, to)
+ *   kinds           unsigned  bit (1u << kind) per kind sought
+ *   cap             size_t    room in out
+ * Returned:
+ *   out             events in time order
+ *   n               number found
+ * Returned (function value):
+ *   as geom_phases_find
+ * Notes:
+ *   The events are bit for bit those of geom_phases_find of those kinds:
+ *   the same half-day brackets and refinement.  The angle is first taken
+ *   every 2 d (4 d for a single kind, at most 62 deg of the angle) and the
+ *   half days of a coarse step are evaluated only when it holds a phase
+ *   sought, so full moons alone cost about a quarter of a half-day scan.
+ *   geom_phases_find is this function with GEOM_PHASE_MASK_ALL.
+ * Called:
+ *   geom_synodic_at, geom_root_illinois, eraAnp, eraAnpm
+ */
+enum errcode geom_phases_find_kinds(double from1, double from2, double to1,
+    double to2, unsigned kinds, struct geom_phase_event *out, size_t cap,
+    size_t *n);
 
 #endif
