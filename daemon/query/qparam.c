@@ -120,7 +120,9 @@ qspan_resolve(const struct qspan *s, double now_mjd, double default_days,
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: the span "
 		    "must end after %s (default now)", qparam_name(style,
 		    "to").s, qparam_name(style, "from").s);
-	if (to - from > max_days)
+	/* days was checked against max_days when it was set; to - from of
+	   from + days can exceed it by a rounding (issue 11, defect 8). */
+	if ((isnan(s->to_mjd) ? days : to - from) > max_days)
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: the span "
 		    "is longer than %.0f days", qparam_name(style, "to").s,
 		    max_days);
