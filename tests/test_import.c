@@ -259,6 +259,66 @@ test_import_station_defaults(void **state)
 	    "15 C less 6.5 C per km (ICAO standard lapse rate)");
 }
 
+/*
+ * A pressure or temperature derived from height_m lies inside the key's own
+ * range over the whole range of height_m (-500 to 10,000 m), so that
+ * 'station show' then 'station set' of the same value, or a station file
+ * written from the record, is accepted.  A station at 9,730 m was given
+ * 231 hPa while pressure_hpa took 300 to 1100 (issue 11, defect 8).
+ * Expected: the standard atmosphere of ERFA atco13 note 4,
+ * p = 1013.25 exp(-h / (29.3 T)) with T = 288.15 K - 6.5 K/km h, computed
+ * with /usr/bin/python3: 219.525 hPa at 10,000 m, 1074.359 hPa at -500 m.
+ */
+static void
+test_import_station_derived_weather_in_range(void **state)
+{
+	static const double heights[] = { -500.0, 0.0, 2950.0, 9730.0,
+		10000.0 };
+	const struct import_key *keys, *kp = NULL, *kt = NULL, *kh = NULL;
+	size_t n;
+
+	(void)state;
+	keys = import_station_keys(&n);
+	for (size_t k = 0; k < n; k++) {
+		if (strcmp(keys[k].name, "pressure_hpa") == 0)
+			kp = &keys[k];
+		if (strcmp(keys[k].name, "temperature_c") == 0)
+			kt = &keys[k];
+		if (strcmp(keys[k].name, "height_m") == 0)
+			kh = &keys[k];
+	}
+	assert_non_null(kp);
+	assert_non_null(kt);
+	assert_non_null(kh);
+	check_near(kh->min, -500.0, 0.0, "m", "height_m range (table)");
+	check_near(kh->max, 10000.0, 0.0, "m", "height_m range (table)");
+	for (size_t i = 0; i < sizeof heights / sizeof heights[0]; i++) {
+		char ini[400], text[40], err[200];
+		struct site_station st, one;
+		struct import_report rep;
+
+		snprintf(ini, sizeof ini, "[station]\nname = High (invented)\n"
+		    "code = HIGH\nlat_deg = 10\nlon_deg = 20\nheight_m = %.0f\n"
+		    "time_zone = Etc/UTC\n", heights[i]);
+		assert_int_equal(import_station_ini(ini, strlen(ini), &st,
+		    &rep), ERRCODE_OK);
+		assert_true(st.pressure_hpa >= kp->min &&
+		    st.pressure_hpa <= kp->max);
+		assert_true(st.temperature_c >= kt->min &&
+		    st.temperature_c <= kt->max);
+		snprintf(text, sizeof text, "%.17g", st.pressure_hpa);
+		one = st;
+		assert_int_equal(import_station_set(&one, "weather",
+		    "pressure_hpa", text, err, sizeof err), ERRCODE_OK);
+		if (heights[i] == 10000.0)
+			check_near(st.pressure_hpa, 219.525, 0.001, "hPa",
+			    "ERFA atco13 note 4 at 10 km (python3)");
+		if (heights[i] == -500.0)
+			check_near(st.pressure_hpa, 1074.359, 0.001, "hPa",
+			    "ERFA atco13 note 4 at -500 m (python3)");
+	}
+}
+
 static void
 test_import_station_set(void **state)
 {
@@ -1596,6 +1656,7 @@ main(void)
 		cmocka_unit_test(test_import_station_sample),
 		cmocka_unit_test(test_import_station_defaults),
 		cmocka_unit_test(test_import_station_set),
+		cmocka_unit_test(test_import_station_derived_weather_in_range),
 		cmocka_unit_test(test_import_station_bad),
 		cmocka_unit_test(test_import_not_text),
 		cmocka_unit_test(test_import_text_rules),

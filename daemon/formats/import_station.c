@@ -48,9 +48,9 @@ static const struct import_key station_keys[] = {
 	    "(90 = daylight ranging allowed)"),
 	KEY("limits", "min_sun_separation_deg", IMPORT_KEY_REAL, 0, 180, 0,
 	    30.0, "smallest Sun-Moon angle seen from the station, degrees"),
-	KEY("weather", "pressure_hpa", IMPORT_KEY_REAL, 300, 1100, 0, NAN,
+	KEY("weather", "pressure_hpa", IMPORT_KEY_REAL, 200, 1100, 0, NAN,
 	    "typical air pressure, hPa (default: standard atmosphere at "
-	    "height_m)"),
+	    "height_m, 220 hPa at its 10,000 m)"),
 	KEY("weather", "temperature_c", IMPORT_KEY_REAL, -60, 50, 0, NAN,
 	    "typical night temperature, deg C (default: 15 C less 6.5 C per "
 	    "km of height_m)"),
