@@ -108,6 +108,55 @@ open_site(char *path, size_t len)
 	return s;
 }
 
+/*
+ * A damaged database takes no writes (issue 11, defect 8): opening it for
+ * writing is refused with a message naming the file; opening it to read
+ * still works.  The damage: the last page of the file (a b-tree page of
+ * the attempts after 300 inserts) overwritten with 0xA5 bytes, a page
+ * type byte SQLite's file format does not define (sqlite.org/fileformat2,
+ * b-tree page header: 2, 5, 10 or 13).
+ */
+static void
+test_store_damaged_file_takes_no_writes(void **state)
+{
+	struct site_attempt a;
+	struct store *s;
+	char path[512], err[400];
+	unsigned char junk[512];
+	long size;
+	FILE *f;
+
+	(void)state;
+	s = open_site(path, sizeof path);
+	for (int i = 0; i < 300; i++) {
+		attempt(&a, "NORTH", 61000.0 + i);
+		assert_int_equal(store_attempt_add(s, &a, err, sizeof err),
+		    ERRCODE_OK);
+	}
+	store_close(s);
+	/* An intact file opens for writing. */
+	assert_int_equal(store_open(path, 0, &s, err, sizeof err), ERRCODE_OK);
+	store_close(s);
+	memset(junk, 0xA5, sizeof junk);
+	assert_non_null(f = fopen(path, "r+b"));
+	assert_int_equal(fseek(f, 0, SEEK_END), 0);
+	size = ftell(f);
+	assert_true(size >= 8192);
+	/* 4096-byte pages (SQLite's default): the last page's start */
+	assert_int_equal(fseek(f, size - 4096, SEEK_SET), 0);
+	assert_int_equal(fwrite(junk, 1, sizeof junk, f), sizeof junk);
+	assert_int_equal(fclose(f), 0);
+	s = NULL;
+	assert_int_equal(store_open(path, 0, &s, err, sizeof err), ERRCODE_DB);
+	assert_null(s);
+	assert_non_null(strstr(err, path));
+	assert_non_null(strstr(err, "damaged"));
+	assert_non_null(strstr(err, "no writes"));
+	assert_int_equal(store_open(path, STORE_OPEN_READONLY, &s, err,
+	    sizeof err), ERRCODE_OK);
+	store_close(s);
+}
+
 static void
 test_store_open_requires_create_and_close_accepts_null(void **state)
 {
@@ -914,6 +963,7 @@ main(void)
 		cmocka_unit_test(test_store_transaction_all_or_nothing),
 		cmocka_unit_test(test_store_attempt_log_derives_with_stored_eop),
 		cmocka_unit_test(test_store_empty_file_refused),
+		cmocka_unit_test(test_store_damaged_file_takes_no_writes),
 		cmocka_unit_test(test_store_migrations_reach_the_same_schema),
 		cmocka_unit_test(test_store_allocation_failure_is_clean),
 	};
