@@ -1,6 +1,7 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_serve.c: "moonrange serve", the daemon: HTTP API, page, plan refresh, signals. */
 #include <errno.h>
+#include <malloc.h>
 #include <signal.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -166,6 +167,12 @@ run(const struct cli_args *a)
 	enum errcode rc;
 
 	token[0] = '\0';
+	/* One malloc arena for every handler thread: with one per thread,
+	   each keeps the peak of the largest query it ran (four 10-year
+	   window queries at once raised the daemon to 237 MB); with the
+	   turn taking of long queries (api_plan.c) the peak is that of one.
+	   tests/load/heavy_rss.sh measures it. */
+	(void)mallopt(M_ARENA_MAX, 1);
 	if (cli_given(a, "listen") && web_parse_listen(cli_text(a, "listen",
 	    NULL), addr, sizeof addr, &port, err, sizeof err))
 		return cli_usage_error("%s", err);

@@ -152,6 +152,49 @@ out:
 	return rc;
 }
 
+/*
+ * A window query over more than HEAVY_DAYS holds tens of megabytes while
+ * it runs (the windows of every night and target, then their text): at
+ * most HEAVY_MAX of them run at once in the daemon and the others wait
+ * their turn, so that its memory stays bounded whatever the number of
+ * clients (four 10-year queries at once raised it to 237 MB).  Shorter
+ * queries never wait.  tests/load/heavy_rss.sh measures it.
+ */
+#define HEAVY_DAYS 400.0
+#define HEAVY_MAX 1
+
+static pthread_mutex_t heavy_mu = PTHREAD_MUTEX_INITIALIZER;
+static pthread_cond_t heavy_cv = PTHREAD_COND_INITIALIZER;
+static int heavy_running;
+
+/* Is the span of p longer than HEAVY_DAYS (before qspan_resolve)? */
+static int
+heavy_span(const struct winquery_params *p)
+{
+	const struct qspan *s = &p->span;
+	double from = isnan(s->from_mjd) ? p->now_mjd : s->from_mjd;
+
+	if (!isnan(s->days))
+		return s->days > HEAVY_DAYS;
+	return !isnan(s->to_mjd) && s->to_mjd - from > HEAVY_DAYS;
+}
+
+/* Take (take != 0) or give back a turn of a heavy query. */
+static void
+heavy_turn(int take)
+{
+	pthread_mutex_lock(&heavy_mu);
+	if (take) {
+		while (heavy_running >= HEAVY_MAX)
+			pthread_cond_wait(&heavy_cv, &heavy_mu);
+		heavy_running++;
+	} else {
+		heavy_running--;
+		pthread_cond_signal(&heavy_cv);
+	}
+	pthread_mutex_unlock(&heavy_mu);
+}
+
 static void
 windows_common(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp, int ics)
@@ -172,10 +215,16 @@ windows_common(struct api_ctx *ctx, const struct api_request *req,
 		rc = winquery_param_set(&p, req->params[i].key,
 		    req->params[i].value, err, sizeof err);
 	if (rc == ERRCODE_OK) {
+		int heavy = heavy_span(&p);
+
+		if (heavy)
+			heavy_turn(1);
 		db = api_read_store(ctx, &locked);
 		rc = windows_render(db, &p, ics, &resp->body, NULL, err,
 		    sizeof err);
 		api_release_store(ctx, db, locked);
+		if (heavy)
+			heavy_turn(0);
 	}
 	if (rc != ERRCODE_OK)
 		api_query_error(resp, rc, p.fault, err);
