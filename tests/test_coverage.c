@@ -9,6 +9,7 @@
 #include <libnova/sidereal_time.h>
 
 #include "check.h"
+#include "core/attempt.h"
 #include "core/coverage.h"
 #include "core/geom.h"
 #include "core/tscale.h"
@@ -308,6 +309,23 @@ test_coverage_bins_and_filters(void **state)
 	assert_int_equal(r->pooled.m.total, 2);
 	assert_int_equal(r->pooled.n[6], 1);
 	assert_int_equal(r->pooled.n[0], 1);
+	assert_int_equal(r->suspect, 0);
+
+	/* A suspect attempt is left out and counted, as the yield model
+	   leaves it out (README, coverage JSON fields); only those within
+	   the filters are counted. */
+	att[0].suspect = ATTEMPT_SUSPECT_BELOW_HORIZON;
+	assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_OK);
+	assert_int_equal(r->pooled.m.total, 1);
+	assert_int_equal(r->pooled.n[6], 0);
+	assert_int_equal(r->pooled.n[0], 1);
+	assert_int_equal(r->records, 1);
+	assert_int_equal(r->suspect, 1);
+	snprintf(s.target, sizeof s.target, "alpha");
+	assert_int_equal(coverage_compute(&s, &in, r), ERRCODE_OK);
+	assert_int_equal(r->suspect, 0);
+	s.target[0] = '\0';
+	att[0].suspect = 0;
 
 	/* More distinct targets than a result holds: refused, not cut. */
 	{

@@ -499,6 +499,15 @@ coverage_compute(const struct coverage_spec *spec,
 		    a->normal_points;
 		if (spec->station[0] != '\0' && spec->own_station[0] == '\0')
 			continue;
+		/* A suspect attempt (target below the horizon, far fewer
+		   shots than the rate allows) most likely has a wrong time
+		   or count, so its phase is not to be trusted: left out and
+		   counted, as the yield model leaves it out. */
+		if (a->suspect != 0) {
+			if (passes(spec, &r))
+				out->suspect++;
+			continue;
+		}
 		if ((rc = add_record(spec, &r, out)) != ERRCODE_OK)
 			return rc;
 	}

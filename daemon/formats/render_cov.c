@@ -178,6 +178,7 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	    jstr_or_null(c->station_name));
 	bad |= json_object_set_new(root, "records", json_integer(r->records));
 	bad |= json_object_set_new(root, "skipped", json_integer(r->skipped));
+	bad |= json_object_set_new(root, "suspect", json_integer(r->suspect));
 	arr = json_array();
 	bad |= json_object_set_new(root, "bin_ranges", arr);
 	for (int b = 0; b < s->nbins && arr != NULL && !bad; b++) {
@@ -378,11 +379,12 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 	    s->target[0] ? s->target : "all",
 	    s->station[0] ? s->station : "all");
 	if (s->source == COVERAGE_SOURCE_ATTEMPTS)
-		mbuf_printf(out, "Records: %ld attempts, %ld skipped\n",
-		    r->records, r->skipped);
+		mbuf_printf(out, "Records: %ld attempts, %ld skipped, %ld "
+		    "suspect left out\n", r->records, r->skipped, r->suspect);
 	else
 		mbuf_printf(out, "Records: %ld counted (%ld normal points), %ld "
-		    "skipped\n", r->records, r->pooled.m.total, r->skipped);
+		    "skipped, %ld suspect left out\n", r->records,
+		    r->pooled.m.total, r->skipped, r->suspect);
 	mbuf_printf(out, "gap = fewer than %ld; sparse = fewer than half the "
 	    "mean of %.1f\n\n", s->min_count,
 	    (double)r->pooled.m.total / s->nbins);

@@ -166,6 +166,10 @@ struct coverage_result {
 	double bin_width_deg;
 	long records;			/* records that passed the filters */
 	long skipped;			/* records without a usable epoch */
+	long suspect;			/* attempts that passed the filters
+					   but are flagged suspect
+					   (attempt_suspect): left out, as
+					   the yield model leaves them */
 	struct coverage_counts pooled;
 	size_t ntargets;		/* sorted by id */
 	struct coverage_target targets[COVERAGE_MAX_TARGETS];
