@@ -236,6 +236,53 @@ fi
     --to 2025-03-21T18:00:00Z --json >"$TMP/win2.json" &&
 	"$PY" -c 'import json,sys; w=json.load(open(sys.argv[1]))["windows"]; assert not any("eclipse" in r for x in w for r in x["reasons"]), w' "$TMP/win2.json" ||
 	fail "windows a week later carry no eclipse"
+# On the sample site (Nevada: the Moon up through the 2025-03-14 total
+# eclipse) each window and each plan run across it carries the eclipse as
+# a field (kind total), and its tilt_deg and spread_ps equal ephem's for
+# the same target at the same instant (the window's highest elevation,
+# the run's middle) within ephem's rounding (0.001 deg, 0.1 ps).
+SRC=$(cd "$(dirname "$0")/.." && pwd)
+if "$BIN" init --db "$TMP/ecl.db" --site "$SRC/sample-site" >/dev/null &&
+    "$BIN" windows --db "$TMP/ecl.db" --from 2025-03-14T00:00:00Z \
+    --to 2025-03-14T14:00:00Z --json >"$TMP/ew.json" &&
+    "$BIN" plan --db "$TMP/ecl.db" --from 2025-03-14T04:00:00Z \
+    --to 2025-03-14T12:00:00Z --json >"$TMP/ep.json"; then
+	"$PY" - "$BIN" "$TMP/ecl.db" "$TMP/ew.json" "$TMP/ep.json" <<'PYEOF' || fail "windows and plan runs across the 2025-03-14 eclipse: eclipse, tilt_deg, spread_ps"
+import datetime, json, subprocess, sys
+binary, db = sys.argv[1], sys.argv[2]
+wins = json.load(open(sys.argv[3]))["windows"]
+runs = [r for r in json.load(open(sys.argv[4]))["runs"] if not r["calibration"]]
+def ephem(at):
+    out = subprocess.run([binary, "ephem", "--db", db, "--at", at, "--json"],
+                         check=True, capture_output=True, text=True).stdout
+    return {t["id"]: t for t in json.loads(out)["targets"]}
+def iso(s):
+    return datetime.datetime.strptime(s, "%Y-%m-%dT%H:%M:%SZ")
+def check(x, at):
+    t = ephem(at)[x["target"]]
+    assert abs(x["tilt_deg"] - t["tilt_deg"]) <= 0.0011, (x, t)
+    assert abs(x["spread_ps"] - t["spread_ps"]) <= 0.06, (x, t)
+assert wins and runs
+for w in wins:
+    e = w["eclipse"]
+    assert e["kind"] == "total" and e["greatest"].startswith("2025-03-14T06:58"), w
+    assert e["shadow"] in ("umbra", "penumbra", "none"), w
+    check(w, w["max_el_utc"])
+# a run over mid-totality sees the umbra; every run before P4 carries it
+mid = iso("2025-03-14T06:58:48Z")
+assert any(iso(r["start"]) <= mid <= iso(r["end"]) and
+           r["eclipse"]["shadow"] == "umbra" for r in runs), runs
+for r in runs:
+    if iso(r["end"]) < iso("2025-03-14T09:00:00Z"):
+        assert r["eclipse"]["kind"] == "total", r
+    if iso(r["start"]) > iso("2025-03-14T11:00:00Z"):
+        assert r["eclipse"] is None, r
+    m = iso(r["start"]) + (iso(r["end"]) - iso(r["start"])) / 2
+    check(r, m.strftime("%Y-%m-%dT%H:%M:%SZ"))
+PYEOF
+else
+	fail "windows/plan on the sample site across the 2025-03-14 eclipse"
+fi
 for bad in "--days 0" "--to 2000-01-01T00:00:00Z" "--from yesterday" \
     "--json --csv"; do
 	# shellcheck disable=SC2086

@@ -68,7 +68,8 @@ d = json.load(open(sys.argv[1]))
 want = ["rank", "target", "start", "end", "duration_s", "max_el_deg",
         "max_el_utc", "synodic_angle_deg", "phase_bin", "bin_count",
         "coverage_weight", "sunlit_fraction", "mean_airmass",
-        "expected_returns", "score", "reasons"]
+        "expected_returns", "score", "tilt_deg", "spread_ps", "eclipse",
+        "reasons"]
 assert d["windows"], "no windows"
 for w in d["windows"]:
     assert sorted(w) == sorted(want), sorted(w)
@@ -103,7 +104,7 @@ import csv, json, sys
 rows = list(csv.reader(open(sys.argv[1], newline="")))
 d = json.load(open(sys.argv[2]))
 assert len(rows) == len(d["windows"]) + 1
-assert all(len(r) == 16 for r in rows)
+assert all(len(r) == 21 for r in rows)  # 16 + tilt, spread, eclipse kind, greatest, shadow
 assert rows[1][1] == "moon" and rows[1][2] == d["windows"][0]["start"]
 PY
 

@@ -321,7 +321,8 @@ test_plan_renderers(void **state)
 	static const char *fields[] = {"rank", "target", "start", "end",
 	    "duration_s", "max_el_deg", "max_el_utc", "synodic_angle_deg",
 	    "phase_bin", "bin_count", "coverage_weight", "sunlit_fraction",
-	    "mean_airmass", "expected_returns", "score", "reasons"};
+	    "mean_airmass", "expected_returns", "score", "tilt_deg",
+	    "spread_ps", "eclipse", "reasons"};
 	const size_t nf = sizeof fields / sizeof fields[0];
 	struct site s;
 	struct plan_query q;
@@ -360,7 +361,8 @@ test_plan_renderers(void **state)
 	}
 	json_decref(root);
 
-	/* CSV (RFC 4180): CRLF records, a header, 16 fields a record. */
+	/* CSV (RFC 4180): CRLF records, a header, 20 fields a record (the
+	   JSON's, with the eclipse as three: kind, greatest, shadow). */
 	for (p = cs.data; *p; p++) {
 		if (*p == '\n')
 			assert_true(p > cs.data && p[-1] == '\r');
@@ -375,7 +377,7 @@ test_plan_renderers(void **state)
 			else if (!inq && *p == ',')
 				nfld++;
 			else if (!inq && *p == '\n') {
-				assert_int_equal(nfld, nf);
+				assert_int_equal(nfld, nf + 2);
 				nfld = 1;
 				lines++;
 			}

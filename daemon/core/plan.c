@@ -8,6 +8,7 @@
 #include <erfa.h>
 #include <erfam.h>
 
+#include "core/array.h"
 #include "core/derive.h"
 #include "core/eop.h"
 #include "core/mem.h"
@@ -148,6 +149,42 @@ explain_eclipse(struct plan_window *w, const struct window_track *tr,
 		add_reason(w, "%s lunar eclipse, greatest %s UTC (P1 %s, P4 %s): "
 		    "a rare full-moon chance; in the umbra the reflector is "
 		    "dark", eclipse_kind_name(ev[i].kind), ga, pa, pb);
+		return;
+	}
+}
+
+void
+plan_physics_fill(const struct window_track *tr, double t0, double t1,
+    double t, const struct geom_target *gt, const struct site_target *st,
+    const struct eclipse_event *ev, size_t ne, struct plan_physics *out)
+{
+	struct geom_instant g;
+	double tilt, spread;
+
+	memset(out, 0, sizeof *out);
+	window_track_instant(tr, t, &g);
+	array_of_target(&g, gt, st, &tilt, &spread);
+	out->tilt_deg = tilt * ERFA_DR2D;
+	out->spread_ps = spread;
+	out->greatest_mjd = NAN;
+	for (size_t i = 0; i < ne; i++) {
+		double a = (ev[i].contact_tt1[ECLIPSE_P1] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P1] - tr->base2);
+		double b = (ev[i].contact_tt1[ECLIPSE_P4] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P4] - tr->base2);
+		double gr = (ev[i].greatest_tt1 - tr->base1) +
+		    (ev[i].greatest_tt2 - tr->base2);
+		struct geom_target_view v;
+
+		if (b < t0 || a > t1)
+			continue;
+		out->eclipse = 1;
+		out->kind = ev[i].kind;
+		out->greatest_mjd = mjd_of(tr, gr);
+		window_track_instant(tr, gr < t0 ? t0 : gr > t1 ? t1 : gr,
+		    &g);
+		geom_target_view(&g, gt, &v);
+		out->shadow = v.shadow;
 		return;
 	}
 }
@@ -529,6 +566,11 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		pw->end_mjd = mjd_of(&tr, sw[i].end);
 		pw->max_el_mjd = mjd_of(&tr, sw[i].max_el_t);
 		explain_eclipse(pw, &tr, ecl, necl, sw[i].start, sw[i].end);
+		plan_physics_fill(&tr, sw[i].start, sw[i].end, sw[i].max_el_t,
+		    &bodies[sw[i].target], &tg[sw[i].target], ecl, necl,
+		    &pw->phys);
+		if (strcmp(pw->target, PLAN_MOON_ID) == 0)
+			pw->phys.tilt_deg = pw->phys.spread_ps = NAN;
 		explain(pw, &out->models[sw[i].target], &q->settings,
 		    st->zenith_tau);
 	}

@@ -24,6 +24,43 @@ set(json_t *o, const char *k, json_t *v)
 	return json_object_set_new(o, k, v);
 }
 
+int
+render_plan_physics_json(json_t *o, const struct plan_physics *ph)
+{
+	json_t *e;
+	int bad = 0;
+
+	bad |= set(o, "tilt_deg", render_json_num(ph->tilt_deg, 3));
+	bad |= set(o, "spread_ps", render_json_num(ph->spread_ps, 3));
+	if (!ph->eclipse)
+		return bad | set(o, "eclipse", json_null());
+	e = json_object();
+	if (e == NULL)
+		return -1;
+	bad |= set(e, "kind", json_string(eclipse_kind_name(ph->kind)));
+	bad |= set(e, "greatest", render_json_mjd(ph->greatest_mjd, 0));
+	bad |= set(e, "shadow", json_string(eclipse_shadow_name(ph->shadow)));
+	return bad | set(o, "eclipse", e);
+}
+
+void
+render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph)
+{
+	char g[40];
+
+	if (isfinite(ph->tilt_deg))
+		mbuf_printf(out, "%.3f,%.3f,", ph->tilt_deg, ph->spread_ps);
+	else
+		mbuf_puts(out, ",,");
+	if (!ph->eclipse) {
+		mbuf_puts(out, ",,,");
+		return;
+	}
+	render_utc_text(ph->greatest_mjd, 0, g, sizeof g);
+	mbuf_printf(out, "%s,%s,%s,", eclipse_kind_name(ph->kind), g,
+	    eclipse_shadow_name(ph->shadow));
+}
+
 static json_t *
 window_json(const struct plan_window *w)
 {
@@ -55,6 +92,7 @@ window_json(const struct plan_window *w)
 	bad |= set(o, "expected_returns",
 	    render_json_num(f->expected_returns, 6));
 	bad |= set(o, "score", render_json_num(f->score, 6));
+	bad |= render_plan_physics_json(o, &w->phys);
 	bad |= set(o, "reasons", r);
 	for (size_t i = 0; i < w->nreasons; i++)
 		bad |= json_array_append_new(r, json_string(w->reasons[i]));
@@ -186,7 +224,9 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 	static const char *head[] = {"rank", "target", "start", "end",
 	    "duration_s", "max_el_deg", "max_el_utc", "synodic_angle_deg",
 	    "phase_bin", "bin_count", "coverage_weight", "sunlit_fraction",
-	    "mean_airmass", "expected_returns", "score", "reasons"};
+	    "mean_airmass", "expected_returns", "score", "tilt_deg",
+	    "spread_ps", "eclipse_kind", "eclipse_greatest", "eclipse_shadow",
+	    "reasons"};
 	const size_t nh = sizeof head / sizeof head[0];
 
 	for (size_t i = 0; i < nh; i++)
@@ -212,6 +252,7 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 		    f->expected_returns, f->score);
 		mbuf_puts(out, line);
 		mbuf_puts(out, ",");
+		render_plan_physics_csv(out, &w->phys);
 		mbuf_init(&rs);
 		for (size_t k = 0; k < w->nreasons; k++) {
 			if (k > 0)

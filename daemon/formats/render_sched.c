@@ -56,6 +56,7 @@ run_json(const struct night_run *r)
 	bad |= set(o, "el_end_deg", render_json_num(r->el_end_deg, 2));
 	bad |= set(o, "el_max_deg", render_json_num(r->el_max_deg, 2));
 	bad |= set(o, "synodic_angle_deg", render_json_num(r->synodic_deg, 2));
+	bad |= render_plan_physics_json(o, &r->phys);
 	bad |= set(o, "reasons", a);
 	for (size_t i = 0; i < r->nreasons; i++)
 		bad |= json_array_append_new(a, json_string(r->reasons[i]));
@@ -139,7 +140,8 @@ render_sched_csv(const struct render_sched *p, struct mbuf *out)
 	static const char *head[] = {"target", "start", "end",
 	    "expected_returns", "expected_normal_points", "value",
 	    "value_phase", "value_orientation", "el_start_deg", "el_end_deg",
-	    "reasons"};
+	    "tilt_deg", "spread_ps", "eclipse_kind", "eclipse_greatest",
+	    "eclipse_shadow", "reasons"};
 	const size_t nh = sizeof head / sizeof head[0];
 
 	for (size_t i = 0; i < nh; i++) {
@@ -162,6 +164,7 @@ render_sched_csv(const struct render_sched *p, struct mbuf *out)
 		else
 			mbuf_printf(out, "%.2f,%.2f,", r->el_start_deg,
 			    r->el_end_deg);
+		render_plan_physics_csv(out, &r->phys);
 		mbuf_init(&rs);
 		for (size_t k = 0; k < r->nreasons; k++)
 			mbuf_printf(&rs, "%s%s", k ? "; " : "", r->reasons[k]);

@@ -42,6 +42,7 @@ struct night_run {
 	double value, value_phase, value_orientation;
 	double el_start_deg, el_end_deg, el_max_deg;
 	double synodic_deg;		/* at the middle */
+	struct plan_physics phys;	/* tilt and spread at the middle */
 	size_t nreasons;
 	char reasons[PLAN_MAX_REASONS][PLAN_REASON_LEN];
 };

@@ -6,6 +6,7 @@
 
 #include <stddef.h>
 
+#include "core/eclipse.h"
 #include "core/errcode.h"
 #include "core/geom.h"
 #include "core/score.h"
@@ -50,9 +51,36 @@ struct plan_query {
    limits on a zeroed station, tau 0.1, 10 shots/s. */
 void plan_query_init(struct plan_query *q);
 
+/* A window's or a run's reflector physics: the array's tilt and pulse
+   spread at one instant, and the lunar eclipse it overlaps. */
+struct plan_physics {
+	double tilt_deg, spread_ps;	/* NaN when there is no target */
+	int eclipse;			/* 1: overlaps P1..P4 of one */
+	enum eclipse_kind kind;
+	double greatest_mjd;		/* UTC */
+	enum eclipse_shadow shadow;	/* the target's, at the greatest
+					   eclipse clamped into the span */
+};
+
+struct window_track;
+
+/*
+ * Fill *out for target gt (record st, NULL for the defaults) over the TT
+ * offsets t0..t1 of track tr: tilt and spread at offset t; the first of
+ * ev[ne] (TT JDs) whose P1..P4 overlaps t0..t1, with the target's shadow
+ * at its greatest eclipse clamped into t0..t1 (the deepest point of the
+ * span).
+ * Called:
+ *   window_track_instant, array_of_target, geom_target_view
+ */
+void plan_physics_fill(const struct window_track *tr, double t0, double t1,
+    double t, const struct geom_target *gt, const struct site_target *st,
+    const struct eclipse_event *ev, size_t ne, struct plan_physics *out);
+
 struct plan_window {
 	char target[SITE_ID_LEN];
 	double start_mjd, end_mjd, max_el_mjd;	/* UTC */
+	struct plan_physics phys;		/* at max_el_mjd */
 	struct score_window f;			/* every factor */
 	size_t nreasons;
 	char reasons[PLAN_MAX_REASONS][PLAN_REASON_LEN];

@@ -28,6 +28,16 @@ struct render_plan {
 };
 
 /* {"windows":[...]} and metadata; field names in README "windows". */
+struct json_t;
+
+/* A window's or run's tilt_deg, spread_ps and eclipse (an object with
+   kind, greatest and shadow, or null) set on o: 0, or non-zero when a
+   member could not be set. */
+int render_plan_physics_json(struct json_t *o, const struct plan_physics *ph);
+/* The same as five CSV fields, each followed by a comma: tilt_deg,
+   spread_ps, eclipse_kind, eclipse_greatest, eclipse_shadow. */
+void render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph);
+
 enum errcode render_windows_json(const struct render_plan *p,
     struct mbuf *out);
 /* RFC 4180: header row, CRLF, quoted where needed; reasons joined by
