@@ -125,6 +125,28 @@ hhmm_of(double mjd, char *buf, int with_date)
 }
 
 /*
+ * The first of ev[ne] (TT JDs) whose P1..P4 overlaps the TT offsets
+ * t0..t1 on tr, or NULL; its P1, P4 and greatest eclipse as offsets.
+ */
+static const struct eclipse_event *
+eclipse_overlap(const struct window_track *tr,
+    const struct eclipse_event *ev, size_t ne, double t0, double t1,
+    double *a, double *b, double *g)
+{
+	for (size_t i = 0; i < ne; i++) {
+		*a = (ev[i].contact_tt1[ECLIPSE_P1] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P1] - tr->base2);
+		*b = (ev[i].contact_tt1[ECLIPSE_P4] - tr->base1) +
+		    (ev[i].contact_tt2[ECLIPSE_P4] - tr->base2);
+		*g = (ev[i].greatest_tt1 - tr->base1) +
+		    (ev[i].greatest_tt2 - tr->base2);
+		if (*b >= t0 && *a <= t1)
+			return &ev[i];
+	}
+	return NULL;
+}
+
+/*
  * The first reason of a window that overlaps a lunar eclipse (P1..P4 of
  * one of ev[ne], TT JDs; t0, t1 the window's TT offsets on tr).
  */
@@ -132,25 +154,19 @@ static void
 explain_eclipse(struct plan_window *w, const struct window_track *tr,
     const struct eclipse_event *ev, size_t ne, double t0, double t1)
 {
-	for (size_t i = 0; i < ne; i++) {
-		double a = (ev[i].contact_tt1[ECLIPSE_P1] - tr->base1) +
-		    (ev[i].contact_tt2[ECLIPSE_P1] - tr->base2);
-		double b = (ev[i].contact_tt1[ECLIPSE_P4] - tr->base1) +
-		    (ev[i].contact_tt2[ECLIPSE_P4] - tr->base2);
-		double g = (ev[i].greatest_tt1 - tr->base1) +
-		    (ev[i].greatest_tt2 - tr->base2);
-		char ga[24], pa[24], pb[24];
+	double a, b, g;
+	const struct eclipse_event *e = eclipse_overlap(tr, ev, ne, t0, t1,
+	    &a, &b, &g);
+	char ga[24], pa[24], pb[24];
 
-		if (b < t0 || a > t1)
-			continue;
-		hhmm_of(mjd_of(tr, g), ga, 1);
-		hhmm_of(mjd_of(tr, a), pa, 0);
-		hhmm_of(mjd_of(tr, b), pb, 0);
-		add_reason(w, "%s lunar eclipse, greatest %s UTC (P1 %s, P4 %s): "
-		    "a rare full-moon chance; in the umbra the reflector is "
-		    "dark", eclipse_kind_name(ev[i].kind), ga, pa, pb);
+	if (e == NULL)
 		return;
-	}
+	hhmm_of(mjd_of(tr, g), ga, 1);
+	hhmm_of(mjd_of(tr, a), pa, 0);
+	hhmm_of(mjd_of(tr, b), pb, 0);
+	add_reason(w, "%s lunar eclipse, greatest %s UTC (P1 %s, P4 %s): "
+	    "a rare full-moon chance; in the umbra the reflector is "
+	    "dark", eclipse_kind_name(e->kind), ga, pa, pb);
 }
 
 void
@@ -159,7 +175,9 @@ plan_physics_fill(const struct window_track *tr, double t0, double t1,
     const struct eclipse_event *ev, size_t ne, struct plan_physics *out)
 {
 	struct geom_instant g;
-	double tilt, spread;
+	struct geom_target_view v;
+	const struct eclipse_event *e;
+	double tilt, spread, a, b, gr;
 
 	memset(out, 0, sizeof *out);
 	window_track_instant(tr, t, &g);
@@ -167,26 +185,15 @@ plan_physics_fill(const struct window_track *tr, double t0, double t1,
 	out->tilt_deg = tilt * ERFA_DR2D;
 	out->spread_ps = spread;
 	out->greatest_mjd = NAN;
-	for (size_t i = 0; i < ne; i++) {
-		double a = (ev[i].contact_tt1[ECLIPSE_P1] - tr->base1) +
-		    (ev[i].contact_tt2[ECLIPSE_P1] - tr->base2);
-		double b = (ev[i].contact_tt1[ECLIPSE_P4] - tr->base1) +
-		    (ev[i].contact_tt2[ECLIPSE_P4] - tr->base2);
-		double gr = (ev[i].greatest_tt1 - tr->base1) +
-		    (ev[i].greatest_tt2 - tr->base2);
-		struct geom_target_view v;
-
-		if (b < t0 || a > t1)
-			continue;
-		out->eclipse = 1;
-		out->kind = ev[i].kind;
-		out->greatest_mjd = mjd_of(tr, gr);
-		window_track_instant(tr, gr < t0 ? t0 : gr > t1 ? t1 : gr,
-		    &g);
-		geom_target_view(&g, gt, &v);
-		out->shadow = v.shadow;
+	e = eclipse_overlap(tr, ev, ne, t0, t1, &a, &b, &gr);
+	if (e == NULL)
 		return;
-	}
+	out->eclipse = 1;
+	out->kind = e->kind;
+	out->greatest_mjd = mjd_of(tr, gr);
+	window_track_instant(tr, gr < t0 ? t0 : gr > t1 ? t1 : gr, &g);
+	geom_target_view(&g, gt, &v);
+	out->shadow = v.shadow;
 }
 
 static void
