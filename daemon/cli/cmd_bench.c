@@ -23,6 +23,7 @@
 #include <erfam.h>
 #include <jansson.h>
 
+#include "cli/bench_net.h"
 #include "cli/cli.h"
 #include "cli/plan_cli.h"
 #include "core/fastpath.h"
@@ -578,76 +579,11 @@ write_big_log(const struct bench *b, const char *path)
 	return fclose(f) == 0 ? 0 : -1;
 }
 
-/* A free loopback TCP port, or 0. */
-static int
-free_port(void)
-{
-	struct sockaddr_in sa;
-	socklen_t len = sizeof sa;
-	int fd = socket(AF_INET, SOCK_STREAM, 0), port = 0;
-
-	if (fd < 0)
-		return 0;
-	memset(&sa, 0, sizeof sa);
-	sa.sin_family = AF_INET;
-	sa.sin_addr.s_addr = htonl(INADDR_LOOPBACK);
-	if (bind(fd, (struct sockaddr *)&sa, sizeof sa) == 0 &&
-	    getsockname(fd, (struct sockaddr *)&sa, &len) == 0)
-		port = ntohs(sa.sin_port);
-	close(fd);
-	return port;
-}
-
-/* 1 once something accepts on the loopback port (polled for 120 s). */
-static int
-wait_port(int port)
-{
-	for (int i = 0; i < 1200; i++) {
-		struct sockaddr_in sa;
-		int fd = socket(AF_INET, SOCK_STREAM, 0), ok;
-
-		if (fd < 0)
-			return 0;
-		memset(&sa, 0, sizeof sa);
-		sa.sin_family = AF_INET;
-		sa.sin_port = htons((unsigned short)port);
-		sa.sin_addr.s_addr = htonl(INADDR_LOOPBACK);
-		ok = connect(fd, (struct sockaddr *)&sa, sizeof sa) == 0;
-		close(fd);
-		if (ok)
-			return 1;
-		{
-			struct timespec ts = {0, 100000000L};
-
-			nanosleep(&ts, NULL);
-		}
-	}
-	return 0;
-}
-
 struct wrk_result {
 	double rps, p99_ms;
 	long timeouts, errors;
 	int ok;
 };
-
-/* A wrk duration "12.34ms" in ms. */
-static double
-wrk_ms(const char *s)
-{
-	char *end;
-	double v = strtod(s, &end);
-
-	if (strncmp(end, "us", 2) == 0)
-		return v / 1e3;
-	if (strncmp(end, "ms", 2) == 0)
-		return v;
-	if (*end == 's')
-		return v * 1e3;
-	if (*end == 'm')
-		return v * 60e3;
-	return v;
-}
 
 /* wrk on one URL: 2 threads, 16 connections, b->wrk_s seconds. */
 static void
@@ -674,7 +610,7 @@ run_wrk(const struct bench *b, const char *url, struct wrk_result *w)
 			w->rps = strtod(p + 13, NULL);
 			w->ok = 1;
 		} else if (strncmp(p, "99%", 3) == 0) {
-			w->p99_ms = wrk_ms(p + 3 + strspn(p + 3, " "));
+			w->p99_ms = bench_wrk_ms(p + 3 + strspn(p + 3, " "));
 		} else if (sscanf(p, "Socket errors: connect %ld, read %ld, "
 		    "write %ld, timeout %ld", &c, &r, &wr, &to) == 4) {
 			w->timeouts = to;
@@ -703,24 +639,6 @@ wrk_row(const struct bench *b, const char *job, const char *url)
 	    wr.p99_ms, wr.timeouts, wr.errors);
 	printf("| %s | %s | - | - | - | - | %s |\n", job, a, d);
 	fflush(stdout);
-}
-
-/* Peak resident memory of a process, MB (VmHWM), or NAN. */
-static double
-peak_rss_mb(pid_t pid)
-{
-	char path[64], line[256];
-	FILE *f;
-	double kb = NAN;
-
-	snprintf(path, sizeof path, "/proc/%ld/status", (long)pid);
-	if ((f = fopen(path, "r")) == NULL)
-		return NAN;
-	while (fgets(line, sizeof line, f) != NULL)
-		if (strncmp(line, "VmHWM:", 6) == 0)
-			kb = strtod(line + 6, NULL);
-	fclose(f);
-	return kb / 1024.0;
 }
 
 /* --- the table --- */
@@ -1030,7 +948,7 @@ jobs_site(struct bench *b)
 		row("daemon lines", "wrk not installed", "-", "-", "-", "-", "-");
 		return CLI_EXIT_OK;
 	}
-	port = free_port();
+	port = bench_free_port();
 	snprintf(port_s, sizeof port_s, "%d", port);
 	snprintf(listen, sizeof listen, "127.0.0.1:%d", port);
 	{
@@ -1049,7 +967,7 @@ jobs_site(struct bench *b)
 			pid = 0;
 		posix_spawn_file_actions_destroy(&fa);
 	}
-	if (pid == 0 || !wait_port(port)) {
+	if (pid == 0 || !bench_wait_port(port)) {
 		row("daemon lines", "the daemon did not start", "-", "-", "-",
 		    "-", "-");
 	} else {
@@ -1065,7 +983,7 @@ jobs_site(struct bench *b)
 		    "with a %s-attempt log, 16 connections, %.0f s", ncsv,
 		    b->wrk_s);
 		wrk_row(b, job, url);
-		snprintf(a, sizeof a, "%.1f MB", peak_rss_mb(pid));
+		snprintf(a, sizeof a, "%.1f MB", bench_peak_rss_mb(pid));
 		snprintf(job, sizeof job, "daemon peak resident memory (VmHWM) "
 		    "with a %s-attempt log", ncsv);
 		row(job, a, "-", "-", "-", "-", "after the runs above");
