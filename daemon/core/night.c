@@ -229,8 +229,6 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	struct tscale_instant a;
 	struct sched_problem sp;
 	struct sched_plan plan;
-	struct eclipse_event ecl[16];
-	size_t necl = 0;
 	double span_s, g;
 	size_t nt, nslots, nn, nb, step;
 	int per_target;
@@ -516,11 +514,6 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	/* Lunar eclipses of the span (with a day of margin). */
-	if (eclipse_find(tr.base1, tr.base2 - 1.0, tr.base1, tr.base2 +
-	    (q.to_mjd - q.from_mjd) + 1.0, ecl, sizeof ecl / sizeof ecl[0],
-	    &necl) != ERRCODE_OK)
-		necl = 0;
 	for (size_t i = 0; i < plan.n; i++) {
 		const struct sched_run *r = &plan.runs[i];
 		struct night_run *o = &out->runs[i];
@@ -566,8 +559,8 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 			o->el_end_deg = el[r->start + r->len - 1];
 			o->el_max_deg = hi;
 			plan_physics_fill(&tr, ta, tb, 0.5 * (ta + tb),
-			    &w.bodies[j], find_target(&q, o->target), ecl,
-			    necl, &o->phys);
+			    &w.bodies[j], find_target(&q, o->target), pr.ecl,
+			    pr.necl, &o->phys);
 			if (find_target(&q, o->target) == NULL)
 				o->phys.tilt_deg = o->phys.spread_ps = NAN;
 			if (rank == 0)

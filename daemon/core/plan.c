@@ -322,8 +322,6 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	struct window *win = NULL;
 	struct score_window *sw = NULL;
 	struct window_track tr;
-	struct eclipse_event ecl[64];
-	size_t necl = 0;
 	struct window_limits lim;
 	struct tscale_instant a, b;
 	struct geom_eop eop;
@@ -561,9 +559,9 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	/* Lunar eclipses of the span (with a day of margin): the windows
 	   that overlap one say so first. */
 	if (eclipse_find(tr.base1, tr.base2 - 1.0, tr.base1,
-	    tr.base2 + span + 1.0, ecl, sizeof ecl / sizeof ecl[0], &necl) !=
+	    tr.base2 + span + 1.0, out->ecl, PLAN_MAX_ECLIPSES, &out->necl) !=
 	    ERRCODE_OK)
-		necl = 0;
+		out->necl = 0;
 	for (size_t i = 0; i < keep; i++) {
 		struct plan_window *pw = &out->w[i];
 
@@ -572,9 +570,10 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		pw->start_mjd = mjd_of(&tr, sw[i].start);
 		pw->end_mjd = mjd_of(&tr, sw[i].end);
 		pw->max_el_mjd = mjd_of(&tr, sw[i].max_el_t);
-		explain_eclipse(pw, &tr, ecl, necl, sw[i].start, sw[i].end);
+		explain_eclipse(pw, &tr, out->ecl, out->necl, sw[i].start,
+		    sw[i].end);
 		plan_physics_fill(&tr, sw[i].start, sw[i].end, sw[i].max_el_t,
-		    &bodies[sw[i].target], &tg[sw[i].target], ecl, necl,
+		    &bodies[sw[i].target], &tg[sw[i].target], out->ecl, out->necl,
 		    &pw->phys);
 		if (strcmp(pw->target, PLAN_MOON_ID) == 0)
 			pw->phys.tilt_deg = pw->phys.spread_ps = NAN;

@@ -15,6 +15,7 @@
 #define PLAN_MAX_REASONS 6
 #define PLAN_REASON_LEN 160
 #define PLAN_MAX_WINDOWS 20000	/* per query */
+#define PLAN_MAX_ECLIPSES 64	/* per query: 3660 days hold about 25 */
 #define PLAN_MOON_ID "moon"	/* the Moon's centre, when no targets */
 
 /* Default limits for an ad-hoc station (--station without a database). */
@@ -105,6 +106,11 @@ struct plan_result {
 	size_t total;				/* windows before limit */
 	size_t n;
 	struct plan_window *w;			/* n, ranked */
+	/* The lunar eclipses whose greatest eclipse falls in the span with a
+	   day of margin either side (eclipse_find), for the windows here and
+	   for a night plan built on this result. */
+	size_t necl;
+	struct eclipse_event ecl[PLAN_MAX_ECLIPSES];
 };
 
 /*
