@@ -1,6 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* cli.c: the table of commands, dispatch to a command or action, and the
-   helpers the commands share (messages, exit statuses, output). */
+/* cli.c: dispatch to a command or action of the table (cli_table.c), and
+   the helpers the commands share (messages, exit statuses, output). */
 #include <ctype.h>
 #include <errno.h>
 #include <math.h>
@@ -14,33 +14,19 @@
 #include "core/text.h"
 #include "core/tscale.h"
 
-const struct cli_command *const cli_commands[] = {
-#define CLI_COMMAND(name) &cmd_##name,
-#include "cli/commands.def"
-#undef CLI_COMMAND
-	NULL
-};
-
 /* An unknown command or action word: say so, with the nearest. */
 static int
 unknown_word(const char *what, const char *path,
-    const struct cli_command *const *table, const char *word)
+    const struct cli_command *table, const char *word)
 {
 	const char *near;
 	size_t n = 0;
 	char list[200];
 	size_t len = 0;
 
-	while (table[n] != NULL)
+	while (table[n].name != NULL)
 		n++;
-	{
-		const char *names[64] = {NULL};
-
-		for (size_t i = 0; i < n && i < 64; i++)
-			names[i] = table[i]->name;
-		near = cli_nearest(word, names, n < 64 ? n : 64,
-		    sizeof names[0]);
-	}
+	near = cli_nearest(word, &table[0].name, n, sizeof table[0]);
 	if (path == NULL)
 		return near != NULL ? cli_usage_error("unknown command '%s'; "
 		    "did you mean '%s'? (try 'moonrange --help')", word, near) :
@@ -50,7 +36,7 @@ unknown_word(const char *what, const char *path,
 	for (size_t i = 0; i < n; i++)
 		len += (size_t)snprintf(list + len, len < sizeof list ?
 		    sizeof list - len : 0, "%s%s", i == 0 ? "" : i + 1 == n ?
-		    " or " : ", ", table[i]->name);
+		    " or " : ", ", table[i].name);
 	if (near != NULL)
 		return cli_usage_error("%s: unknown %s '%s'; did you mean "
 		    "'%s'? (%s)", path, what, word, near, list);
@@ -79,11 +65,12 @@ run_command(const struct cli_command *c, const char *path, int argc,
 		}
 		if (argc < 2) {
 			list[0] = '\0';
-			for (size_t i = 0; c->actions[i] != NULL; i++)
+			for (size_t i = 0; c->actions[i].name != NULL; i++)
 				len += (size_t)snprintf(list + len, len <
 				    sizeof list ? sizeof list - len : 0,
-				    "%s%s", i == 0 ? "" : c->actions[i + 1] ==
-				    NULL ? " or " : ", ", c->actions[i]->name);
+				    "%s%s", i == 0 ? "" :
+				    c->actions[i + 1].name == NULL ? " or " :
+				    ", ", c->actions[i].name);
 			return cli_usage_error("%s: an action is required: %s "
 			    "(see 'moonrange %s --help')", path, list, path);
 		}

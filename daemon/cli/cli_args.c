@@ -141,11 +141,11 @@ cli_nearest(const char *s, const void *words, size_t n, size_t stride)
 }
 
 const struct cli_command *
-cli_find(const struct cli_command *const *table, const char *name)
+cli_find(const struct cli_command *table, const char *name)
 {
-	for (size_t i = 0; table[i] != NULL; i++)
-		if (strcmp(table[i]->name, name) == 0)
-			return table[i];
+	for (size_t i = 0; table[i].name != NULL; i++)
+		if (strcmp(table[i].name, name) == 0)
+			return &table[i];
 	return NULL;
 }
 

@@ -172,11 +172,11 @@ cli_help(FILE *f, const struct cli_command *c, const char *path)
 	char sub[96];
 
 	if (c->actions != NULL) {
-		for (size_t i = 0; c->actions[i] != NULL; i++) {
+		for (size_t i = 0; c->actions[i].name != NULL; i++) {
 			snprintf(sub, sizeof sub, "%s %s", path,
-			    c->actions[i]->name);
+			    c->actions[i].name);
 			usage_line(f, i == 0 ? "usage: " : "       ", sub,
-			    c->actions[i]);
+			    &c->actions[i]);
 		}
 	} else {
 		usage_line(f, "usage: ", path, c);
@@ -187,9 +187,9 @@ cli_help(FILE *f, const struct cli_command *c, const char *path)
 	}
 	if (c->actions != NULL) {
 		fprintf(f, "\nActions:\n");
-		for (size_t i = 0; c->actions[i] != NULL; i++) {
-			fprintf(f, "  %-8s", c->actions[i]->name);
-			cli_wrap(f, c->actions[i]->summary, 10, 10);
+		for (size_t i = 0; c->actions[i].name != NULL; i++) {
+			fprintf(f, "  %-8s", c->actions[i].name);
+			cli_wrap(f, c->actions[i].summary, 10, 10);
 		}
 		fprintf(f, "\nRun 'moonrange %s ACTION --help' for the options "
 		    "of an action.\n", path);
@@ -208,9 +208,9 @@ cli_help_main(FILE *f)
 	    "usage: moonrange COMMAND [OPTIONS]\n"
 	    "\n"
 	    "Planning aid for lunar laser ranging. Commands:\n");
-	for (size_t i = 0; cli_commands[i] != NULL; i++) {
-		fprintf(f, "  %-10s ", cli_commands[i]->name);
-		cli_wrap(f, cli_commands[i]->summary, 13, 13);
+	for (size_t i = 0; cli_commands[i].name != NULL; i++) {
+		fprintf(f, "  %-10s ", cli_commands[i].name);
+		cli_wrap(f, cli_commands[i].summary, 13, 13);
 	}
 	fprintf(f,
 	    "\n"
@@ -325,17 +325,17 @@ cli_man(FILE *f)
 	    "An option's value follows it (\\fB\\-\\-days 3\\fR) or an equals "
 	    "sign (\\fB\\-\\-days=3\\fR); an option that takes one value may "
 	    "be given once.\n.SH COMMANDS\n", f);
-	for (size_t i = 0; cli_commands[i] != NULL; i++) {
-		const struct cli_command *c = cli_commands[i];
+	for (size_t i = 0; cli_commands[i].name != NULL; i++) {
+		const struct cli_command *c = &cli_commands[i];
 
 		if (c->actions == NULL) {
 			man_command(f, c, c->name);
 			continue;
 		}
-		for (size_t k = 0; c->actions[k] != NULL; k++) {
+		for (size_t k = 0; c->actions[k].name != NULL; k++) {
 			snprintf(sub, sizeof sub, "%s %s", c->name,
-			    c->actions[k]->name);
-			man_command(f, c->actions[k], sub);
+			    c->actions[k].name);
+			man_command(f, &c->actions[k], sub);
 		}
 	}
 	fputs(".SH EXIT STATUS\n0 on success, 2 for bad input (an option, a "
@@ -375,7 +375,7 @@ complete_targets(const char *db)
 int
 cli_complete(int argc, char **argv)
 {
-	const struct cli_command *const *table = cli_commands;
+	const struct cli_command *table = cli_commands;
 	const struct cli_command *c = NULL;
 	const struct cli_option *o;
 	const char *db = NULL;
@@ -383,19 +383,19 @@ cli_complete(int argc, char **argv)
 
 	/* The command, then its action. */
 	if (argc == 0) {
-		for (size_t k = 0; table[k] != NULL; k++)
-			printf("%s\n", table[k]->name);
+		for (size_t k = 0; table[k].name != NULL; k++)
+			printf("%s\n", table[k].name);
 		printf("help\n");
 		return CLI_EXIT_OK;
 	}
 	if (strcmp(argv[0], "help") == 0) {
 		c = argc >= 2 ? cli_find(table, argv[1]) : NULL;
 		if (argc == 1)
-			for (size_t k = 0; table[k] != NULL; k++)
-				printf("%s\n", table[k]->name);
+			for (size_t k = 0; table[k].name != NULL; k++)
+				printf("%s\n", table[k].name);
 		else if (argc == 2 && c != NULL && c->actions != NULL)
-			for (size_t k = 0; c->actions[k] != NULL; k++)
-				printf("%s\n", c->actions[k]->name);
+			for (size_t k = 0; c->actions[k].name != NULL; k++)
+				printf("%s\n", c->actions[k].name);
 		return CLI_EXIT_OK;
 	}
 	if ((c = cli_find(table, argv[0])) == NULL)
@@ -403,8 +403,8 @@ cli_complete(int argc, char **argv)
 	i = 1;
 	if (c->actions != NULL) {
 		if (argc == 1) {
-			for (size_t k = 0; c->actions[k] != NULL; k++)
-				printf("%s\n", c->actions[k]->name);
+			for (size_t k = 0; c->actions[k].name != NULL; k++)
+				printf("%s\n", c->actions[k].name);
 			return CLI_EXIT_OK;
 		}
 		if ((c = cli_find(c->actions, argv[1])) == NULL)

@@ -25,6 +25,7 @@
 
 #include "cli/bench_net.h"
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/plan_cli.h"
 #include "core/fastpath.h"
 #include "core/geom.h"
@@ -1018,8 +1019,8 @@ have(const char *dir, char *const argv[])
 	return run_child(argv, NULL, dir, NULL, NULL) == 0;
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_bench(const struct cli_args *a)
 {
 	struct bench b;
 	ssize_t n;
@@ -1079,41 +1080,3 @@ run(const struct cli_args *a)
 	errfile = NULL;
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "repeat", .kind = CLI_WHOLE, .arg = "N", .min = 1, .max = 20,
-	    .help = "runs of each job; the best is shown (default 3)"},
-	{.name = "naive-share", .kind = CLI_REAL, .arg = "F", .min = 0.01,
-	    .max = 1, .help = "share of the year the naive baseline and "
-	    "PyEphem's elevations measure, scaled up (default 0.1)"},
-	{.name = "seconds", .kind = CLI_REAL, .arg = "S", .min = 1, .max = 60,
-	    .help = "length of each wrk run (default 5)"},
-	{.name = "attempts", .kind = CLI_WHOLE, .arg = "N", .min = 1000,
-	    .max = 1000000, .help = "attempts in the big log (default 200000)"},
-	{.name = "scripts", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "the library scripts and astronomy-engine's node_modules "
-	    "(default: bench/ of the source tree)"},
-	{.name = "site", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "the sample site (default: that of the source tree)"},
-	{.name = "no-site", .kind = CLI_FLAG,
-	    .help = "only the jobs compared with the libraries"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_bench = {
-	.name = "bench",
-	.summary = "time the planner's jobs beside general-purpose libraries",
-	.about = "Runs the performance jobs of the project and prints one "
-	    "Markdown table: a year of Moon-centre windows and 525,600 "
-	    "elevations by moonrange, by the naive baseline (the full ERFA "
-	    "chain every minute), by PyEphem (/usr/bin/python3 with Debian's "
-	    "python3-ephem) and by astronomy-engine (npm, in bench/ of the "
-	    "source tree: cd bench && npm ci), with ratios and the largest "
-	    "disagreement "
-	    "in event times and angles; then the sample site's windows and "
-	    "coverage, a generated log's import and queries, and the daemon "
-	    "under wrk on loopback.  A library that is missing is named and "
-	    "skipped.  Takes a few minutes.",
-	.options = options,
-	.run = run,
-};

@@ -6,6 +6,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
 
@@ -22,8 +23,8 @@ add_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return rc;
 }
 
-static int
-blackout_add(const struct cli_args *a)
+int
+cmd_blackout_add(const struct cli_args *a)
 {
 	const char *reason = cli_text(a, "reason", "");
 	struct site_blackout b;
@@ -58,8 +59,8 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return rc;
 }
 
-static int
-blackout_list(const struct cli_args *a)
+int
+cmd_blackout_list(const struct cli_args *a)
 {
 	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }
@@ -77,8 +78,8 @@ remove_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return rc;
 }
 
-static int
-blackout_remove(const struct cli_args *a)
+int
+cmd_blackout_remove(const struct cli_args *a)
 {
 	long id = 0;
 
@@ -87,66 +88,3 @@ blackout_remove(const struct cli_args *a)
 		    "whole number, see 'blackout list') is required");
 	return cli_store_run(a, 0, remove_job, &id);
 }
-
-/* --- the table ----------------------------------------------------------- */
-
-
-static const struct cli_option add_options[] = {
-	CLI_OPT_DB,
-	{.name = "start", .kind = CLI_TIME, .arg = "UTC",
-	    .flags = CLI_REQUIRED, .help = "start of the blackout"},
-	{.name = "end", .kind = CLI_TIME, .arg = "UTC", .flags = CLI_REQUIRED,
-	    .help = "its end, after the start"},
-	{.name = "reason", .kind = CLI_TEXT, .arg = "TEXT",
-	    .help = "why (one line)"},
-	CLI_OPT_END
-};
-
-static const struct cli_option list_options[] = {
-	CLI_OPT_DB,
-	{.name = "since", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "blackouts ending after this time"},
-	{.name = "until", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "blackouts starting before this time"},
-	{.name = "json", .kind = CLI_FLAG, .help = "{\"blackouts\":[...]}"},
-	CLI_OPT_END
-};
-
-static const struct cli_option remove_options[] = {CLI_OPT_DB, CLI_OPT_END};
-
-static const struct cli_command blackout_add_cmd = {
-	.name = "add",
-	.summary = "add a span without ranging",
-	.about = "Add a blackout: no window is planned from --start to --end.",
-	.options = add_options,
-	.run = blackout_add,
-};
-
-static const struct cli_command blackout_list_cmd = {
-	.name = "list",
-	.summary = "the blackouts overlapping a span (default: all)",
-	.about = "The blackouts overlapping --since..--until (default: all).",
-	.options = list_options,
-	.run = blackout_list,
-};
-
-static const struct cli_command blackout_remove_cmd = {
-	.name = "remove",
-	.summary = "remove a blackout by its id",
-	.about = "Remove a blackout by the id 'blackout list' shows.",
-	.options = remove_options,
-	CLI_ONE_OPERAND("ID"),
-	.run = blackout_remove,
-};
-
-static const struct cli_command *const actions[] = {
-	&blackout_add_cmd, &blackout_list_cmd, &blackout_remove_cmd, NULL
-};
-
-const struct cli_command cmd_blackout = {
-	.name = "blackout",
-	.summary = "spans without ranging: add, list, remove",
-	.about = "Blackouts: spans in which no window is planned "
-	    "(maintenance, airspace closures).",
-	.actions = actions,
-};

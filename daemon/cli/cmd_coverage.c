@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "core/text.h"
 #include "query/covquery.h"
@@ -43,8 +44,8 @@ set_param(void *params, const char *name, const char *value, char *errbuf,
 	return covquery_param_set(params, name, value, errbuf, errlen);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_coverage(const struct cli_args *a)
 {
 	const char *db_path = cli_text(a, "db", NULL);
 	const char *svg_path = cli_text(a, "svg", NULL);
@@ -93,52 +94,3 @@ run(const struct cli_args *a)
 	mbuf_free(&out);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_DB, .arg = "FILE", .flags = CLI_REQUIRED,
-	    .help = "the station database (moonrange init)"},
-	{.name = "source", .kind = CLI_TEXT, .arg = "S",
-	    .help = "normal_points (default: imported points and those logged "
-	    "with attempts) or attempts"},
-	{.name = "since", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "only records at or after this time (ISO 8601)"},
-	{.name = "until", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "only records before this time"},
-	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
-	    .help = "one target only"},
-	{.name = "station", .kind = CLI_TEXT, .arg = "CODE",
-	    .help = "one station only (imported files carry other stations' "
-	    "codes: omit it for the network)"},
-	{.name = "axis", .kind = CLI_TEXT, .arg = "AXIS",
-	    .help = "synodic (default: 0 new moon, 180 full), anomaly (mean "
-	    "anomaly l, 0 perigee), latitude (argument of latitude F, 0 "
-	    "ascending node) or hour_angle (of the Moon at this station)"},
-	{.name = "bins", .kind = CLI_TEXT, .arg = "N",
-	    .help = "bins of the circle, 4..72 (default 12)"},
-	{.name = "min-count", .kind = CLI_TEXT, .arg = "M",
-	    .help = "a bin is filled at M or more (default 1)"},
-	{.name = "horizon", .kind = CLI_TEXT, .arg = "DAYS",
-	    .help = "days searched for gap-filling windows, 0..366 (default "
-	    "60; 0 = none)"},
-	{.name = "json", .kind = CLI_FLAG, .group = 1,
-	    .help = "machine-readable output (fields in README)"},
-	{.name = "csv", .kind = CLI_FLAG, .group = 1,
-	    .help = "counts as CSV (RFC 4180)"},
-	{.name = "svg", .kind = CLI_TEXT, .arg = "FILE", .group = 1,
-	    .help = "write the chart to FILE ('-' for stdout)"},
-	{.name = "theme", .kind = CLI_TEXT, .arg = "T",
-	    .help = "the chart's palette: light (default, for paper) or dark"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_coverage = {
-	.name = "coverage",
-	.summary = "how the normal points spread over the lunar cycle",
-	.about = "How the normal points (or attempts) are spread over the "
-	    "lunar cycle: counts per bin, per target, pooled and per year; "
-	    "the emptiest bins, the share of bins filled, the longest empty "
-	    "arc, normalised entropy and a chi-square test against a uniform "
-	    "spread; and the coming windows that would fill the gaps.",
-	.options = options,
-	.run = run,
-};

@@ -10,6 +10,7 @@
 #include <unistd.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 
 /* mkdir -p with mode 0700 for the parts it creates. */
 static int
@@ -84,8 +85,8 @@ make_token(const char *path)
 	return CLI_EXIT_OK;
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_demo(const struct cli_args *a)
 {
 	char dir[PATH_MAX - 32], db[PATH_MAX], token[PATH_MAX];
 	char *sargv[16];
@@ -146,27 +147,3 @@ run(const struct cli_args *a)
 	sargv[n] = NULL;
 	return cli_run(n, sargv);
 }
-
-static const struct cli_option options[] = {
-	{.name = "data-dir", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "default $XDG_DATA_HOME/moonrange, else "
-	    "~/.local/share/moonrange"},
-	{.name = "listen", .kind = CLI_TEXT, .arg = "ADDR:PORT",
-	    .help = "as for 'moonrange serve'"},
-	{.name = "web", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "as for 'moonrange serve'"},
-	{.name = "refresh", .kind = CLI_TEXT, .arg = "SECONDS",
-	    .help = "as for 'moonrange serve'"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_demo = {
-	.name = "demo",
-	.summary = "create a demo database from sample-site/ and serve it",
-	.about = "Serve the invented sample site: on first use, create "
-	    "DIR/demo.db from sample-site/ and a random write token in "
-	    "DIR/token (mode 0600), then run 'moonrange serve' on them and "
-	    "print the URL.",
-	.options = options,
-	.run = run,
-};

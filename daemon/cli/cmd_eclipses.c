@@ -3,14 +3,15 @@
 #include <stdio.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "core/derive.h"
 #include "core/geom.h"
 #include "core/text.h"
 #include "query/eclquery.h"
 
-static int
-run(const struct cli_args *a)
+int
+cmd_eclipses(const struct cli_args *a)
 {
 	double f1, f2, t1, t2;
 	struct geom_site site;
@@ -54,37 +55,3 @@ run(const struct cli_args *a)
 	mbuf_free(&out);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "from", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "start, ISO 8601 with Z (default: now)"},
-	{.name = "to", .kind = CLI_TIME, .arg = "UTC", .group = 1,
-	    .help = "end (default: --days after the start)"},
-	{.name = "days", .kind = CLI_REAL, .arg = "N", .min = 1,
-	    .max = ECLQUERY_DAYS_MAX, .unit = "days", .group = 1,
-	    .help = "length of the span in days (default 365)"},
-	{.name = "json", .kind = CLI_FLAG, .group = 2,
-	    .help = "{\"eclipses\":[{kind, greatest, umbral_magnitude, "
-	    "penumbral_magnitude, contacts{P1..P4}}]}"},
-	{.name = "csv", .kind = CLI_FLAG, .group = 2,
-	    .help = "one row per eclipse (RFC 4180)"},
-	{.name = "ics", .kind = CLI_FLAG, .group = 2,
-	    .help = "iCalendar, one event per eclipse (first to last contact)"},
-	{.name = "db", .kind = CLI_DB, .arg = "FILE",
-	    .help = "the station: whether the Moon is up at each phase"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_eclipses = {
-	.name = "eclipses",
-	.summary = "lunar eclipses in a time span: kind, magnitudes, contacts",
-	.about = "Every lunar eclipse whose greatest eclipse falls in the "
-	    "span: its kind (penumbral, partial, total), the umbral and "
-	    "penumbral magnitudes at greatest eclipse and the contacts P1, "
-	    "U1, U2, U3, U4, P4 that occur, from the core's Sun and Moon with "
-	    "the Earth's shadow enlarged by Danjon's rule (README, \"Lunar "
-	    "eclipses\").  With --db, whether the Moon is above the station's "
-	    "horizon at each of them.",
-	.options = options,
-	.run = run,
-};

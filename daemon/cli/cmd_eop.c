@@ -5,14 +5,15 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "core/text.h"
 #include "cli/cli_store.h"
 #include "core/text.h"
 #include "core/tscale.h"
 
 /* eop import (mode 1) and eop status: then the table's span. */
-static int
-eop(const struct cli_args *a)
+int
+cmd_eop(const struct cli_args *a)
 {
 	int import = a->cmd->mode;
 	struct cli_store c;
@@ -50,46 +51,3 @@ eop(const struct cli_args *a)
 	cli_store_close(&c);
 	return st;
 }
-
-
-static const struct cli_option import_options[] = {
-	CLI_OPT_DB,
-	{.name = "c04", .kind = CLI_FLAG,
-	    .help = "the file is in the IERS EOP C04 format"},
-	CLI_OPT_END
-};
-
-static const struct cli_option status_options[] = {CLI_OPT_DB, CLI_OPT_END};
-
-static const struct cli_command eop_import_cmd = {
-	.name = "import",
-	.summary = "an IERS finals or C04 file, in one transaction",
-	.about = "Read the IERS finals (Bulletin A) fixed columns "
-	    "(finals2000A.data, finals.daily...) or, with --c04, the IERS EOP "
-	    "C04 series, in one transaction; a day already in the table is "
-	    "replaced.  Prints what the table then covers.",
-	.options = import_options,
-	CLI_ONE_OPERAND("EOP_FILE"),
-	.run = eop,
-	.mode = 1,
-};
-
-static const struct cli_command eop_status_cmd = {
-	.name = "status",
-	.summary = "the days the table covers",
-	.about = "The first and last day of the Earth orientation table.",
-	.options = status_options,
-	.run = eop,
-};
-
-static const struct cli_command *const actions[] = {
-	&eop_import_cmd, &eop_status_cmd, NULL
-};
-
-const struct cli_command cmd_eop = {
-	.name = "eop",
-	.summary = "the Earth orientation table: import IERS files",
-	.about = "The Earth orientation table (UT1-UTC and polar motion per "
-	    "day) that ephem, log and the planner interpolate.",
-	.actions = actions,
-};

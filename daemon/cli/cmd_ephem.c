@@ -7,6 +7,7 @@
 #include <erfam.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "core/eop.h"
 #include "core/text.h"
 #include "cli/cli_store.h"
@@ -115,8 +116,8 @@ load_db(struct cli_store *cs, const char *db, double utc1, double utc2,
 	return CLI_EXIT_OK;
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_ephem(const struct cli_args *a)
 {
 	static char ids[EPHEM_MAX_TARGETS][33];
 	struct geom_target targets[EPHEM_MAX_TARGETS];
@@ -214,41 +215,3 @@ run(const struct cli_args *a)
 	cli_store_close(&cs);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_DB, .arg = "FILE", .group = 1,
-	    .help = "use the stored station, its active targets and its Earth "
-	    "orientation table (DUT1 and polar motion interpolated when the "
-	    "table covers the instant)"},
-	{.name = "station", .kind = CLI_TEXT, .arg = "LAT,LON,H", .group = 1,
-	    .help = "geodetic latitude, east longitude (deg) and WGS84 height "
-	    "(m); default: a demo station"},
-	{.name = "target", .kind = CLI_TEXT, .arg = "ID=LAT,LON[,H]",
-	    .flags = CLI_MANY, .help = "selenographic latitude, east longitude "
-	    "(deg) and height above 1737.4 km (m); repeat for several targets "
-	    "(at most 64)"},
-	{.name = "at", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "instant, ISO 8601 with Z (default: now)"},
-	{.name = "dut1", .kind = CLI_REAL, .arg = "SECONDS", .min = -0.9,
-	    .max = 0.9, .unit = "seconds", .help = "UT1-UTC, |DUT1| <= 0.9 "
-	    "(default: from the table, else 0; dut1_source says which)"},
-	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE",
-	    .help = "local time in this IANA zone in the table (default: the "
-	    "station's zone)"},
-	{.name = "wide", .kind = CLI_FLAG,
-	    .help = "the station and DUT1 on one line, wider than 80 columns"},
-	{.name = "json", .kind = CLI_FLAG,
-	    .help = "machine-readable output (see README)"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_ephem = {
-	.name = "ephem",
-	.summary = "positions of the Moon, the Sun and each target at an "
-	    "instant",
-	.about = "Topocentric position of the Moon and the Sun, the lunar "
-	    "phase and librations, and for each target its pointing, range, "
-	    "round-trip time and the Sun's elevation at the reflector.",
-	.options = options,
-	.run = run,
-};

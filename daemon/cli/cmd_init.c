@@ -10,6 +10,7 @@
 #include <unistd.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 
 /*
@@ -28,8 +29,8 @@
 #define INIT_MAX_CRD 64
 
 /* Where the default site is looked for, for --help. */
-static void
-more(FILE *f)
+void
+cmd_init_more(FILE *f)
 {
 	fprintf(f, "\nWithout --site the sample site is loaded from\n  %s\nor, "
 	    "in a build tree, from\n  %s\n", MOONRANGE_SITE_INSTALLED,
@@ -228,8 +229,8 @@ remove_db(const char *path, int all)
 	(void)unlink(p);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_init(const struct cli_args *a)
 {
 	const char *db = cli_text(a, "db", NULL), *site = cli_text(a, "site",
 	    NULL);
@@ -270,28 +271,3 @@ run(const struct cli_args *a)
 	remove_db(tmp, 1);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_TEXT, .arg = "FILE", .flags = CLI_REQUIRED,
-	    .help = "the database to create (refused if it exists)"},
-	{.name = "site", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "the site directory (default: the sample site, below)"},
-	{.name = "force", .kind = CLI_FLAG,
-	    .help = "replace an existing database (only once the new one is "
-	    "complete)"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_init = {
-	.name = "init",
-	.summary = "create a station database from a site directory",
-	.about = "Create a station database and load a site directory into "
-	    "it, all or nothing: station.ini, targets.csv, then the Earth "
-	    "orientation file (eop.finals, IERS finals columns, or eop.c04), "
-	    "attempts.csv and every *.crd normal-point file.  Only station.ini "
-	    "and targets.csv are required.  Errors name the file, line and "
-	    "field.",
-	.options = options,
-	.run = run,
-	.more = more,
-};

@@ -7,6 +7,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "core/attempt.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
@@ -39,8 +40,8 @@ copy_text(char *dst, size_t cap, const char *opt, const char *s)
 
 /* --- add ------------------------------------------------------------------ */
 
-static int
-log_add(const struct cli_args *a)
+int
+cmd_log_add(const struct cli_args *a)
 {
 	static struct tzone zone;
 	struct cli_store c;
@@ -102,8 +103,8 @@ out:
 
 /* --- list and export ------------------------------------------------------ */
 
-static int
-log_list(const struct cli_args *a)
+int
+cmd_log_list(const struct cli_args *a)
 {
 	int export = a->cmd->mode;
 	static struct tzone zone;
@@ -169,8 +170,8 @@ out:
 
 /* --- import --------------------------------------------------------------- */
 
-static int
-log_import(const struct cli_args *a)
+int
+cmd_log_import(const struct cli_args *a)
 {
 	struct cli_store c;
 	struct cli_store_counts n;
@@ -187,11 +188,9 @@ log_import(const struct cli_args *a)
 	return st;
 }
 
-/* --- the table ----------------------------------------------------------- */
-
 /* The columns of an import file, for --help. */
-static void
-import_more(FILE *f)
+void
+cmd_log_import_more(FILE *f)
 {
 	char cols[] = RENDER_SITE_ATTEMPT_CSV_HEADER, text[sizeof cols * 2];
 	size_t n = 0;
@@ -205,127 +204,3 @@ import_more(FILE *f)
 	fprintf(f, "\nColumns (a header line names them, in any order):\n");
 	cli_wrap(f, text, 0, 2);
 }
-
-#define OPT_SINCE {.name = "since", .kind = CLI_TIME, .arg = "UTC", \
-	.help = "attempts starting at or after this time"}
-#define OPT_UNTIL {.name = "until", .kind = CLI_TIME, .arg = "UTC", \
-	.help = "attempts starting before this time"}
-#define OPT_TARGET {.name = "target", .kind = CLI_TEXT, .arg = "ID", \
-	.help = "one target only"}
-#define COUNT(n, h) {.name = (n), .kind = CLI_WHOLE, .arg = "N", .min = 0, \
-	.max = 1000000000, .flags = CLI_REQUIRED, .help = (h)}
-
-static const struct cli_option add_options[] = {
-	CLI_OPT_DB,
-	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
-	    .flags = CLI_REQUIRED, .help = "the target ranged"},
-	{.name = "start", .kind = CLI_TIME, .arg = "UTC",
-	    .flags = CLI_REQUIRED, .help = "start of the attempt"},
-	{.name = "end", .kind = CLI_TIME, .arg = "UTC", .flags = CLI_REQUIRED,
-	    .help = "its end, after the start and within a day"},
-	COUNT("shots", "laser shots fired"),
-	COUNT("returns", "return photons detected"),
-	COUNT("normal-points", "normal points formed"),
-	{.name = "outcome", .kind = CLI_WORD, .arg = "WORD",
-	    .words = "ranged no_returns weather technical safety other",
-	    .flags = CLI_REQUIRED, .help = "one of ranged no_returns weather "
-	    "technical safety other"},
-	{.name = "operator", .kind = CLI_TEXT, .arg = "NAME",
-	    .flags = CLI_REQUIRED, .help = "who ranged"},
-	{.name = "seeing", .kind = CLI_REAL, .arg = "ARCSEC", .min = 0.001,
-	    .max = 60, .unit = "arcseconds", .help = "seeing, arcseconds"},
-	{.name = "notes", .kind = CLI_TEXT, .arg = "TEXT",
-	    .help = "free text (may span lines)"},
-	{.name = "json", .kind = CLI_FLAG,
-	    .help = "print the stored row as JSON"},
-	CLI_OPT_END
-};
-
-static const struct cli_option list_options[] = {
-	CLI_OPT_DB, OPT_SINCE, OPT_UNTIL, OPT_TARGET,
-	{.name = "limit", .kind = CLI_WHOLE, .arg = "N", .min = 1,
-	    .max = 100000000, .group = 2,
-	    .help = "the newest N attempts (default 20)"},
-	{.name = "all", .kind = CLI_FLAG, .group = 2,
-	    .help = "every matching attempt"},
-	{.name = "order", .kind = CLI_WORD, .arg = "WORD",
-	    .words = "newest oldest",
-	    .help = "newest first (default) or oldest first, as the API's "
-	    "order="},
-	{.name = "json", .kind = CLI_FLAG, .group = 1,
-	    .help = "{\"attempts\":[...]} (fields in the README)"},
-	{.name = "csv", .kind = CLI_FLAG, .group = 1,
-	    .help = "RFC 4180, with the id and the derived angles"},
-	CLI_OPT_END
-};
-
-static const struct cli_option import_options[] = {CLI_OPT_DB, CLI_OPT_END};
-
-static const struct cli_option export_options[] = {
-	CLI_OPT_DB,
-	{.name = "csv", .kind = CLI_FLAG,
-	    .help = "CSV (the only format; accepted for clarity)"},
-	OPT_SINCE, OPT_UNTIL, OPT_TARGET,
-	CLI_OPT_END
-};
-
-static const struct cli_command log_add_cmd = {
-	.name = "add",
-	.summary = "log one attempt; prints the stored row",
-	.about = "Log one ranging attempt.  The synodic angle, mean "
-	    "elongation, target elevation and the Sun's elevation at the "
-	    "target are computed at the attempt's mid-time and stored with "
-	    "it.",
-	.options = add_options,
-	.run = log_add,
-};
-
-static const struct cli_command log_list_cmd = {
-	.name = "list",
-	.summary = "the newest attempts (20 unless --limit N or --all)",
-	.about = "The attempts of the log, newest first: the newest 20 "
-	    "unless --limit N or --all says otherwise.  The table shows the "
-	    "start in the station's time zone, the target, outcome, returns, "
-	    "normal points, operator and notes (cut to fit 80 columns); "
-	    "--csv and --json hold every field.  --since is inclusive, --until "
-	    "exclusive.",
-	.options = list_options,
-	.run = log_list,
-};
-
-static const struct cli_command log_import_cmd = {
-	.name = "import",
-	.summary = "attempts from a CSV file, all or nothing",
-	.about = "Import a CSV file (the columns below) in one transaction: "
-	    "every bad row is reported with its line "
-	    "and nothing is stored; rows already present (same target and "
-	    "start) are skipped and counted.",
-	.options = import_options,
-	CLI_ONE_OPERAND("FILE.csv"),
-	.run = log_import,
-	.more = import_more,
-};
-
-static const struct cli_command log_export_cmd = {
-	.name = "export",
-	.summary = "the log as CSV (RFC 4180) in the import format",
-	.about = "The log as CSV (RFC 4180) in the format 'log import' "
-	    "reads.",
-	.options = export_options,
-	.run = log_list,
-	.mode = 1,
-};
-
-static const struct cli_command *const actions[] = {
-	&log_add_cmd, &log_list_cmd, &log_import_cmd, &log_export_cmd, NULL
-};
-
-const struct cli_command cmd_log = {
-	.name = "log",
-	.summary = "the observation log: add, list, import, export attempts",
-	.about = "The observation log: one row per ranging attempt, with the "
-	    "synodic angle, mean elongation, target elevation and the Sun's "
-	    "elevation at the target computed at the attempt's mid-time and "
-	    "stored with it.",
-	.actions = actions,
-};

@@ -5,10 +5,11 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 
-static int
-np_count(const struct cli_args *a)
+int
+cmd_np_count(const struct cli_args *a)
 {
 	struct store_query q;
 	struct cli_store c;
@@ -32,8 +33,8 @@ np_count(const struct cli_args *a)
 	return st;
 }
 
-static int
-np_import(const struct cli_args *a)
+int
+cmd_np_import(const struct cli_args *a)
 {
 	struct cli_store c;
 	struct cli_store_counts n;
@@ -62,58 +63,3 @@ out:
 	cli_store_close(&c);
 	return st;
 }
-
-
-static const struct cli_option import_options[] = {CLI_OPT_DB, CLI_OPT_END};
-
-static const struct cli_option count_options[] = {
-	CLI_OPT_DB,
-	{.name = "since", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "points at or after this time"},
-	{.name = "until", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "points before this time"},
-	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
-	    .help = "one target only"},
-	{.name = "station", .kind = CLI_TEXT, .arg = "CODE",
-	    .help = "one station only"},
-	CLI_OPT_END
-};
-
-static const struct cli_command np_import_cmd = {
-	.name = "import",
-	.summary = "CRD files, one transaction each",
-	.about = "Import normal points from CRD files, each in one "
-	    "transaction: the target name of each session (H3) is mapped to a "
-	    "target through its alias (or id); epoch, time of flight, "
-	    "photons, RMS and the station code of the file (H2) are stored "
-	    "with the synodic angle, mean elongation, target elevation (this "
-	    "station's points only) and the Sun's elevation at the target.  "
-	    "Records of unused types are skipped; a malformed line is "
-	    "reported with its number and nothing of that file is stored.  "
-	    "Importing a file again adds nothing.",
-	.options = import_options,
-	.operands = "CRD_FILE...",
-	.nmin = 1,
-	.nmax = -1,
-	.run = np_import,
-};
-
-static const struct cli_command np_count_cmd = {
-	.name = "count",
-	.summary = "how many normal points are stored",
-	.about = "The number of stored normal points that match.",
-	.options = count_options,
-	.run = np_count,
-};
-
-static const struct cli_command *const actions[] = {
-	&np_import_cmd, &np_count_cmd, NULL
-};
-
-const struct cli_command cmd_np = {
-	.name = "np",
-	.summary = "normal points: import CRD files, count them",
-	.about = "Normal points in the ILRS consolidated ranging data format "
-	    "(CRD).",
-	.actions = actions,
-};

@@ -3,6 +3,7 @@
 #include <stdio.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "core/text.h"
 #include "formats/render_time.h"
@@ -17,8 +18,8 @@ set_param(void *params, const char *name, const char *value, char *errbuf,
 	return phquery_param_set(params, name, value, errbuf, errlen);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_phases(const struct cli_args *a)
 {
 	static const char *const query_params[] = {"from", "to", "days"};
 	int json = cli_given(a, "json"), st;
@@ -61,29 +62,3 @@ run(const struct cli_args *a)
 	mbuf_free(&out);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "from", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "start, ISO 8601 with Z (default: now)"},
-	{.name = "to", .kind = CLI_TEXT, .arg = "UTC", .group = 1,
-	    .help = "end (default: --days after the start)"},
-	{.name = "days", .kind = CLI_TEXT, .arg = "N", .group = 1,
-	    .help = "length of the span in days (default 30, max 36600)"},
-	{.name = "tz", .kind = CLI_ZONE, .arg = "ZONE", .group = 2,
-	    .help = "also show local time in this IANA zone (text table)"},
-	{.name = "db", .kind = CLI_DB, .arg = "FILE", .group = 2,
-	    .help = "also show local time in the stored station's zone"},
-	{.name = "json", .kind = CLI_FLAG,
-	    .help = "machine-readable output: {\"phases\":[{kind,utc}]}"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_phases = {
-	.name = "phases",
-	.summary = "new moon, quarters and full moon in a time span",
-	.about = "Every new moon, first quarter, full moon and last quarter "
-	    "in the span, each to better than a second on the synodic angle "
-	    "(the Moon's apparent ecliptic longitude minus the Sun's).",
-	.options = options,
-	.run = run,
-};

@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "core/text.h"
 #include "query/planquery.h"
@@ -22,8 +23,8 @@ set_param(void *params, const char *name, const char *value, char *errbuf,
 	return planquery_param_set(params, name, value, errbuf, errlen);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_plan(const struct cli_args *a)
 {
 	const char *db_path = cli_text(a, "db", NULL);
 	enum planquery_format fmt = cli_given(a, "json") ? PLANQUERY_JSON :
@@ -61,43 +62,3 @@ run(const struct cli_args *a)
 	mbuf_free(&out);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	CLI_OPT_DB,
-	{.name = "at", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "take this as now (ISO 8601; default: the clock); the "
-	    "plan runs from now to the next local noon"},
-	{.name = "from", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "with --to: plan this span (at most 4 days) as if it "
-	    "were now at --from"},
-	{.name = "to", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "the end of the span"},
-	{.name = "method", .kind = CLI_TEXT, .arg = "M",
-	    .help = "best (default; never below greedy) or greedy (the "
-	    "baseline)"},
-	{.name = "json", .kind = CLI_FLAG, .group = 1,
-	    .help = "JSON, as GET /api/v1/plan"},
-	{.name = "csv", .kind = CLI_FLAG, .group = 1,
-	    .help = "CSV (RFC 4180), one row per run"},
-	{.name = "ics", .kind = CLI_FLAG, .group = 1,
-	    .help = "iCalendar (RFC 5545), one event per run"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_plan = {
-	.name = "plan",
-	.summary = "the night plan: which target to range, when, in what "
-	    "order",
-	.about = "The sequence of runs (target, start, end) that buys the most "
-	    "science from now to the next local noon: the value of each run "
-	    "is the information its expected normal points add on the phase "
-	    "signals and on the Moon's orientation within the night (README, "
-	    "\"The night plan\"). Runs lie inside windows and outside "
-	    "blackouts, last plan_run_min_s to plan_run_max_s, with "
-	    "plan_switch_s between targets and calibrations as the settings "
-	    "say. A table of 80 columns with station local time and UTC.\n\n"
-	    "A planning aid only: laser-safety, aircraft and satellite "
-	    "avoidance rules of the station decide.",
-	.options = options,
-	.run = run,
-};

@@ -12,6 +12,7 @@
 
 #include "http/api.h"
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "http/log.h"
 #include "store/store.h"
 #include "core/tscale.h"
@@ -23,8 +24,8 @@
 static const char *default_web_dir(void);
 
 /* The defaults that are known only at run time, for --help. */
-static void
-more(FILE *f)
+void
+cmd_serve_more(FILE *f)
 {
 	fprintf(f, "\nDefaults: --listen %s:%d (port 0 picks a free one), "
 	    "--web\n%s, --refresh %.0f. A token has at least %d\n"
@@ -145,8 +146,8 @@ replan(struct api_ctx *ctx, const char *why)
 		    (mono_s() - t0) * 1e3);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_serve(const struct cli_args *a)
 {
 	const char *db_path = cli_text(a, "db", NULL);
 	const char *web_dir = cli_text(a, "web", NULL);
@@ -295,36 +296,3 @@ out:
 		log_info("stopped, database closed");
 	return st;
 }
-
-static const struct cli_option options[] = {
-	{.name = "db", .kind = CLI_DB, .arg = "FILE", .flags = CLI_REQUIRED,
-	    .help = "the station database (see 'moonrange init')"},
-	{.name = "listen", .kind = CLI_TEXT, .arg = "ADDR:PORT",
-	    .help = "numeric address and port; an address other than loopback "
-	    "needs --token-file"},
-	{.name = "web", .kind = CLI_TEXT, .arg = "DIR",
-	    .help = "the page's files"},
-	{.name = "token-file", .kind = CLI_TEXT, .arg = "FILE",
-	    .help = "bearer token (one line) required for POST; without it "
-	    "writes are off"},
-	{.name = "refresh", .kind = CLI_REAL, .arg = "SECONDS", .min = 10,
-	    .max = 86400, .unit = "seconds",
-	    .help = "plan refresh interval, 10..86400"},
-	{.name = "log-level", .kind = CLI_WORD, .arg = "LEVEL",
-	    .words = "debug info warn error",
-	    .help = "debug, info, warn or error (default info)"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_serve = {
-	.name = "serve",
-	.summary = "run the daemon: JSON API and station page over HTTP",
-	.about = "Run the daemon in the foreground: the JSON API under "
-	    "/api/v1/ and the station page, with a plan of the coming days "
-	    "refreshed every --refresh seconds and after each logged attempt. "
-	    "One line per event goes to stderr.  SIGHUP re-reads the site "
-	    "from the database; SIGTERM or SIGINT stop it cleanly.",
-	.options = options,
-	.run = run,
-	.more = more,
-};

@@ -5,11 +5,12 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 
 /* The keys, their defaults and meaning, for --help. */
-static void
-more(FILE *f)
+void
+cmd_setting_more(FILE *f)
 {
 	const struct store_setting_info *k;
 
@@ -40,8 +41,8 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return ERRCODE_OK;
 }
 
-static int
-setting_list(const struct cli_args *a)
+int
+cmd_setting_list(const struct cli_args *a)
 {
 	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }
@@ -55,46 +56,8 @@ set_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return store_setting_set(c->s, a->ops[0], a->ops[1], err, errlen);
 }
 
-static int
-setting_set(const struct cli_args *a)
+int
+cmd_setting_set(const struct cli_args *a)
 {
 	return cli_store_run(a, 0, set_job, NULL);
 }
-
-static const struct cli_option options[] = {
-	CLI_OPT_DB,
-	CLI_OPT_END
-};
-
-static const struct cli_command setting_list_cmd = {
-	.name = "list",
-	.summary = "every setting and its value",
-	.about = "Every setting with its value (the default until set).",
-	.options = options,
-	.run = setting_list,
-};
-
-static const struct cli_command setting_set_cmd = {
-	.name = "set",
-	.summary = "change one setting",
-	.about = "Change one setting; the value is checked per key.",
-	.options = options,
-	.operands = "KEY VALUE",
-	.nmin = 2,
-	.nmax = 2,
-	.run = setting_set,
-	.more = more,
-};
-
-static const struct cli_command *const actions[] = {
-	&setting_list_cmd, &setting_set_cmd, NULL
-};
-
-const struct cli_command cmd_setting = {
-	.name = "setting",
-	.summary = "settings of the planner and the audit",
-	.about = "Station-wide settings of the planner and the coverage "
-	    "audit, kept in the database.",
-	.actions = actions,
-	.more = more,
-};

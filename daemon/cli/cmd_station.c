@@ -4,12 +4,13 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "formats/render_site.h"
 
 /* The keys of the station file, for --help. */
-static void
-more(FILE *f)
+void
+cmd_station_more(FILE *f)
 {
 	size_t n = 0;
 	const struct import_key *k = import_station_keys(&n);
@@ -50,8 +51,8 @@ set_one(struct site_station *st, const char *arg)
 }
 
 /* station show, and station set (mode 1). */
-static int
-station(const struct cli_args *a)
+int
+cmd_station(const struct cli_args *a)
 {
 	int set = a->cmd->mode;
 	struct site_station st;
@@ -89,44 +90,3 @@ out:
 	cli_store_close(&c);
 	return status;
 }
-
-static const struct cli_option options[] = {
-	CLI_OPT_DB,
-	{.name = "json", .kind = CLI_FLAG, .help = "the station as JSON"},
-	CLI_OPT_END
-};
-
-static const struct cli_command station_show_cmd = {
-	.name = "show",
-	.summary = "the stored station",
-	.about = "The station record (one per database).",
-	.options = options,
-	.run = station,
-};
-
-static const struct cli_command station_set_cmd = {
-	.name = "set",
-	.summary = "change keys of the station, all or none",
-	.about = "Change keys of the station file, validated as in "
-	    "station.ini, all or none; prints the station.",
-	.options = options,
-	.operands = "SECTION.KEY=VALUE...",
-	.nmin = 1,
-	.nmax = -1,
-	.run = station,
-	.mode = 1,
-	.more = more,
-};
-
-static const struct cli_command *const actions[] = {
-	&station_show_cmd, &station_set_cmd, NULL
-};
-
-const struct cli_command cmd_station = {
-	.name = "station",
-	.summary = "show or change the stored station",
-	.about = "The station record (one per database): show it, or change "
-	    "keys of the station file, validated as in station.ini.",
-	.actions = actions,
-	.more = more,
-};

@@ -6,6 +6,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "cli/cli_store.h"
 #include "formats/import_util.h"
 #include "formats/render_site.h"
@@ -74,8 +75,8 @@ check_id(const struct cli_args *a)
 	return CLI_EXIT_OK;
 }
 
-static int
-target_add(const struct cli_args *a)
+int
+cmd_target_add(const struct cli_args *a)
 {
 	struct target_edit e;
 	struct site_target t;
@@ -102,8 +103,8 @@ target_add(const struct cli_args *a)
 }
 
 /* target set, and target retire (mode 1). */
-static int
-target_change(const struct cli_args *a)
+int
+cmd_target_change(const struct cli_args *a)
 {
 	int retire = a->cmd->mode;
 	struct target_edit e;
@@ -158,102 +159,8 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return rc;
 }
 
-static int
-target_list(const struct cli_args *a)
+int
+cmd_target_list(const struct cli_args *a)
 {
 	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }
-
-/* --- the table ----------------------------------------------------------- */
-
-#define OPT_NAME(f) {.name = "name", .kind = CLI_TEXT, .arg = "TEXT", \
-	.flags = (f), .help = "the target's name (one line)"}
-#define OPT_LAT(f) {.name = "lat", .kind = CLI_REAL, .arg = "DEG", \
-	.min = -90, .max = 90, .flags = (f), \
-	.help = "selenographic latitude, degrees (-90..90)"}
-#define OPT_LON(f) {.name = "lon", .kind = CLI_REAL, .arg = "DEG", \
-	.min = -180, .max = 180, .flags = (f), \
-	.help = "selenographic east longitude, degrees (-180..180)"}
-#define OPT_REST \
-	{.name = "height", .kind = CLI_REAL, .arg = "M", .min = -20000, \
-	    .max = 20000, .help = "above the 1737.4 km mean radius " \
-	    "(default 0)"}, \
-	{.name = "alias", .kind = CLI_TEXT, .arg = "NAME", \
-	    .help = "the target's name in CRD files (default none)"}, \
-	{.name = "strength", .kind = CLI_REAL, .arg = "X", .min = 1e-6, \
-	    .max = 1000, .help = "relative return strength, over 0 up to " \
-	    "1000 (default 1)"}, \
-	{.name = "dark-only", .kind = CLI_BOOL, .arg = "yes|no", \
-	    .help = "plan only while the target is in lunar darkness"}
-
-static const struct cli_option add_options[] = {
-	CLI_OPT_DB, OPT_NAME(CLI_REQUIRED), OPT_LAT(CLI_REQUIRED),
-	OPT_LON(CLI_REQUIRED), OPT_REST, CLI_OPT_END
-};
-
-static const struct cli_option set_options[] = {
-	CLI_OPT_DB, OPT_NAME(0), OPT_LAT(0), OPT_LON(0), OPT_REST,
-	{.name = "active", .kind = CLI_BOOL, .arg = "yes|no",
-	    .help = "planned (yes) or retired (no)"},
-	CLI_OPT_END
-};
-
-static const struct cli_option retire_options[] = {CLI_OPT_DB, CLI_OPT_END};
-
-static const struct cli_option list_options[] = {
-	CLI_OPT_DB,
-	{.name = "all", .kind = CLI_FLAG, .help = "list retired targets too"},
-	{.name = "json", .kind = CLI_FLAG, .help = "{\"targets\":[...]}"},
-	CLI_OPT_END
-};
-
-static const struct cli_command target_add_cmd = {
-	.name = "add",
-	.summary = "add a target",
-	.about = "Add a target.  ID: 1-32 letters, digits, '_', '-' or '.'.",
-	.options = add_options,
-	CLI_ONE_OPERAND("ID"),
-	.run = target_add,
-};
-
-static const struct cli_command target_set_cmd = {
-	.name = "set",
-	.summary = "change fields of a target",
-	.about = "Change the given fields of a target; the others stay.",
-	.options = set_options,
-	CLI_ONE_OPERAND("ID"),
-	.run = target_change,
-};
-
-static const struct cli_command target_retire_cmd = {
-	.name = "retire",
-	.summary = "stop planning a target (it stays in the log)",
-	.about = "Retire a target: it stays in the log and in coverage audits "
-	    "but is no longer planned ('target set ID --active yes' brings it "
-	    "back).",
-	.options = retire_options,
-	CLI_ONE_OPERAND("ID"),
-	.run = target_change,
-	.mode = 1,
-};
-
-static const struct cli_command target_list_cmd = {
-	.name = "list",
-	.summary = "the targets (--all: retired ones too)",
-	.about = "The active targets, or with --all every target.",
-	.options = list_options,
-	.run = target_list,
-};
-
-static const struct cli_command *const actions[] = {
-	&target_add_cmd, &target_set_cmd, &target_retire_cmd,
-	&target_list_cmd, NULL
-};
-
-const struct cli_command cmd_target = {
-	.name = "target",
-	.summary = "the lunar targets: add, list, set, retire",
-	.about = "Lunar retroreflector targets.  A retired target stays in "
-	    "the log and in coverage audits but is no longer planned.",
-	.actions = actions,
-};

@@ -7,6 +7,7 @@
 #include <erfam.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "core/geom.h"
 #include "core/plan.h"
 #include "core/text.h"
@@ -96,8 +97,8 @@ eclipse_notice(double from, double to, struct mbuf *out)
 	}
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_tonight(const struct cli_args *a)
 {
 	static struct tzone zone;
 	const char *night_tz, *show_tz;
@@ -225,32 +226,3 @@ run(const struct cli_args *a)
 	mbuf_free(&out);
 	return st;
 }
-
-static const struct cli_option options[] = {
-	PLAN_CLI_OPT_DB("the station database"),
-	PLAN_CLI_OPT_STATION("an ad-hoc station (plans the Moon's centre)"),
-	PLAN_CLI_OPT_TZ("IANA zone: the station's with --station; with --db "
-	    "the clock shown (the night stays the station's)"),
-	{.name = "at", .kind = CLI_TIME, .arg = "UTC",
-	    .help = "take this as now (default: the clock)"},
-	PLAN_CLI_OPT_LIMIT("the next N runs (default 6)"),
-	{.name = "json", .kind = CLI_FLAG,
-	    .help = "the plan of the rest of the night as 'plan --json'"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_tonight = {
-	.name = "tonight",
-	.summary = "tonight around the plan: the run now, the next runs",
-	.about = "The night plan from now to the next local noon (the "
-	    "station's IANA time zone): the run now with the time it ends and "
-	    "the target's elevation and azimuth now, the next runs, the "
-	    "night's expected normal points and value, and why; when nothing "
-	    "can be ranged, the limit that prevents it and when the next "
-	    "plannable night starts. Local time and UTC side by side.\n\n"
-	    "A planning aid only: laser-safety, aircraft and satellite "
-	    "avoidance rules of the station decide.",
-	.options = options,
-	.one_of = 1u << 1,
-	.run = run,
-};

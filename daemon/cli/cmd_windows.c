@@ -5,6 +5,7 @@
 #include <string.h>
 
 #include "cli/cli.h"
+#include "cli/cmd_run.h"
 #include "core/plan.h"
 #include "cli/plan_cli.h"
 #include "query/winquery.h"
@@ -15,8 +16,8 @@
 #include "query/qzone.h"
 
 /* The planner's default limits, for --help. */
-static void
-more(FILE *f)
+void
+cmd_windows_more(FILE *f)
 {
 	char text[400];
 
@@ -46,8 +47,8 @@ set_param(void *params, const char *name, const char *value, char *errbuf,
 	return winquery_param_set(params, name, value, errbuf, errlen);
 }
 
-static int
-run(const struct cli_args *a)
+int
+cmd_windows(const struct cli_args *a)
 {
 	const char *tz;
 	double now1, now2;
@@ -83,53 +84,3 @@ run(const struct cli_args *a)
 	    render_windows_json : kind == OUT_CSV ? render_windows_csv :
 	    kind == OUT_ICS ? render_windows_ics : render_windows_text);
 }
-
-static const struct cli_option options[] = {
-	PLAN_CLI_OPT_DB("station, targets, blackouts, log and normal points "
-	    "from a moonrange database"),
-	PLAN_CLI_OPT_STATION("an ad-hoc station (deg, deg east, m): plans "
-	    "the Moon's centre as target \"moon\" with the limits below"),
-	{.name = "from", .kind = CLI_TEXT, .arg = "UTC",
-	    .help = "start, ISO 8601 with Z (default: now)"},
-	{.name = "to", .kind = CLI_TEXT, .arg = "UTC", .group = 2,
-	    .help = "end (default: --days after the start)"},
-	{.name = "days", .kind = CLI_TEXT, .arg = "N", .group = 2,
-	    .help = "span in days (default 3, at most 3660)"},
-	{.name = "target", .kind = CLI_TEXT, .arg = "ID",
-	    .help = "only this target"},
-	PLAN_CLI_OPT_LIMIT("the best N windows (default: all)"),
-	{.name = "min-el", .kind = CLI_TEXT, .arg = "DEG",
-	    .help = "override the minimum target elevation (-5..89)"},
-	{.name = "max-sun-el", .kind = CLI_TEXT, .arg = "DEG",
-	    .help = "override the maximum Sun elevation"},
-	{.name = "min-sun-sep", .kind = CLI_TEXT, .arg = "DEG",
-	    .help = "override the minimum Sun-Moon separation (0..180)"},
-	PLAN_CLI_OPT_TZ("IANA zone for local times (default: the "
-	    "station's)"),
-	{.name = "wide", .kind = CLI_FLAG,
-	    .help = "the table with local dates, 89 columns (default: 80, "
-	    "local hours only)"},
-	{.name = "json", .kind = CLI_FLAG, .group = 3,
-	    .help = "{\"windows\":[...]} (fields in the README)"},
-	{.name = "csv", .kind = CLI_FLAG, .group = 3,
-	    .help = "RFC 4180 table"},
-	{.name = "ics", .kind = CLI_FLAG, .group = 3,
-	    .help = "iCalendar (RFC 5545), one event per window"},
-	CLI_OPT_END
-};
-
-const struct cli_command cmd_windows = {
-	.name = "windows",
-	.summary = "observing windows in a span, ranked by yield and phase "
-	    "coverage",
-	.about = "Every interval in which a target is above the minimum "
-	    "elevation, the Sun is low enough at the station and far enough "
-	    "from the Moon, outside blackouts (and, for dark-only targets, "
-	    "with the reflector in lunar darkness), ranked together by "
-	    "expected returns times the coverage weight of the lunar phase "
-	    "(README, \"Windows and ranking\").",
-	.options = options,
-	.one_of = 1u << 1,
-	.run = run,
-	.more = more,
-};

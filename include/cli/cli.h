@@ -17,13 +17,12 @@
 #define CLI_EXIT_INTERRUPTED 130	/* stopped by SIGINT (128 + 2) */
 
 /*
- * The command table.  Every subcommand is declared once, as a
- * struct cli_command in its own file (daemon/cli/cmd_<name>.c) and one
- * line in include/cli/commands.def; its options, their value kinds and
- * bounds, its operands and its help text are data, from which the parser
- * (cli_args.c), --help, the manual page and shell completion
- * (cli_help.c) are made.  The run function gets the values already
- * parsed and checked.
+ * The command table.  Every subcommand is declared once, as a row of
+ * cli_commands in daemon/cli/cli_table.c; its options, their value kinds
+ * and bounds, its operands and its help text are data, from which the
+ * parser (cli_args.c), --help, the manual page and shell completion
+ * (cli_help.c) are made.  The run function (daemon/cli/cmd_<name>.c,
+ * declared in cli/cmd_run.h) gets the values already parsed and checked.
  */
 
 /* What an option's value is. */
@@ -60,13 +59,6 @@ struct cli_option {
    what in its usage line: CLI_ONE_OPERAND("ID"). */
 #define CLI_ONE_OPERAND(what) .operands = (what), .nmin = 1, .nmax = 1
 
-/* The row that ends an option table. */
-#define CLI_OPT_END {.name = NULL}
-
-/* The row of the commands that work on a database. */
-#define CLI_OPT_DB {.name = "db", .kind = CLI_DB, .arg = "FILE", \
-	.flags = CLI_REQUIRED, .help = "the station database"}
-
 struct cli_args;
 
 struct cli_command {
@@ -79,7 +71,7 @@ struct cli_command {
 	unsigned one_of;	/* bit g: one option of group g is required */
 	int (*run)(const struct cli_args *a);	/* NULL when actions */
 	int mode;	/* a->cmd->mode: which variant of a shared run */
-	const struct cli_command *const *actions;	/* NULL ended */
+	const struct cli_command *actions;	/* ended by a NULL name */
 	void (*more)(FILE *f);	/* help printed after the options, or NULL */
 };
 
@@ -104,8 +96,8 @@ struct cli_args {
 	int nops;
 };
 
-/* The commands, ended by NULL (cli.c, from commands.def). */
-extern const struct cli_command *const cli_commands[];
+/* The commands, ended by a NULL name (cli_table.c). */
+extern const struct cli_command cli_commands[];
 
 /* Dispatch argv (argv[0] the program) to a command; returns exit status. */
 int cli_main(int argc, char **argv);
@@ -137,7 +129,7 @@ int cli_args_parse(const struct cli_command *cmd, const char *path,
 void cli_args_free(struct cli_args *a);
 
 /* The command (or action of parent) named name, else NULL. */
-const struct cli_command *cli_find(const struct cli_command *const *table,
+const struct cli_command *cli_find(const struct cli_command *table,
     const char *name);
 
 /* The word of table nearest to s by edit distance, if near enough to be
@@ -234,10 +226,5 @@ int cli_emit(struct mbuf *b);
 /* The status of a renderer, then its buffer: a failed renderer prints
    its error (nothing on stdout) and gives CLI_EXIT_FAIL. */
 int cli_emit_rendered(enum errcode rc, struct mbuf *b);
-
-/* --- commands (one file each: cmd_<name>.c, listed in commands.def) --- */
-#define CLI_COMMAND(name) extern const struct cli_command cmd_##name;
-#include "cli/commands.def"
-#undef CLI_COMMAND
 
 #endif

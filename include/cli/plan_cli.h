@@ -18,18 +18,6 @@
 int plan_cli_load(const char *db, double lat, double lon, double h,
     struct plan_query *q, struct plan_db *hold);
 
-/* The options windows and tonight share, rows of their tables: --db and
-   --station (group 1, one of them required: one_of = 1u << 1), --tz and
-   --limit (text: winquery_param_set checks it, as for the API). */
-#define PLAN_CLI_OPT_DB(h_) {.name = "db", .kind = CLI_DB, \
-	.arg = "FILE", .group = 1, .help = (h_)}
-#define PLAN_CLI_OPT_STATION(h_) {.name = "station", .kind = CLI_TEXT, \
-	.arg = "LAT,LON,H", .group = 1, .help = (h_)}
-#define PLAN_CLI_OPT_TZ(h_) {.name = "tz", .kind = CLI_ZONE, \
-	.arg = "ZONE", .help = (h_)}
-#define PLAN_CLI_OPT_LIMIT(h_) {.name = "limit", .kind = CLI_TEXT, \
-	.arg = "N", .help = (h_)}
-
 /* What those options gave. */
 struct plan_cli_opts {
 	const char *db;			/* NULL: not given */
