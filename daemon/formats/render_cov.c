@@ -80,11 +80,7 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	    json_real(x->chi2_p) : json_null());
 	bad |= json_object_set_new(m, "chi_square_reliable",
 	    json_boolean(x->chi2_reliable));
-	if (bad) {
-		json_decref(o);
-		return NULL;
-	}
-	return o;
+	return render_json_checked(o, bad);
 }
 
 static json_t *
@@ -135,11 +131,7 @@ jfill(const struct coverage_result *r, const struct coverage_fill *f)
 			    render_json_num(d->score, 6));
 		}
 	}
-	if (bad) {
-		json_decref(o);
-		return NULL;
-	}
-	return o;
+	return render_json_checked(o, bad);
 }
 
 enum errcode
@@ -214,11 +206,7 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	    c->fill != NULL ? jfill(r, c->fill) : json_null());
 	bad |= json_object_set_new(root, "fill_note",
 	    jstr_or_null(c->fill_note));
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 /* --- CSV --- */

@@ -64,11 +64,7 @@ render_eclipses_json(const struct render_eclipse *e, size_t n,
 				    json_boolean(e[i].moon_up[k]));
 		}
 	}
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 enum errcode
@@ -125,16 +121,9 @@ render_eclipses_ics(const struct render_eclipse *e, size_t n,
 		span_of(&e[i], &a, &b);
 		render_ics_time(a, t0, sizeof t0);
 		render_ics_time(b, t1, sizeof t1);
-		render_ics_line(out, "BEGIN:VEVENT");
 		render_ics_time(e[i].greatest_mjd, g, sizeof g);
-		snprintf(line, sizeof line, "UID:eclipse-%s@moonrange", g);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTAMP:%s", g);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTART:%s", t0);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTEND:%s", t1);
-		render_ics_line(out, line);
+		snprintf(line, sizeof line, "eclipse-%s@moonrange", g);
+		render_ics_event_begin(out, line, g, t0, t1);
 		snprintf(line, sizeof line, "%s lunar eclipse",
 		    eclipse_kind_name(e[i].kind));
 		render_ics_prop_text(out, "SUMMARY", line);

@@ -135,11 +135,7 @@ render_ephem_json(const struct render_ephem *e, struct mbuf *out)
 		bad |= set(o, "spread_ps",
 		    render_json_num(e->targets[i].spread_ps, 1));
 	}
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 /* "12.3456" degrees as text with a sign, fixed width. */

@@ -20,6 +20,16 @@ render_json_num(double v, int decimals)
 	return json_real(round(v * s) / s);
 }
 
+json_t *
+render_json_checked(json_t *o, int bad)
+{
+	if (bad) {
+		json_decref(o);
+		return NULL;
+	}
+	return o;
+}
+
 /* json_dump_callback sink: append to the mbuf, fail once it has failed. */
 static int
 mbuf_sink(const char *buf, size_t size, void *data)

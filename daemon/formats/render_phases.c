@@ -43,11 +43,7 @@ render_phases_json(const struct render_phases *p, struct mbuf *out)
 		bad |= set(o, "kind", json_string(geom_phase_name(p->ev[i].kind)));
 		bad |= set(o, "utc", json_string(buf));
 	}
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 enum errcode

@@ -61,19 +61,47 @@ render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph)
 	    eclipse_shadow_name(ph->shadow));
 }
 
+int
+render_plan_reasons_json(json_t *o, const struct plan_physics *ph,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n)
+{
+	json_t *r = json_array();
+	int bad = render_plan_physics_json(o, ph);
+
+	bad |= set(o, "reasons", r);
+	for (size_t i = 0; i < n && r != NULL; i++)
+		bad |= json_array_append_new(r, json_string(reasons[i]));
+	return bad;
+}
+
+enum errcode
+render_plan_reasons_csv(struct mbuf *out,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n)
+{
+	struct mbuf rs;
+
+	mbuf_init(&rs);
+	for (size_t k = 0; k < n; k++)
+		mbuf_printf(&rs, "%s%s", k ? "; " : "", reasons[k]);
+	if (mbuf_status(&rs) != ERRCODE_OK) {
+		mbuf_free(&rs);
+		return ERRCODE_NOMEM;
+	}
+	render_site_csv_field(out, rs.data != NULL ? rs.data : "");
+	mbuf_free(&rs);
+	return ERRCODE_OK;
+}
+
 static json_t *
 window_json(const struct plan_window *w)
 {
 	const struct score_window *f = &w->f;
-	json_t *o = json_object(), *r = json_array();
-	int bad = o == NULL || r == NULL;
+	json_t *o = json_object();
+	int bad;
 
-	if (bad) {
-		json_decref(o);
-		json_decref(r);
+	if (o == NULL)
 		return NULL;
-	}
-	bad |= set(o, "rank", json_integer((json_int_t)f->rank));
+	bad = set(o, "rank", json_integer((json_int_t)f->rank));
 	bad |= set(o, "target", json_string(w->target));
 	bad |= set(o, "start", render_json_mjd(w->start_mjd, 0));
 	bad |= set(o, "end", render_json_mjd(w->end_mjd, 0));
@@ -92,15 +120,8 @@ window_json(const struct plan_window *w)
 	bad |= set(o, "expected_returns",
 	    render_json_num(f->expected_returns, 6));
 	bad |= set(o, "score", render_json_num(f->score, 6));
-	bad |= render_plan_physics_json(o, &w->phys);
-	bad |= set(o, "reasons", r);
-	for (size_t i = 0; i < w->nreasons; i++)
-		bad |= json_array_append_new(r, json_string(w->reasons[i]));
-	if (bad) {
-		json_decref(o);
-		return NULL;
-	}
-	return o;
+	bad |= render_plan_reasons_json(o, &w->phys, w->reasons, w->nreasons);
+	return render_json_checked(o, bad);
 }
 
 enum errcode
@@ -200,11 +221,7 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 
 		bad |= w == NULL || json_array_append_new(arr, w);
 	}
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 /* --- CSV (RFC 4180) --- */
@@ -235,7 +252,6 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 		const struct plan_window *w = &p->r->w[i];
 		const struct score_window *f = &w->f;
 		char a[40], b[40], m[40], line[512];
-		struct mbuf rs;
 
 		render_utc_text(w->start_mjd, 0, a, sizeof a);
 		render_utc_text(w->end_mjd, 0, b, sizeof b);
@@ -253,18 +269,10 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 		mbuf_puts(out, line);
 		mbuf_puts(out, ",");
 		render_plan_physics_csv(out, &w->phys);
-		mbuf_init(&rs);
-		for (size_t k = 0; k < w->nreasons; k++) {
-			if (k > 0)
-				mbuf_puts(&rs, "; ");
-			mbuf_puts(&rs, w->reasons[k]);
-		}
-		if (mbuf_status(&rs) != ERRCODE_OK) {
-			mbuf_free(&rs);
+		if (render_plan_reasons_csv(out, w->reasons, w->nreasons) !=
+		    ERRCODE_OK)
 			return ERRCODE_NOMEM;
-		}
-		csv_field(out, rs.data != NULL ? rs.data : "", 1);
-		mbuf_free(&rs);
+		mbuf_puts(out, "\r\n");
 	}
 	return mbuf_status(out);
 }
@@ -359,18 +367,56 @@ render_ics_prop_text(struct mbuf *out, const char *name, const char *value)
 	mbuf_free(&t);
 }
 
+void
+render_ics_calendar_begin(struct mbuf *out, const char *prodid)
+{
+	render_ics_line(out, "BEGIN:VCALENDAR");
+	render_ics_line(out, "VERSION:2.0");
+	render_ics_line(out, prodid);
+	render_ics_line(out, "CALSCALE:GREGORIAN");
+	render_ics_line(out, "METHOD:PUBLISH");
+}
+
+void
+render_ics_event_begin(struct mbuf *out, const char *uid, const char *stamp,
+    const char *start, const char *end)
+{
+	char line[256];
+
+	render_ics_line(out, "BEGIN:VEVENT");
+	snprintf(line, sizeof line, "UID:%s", uid);
+	render_ics_line(out, line);
+	snprintf(line, sizeof line, "DTSTAMP:%s", stamp);
+	render_ics_line(out, line);
+	snprintf(line, sizeof line, "DTSTART:%s", start);
+	render_ics_line(out, line);
+	snprintf(line, sizeof line, "DTEND:%s", end);
+	render_ics_line(out, line);
+}
+
+void
+render_ics_reasons_desc(struct mbuf *out, struct mbuf *d,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n)
+{
+	for (size_t k = 0; k < n; k++)
+		mbuf_printf(d, "- %s\n", reasons[k]);
+	mbuf_puts(d, "Planning aid only: follow the station's laser-"
+	    "safety, aircraft and satellite avoidance rules.");
+	if (mbuf_status(d) != ERRCODE_OK || d->data == NULL)
+		out->failed = 1;
+	else
+		render_ics_prop_text(out, "DESCRIPTION", d->data);
+	mbuf_free(d);
+}
+
 enum errcode
 render_windows_ics(const struct render_plan *p, struct mbuf *out)
 {
 	char now[24], line[256];
 
 	render_ics_time(p->now_mjd, now, sizeof now);
-	render_ics_line(out, "BEGIN:VCALENDAR");
-	render_ics_line(out, "VERSION:2.0");
-	render_ics_line(out, "PRODID:-//moonrange//observing windows "
+	render_ics_calendar_begin(out, "PRODID:-//moonrange//observing windows "
 	    MOONRANGE_VERSION "//EN");
-	render_ics_line(out, "CALSCALE:GREGORIAN");
-	render_ics_line(out, "METHOD:PUBLISH");
 	for (size_t i = 0; i < p->r->n; i++) {
 		const struct plan_window *w = &p->r->w[i];
 		const struct score_window *f = &w->f;
@@ -380,15 +426,8 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 		render_ics_time(w->start_mjd, a, sizeof a);
 		render_ics_time(w->end_mjd, b, sizeof b);
 		render_utc_text(w->max_el_mjd, 0, m, sizeof m);
-		render_ics_line(out, "BEGIN:VEVENT");
-		snprintf(line, sizeof line, "UID:%s-%s@moonrange", w->target, a);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTAMP:%s", now);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTART:%s", a);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTEND:%s", b);
-		render_ics_line(out, line);
+		snprintf(line, sizeof line, "%s-%s@moonrange", w->target, a);
+		render_ics_event_begin(out, line, now, a, b);
 		snprintf(line, sizeof line, "Range %s (rank %zu, score %.4g)",
 		    w->target, f->rank, f->score);
 		render_ics_prop_text(out, "SUMMARY", line);
@@ -402,15 +441,7 @@ render_windows_ics(const struct render_plan *p, struct mbuf *out)
 		mbuf_printf(&d, "synodic angle %.2f deg; phase bin %d with %ld "
 		    "normal points\n", f->synodic * R2D, f->phase_bin,
 		    f->bin_count);
-		for (size_t k = 0; k < w->nreasons; k++)
-			mbuf_printf(&d, "- %s\n", w->reasons[k]);
-		mbuf_puts(&d, "Planning aid only: follow the station's laser-"
-		    "safety, aircraft and satellite avoidance rules.");
-		if (mbuf_status(&d) != ERRCODE_OK || d.data == NULL)
-			out->failed = 1;
-		else
-			render_ics_prop_text(out, "DESCRIPTION", d.data);
-		mbuf_free(&d);
+		render_ics_reasons_desc(out, &d, w->reasons, w->nreasons);
 		render_ics_line(out, "TRANSP:TRANSPARENT");
 		render_ics_line(out, "END:VEVENT");
 	}

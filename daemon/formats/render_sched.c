@@ -32,15 +32,12 @@ set(json_t *o, const char *k, json_t *v)
 static json_t *
 run_json(const struct night_run *r)
 {
-	json_t *o = json_object(), *a = json_array();
-	int bad = o == NULL || a == NULL;
+	json_t *o = json_object();
+	int bad;
 
-	if (bad) {
-		json_decref(o);
-		json_decref(a);
+	if (o == NULL)
 		return NULL;
-	}
-	bad |= set(o, "target", json_string(r->target));
+	bad = set(o, "target", json_string(r->target));
 	bad |= set(o, "start", render_json_mjd(r->start_mjd, 0));
 	bad |= set(o, "end", render_json_mjd(r->end_mjd, 0));
 	bad |= set(o, "calibration", json_boolean(r->calibration));
@@ -56,15 +53,8 @@ run_json(const struct night_run *r)
 	bad |= set(o, "el_end_deg", render_json_num(r->el_end_deg, 2));
 	bad |= set(o, "el_max_deg", render_json_num(r->el_max_deg, 2));
 	bad |= set(o, "synodic_angle_deg", render_json_num(r->synodic_deg, 2));
-	bad |= render_plan_physics_json(o, &r->phys);
-	bad |= set(o, "reasons", a);
-	for (size_t i = 0; i < r->nreasons; i++)
-		bad |= json_array_append_new(a, json_string(r->reasons[i]));
-	if (bad) {
-		json_decref(o);
-		return NULL;
-	}
-	return o;
+	bad |= render_plan_reasons_json(o, &r->phys, r->reasons, r->nreasons);
+	return render_json_checked(o, bad);
 }
 
 enum errcode
@@ -125,11 +115,7 @@ render_sched_json(const struct render_sched *p, struct mbuf *out)
 
 		bad |= x == NULL || json_array_append_new(arr, x);
 	}
-	if (bad) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, bad), out);
 }
 
 /* --- CSV --- */
@@ -151,7 +137,6 @@ render_sched_csv(const struct render_sched *p, struct mbuf *out)
 	for (size_t i = 0; i < p->r->nruns; i++) {
 		const struct night_run *r = &p->r->runs[i];
 		char a[40], b[40];
-		struct mbuf rs;
 
 		iso(r->start_mjd, a, sizeof a);
 		iso(r->end_mjd, b, sizeof b);
@@ -165,16 +150,10 @@ render_sched_csv(const struct render_sched *p, struct mbuf *out)
 			mbuf_printf(out, "%.2f,%.2f,", r->el_start_deg,
 			    r->el_end_deg);
 		render_plan_physics_csv(out, &r->phys);
-		mbuf_init(&rs);
-		for (size_t k = 0; k < r->nreasons; k++)
-			mbuf_printf(&rs, "%s%s", k ? "; " : "", r->reasons[k]);
-		if (mbuf_status(&rs) != ERRCODE_OK) {
-			mbuf_free(&rs);
+		if (render_plan_reasons_csv(out, r->reasons, r->nreasons) !=
+		    ERRCODE_OK)
 			return ERRCODE_NOMEM;
-		}
-		render_site_csv_field(out, rs.data != NULL ? rs.data : "");
 		mbuf_puts(out, "\r\n");
-		mbuf_free(&rs);
 	}
 	return mbuf_status(out);
 }
@@ -187,12 +166,8 @@ render_sched_ics(const struct render_sched *p, struct mbuf *out)
 	char now[24], line[256];
 
 	render_ics_time(p->now_mjd, now, sizeof now);
-	render_ics_line(out, "BEGIN:VCALENDAR");
-	render_ics_line(out, "VERSION:2.0");
-	render_ics_line(out, "PRODID:-//moonrange//night plan "
+	render_ics_calendar_begin(out, "PRODID:-//moonrange//night plan "
 	    MOONRANGE_VERSION "//EN");
-	render_ics_line(out, "CALSCALE:GREGORIAN");
-	render_ics_line(out, "METHOD:PUBLISH");
 	for (size_t i = 0; i < p->r->nruns; i++) {
 		const struct night_run *r = &p->r->runs[i];
 		char a[24], b[24];
@@ -200,16 +175,9 @@ render_sched_ics(const struct render_sched *p, struct mbuf *out)
 
 		render_ics_time(r->start_mjd, a, sizeof a);
 		render_ics_time(r->end_mjd, b, sizeof b);
-		render_ics_line(out, "BEGIN:VEVENT");
-		snprintf(line, sizeof line, "UID:run-%s-%s@moonrange",
-		    r->target, a);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTAMP:%s", now);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTSTART:%s", a);
-		render_ics_line(out, line);
-		snprintf(line, sizeof line, "DTEND:%s", b);
-		render_ics_line(out, line);
+		snprintf(line, sizeof line, "run-%s-%s@moonrange", r->target,
+		    a);
+		render_ics_event_begin(out, line, now, a, b);
 		if (r->calibration)
 			snprintf(line, sizeof line, "Calibration run");
 		else
@@ -218,15 +186,7 @@ render_sched_ics(const struct render_sched *p, struct mbuf *out)
 			    r->expected_nps);
 		render_ics_prop_text(out, "SUMMARY", line);
 		mbuf_init(&d);
-		for (size_t k = 0; k < r->nreasons; k++)
-			mbuf_printf(&d, "- %s\n", r->reasons[k]);
-		mbuf_puts(&d, "Planning aid only: follow the station's laser-"
-		    "safety, aircraft and satellite avoidance rules.");
-		if (mbuf_status(&d) != ERRCODE_OK || d.data == NULL)
-			out->failed = 1;
-		else
-			render_ics_prop_text(out, "DESCRIPTION", d.data);
-		mbuf_free(&d);
+		render_ics_reasons_desc(out, &d, r->reasons, r->nreasons);
 		render_ics_line(out, "TRANSP:OPAQUE");
 		render_ics_line(out, "END:VEVENT");
 	}

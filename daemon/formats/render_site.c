@@ -25,11 +25,7 @@
 static enum errcode
 finish(json_t *root, int failed, struct mbuf *out)
 {
-	if (failed) {
-		json_decref(root);
-		return ERRCODE_NOMEM;
-	}
-	return render_json_dump(root, out);
+	return render_json_dump(render_json_checked(root, failed), out);
 }
 
 /* {"key": [items]}; *arr receives the (borrowed) array. */

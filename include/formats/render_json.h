@@ -21,6 +21,11 @@ struct json_t *render_json_utc(double utc1, double utc2, int ndp);
 /* The same of a UTC MJD. */
 struct json_t *render_json_mjd(double mjd, int ndp);
 
+/* o as built, or NULL (o's reference dropped) when bad says a member
+   could not be set: the end of every JSON builder that collects its
+   failures in one flag.  NULL stays NULL. */
+struct json_t *render_json_checked(struct json_t *o, int bad);
+
 /*
  * Dump root (consumed: its reference is dropped) with a newline into
  * out.  Serialises straight into the mbuf, not with json_dumps: with
@@ -28,7 +33,8 @@ struct json_t *render_json_mjd(double mjd, int ndp);
  * key missing when an allocation inside it failed (test_render's fault
  * loop), i.e. a wrong document reported as success.  The mbuf's failure
  * flag is sticky, so any failed append is seen at the end; a partial
- * document is dropped.  ERRCODE_OK or ERRCODE_NOMEM.
+ * document is dropped.  A NULL root (render_json_checked's failure) is
+ * ERRCODE_NOMEM.  ERRCODE_OK or ERRCODE_NOMEM.
  */
 enum errcode render_json_dump(struct json_t *root, struct mbuf *out);
 

@@ -37,6 +37,15 @@ int render_plan_physics_json(struct json_t *o, const struct plan_physics *ph);
 /* The same as five CSV fields, each followed by a comma: tilt_deg,
    spread_ps, eclipse_kind, eclipse_greatest, eclipse_shadow. */
 void render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph);
+/* A window's or run's physics (render_plan_physics_json) and then
+   "reasons", an array of the n texts, set on o: 0, or non-zero when a
+   member could not be set. */
+int render_plan_reasons_json(struct json_t *o, const struct plan_physics *ph,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n);
+/* The n reasons joined by "; " as one CSV field (RFC 4180 quoting), with
+   nothing after it: ERRCODE_OK or ERRCODE_NOMEM. */
+enum errcode render_plan_reasons_csv(struct mbuf *out,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n);
 
 enum errcode render_windows_json(const struct render_plan *p,
     struct mbuf *out);
@@ -62,6 +71,19 @@ void render_ics_time(double mjd, char *buf, size_t len);
 void render_ics_line(struct mbuf *b, const char *s);
 void render_ics_prop_text(struct mbuf *out, const char *name,
     const char *value);
+/* The calendar's opening lines: BEGIN:VCALENDAR, VERSION, the given
+   PRODID line, CALSCALE:GREGORIAN and METHOD:PUBLISH. */
+void render_ics_calendar_begin(struct mbuf *out, const char *prodid);
+/* An event's opening lines: BEGIN:VEVENT, then UID, DTSTAMP, DTSTART and
+   DTEND with the given values (basic-format UTC times; the uid without
+   "UID:"). */
+void render_ics_event_begin(struct mbuf *out, const char *uid,
+    const char *stamp, const char *start, const char *end);
+/* A window's or run's DESCRIPTION: what d holds, then each reason as a
+   "- reason" line and the planning-aid note.  d (the caller's, begun with
+   mbuf_init) is freed; out is marked failed when d failed. */
+void render_ics_reasons_desc(struct mbuf *out, struct mbuf *d,
+    const char (*reasons)[PLAN_REASON_LEN], size_t n);
 
 /* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD from the
    zone table tz (UTC when tz is NULL or does not cover it); day >= 8,
