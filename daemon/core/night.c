@@ -3,7 +3,6 @@
    the yield model and the value model to the scheduler's runs (pure
    core). */
 #include <math.h>
-#include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -91,20 +90,9 @@ night_result_free(struct night_result *r)
 	r->nruns = r->ntargets = r->nsamples = 0;
 }
 
-static void
-add_reason(struct night_run *r, const char *fmt, ...) MEM_PRINTFLIKE(2, 3);
-
-static void
-add_reason(struct night_run *r, const char *fmt, ...)
-{
-	va_list ap;
-
-	if (r->nreasons >= PLAN_MAX_REASONS)
-		return;
-	va_start(ap, fmt);
-	vsnprintf(r->reasons[r->nreasons++], PLAN_REASON_LEN, fmt, ap);
-	va_end(ap);
-}
+/* A reason of run r. */
+#define add_reason(r, ...) \
+	plan_reason_add((r)->reasons, &(r)->nreasons, __VA_ARGS__)
 
 /* Working arrays, all mem_calloc'd; freed by work_free. */
 struct work {

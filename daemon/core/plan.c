@@ -90,20 +90,22 @@ offset_of(const struct window_track *tr, double mjd, double *t)
 	return ERRCODE_OK;
 }
 
-static void
-add_reason(struct plan_window *w, const char *fmt, ...) MEM_PRINTFLIKE(2, 3);
-
-static void
-add_reason(struct plan_window *w, const char *fmt, ...)
+void
+plan_reason_add(char (*reasons)[PLAN_REASON_LEN], size_t *n,
+    const char *fmt, ...)
 {
 	va_list ap;
 
-	if (w->nreasons >= PLAN_MAX_REASONS)
+	if (*n >= PLAN_MAX_REASONS)
 		return;
 	va_start(ap, fmt);
-	vsnprintf(w->reasons[w->nreasons++], PLAN_REASON_LEN, fmt, ap);
+	vsnprintf(reasons[(*n)++], PLAN_REASON_LEN, fmt, ap);
 	va_end(ap);
 }
+
+/* A reason of window w. */
+#define add_reason(w, ...) \
+	plan_reason_add((w)->reasons, &(w)->nreasons, __VA_ARGS__)
 
 /* "HH:MM" (with_date: "YYYY-MM-DD HH:MM") of a UTC MJD; "?" if none.
    buf holds 24 bytes. */

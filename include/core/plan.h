@@ -9,6 +9,7 @@
 #include "core/eclipse.h"
 #include "core/errcode.h"
 #include "core/geom.h"
+#include "core/mem.h"
 #include "core/score.h"
 #include "core/site.h"
 
@@ -86,6 +87,12 @@ struct plan_window {
 	size_t nreasons;
 	char reasons[PLAN_MAX_REASONS][PLAN_REASON_LEN];
 };
+
+/* Append a reason (printf-style, cut at PLAN_REASON_LEN) to the table
+   reasons of *n, a window's or a night run's; nothing once it holds
+   PLAN_MAX_REASONS. */
+void plan_reason_add(char (*reasons)[PLAN_REASON_LEN], size_t *n,
+    const char *fmt, ...) MEM_PRINTFLIKE(3, 4);
 
 struct plan_target_model {
 	char id[SITE_ID_LEN];
