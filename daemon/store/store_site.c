@@ -175,9 +175,10 @@ target_text_check(const struct site_target *t, char *errbuf, size_t errlen)
 	return ERRCODE_OK;
 }
 
-enum errcode
-store_target_add(struct store *s, const struct site_target *t, char *errbuf,
-    size_t errlen)
+/* Check and write t with statement id (ST_TARGET_ADD, ST_TARGET_UPDATE). */
+static enum errcode
+target_write(struct store *s, enum store_stmt_id id,
+    const struct site_target *t, char *errbuf, size_t errlen)
 {
 	sqlite3_stmt *st = NULL;
 	char what[SITE_ID_LEN + 16];
@@ -185,7 +186,7 @@ store_target_add(struct store *s, const struct site_target *t, char *errbuf,
 
 	if ((e = target_text_check(t, errbuf, errlen)))
 		return e;
-	if ((e = store_stmt_get(s, ST_TARGET_ADD, &st, errbuf, errlen)))
+	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
 		return e;
 	snprintf(what, sizeof what, "target '%s'", t->id);
 	bind_target(st, t);
@@ -193,20 +194,19 @@ store_target_add(struct store *s, const struct site_target *t, char *errbuf,
 }
 
 enum errcode
+store_target_add(struct store *s, const struct site_target *t, char *errbuf,
+    size_t errlen)
+{
+	return target_write(s, ST_TARGET_ADD, t, errbuf, errlen);
+}
+
+enum errcode
 store_target_update(struct store *s, const struct site_target *t,
     char *errbuf, size_t errlen)
 {
-	sqlite3_stmt *st = NULL;
-	char what[SITE_ID_LEN + 16];
 	enum errcode e;
 
-	if ((e = target_text_check(t, errbuf, errlen)))
-		return e;
-	if ((e = store_stmt_get(s, ST_TARGET_UPDATE, &st, errbuf, errlen)))
-		return e;
-	snprintf(what, sizeof what, "target '%s'", t->id);
-	bind_target(st, t);
-	if ((e = store_step_done(s, st, what, errbuf, errlen)))
+	if ((e = target_write(s, ST_TARGET_UPDATE, t, errbuf, errlen)))
 		return e;
 	if (sqlite3_changes(s->db) == 0) {
 		return text_err(ERRCODE_NOT_FOUND, errbuf, errlen,
