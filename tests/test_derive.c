@@ -13,24 +13,8 @@
 #include <erfam.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/derive.h"
-
-/* An invented station (the built-in demo ridge of cmd_ephem.c). */
-static void
-station(struct site_station *st)
-{
-	memset(st, 0, sizeof *st);
-	strcpy(st->name, "Test ridge (invented)");
-	strcpy(st->code, "TEST");
-	st->lat_deg = 38.9712;
-	st->lon_deg = -114.3098;
-	st->height_m = 2950.0;
-	strcpy(st->time_zone, "UTC");
-	st->pressure_hpa = 700.0;
-	st->temperature_c = 5.0;
-	st->humidity = 0.3;
-	st->wavelength_nm = 532.0;
-}
 
 /* An invented target near the centre of the near side. */
 static void
@@ -57,7 +41,7 @@ test_derive_synodic_matches_libnova(void **state)
 	int above = 0;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t, 0.0, 0.0);
 	/* 40 instants, 17.3 days apart from 2027-01-01 (MJD 61406): all
 	   phases, both halves of the sky. */
@@ -111,7 +95,7 @@ test_derive_elevation_matches_astropy(void **state)
 	struct derive_angles d;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t, 0.0, 0.0);
 	for (size_t i = 0; i < sizeof astropy_moon_el /
 	    sizeof astropy_moon_el[0]; i++) {
@@ -135,7 +119,7 @@ test_derive_sun_at_target_follows_phase(void **state)
 	size_t n = 0;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t, 0.0, 0.0);
 	/* Phases of 2027 January (TT JD 2461406.5 .. +30). */
 	assert_int_equal(geom_phases_find(2461406.5, 0.0, 2461406.5, 30.0, ev,
@@ -197,7 +181,7 @@ test_derive_mean_elongation_is_meeus_d(void **state)
 	    T * T * T / 545868.0 - T * T * T * T / 113065000.0;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t, 10.0, -20.0);
 	assert_int_equal(derive_at(&st, &t, NULL, mjd, &d), ERRCODE_OK);
 	D = fmod(D, 360.0);
@@ -220,7 +204,7 @@ test_derive_cached_matches_direct(void **state)
 	unsigned long long r = 12345;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t[0], 0.7, 23.5);
 	target(&t[1], -3.6, -17.5);
 	target(&t[2], 26.1, 3.6);
@@ -280,13 +264,13 @@ test_derive_rejects_bad_input(void **state)
 	struct derive_angles d;
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	target(&t, 0.0, 0.0);
 	assert_int_equal(derive_at(&st, &t, NULL, NAN, &d), ERRCODE_BAD_TIME);
 	st.lat_deg = 91.0;
 	assert_int_equal(derive_at(&st, &t, NULL, 61406.0, &d),
 	    ERRCODE_BAD_ARG);
-	station(&st);
+	fixture_station(&st);
 	target(&t, 95.0, 0.0);
 	assert_int_equal(derive_at(&st, &t, NULL, 61406.0, &d),
 	    ERRCODE_BAD_ARG);

@@ -9,6 +9,7 @@
 
 #include "rng.h"
 #include "check.h"
+#include "fixture.h"
 #include "sample_targets.h"
 #include "core/mem.h"
 #include "core/night.h"
@@ -31,15 +32,6 @@ struct world {
 	struct site_attempt att[NATT];
 	struct site_blackout bo[2];
 };
-
-static double
-mjd_of(const char *iso)
-{
-	double u1, u2;
-
-	assert_int_equal(tscale_parse_utc(iso, &u1, &u2, NULL, 0), ERRCODE_OK);
-	return (u1 - 2400000.5) + u2;
-}
 
 /* The sample station (sample-site/station.ini). */
 static void
@@ -95,7 +87,7 @@ random_world(struct world *w, double *from)
 	w->q.station.min_el_deg = 15.0 + urand() * 15.0;
 	add_targets(w, nt);
 	/* a night: 14 h from a random instant of 2025-2030 */
-	*from = mjd_of("2025-01-01T00:00:00Z") + floor(urand() * 2000.0) +
+	*from = fixture_mjd("2025-01-01T00:00:00Z") + floor(urand() * 2000.0) +
 	    urand();
 	for (size_t i = 0; i < na; i++) {
 		struct site_attempt *a = &w->att[i];
@@ -251,8 +243,8 @@ test_night_sample_long_night(void **state)
 	sample_station(&w.q);
 	add_targets(&w, 5);
 	w.tg[4].dark_only = 1;		/* TERN, as in targets.csv */
-	w.q.from_mjd = mjd_of("2027-03-20T00:00:00Z");
-	w.q.to_mjd = mjd_of("2027-03-20T14:00:00Z");
+	w.q.from_mjd = fixture_mjd("2027-03-20T00:00:00Z");
+	w.q.to_mjd = fixture_mjd("2027-03-20T14:00:00Z");
 	night_settings_default(&s);
 	assert_int_equal(night_plan(&w.q, &s, SCHED_BEST, &r, NULL, 0),
 	    ERRCODE_OK);
@@ -289,7 +281,7 @@ test_night_new_moon_says_why(void **state)
 	struct night_result r;
 	struct geom_phase_event ev[8];
 	size_t n = 0;
-	double from = mjd_of("2027-03-01T00:00:00Z");
+	double from = fixture_mjd("2027-03-01T00:00:00Z");
 	double new_moon = NAN;
 
 	(void)state;

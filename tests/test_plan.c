@@ -43,15 +43,6 @@ struct site {
 	struct site_blackout bo[1];
 };
 
-static double
-mjd_of(const char *iso)
-{
-	double u1, u2;
-
-	assert_int_equal(tscale_parse_utc(iso, &u1, &u2, NULL, 0), ERRCODE_OK);
-	return (u1 - MJD0) + u2;
-}
-
 static void
 site_make(struct site *s)
 {
@@ -64,7 +55,7 @@ site_make(struct site *s)
 		{"LARK", -21.75, 14.5, 0.6, 0},		/* invented */
 		{"OWL", 3.1, 31.9, 0.3, 1},		/* invented */
 	};
-	double t0 = mjd_of("2026-09-01T03:00:00Z");
+	double t0 = fixture_mjd("2026-09-01T03:00:00Z");
 
 	memset(s, 0, sizeof *s);
 	snprintf(s->st.name, sizeof s->st.name, "Gravel Flat (invented)");
@@ -123,8 +114,8 @@ site_make(struct site *s)
 		p->target_el_deg = 40;
 		p->sun_el_target_deg = -5;
 	}
-	s->bo[0].start_mjd = mjd_of("2027-03-20T08:00:00Z");
-	s->bo[0].end_mjd = mjd_of("2027-03-20T08:30:00Z");
+	s->bo[0].start_mjd = fixture_mjd("2027-03-20T08:00:00Z");
+	s->bo[0].end_mjd = fixture_mjd("2027-03-20T08:30:00Z");
 	snprintf(s->bo[0].reason, sizeof s->bo[0].reason, "maintenance");
 }
 
@@ -142,8 +133,8 @@ query_of(const struct site *s, struct plan_query *q, const char *from,
 	q->nnps = NNP;
 	q->blackouts = s->bo;
 	q->nblackouts = 1;
-	q->from_mjd = mjd_of(from);
-	q->to_mjd = mjd_of(to);
+	q->from_mjd = fixture_mjd(from);
+	q->to_mjd = fixture_mjd(to);
 }
 
 /* --- factors and an independent integral --- */
@@ -306,7 +297,7 @@ render_all(const struct plan_result *r, struct mbuf *json, struct mbuf *csv,
 	assert_int_equal(qzone_load("America/Denver", r->from_mjd,
 	    r->to_mjd, &denver), ERRCODE_OK);
 	rp.time_zone = &denver;
-	rp.now_mjd = mjd_of("2027-03-18T04:00:00Z");
+	rp.now_mjd = fixture_mjd("2027-03-18T04:00:00Z");
 	rp.now_synodic_deg = 150.0;
 	assert_int_equal(render_windows_json(&rp, json), ERRCODE_OK);
 	assert_int_equal(render_windows_csv(&rp, csv), ERRCODE_OK);
@@ -491,7 +482,7 @@ test_plan_db_and_cli_same_bytes(void **state)
 	assert_int_equal(store_blackout_add(st, &s.bo[0], err, sizeof err),
 	    ERRCODE_OK);
 	for (int d = 0; d < 4; d++) {	/* an invented EOP table */
-		struct site_eop_row row = {mjd_of("2027-03-15T00:00:00Z") + d,
+		struct site_eop_row row = {fixture_mjd("2027-03-15T00:00:00Z") + d,
 		    0.25, 0.1, 0.3};
 
 		assert_int_equal(store_eop_put(st, &row, err, sizeof err),
@@ -506,8 +497,8 @@ test_plan_db_and_cli_same_bytes(void **state)
 	assert_int_equal(hold.ntargets, NT);
 	assert_int_equal(hold.nattempts, NA);
 	assert_int_equal(hold.nnps, NNP);
-	q.from_mjd = mjd_of("2027-03-16T00:00:00Z");
-	q.to_mjd = mjd_of("2027-03-18T00:00:00Z");
+	q.from_mjd = fixture_mjd("2027-03-16T00:00:00Z");
+	q.to_mjd = fixture_mjd("2027-03-18T00:00:00Z");
 	assert_int_equal(plan_run(&q, &r, err, sizeof err), ERRCODE_OK);
 	/* DUT1 from the table at the span's middle (constant rows). */
 	assert_string_equal(r.dut1_source, "table");

@@ -11,6 +11,7 @@
 #include <jansson.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/text.h"
 #include "formats/render_json.h"
 #include "query/planquery.h"
@@ -71,15 +72,6 @@ plan_json(struct store *db, const char *const *kv, char *text, size_t len)
 	return j;
 }
 
-static double
-mjd_of(const char *iso)
-{
-	double u1, u2;
-
-	assert_int_equal(tscale_parse_utc(iso, &u1, &u2, NULL, 0), ERRCODE_OK);
-	return (u1 - TEXT_MJD0) + u2;
-}
-
 /* The constraints, read back from the JSON (default settings). */
 static size_t
 check_runs(json_t *root)
@@ -95,9 +87,9 @@ check_runs(json_t *root)
 
 	json_array_foreach(runs, i, r) {
 		const char *t = json_string_value(json_object_get(r, "target"));
-		double a = mjd_of(json_string_value(json_object_get(r,
+		double a = fixture_mjd(json_string_value(json_object_get(r,
 		    "start")));
-		double b = mjd_of(json_string_value(json_object_get(r, "end")));
+		double b = fixture_mjd(json_string_value(json_object_get(r, "end")));
 		double len = (b - a) * 86400.0;
 		size_t k;
 
@@ -190,9 +182,9 @@ test_planquery_default_span_and_params(void **state)
 	/* noon is found across a change of the clock (2027-03-14 02:00 PST
 	   -> PDT): from 2027-03-13T20:00Z (12:00 PST) the next noon is
 	   12:00 PDT on the 14th, 19:00Z (tzdata) */
-	assert_int_equal(planquery_noon_after(mjd_of("2027-03-13T20:00:00Z"),
+	assert_int_equal(planquery_noon_after(fixture_mjd("2027-03-13T20:00:00Z"),
 	    "America/Los_Angeles", &to), ERRCODE_OK);
-	check_near(to, mjd_of("2027-03-14T19:00:00Z"), 1e-6, "d",
+	check_near(to, fixture_mjd("2027-03-14T19:00:00Z"), 1e-6, "d",
 	    "noon after DST");
 	planquery_params_init(&p);
 	assert_int_equal(planquery_param_set(&p, "method", "fast", err,

@@ -22,35 +22,6 @@ db_path(char *buf, size_t len)
 	snprintf(buf, len, "%s/t%d.db", fixture_dir, ++fileno_seq);
 }
 
-/* The invented sample station of these tests. */
-static void
-station(struct site_station *st)
-{
-	memset(st, 0, sizeof *st);
-	strcpy(st->name, "Test Ridge Station (invented)");
-	strcpy(st->code, "TRS1");
-	st->lat_deg = 38.9712;
-	st->lon_deg = -114.3098;
-	st->height_m = 2950.0;
-	strcpy(st->time_zone, "America/Los_Angeles");
-	st->min_el_deg = 15.0;
-	st->max_sun_el_deg = -12.0;
-	st->min_sun_sep_deg = 30.0;
-	st->pressure_hpa = 700.0;
-	st->temperature_c = 5.0;
-	st->humidity = 0.3;
-	st->wavelength_nm = 532.0;
-	st->zenith_tau = 0.1;
-	st->fire_rate_hz = 20.0;
-	st->pulse_energy_mj = 85.0;
-	st->aperture_m = 1.2;
-	st->transmit_eff = 0.45;
-	st->receive_eff = 0.08;
-	st->detector_qe = 0.25;
-	st->seeing_arcsec = 1.6;
-	st->jitter_ps = NAN;
-}
-
 static void
 target(struct site_target *t, const char *id, const char *alias)
 {
@@ -97,7 +68,7 @@ open_site(char *path, size_t len)
 	db_path(path, len);
 	assert_int_equal(store_open(path, STORE_OPEN_CREATE, &s, err,
 	    sizeof err), ERRCODE_OK);
-	station(&st);
+	fixture_station(&st);
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_OK);
 	target(&t, "NORTH", "INVENTED-N");
@@ -199,7 +170,7 @@ test_store_station_round_trip(void **state)
 	    sizeof err), ERRCODE_OK);
 	assert_int_equal(store_station_get(s, &got, err, sizeof err),
 	    ERRCODE_NOT_FOUND);
-	station(&st);
+	fixture_station(&st);
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_OK);
 	assert_int_equal(store_station_get(s, &got, err, sizeof err),
@@ -435,13 +406,13 @@ test_store_text_fields_refuse_c1_and_bidi(void **state)
 	char err[300];
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_OK);
 	target(&t, "T1", "");
 	assert_int_equal(store_target_add(s, &t, err, sizeof err), ERRCODE_OK);
 	for (size_t i = 0; i < sizeof bad / sizeof bad[0]; i++) {
-		station(&st);
+		fixture_station(&st);
 		snprintf(st.name, sizeof st.name, "%s", bad[i]);
 		assert_int_equal(store_station_put(s, &st, err, sizeof err),
 		    ERRCODE_BAD_ARG);
@@ -468,7 +439,7 @@ test_store_text_fields_refuse_c1_and_bidi(void **state)
 		    err, sizeof err), ERRCODE_BAD_ARG);
 	}
 	/* Other non-ASCII text is kept. */
-	station(&st);
+	fixture_station(&st);
 	snprintf(st.name, sizeof st.name, "K\xc3\xa9strel \xe2\x80\x94 ridge");
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_OK);
@@ -484,17 +455,17 @@ test_store_station_and_target_rules(void **state)
 	char err[300];
 
 	(void)state;
-	station(&st);
+	fixture_station(&st);
 	st.lat_deg = 90.5;
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_BAD_ARG);
 	assert_non_null(strstr(err, "lat_deg"));
-	station(&st);
+	fixture_station(&st);
 	st.humidity = 1.2;
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_BAD_ARG);
 	assert_non_null(strstr(err, "humidity"));
-	station(&st);
+	fixture_station(&st);
 	strcpy(st.code, "bad code");
 	assert_int_equal(store_station_put(s, &st, err, sizeof err),
 	    ERRCODE_BAD_ARG);
@@ -782,7 +753,7 @@ test_store_attempt_log_derives_with_stored_eop(void **state)
 	assert_int_equal(store_attempt_get(s, a.id, &b, err, sizeof err),
 	    ERRCODE_OK);
 	/* The same angles as derive.h with the table's EOP at mid-time. */
-	station(&st);
+	fixture_station(&st);
 	target(&t, "NORTH", "INVENTED-N");
 	assert_int_equal(store_eop_at(s, 0.5 * (a.start_mjd + a.end_mjd),
 	    &want_eop, NULL, err, sizeof err), ERRCODE_OK);
@@ -902,7 +873,7 @@ work_round(void)
 	if ((e = store_open(":memory:", STORE_OPEN_CREATE, &s, err,
 	    sizeof err)))
 		return e;
-	station(&st);
+	fixture_station(&st);
 	target(&t, "NORTH", "");
 	attempt(&a, "NORTH", 61465.0);
 	if (!(e = store_station_put(s, &st, err, sizeof err)) &&
