@@ -24,8 +24,11 @@ set(json_t *o, const char *k, json_t *v)
 	return json_object_set_new(o, k, v);
 }
 
-int
-render_plan_physics_json(json_t *o, const struct plan_physics *ph)
+/* A window's or run's tilt_deg, spread_ps and eclipse (an object with
+   kind, greatest and shadow, or null) set on o: 0, or non-zero when a
+   member could not be set. */
+static int
+physics_json(json_t *o, const struct plan_physics *ph)
 {
 	json_t *e;
 	int bad = 0;
@@ -43,8 +46,10 @@ render_plan_physics_json(json_t *o, const struct plan_physics *ph)
 	return bad | set(o, "eclipse", e);
 }
 
-void
-render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph)
+/* The same as five CSV fields, each followed by a comma: tilt_deg,
+   spread_ps, eclipse_kind, eclipse_greatest, eclipse_shadow. */
+static void
+physics_csv(struct mbuf *out, const struct plan_physics *ph)
 {
 	char g[40];
 
@@ -62,11 +67,11 @@ render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph)
 }
 
 int
-render_plan_reasons_json(json_t *o, const struct plan_physics *ph,
+render_plan_detail_json(json_t *o, const struct plan_physics *ph,
     const char (*reasons)[PLAN_REASON_LEN], size_t n)
 {
 	json_t *r = json_array();
-	int bad = render_plan_physics_json(o, ph);
+	int bad = physics_json(o, ph);
 
 	bad |= set(o, "reasons", r);
 	for (size_t i = 0; i < n && r != NULL; i++)
@@ -75,11 +80,12 @@ render_plan_reasons_json(json_t *o, const struct plan_physics *ph,
 }
 
 enum errcode
-render_plan_reasons_csv(struct mbuf *out,
+render_plan_detail_csv(struct mbuf *out, const struct plan_physics *ph,
     const char (*reasons)[PLAN_REASON_LEN], size_t n)
 {
 	struct mbuf rs;
 
+	physics_csv(out, ph);
 	mbuf_init(&rs);
 	for (size_t k = 0; k < n; k++)
 		mbuf_printf(&rs, "%s%s", k ? "; " : "", reasons[k]);
@@ -88,6 +94,7 @@ render_plan_reasons_csv(struct mbuf *out,
 		return ERRCODE_NOMEM;
 	}
 	render_site_csv_field(out, rs.data != NULL ? rs.data : "");
+	mbuf_puts(out, "\r\n");
 	mbuf_free(&rs);
 	return ERRCODE_OK;
 }
@@ -120,7 +127,7 @@ window_json(const struct plan_window *w)
 	bad |= set(o, "expected_returns",
 	    render_json_num(f->expected_returns, 6));
 	bad |= set(o, "score", render_json_num(f->score, 6));
-	bad |= render_plan_reasons_json(o, &w->phys, w->reasons, w->nreasons);
+	bad |= render_plan_detail_json(o, &w->phys, w->reasons, w->nreasons);
 	return render_json_checked(o, bad);
 }
 
@@ -268,11 +275,9 @@ render_windows_csv(const struct render_plan *p, struct mbuf *out)
 		    f->expected_returns, f->score);
 		mbuf_puts(out, line);
 		mbuf_puts(out, ",");
-		render_plan_physics_csv(out, &w->phys);
-		if (render_plan_reasons_csv(out, w->reasons, w->nreasons) !=
-		    ERRCODE_OK)
+		if (render_plan_detail_csv(out, &w->phys, w->reasons,
+		    w->nreasons) != ERRCODE_OK)
 			return ERRCODE_NOMEM;
-		mbuf_puts(out, "\r\n");
 	}
 	return mbuf_status(out);
 }
@@ -554,21 +559,21 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 	return mbuf_status(out);
 }
 
-/* Text wrapped at 79 columns: first line after lead, the rest indented. */
-static void
-wrap(struct mbuf *b, const char *lead, const char *indent, const char *text)
+void
+render_text_wrap(struct mbuf *b, const char *lead, const char *indent,
+    const char *text)
 {
 	size_t col = strlen(lead);
+	size_t ind = indent != NULL ? strlen(indent) : col;
 	const char *p = text;
 
 	mbuf_puts(b, lead);
 	while (*p) {
 		size_t n = strcspn(p, " ");
 
-		if (col > strlen(indent) && col + 1 + n > 79) {
-			mbuf_puts(b, "\n");
-			mbuf_puts(b, indent);
-			col = strlen(indent);
+		if (col > ind && col + 1 + n > 79) {
+			mbuf_printf(b, "\n%*s", (int)ind, "");
+			col = ind;
 		} else if (p != text) {
 			mbuf_puts(b, " ");
 			col++;
@@ -623,7 +628,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		    "%.1f", p->now_synodic_deg,
 		    plan_phase_label(p->now_synodic_deg), bin, bin * width,
 		    (bin + 1) * width, r->pooled[bin], mean);
-		wrap(out, "Phase now: ", "           ", line);
+		render_text_wrap(out, "Phase now: ", "           ", line);
 	}
 
 	/* The next instant after now at which the best open window changes. */
@@ -678,8 +683,8 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		mbuf_puts(out, "(no window meets every limit tonight)\n");
 	else
 		for (size_t k = 0; k < r->w[0].nreasons; k++)
-			wrap(out, k == 0 ? "\nWhy #1:\n  - " : "  - ", "    ",
-			    r->w[0].reasons[k]);
+			render_text_wrap(out, k == 0 ? "\nWhy #1:\n  - " :
+			    "  - ", "    ", r->w[0].reasons[k]);
 	mbuf_puts(out, "\n");
 	{
 		char line[256];
@@ -688,7 +693,7 @@ render_tonight_text(const struct render_plan *p, struct mbuf *out)
 		    "only: the laser-safety officer, aircraft and satellite "
 		    "avoidance and sun interlocks decide, under local rules.",
 		    tz != NULL ? tz->name : "UTC");
-		wrap(out, "", "", line);
+		render_text_wrap(out, "", "", line);
 	}
 	return mbuf_status(out);
 }

@@ -53,7 +53,7 @@ run_json(const struct night_run *r)
 	bad |= set(o, "el_end_deg", render_json_num(r->el_end_deg, 2));
 	bad |= set(o, "el_max_deg", render_json_num(r->el_max_deg, 2));
 	bad |= set(o, "synodic_angle_deg", render_json_num(r->synodic_deg, 2));
-	bad |= render_plan_reasons_json(o, &r->phys, r->reasons, r->nreasons);
+	bad |= render_plan_detail_json(o, &r->phys, r->reasons, r->nreasons);
 	return render_json_checked(o, bad);
 }
 
@@ -149,11 +149,9 @@ render_sched_csv(const struct render_sched *p, struct mbuf *out)
 		else
 			mbuf_printf(out, "%.2f,%.2f,", r->el_start_deg,
 			    r->el_end_deg);
-		render_plan_physics_csv(out, &r->phys);
-		if (render_plan_reasons_csv(out, r->reasons, r->nreasons) !=
-		    ERRCODE_OK)
+		if (render_plan_detail_csv(out, &r->phys, r->reasons,
+		    r->nreasons) != ERRCODE_OK)
 			return ERRCODE_NOMEM;
-		mbuf_puts(out, "\r\n");
 	}
 	return mbuf_status(out);
 }
@@ -270,32 +268,6 @@ both_times(const struct render_sched *p, double mjd, char *buf, size_t len)
 	snprintf(buf, len, "%s %s %s (%s UTC)", d1, h1, z1, h2);
 }
 
-/* Text wrapped at 79 columns after a lead, continuation indented. */
-static void
-wrapped(struct mbuf *out, const char *lead, const char *text)
-{
-	size_t col = strlen(lead), ind = strlen(lead);
-
-	mbuf_puts(out, lead);
-	while (*text) {
-		size_t w = strcspn(text, " ");
-
-		if (col > ind && col + 1 + w > 79) {
-			mbuf_printf(out, "\n%*s", (int)ind, "");
-			col = ind;
-		} else if (col > ind) {
-			mbuf_puts(out, " ");
-			col++;
-		}
-		mbuf_add(out, text, w);
-		col += w;
-		text += w;
-		while (*text == ' ')
-			text++;
-	}
-	mbuf_puts(out, "\n");
-}
-
 enum errcode
 render_sched_tonight(const struct render_sched *p, struct mbuf *out)
 {
@@ -331,8 +303,8 @@ render_sched_tonight(const struct render_sched *p, struct mbuf *out)
 	both_times(p, p->now_mjd, t1, sizeof t1);
 	mbuf_printf(out, "Now: %s\n", t1);
 	if (r->nruns == 0) {
-		wrapped(out, "Nothing can be ranged tonight: ", r->why_empty[0] ?
-		    r->why_empty : "no window");
+		render_text_wrap(out, "Nothing can be ranged tonight: ", NULL,
+		    r->why_empty[0] ? r->why_empty : "no window");
 		if (isfinite(p->next_night_mjd)) {
 			both_times(p, p->next_night_mjd, t1, sizeof t1);
 			mbuf_printf(out, "The next plannable night starts %s.\n",
@@ -386,7 +358,8 @@ render_sched_tonight(const struct render_sched *p, struct mbuf *out)
 	    r->expected_nps, r->total_value, r->greedy_value);
 	if (why != NULL)
 		for (size_t k = 0; k < why->nreasons; k++)
-			wrapped(out, k == 0 ? "Why: " : "     ", why->reasons[k]);
+			render_text_wrap(out, k == 0 ? "Why: " : "     ", NULL,
+			    why->reasons[k]);
 	if (p->time_zone != NULL)
 		mbuf_printf(out, "Local times: %s.\n", p->time_zone->name);
 	return mbuf_status(out);

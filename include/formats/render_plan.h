@@ -30,22 +30,18 @@ struct render_plan {
 /* {"windows":[...]} and metadata; field names in README "windows". */
 struct json_t;
 
-/* A window's or run's tilt_deg, spread_ps and eclipse (an object with
-   kind, greatest and shadow, or null) set on o: 0, or non-zero when a
-   member could not be set. */
-int render_plan_physics_json(struct json_t *o, const struct plan_physics *ph);
-/* The same as five CSV fields, each followed by a comma: tilt_deg,
-   spread_ps, eclipse_kind, eclipse_greatest, eclipse_shadow. */
-void render_plan_physics_csv(struct mbuf *out, const struct plan_physics *ph);
-/* A window's or run's physics (render_plan_physics_json) and then
-   "reasons", an array of the n texts, set on o: 0, or non-zero when a
-   member could not be set. */
-int render_plan_reasons_json(struct json_t *o, const struct plan_physics *ph,
+/* A window's or run's detail set on o: tilt_deg, spread_ps, eclipse (an
+   object with kind, greatest and shadow, or null) and "reasons", an
+   array of the n texts: 0, or non-zero when a member could not be set. */
+int render_plan_detail_json(struct json_t *o, const struct plan_physics *ph,
     const char (*reasons)[PLAN_REASON_LEN], size_t n);
-/* The n reasons joined by "; " as one CSV field (RFC 4180 quoting), with
-   nothing after it: ERRCODE_OK or ERRCODE_NOMEM. */
-enum errcode render_plan_reasons_csv(struct mbuf *out,
-    const char (*reasons)[PLAN_REASON_LEN], size_t n);
+/* The same as the last six CSV fields of a row and its CRLF: tilt_deg,
+   spread_ps, eclipse_kind, eclipse_greatest, eclipse_shadow and the
+   reasons joined by "; " (RFC 4180 quoting): ERRCODE_OK or
+   ERRCODE_NOMEM. */
+enum errcode render_plan_detail_csv(struct mbuf *out,
+    const struct plan_physics *ph, const char (*reasons)[PLAN_REASON_LEN],
+    size_t n);
 
 enum errcode render_windows_json(const struct render_plan *p,
     struct mbuf *out);
@@ -84,6 +80,12 @@ void render_ics_event_begin(struct mbuf *out, const char *uid,
    mbuf_init) is freed; out is marked failed when d failed. */
 void render_ics_reasons_desc(struct mbuf *out, struct mbuf *d,
     const char (*reasons)[PLAN_REASON_LEN], size_t n);
+
+/* Text wrapped at 79 columns: lead, the words of text, and each further
+   line indented by as many spaces as indent holds (NULL: as lead); a
+   newline at the end. */
+void render_text_wrap(struct mbuf *b, const char *lead, const char *indent,
+    const char *text);
 
 /* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD from the
    zone table tz (UTC when tz is NULL or does not cover it); day >= 8,
