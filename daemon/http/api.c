@@ -32,13 +32,31 @@
 typedef void (*api_handler)(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp);
 
+/* Which answers the response cache keeps (api_cache.h). */
+enum route_cache {
+	CACHE_NONE,		/* computed for each request */
+	CACHE_SITE,		/* from the site snapshot: the instant "now"
+				   is the whole second, gen_site */
+	CACHE_DATA,		/* from the database: "now" is the whole
+				   minute, gen_data */
+	CACHE_SKY		/* from the parameters alone: "now" is the
+				   whole minute */
+};
+
 struct route {
 	struct api_route_info info;
 	api_handler fn;
 	int unlocked;		/* takes ctx->lock itself, only to look at
 				   the context: its slow part runs on a
 				   connection of its own (read_store) */
+	enum route_cache cache;
 };
+
+/* The response cache's bounds: entries, and bytes of bodies (a body
+   over a quarter of it is not kept: a year of windows is about 1 MB). */
+#define CACHE_ENTRIES 48
+#define CACHE_BYTES (8u * 1024 * 1024)
+#define CACHE_KEY_MAX 2048	/* a longer query is computed, not kept */
 
 /* --- responses and errors --- */
 
@@ -355,50 +373,55 @@ api_site_loaded(struct api_ctx *ctx, struct api_response *resp)
 static const struct route routes[] = {
 	{{"GET", "/api/v1/status", "",
 	    "version, uptime, database, last plan time, EOP coverage"},
-	    api_h_status, 0},
+	    api_h_status, 0, CACHE_NONE},
 	{{"GET", "/api/v1/site", "", "the station and its planning limits"},
-	    api_h_site, 0},
+	    api_h_site, 0, CACHE_NONE},
 	{{"GET", "/api/v1/targets", "", "every target, active or retired"},
-	    api_h_targets, 0},
+	    api_h_targets, 0, CACHE_NONE},
 	{{"GET", "/api/v1/now", "at",
 	    "Moon, Sun and each active target at an instant (default now)"},
-	    api_h_now, 0},
+	    api_h_now, 0, CACHE_SITE},
 	{{"GET", "/api/v1/phases", PHQUERY_PARAMS,
-	    "new moon, quarters and full moon in a span"}, api_h_phases, 1},
+	    "new moon, quarters and full moon in a span"}, api_h_phases, 1,
+	    CACHE_SKY},
 	{{"GET", "/api/v1/eclipses", ECLQUERY_PARAMS,
 	    "lunar eclipses in a span (default a year): kind, magnitudes, "
-	    "contacts"}, api_h_eclipses, 1},
+	    "contacts"}, api_h_eclipses, 1, CACHE_SKY},
 	{{"GET", "/api/v1/windows", WINQUERY_PARAMS,
 	    "ranked observing windows (no parameters: the cached plan)"},
-	    api_h_windows, 1},
+	    api_h_windows, 1, CACHE_DATA},
 	{{"GET", "/api/v1/windows.ics", WINQUERY_PARAMS,
-	    "the windows as iCalendar (RFC 5545)"}, api_h_windows_ics, 1},
+	    "the windows as iCalendar (RFC 5545)"}, api_h_windows_ics, 1,
+	    CACHE_DATA},
 	{{"GET", "/api/v1/coverage", COVERAGE_PARAMS,
 	    "phase-coverage audit as JSON (the CLI's coverage --json)"},
-	    api_h_coverage, 1},
+	    api_h_coverage, 1, CACHE_DATA},
 	{{"GET", "/api/v1/coverage.csv", COVERAGE_PARAMS,
-	    "the coverage audit as CSV (RFC 4180)"}, api_h_coverage_csv, 1},
+	    "the coverage audit as CSV (RFC 4180)"}, api_h_coverage_csv, 1,
+	    CACHE_DATA},
 	{{"GET", "/api/v1/coverage.svg", COVERAGE_PARAMS ",theme",
 	    "the coverage chart as SVG (theme=light or dark)"},
-	    api_h_coverage_svg, 1},
+	    api_h_coverage_svg, 1, CACHE_DATA},
 	{{"GET", "/api/v1/attempts", "since,until,target,limit,order",
 	    "logged attempts, newest first (order=oldest: as log list)"},
-	    api_h_attempts_list, 0},
+	    api_h_attempts_list, 0, CACHE_NONE},
 	{{"POST", "/api/v1/attempts", "",
 	    "log an attempt (JSON body, bearer token); 201 with Location"},
-	    api_h_attempts_add, 1},
+	    api_h_attempts_add, 1, CACHE_NONE},
 	{{"GET", "/api/v1/attempts/{id}", "", "one logged attempt"},
-	    api_h_attempt_get, 0},
+	    api_h_attempt_get, 0, CACHE_NONE},
 	{{"GET", "/api/v1/plan", "from,to,at,method",
 	    "the night plan: runs from now (at) to the next local noon, or "
-	    "from-to"}, api_h_plan, 1},
+	    "from-to"}, api_h_plan, 1, CACHE_DATA},
 	{{"GET", "/api/v1/plan.ics", "from,to,at,method",
-	    "the night plan as iCalendar (RFC 5545)"}, api_h_plan_ics, 1},
+	    "the night plan as iCalendar (RFC 5545)"}, api_h_plan_ics, 1,
+	    CACHE_DATA},
 	{{"GET", "/api/v1/plan.svg", "from,to,at,method",
-	    "the night's timeline as SVG"}, api_h_plan_svg, 1},
+	    "the night's timeline as SVG"}, api_h_plan_svg, 1,
+	    CACHE_DATA},
 	{{"POST", "/api/v1/blackouts", "",
 	    "add a blackout (JSON body, bearer token); 201"},
-	    api_h_blackouts_add, 0},
+	    api_h_blackouts_add, 0, CACHE_NONE},
 };
 
 #define NROUTES (sizeof routes / sizeof routes[0])
@@ -447,6 +470,13 @@ api_new(const struct api_config *cfg)
 	mbuf_init(&ctx->plan_coverage);
 	ctx->refresh_s = cfg->refresh_s;
 	ctx->start_posix = cfg->start_posix;
+	atomic_init(&ctx->gen_site, 1);
+	atomic_init(&ctx->gen_data, 1);
+	ctx->seen_data_version = -1;
+	if ((ctx->cache = api_cache_new(CACHE_ENTRIES, CACHE_BYTES)) == NULL) {
+		api_free(ctx);
+		return NULL;
+	}
 	return ctx;
 }
 
@@ -456,6 +486,7 @@ api_free(struct api_ctx *ctx)
 	if (ctx == NULL)
 		return;
 	api_site_free(&ctx->site);
+	api_cache_free(ctx->cache);
 	mbuf_free(&ctx->plan_windows);
 	mbuf_free(&ctx->plan_coverage);
 	mem_free(ctx->db_path);
@@ -485,8 +516,43 @@ api_set_site(struct api_ctx *ctx, struct api_site *site)
 	ctx->site = *site;
 	ctx->replan = 1;
 	pthread_mutex_unlock(&ctx->lock);
+	/* After the swap: an answer computed from the old site before it
+	   carries the old generation and is not served again. */
+	atomic_fetch_add(&ctx->gen_site, 1);
+	atomic_fetch_add(&ctx->gen_data, 1);
 	memset(site, 0, sizeof *site);
 	api_site_free(&old);
+}
+
+void
+api_data_changed(struct api_ctx *ctx)
+{
+	atomic_fetch_add(&ctx->gen_data, 1);
+}
+
+/*
+ * The data generation of a request: a new one when another connection,
+ * of this process or of another (a CLI import, "setting set"), committed
+ * a change to the database since the last look, or when the plan cache
+ * was recomputed.
+ */
+static unsigned long
+data_generation(struct api_ctx *ctx)
+{
+	int v;
+
+	pthread_mutex_lock(&ctx->lock);
+	v = ctx->db != NULL ? store_data_version(ctx->db) : -1;
+	if (v != ctx->seen_data_version ||
+	    ctx->plan_utc1 != ctx->seen_plan_utc1 ||
+	    ctx->plan_utc2 != ctx->seen_plan_utc2) {
+		ctx->seen_data_version = v;
+		ctx->seen_plan_utc1 = ctx->plan_utc1;
+		ctx->seen_plan_utc2 = ctx->plan_utc2;
+		atomic_fetch_add(&ctx->gen_data, 1);
+	}
+	pthread_mutex_unlock(&ctx->lock);
+	return atomic_load(&ctx->gen_data);
 }
 
 int
@@ -526,6 +592,96 @@ path_match(const char *pattern, const char *path)
 	path += n;
 	n = strspn(path, "0123456789");
 	return n > 0 && n <= 18 && path[n] == '\0';
+}
+
+static void
+call(struct api_ctx *ctx, const struct route *hit,
+    const struct api_request *req, struct api_response *resp)
+{
+	if (hit->unlocked) {
+		hit->fn(ctx, req, resp);
+		return;
+	}
+	pthread_mutex_lock(&ctx->lock);
+	hit->fn(ctx, req, resp);
+	pthread_mutex_unlock(&ctx->lock);
+}
+
+/*
+ * The cache key of a request: the path, then each query parameter as
+ * key and value, sorted by key, every part ended by a NUL (no part holds
+ * one: unescape keeps "%00" as text).  The order of the parameters in
+ * the URL does not matter.  0, or -1 when the key exceeds len.
+ */
+static int
+cache_key(const struct api_request *req, const char *path, char *out,
+    size_t len, size_t *outlen)
+{
+	size_t order[API_MAX_PARAMS], n = 0;
+
+	for (size_t i = 0; i < req->nparams; i++) {
+		size_t j = i;
+
+		while (j > 0 && strcmp(req->params[order[j - 1]].key,
+		    req->params[i].key) > 0) {
+			order[j] = order[j - 1];
+			j--;
+		}
+		order[j] = i;
+	}
+	for (size_t i = 0; i <= req->nparams * 2; i++) {
+		const char *part = i == 0 ? path : i % 2 ?
+		    req->params[order[i / 2]].key :
+		    req->params[order[i / 2 - 1]].value;
+		size_t k = strlen(part != NULL ? part : "");
+
+		if (n + k + 1 > len)
+			return -1;
+		memcpy(out + n, part != NULL ? part : "", k);
+		out[n + k] = '\0';
+		n += k + 1;
+	}
+	*outlen = n;
+	return 0;
+}
+
+/*
+ * A request of a cached route: "now" becomes the start of the whole
+ * second (CACHE_SITE) or minute (the others) it falls in, for the answer
+ * and for its key, so that the requests of that second or minute share
+ * one answer, computed once per generation (README, HTTP API).
+ */
+static void
+cached_call(struct api_ctx *ctx, const struct route *hit,
+    const struct api_request *req, struct api_response *resp)
+{
+	struct api_request r = *req;
+	struct api_cache_entry *own;
+	double unit = hit->cache == CACHE_SITE ? 1.0 : 60.0, p, stamp;
+	unsigned long gen;
+	char key[CACHE_KEY_MAX];
+	size_t klen;
+	enum api_cache_way way;
+
+	p = tscale_to_posix(req->now1, req->now2);
+	stamp = floor(p / unit) * unit;
+	if (!isfinite(stamp) ||
+	    tscale_from_posix(stamp, &r.now1, &r.now2) != ERRCODE_OK) {
+		call(ctx, hit, req, resp);	/* no clock to round */
+		return;
+	}
+	gen = hit->cache == CACHE_SITE ? atomic_load(&ctx->gen_site) :
+	    hit->cache == CACHE_DATA ? data_generation(ctx) : 0;
+	if (cache_key(req, hit->info.path, key, sizeof key, &klen) != 0) {
+		call(ctx, hit, &r, resp);
+		return;
+	}
+	way = api_cache_get(ctx->cache, key, klen, gen, stamp, resp, &own);
+	if (way == API_CACHE_HIT)
+		return;
+	call(ctx, hit, &r, resp);
+	if (way == API_CACHE_OWN)
+		api_cache_put(ctx->cache, own, resp);
 }
 
 static void
@@ -571,13 +727,10 @@ dispatch(struct api_ctx *ctx, const struct api_request *req,
 	resp->allow[0] = '\0';
 	if (api_params_check(req, hit->info.params, resp))
 		return;
-	if (hit->unlocked) {
-		hit->fn(ctx, req, resp);
-		return;
-	}
-	pthread_mutex_lock(&ctx->lock);
-	hit->fn(ctx, req, resp);
-	pthread_mutex_unlock(&ctx->lock);
+	if (hit->cache != CACHE_NONE)
+		cached_call(ctx, hit, req, resp);
+	else
+		call(ctx, hit, req, resp);
 }
 
 void

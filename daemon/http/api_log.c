@@ -452,6 +452,7 @@ api_h_attempts_add(struct api_ctx *ctx, const struct api_request *req,
 	pthread_mutex_lock(&ctx->lock);
 	ctx->replan = 1;
 	pthread_mutex_unlock(&ctx->lock);
+	api_data_changed(ctx);
 	snprintf(resp->location, sizeof resp->location,
 	    "/api/v1/attempts/%ld", a.id);
 	rc = render_site_attempt_json(&a, &resp->body);
@@ -526,6 +527,7 @@ api_h_blackouts_add(struct api_ctx *ctx, const struct api_request *req,
 		goto out;
 	}
 	ctx->replan = 1;
+	api_data_changed(ctx);
 	o = json_object();
 	bad = o == NULL;
 	bad |= json_object_set_new(o, "id", json_integer(b.id));

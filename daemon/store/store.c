@@ -489,6 +489,16 @@ store_schema_version(struct store *s)
 	return v;
 }
 
+int
+store_data_version(struct store *s)
+{
+	int v = -1;
+
+	if (s == NULL || pragma_int(s, "PRAGMA data_version", &v) != SQLITE_OK)
+		return -1;
+	return v;
+}
+
 enum errcode
 store_migrate(struct store *s, int version, char *errbuf, size_t errlen)
 {

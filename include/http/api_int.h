@@ -6,6 +6,7 @@
 #define MOONRANGE_API_INT_H
 
 #include <pthread.h>
+#include <stdatomic.h>
 #include <stddef.h>
 
 #include <jansson.h>
@@ -14,6 +15,7 @@
 #include "core/geom.h"
 #include "core/tscale.h"
 #include "http/api.h"
+#include "http/api_cache.h"
 #include "store/store.h"
 
 #define ATTEMPTS_LIMIT_DEFAULT 50
@@ -40,6 +42,14 @@ struct api_ctx {
 	struct mbuf plan_coverage;	/* coverage JSON, default query */
 	size_t plan_nwindows;
 	double plan_days_used;
+	/* the response cache (api_cache.h) and the generations its entries
+	   are computed from: gen_site changes with the site (api_set_site),
+	   gen_data with the site and with every change of the database or
+	   of the plan (api_data_changed, data_generation in api.c) */
+	struct api_cache *cache;
+	atomic_ulong gen_site, gen_data;
+	int seen_data_version;		/* store_data_version of db (lock) */
+	double seen_plan_utc1, seen_plan_utc2;	/* the plan seen (lock) */
 };
 
 /* --- handlers (the route table of api.c names them) --- */
@@ -140,6 +150,10 @@ void api_release_store(struct api_ctx *ctx, struct store *db, int locked);
 
 /* 200 with root dumped (root is consumed), or 500 when bad. */
 void api_json_reply(struct api_response *resp, json_t *root, int bad);
+
+/* After a write through the API has committed: answers computed before
+   it are not served again (a new data generation). */
+void api_data_changed(struct api_ctx *ctx);
 
 /* 1 when a station is loaded; else 0 with a 503 set. */
 int api_site_loaded(struct api_ctx *ctx, struct api_response *resp);

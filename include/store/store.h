@@ -64,6 +64,14 @@ void store_close(struct store *s);
 int store_schema_version(struct store *s);
 
 /*
+ * PRAGMA data_version of this connection: a number that changes when
+ * another connection (of this process or another) has committed a
+ * change to the file since the last call, and stays the same otherwise
+ * (this connection's own commits do not change it).  -1 on failure.
+ */
+int store_data_version(struct store *s);
+
+/*
  * Bring the schema to version (1..STORE_SCHEMA_VERSION), in one
  * transaction, by running sql/migrations/NNNN_*.sql in order (an empty
  * file runs them all: the migrations are the one source of the schema).
