@@ -34,6 +34,27 @@ fixture_dir_setup(void **state)
 	return mkdtemp(fixture_dir) != NULL ? 0 : -1;
 }
 
+/* The sample site's database, made by fixture_sample_setup. */
+static char fixture_db[300];
+
+/* Group setup: fixture_dir, and in it fixture_db made from sample-site/
+   by "moonrange init" (MOONRANGE_BIN, MOONRANGE_SOURCE_DIR, which ctest
+   sets); 0 or -1 as cmocka wants. */
+static inline int
+fixture_sample_setup(void **state)
+{
+	const char *bin = getenv("MOONRANGE_BIN");
+	const char *src = getenv("MOONRANGE_SOURCE_DIR");
+	char cmd[1200];
+
+	if (bin == NULL || src == NULL || fixture_dir_setup(state) != 0)
+		return -1;
+	snprintf(fixture_db, sizeof fixture_db, "%s/site.db", fixture_dir);
+	snprintf(cmd, sizeof cmd, "'%s' init --db '%s' --site "
+	    "'%s/sample-site' > /dev/null", bin, fixture_db, src);
+	return system(cmd) == 0 ? 0 : -1;
+}
+
 /* Group teardown: remove fixture_dir and all in it. */
 static inline int
 fixture_dir_teardown(void **state)

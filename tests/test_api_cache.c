@@ -1,7 +1,7 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* test_api_cache.c: the daemon's response cache: its bounds, one
    computation per key, and the API's answers from it against fresh ones. */
-#define _XOPEN_SOURCE 700	/* mkdtemp */
+#define _XOPEN_SOURCE 700	/* mkdtemp (fixture.h) */
 #include <math.h>
 #include <pthread.h>
 #include <setjmp.h>
@@ -16,6 +16,7 @@
 #include <cmocka.h>
 #include <jansson.h>
 
+#include "fixture.h"
 #include "core/mem.h"
 #include "core/tscale.h"
 #include "http/api.h"
@@ -32,7 +33,6 @@
 #define TOKEN "cache-test-token-0123456789"
 #define T0 "2027-03-15T20:00:00Z"
 
-static char dbdir[64], dbpath[128];
 static double t0_posix;
 
 /* --- the cache alone --- */
@@ -232,37 +232,13 @@ test_cache_one_computation(void **state)
 static int
 setup(void **state)
 {
-	const char *bin = getenv("MOONRANGE_BIN");
-	const char *src = getenv("MOONRANGE_SOURCE_DIR");
-	char cmd[1024];
 	double u1, u2;
 
-	(void)state;
 	log_init(LOG_LEVEL_ERROR, NULL);
-	if (bin == NULL || src == NULL)
-		return -1;
-	snprintf(dbdir, sizeof dbdir, "/tmp/moonrange-cache-XXXXXX");
-	if (mkdtemp(dbdir) == NULL)
-		return -1;
-	snprintf(dbpath, sizeof dbpath, "%s/site.db", dbdir);
-	snprintf(cmd, sizeof cmd, "'%s' init --db '%s' --site '%s/sample-site'"
-	    " > /dev/null", bin, dbpath, src);
-	if (system(cmd) != 0)
-		return -1;
 	if (tscale_parse_utc(T0, &u1, &u2, NULL, 0) != ERRCODE_OK)
 		return -1;
 	t0_posix = tscale_to_posix(u1, u2);
-	return 0;
-}
-
-static int
-teardown(void **state)
-{
-	char cmd[160];
-
-	(void)state;
-	snprintf(cmd, sizeof cmd, "rm -rf '%s'", dbdir);
-	return system(cmd) == 0 ? 0 : -1;
+	return fixture_sample_setup(state);
 }
 
 /* A daemon context on the database, with a connection of its own. */
@@ -295,12 +271,12 @@ daemon_open(struct daemon *d)
 	char err[200];
 
 	memset(&cfg, 0, sizeof cfg);
-	cfg.db_path = dbpath;
+	cfg.db_path = fixture_db;
 	cfg.token = TOKEN;
 	cfg.refresh_s = 600;
 	d->ctx = api_new(&cfg);
 	assert_non_null(d->ctx);
-	assert_int_equal(store_open(dbpath, 0, &d->db, err, sizeof err),
+	assert_int_equal(store_open(fixture_db, 0, &d->db, err, sizeof err),
 	    ERRCODE_OK);
 	daemon_load_site(d);
 	api_set_store(d->ctx, d->db);
@@ -520,7 +496,7 @@ test_api_writes_invalidate(void **state)
 	api_response_free(&a);
 
 	/* A setting written by another connection. */
-	assert_int_equal(store_open(dbpath, 0, &other, err, sizeof err),
+	assert_int_equal(store_open(fixture_db, 0, &other, err, sizeof err),
 	    ERRCODE_OK);
 	assert_int_equal(store_setting_set(other, "plan_run_min_s", "900",
 	    err, sizeof err), ERRCODE_OK);
@@ -605,5 +581,5 @@ main(void)
 	int bad = cmocka_run_group_tests_name("api_cache", cache, NULL, NULL);
 
 	return bad + cmocka_run_group_tests_name("api_cache_routes", api,
-	    setup, teardown);
+	    setup, fixture_dir_teardown);
 }

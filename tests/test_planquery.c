@@ -17,35 +17,11 @@
 #include "query/planquery.h"
 #include "store/store.h"
 
-static char dir[64], dbpath[128];
-
 static int
 setup(void **state)
 {
-	char cmd[1024];
-	const char *bin = getenv("MOONRANGE_BIN");
-	const char *src = getenv("MOONRANGE_SOURCE_DIR");
-
-	(void)state;
 	render_json_setup();
-	if (bin == NULL || src == NULL)
-		return -1;
-	snprintf(dir, sizeof dir, "/tmp/test_planquery.XXXXXX");
-	if (mkdtemp(dir) == NULL)
-		return -1;
-	snprintf(dbpath, sizeof dbpath, "%s/site.db", dir);
-	snprintf(cmd, sizeof cmd, "'%s' init --db '%s' --site '%s/sample-site' "
-	    ">/dev/null", bin, dbpath, src);
-	return system(cmd) == 0 ? 0 : -1;
-}
-
-static int
-teardown(void **state)
-{
-	(void)state;
-	remove(dbpath);
-	rmdir(dir);
-	return 0;
+	return fixture_sample_setup(state);
 }
 
 /* Run the query with name/value pairs; the JSON parsed. */
@@ -130,7 +106,7 @@ test_planquery_sample_night(void **state)
 	size_t nb;
 
 	(void)state;
-	assert_int_equal(store_open(dbpath, STORE_OPEN_READONLY, &db, err,
+	assert_int_equal(store_open(fixture_db, STORE_OPEN_READONLY, &db, err,
 	    sizeof err), ERRCODE_OK);
 	b = plan_json(db, best, NULL, 0);
 	g = plan_json(db, greedy, NULL, 0);
@@ -167,7 +143,7 @@ test_planquery_default_span_and_params(void **state)
 	double to;
 
 	(void)state;
-	assert_int_equal(store_open(dbpath, STORE_OPEN_READONLY, &db, err,
+	assert_int_equal(store_open(fixture_db, STORE_OPEN_READONLY, &db, err,
 	    sizeof err), ERRCODE_OK);
 	j = plan_json(db, at, t1, sizeof t1);
 	assert_string_equal(json_string_value(json_object_get(j, "from")),
@@ -226,7 +202,7 @@ test_planquery_weights_zero(void **state)
 	size_t i;
 
 	(void)state;
-	assert_int_equal(store_open(dbpath, 0, &db, err, sizeof err),
+	assert_int_equal(store_open(fixture_db, 0, &db, err, sizeof err),
 	    ERRCODE_OK);
 	assert_int_equal(store_setting_set(db, "value_phase_weight", "0", err,
 	    sizeof err), ERRCODE_OK);
@@ -259,7 +235,7 @@ test_planquery_formats(void **state)
 	char err[300];
 
 	(void)state;
-	assert_int_equal(store_open(dbpath, STORE_OPEN_READONLY, &db, err,
+	assert_int_equal(store_open(fixture_db, STORE_OPEN_READONLY, &db, err,
 	    sizeof err), ERRCODE_OK);
 	planquery_params_init(&p);
 	assert_int_equal(planquery_param_set(&p, "at", "2027-03-20T04:00:00Z",
@@ -306,5 +282,5 @@ main(void)
 		cmocka_unit_test(test_planquery_formats),
 	};
 
-	return cmocka_run_group_tests(tests, setup, teardown);
+	return cmocka_run_group_tests(tests, setup, fixture_dir_teardown);
 }
