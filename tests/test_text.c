@@ -87,6 +87,25 @@ test_text_bool_any_case(void **state)
 	}
 }
 
+/* The name-to-enum lookup: exact, case-sensitive, NULL and unknown -1
+   (expected values follow from the table; common practice for enum
+   names). */
+static void
+test_text_name_index(void **state)
+{
+	static const char *const names[] = { "greedy", "best", "" };
+
+	(void)state;
+	assert_int_equal(text_name_index("greedy", names, 3), 0);
+	assert_int_equal(text_name_index("best", names, 3), 1);
+	assert_int_equal(text_name_index("", names, 3), 2);
+	assert_int_equal(text_name_index("Best", names, 3), -1);
+	assert_int_equal(text_name_index("bestx", names, 3), -1);
+	assert_int_equal(text_name_index("best", names, 1), -1);
+	assert_int_equal(text_name_index(NULL, names, 3), -1);
+	assert_int_equal(text_name_index("greedy", names, 0), -1);
+}
+
 static void
 test_text_err_cuts_at_characters(void **state)
 {
@@ -174,6 +193,7 @@ main(void)
 		cmocka_unit_test(test_text_real_table),
 		cmocka_unit_test(test_text_long_table),
 		cmocka_unit_test(test_text_bool_any_case),
+		cmocka_unit_test(test_text_name_index),
 		cmocka_unit_test(test_text_err_cuts_at_characters),
 		cmocka_unit_test(test_text_utf8_table),
 		cmocka_unit_test(test_text_unsafe_table),

@@ -59,10 +59,7 @@ coverage_axis_mark(enum coverage_axis a, int quarter)
 int
 coverage_axis_parse(const char *s)
 {
-	for (int i = 0; i < COVERAGE_AXIS__COUNT; i++)
-		if (s != NULL && strcmp(s, axis_names[i]) == 0)
-			return i;
-	return -1;
+	return text_name_index(s, axis_names, COVERAGE_AXIS__COUNT);
 }
 
 const char *
@@ -74,10 +71,7 @@ coverage_source_name(enum coverage_source s)
 int
 coverage_source_parse(const char *s)
 {
-	for (int i = 0; i < COVERAGE_SOURCE__COUNT; i++)
-		if (s != NULL && strcmp(s, source_names[i]) == 0)
-			return i;
-	return -1;
+	return text_name_index(s, source_names, COVERAGE_SOURCE__COUNT);
 }
 
 /* --- the spec --- */

@@ -60,20 +60,21 @@ night_settings_check(const struct night_settings *s, char *errbuf,
 	return ERRCODE_OK;
 }
 
+static const char *const method_names[] = {
+	[SCHED_GREEDY] = "greedy", [SCHED_BEST] = "best"
+};
+#define NMETHODS ((int)(sizeof method_names / sizeof method_names[0]))
+
 const char *
 night_method_name(enum sched_method m)
 {
-	return m == SCHED_GREEDY ? "greedy" : "best";
+	return method_names[m == SCHED_GREEDY ? SCHED_GREEDY : SCHED_BEST];
 }
 
 int
 night_method_parse(const char *s)
 {
-	if (s != NULL && strcmp(s, "best") == 0)
-		return SCHED_BEST;
-	if (s != NULL && strcmp(s, "greedy") == 0)
-		return SCHED_GREEDY;
-	return -1;
+	return text_name_index(s, method_names, NMETHODS);
 }
 
 void

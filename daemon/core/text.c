@@ -93,6 +93,15 @@ text_casecmp(const char *a, const char *b)
 	return (unsigned char)*a - (unsigned char)*b;
 }
 
+int
+text_name_index(const char *s, const char *const *names, int n)
+{
+	for (int i = 0; i < n && s != NULL; i++)
+		if (strcmp(s, names[i]) == 0)
+			return i;
+	return -1;
+}
+
 enum errcode
 text_parse_bool(const char *s, int *out)
 {

@@ -4,6 +4,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "core/text.h"
 #include "core/value.h"
 
 void
@@ -40,22 +41,22 @@ value_settings_check(const struct value_settings *s, const char **field)
 	return f == NULL ? ERRCODE_OK : ERRCODE_BAD_ARG;
 }
 
+static const char *const model_names[] = {
+	[VALUE_MODEL_DESIGN] = "design", [VALUE_MODEL_BINS] = "bins"
+};
+#define NMODELS ((int)(sizeof model_names / sizeof model_names[0]))
+
 const char *
 value_model_name(enum value_model m)
 {
-	return m == VALUE_MODEL_BINS ? "bins" : "design";
+	return model_names[m == VALUE_MODEL_BINS ? VALUE_MODEL_BINS :
+	    VALUE_MODEL_DESIGN];
 }
 
 int
 value_model_parse(const char *s)
 {
-	if (s == NULL)
-		return -1;
-	if (strcmp(s, "design") == 0)
-		return VALUE_MODEL_DESIGN;
-	if (strcmp(s, "bins") == 0)
-		return VALUE_MODEL_BINS;
-	return -1;
+	return text_name_index(s, model_names, NMODELS);
 }
 
 /* --- small dense algebra --- */

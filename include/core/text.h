@@ -38,6 +38,13 @@ enum errcode text_parse_long(const char *s, long min, long max, long *out);
 /* --- booleans ------------------------------------------------------------ */
 
 /*
+ * The one name-to-enum lookup: the index of s among names[0..n) (exact,
+ * case-sensitive), or -1 when s is NULL or none of them.  For an enum
+ * whose values run 0..n-1 and whose names stand in a table in that order.
+ */
+int text_name_index(const char *s, const char *const *names, int n);
+
+/*
  * The one boolean vocabulary: 1/0, true/false, yes/no, on/off, in any
  * letter case.  Returns ERRCODE_OK and sets *out to 1 or 0, or
  * ERRCODE_BAD_ARG.
