@@ -629,6 +629,48 @@ test_store_eop(void **state)
 	store_close(s);
 }
 
+/* Every setting lands in its member of struct store_settings (the values
+   are the ones set here; the words by their place in the setting's list,
+   README "setting list"). */
+static void
+test_store_settings_every_member(void **state)
+{
+	static const char *const kv[][2] = {
+		{"coverage_bins", "24"}, {"coverage_alpha", "0.5"},
+		{"coverage_k", "2.5"}, {"coverage_scope", "per_target"},
+		{"plan_days", "5"}, {"value_model", "bins"},
+		{"value_harmonics", "3"}, {"value_phase_weight", "2"},
+		{"value_orientation_weight", "0.25"}, {"plan_run_min_s", "700"},
+		{"plan_run_max_s", "1900"}, {"plan_switch_s", "90"},
+		{"plan_calibration_s", "400"},
+		{"plan_calibration_every_s", "3600"},
+	};
+	/* Static: its padding is zero, as memset makes set's. */
+	static const struct store_settings want = {
+		.coverage_bins = 24, .coverage_alpha = 0.5, .coverage_k = 2.5,
+		.coverage_per_target = 1, .plan_days = 5, .value_bins = 1,
+		.value_harmonics = 3, .value_phase_weight = 2.0,
+		.value_orientation_weight = 0.25, .plan_run_min_s = 700,
+		.plan_run_max_s = 1900, .plan_switch_s = 90,
+		.plan_calibration_s = 400, .plan_calibration_every_s = 3600,
+	};
+	struct store_settings set;
+	struct store *s = NULL;
+	char err[300];
+
+	(void)state;
+	memset(&set, 0, sizeof set);
+	assert_int_equal(store_open(":memory:", STORE_OPEN_CREATE, &s, err,
+	    sizeof err), ERRCODE_OK);
+	for (size_t i = 0; i < sizeof kv / sizeof kv[0]; i++)
+		assert_int_equal(store_setting_set(s, kv[i][0], kv[i][1], err,
+		    sizeof err), ERRCODE_OK);
+	assert_int_equal(store_settings_get(s, &set, err, sizeof err),
+	    ERRCODE_OK);
+	assert_memory_equal(&set, &want, sizeof set);
+	store_close(s);
+}
+
 static void
 test_store_settings(void **state)
 {
@@ -931,6 +973,7 @@ main(void)
 		cmocka_unit_test(test_store_normal_points_idempotent),
 		cmocka_unit_test(test_store_eop),
 		cmocka_unit_test(test_store_settings),
+		cmocka_unit_test(test_store_settings_every_member),
 		cmocka_unit_test(test_store_transaction_all_or_nothing),
 		cmocka_unit_test(test_store_attempt_log_derives_with_stored_eop),
 		cmocka_unit_test(test_store_empty_file_refused),

@@ -4,6 +4,7 @@
 #include <math.h>
 #include <pthread.h>
 #include <stdarg.h>
+#include <stddef.h>
 #include <stdint.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -902,43 +903,55 @@ struct setting_def {
 	double min, max;		/* numbers: inclusive range */
 	int min_open;			/* 1: min itself is refused */
 	const char *words[3];		/* SET_WORD: the accepted values */
+	size_t at;			/* where store_settings_get puts the
+					   value (IN), 0: nowhere */
 };
+
+/* A member of struct store_settings, as setting_def.at: its offset plus
+   one.  SET_INT and SET_WORD (the word's index) go into an int, SET_REAL
+   into a double. */
+#define IN(m) (offsetof(struct store_settings, m) + 1)
 
 /* The known settings (the SQL CHECK of table settings mirrors this). */
 static const struct setting_def settings_table[] = {
 	{{"coverage_bins", "12", "synodic-angle bins of the coverage audit "
-	    "and weight, whole number 4..72"}, SET_INT, 4, 72, 0, {NULL}},
+	    "and weight, whole number 4..72"}, SET_INT, 4, 72, 0, {NULL},
+	    IN(coverage_bins)},
 	{{"coverage_alpha", "1", "strength of the coverage weight, 0..4 "
-	    "(0 turns it off)"}, SET_REAL, 0, 4, 0, {NULL}},
+	    "(0 turns it off)"}, SET_REAL, 0, 4, 0, {NULL}, IN(coverage_alpha)},
 	{{"coverage_k", "1", "smoothing count of the coverage weight, "
-	    "over 0 up to 1000"}, SET_REAL, 0, 1000, 1, {NULL}},
+	    "over 0 up to 1000"}, SET_REAL, 0, 1000, 1, {NULL}, IN(coverage_k)},
 	{{"coverage_scope", "pooled", "coverage counted over all targets "
 	    "('pooled') or per target ('per_target')"}, SET_WORD, 0, 0, 0,
-	    {"pooled", "per_target", NULL}},
+	    {"pooled", "per_target", NULL}, IN(coverage_per_target)},
 	{{"plan_days", "3", "days the daemon plans ahead, whole number "
-	    "1..30"}, SET_INT, 1, 30, 0, {NULL}},
+	    "1..30"}, SET_INT, 1, 30, 0, {NULL}, IN(plan_days)},
 	{{"value_model", "design", "phase value of a run: 'design' (D-optimal "
 	    "information gain) or 'bins' (coverage weight)"}, SET_WORD, 0, 0,
-	    0, {"design", "bins", NULL}},
+	    0, {"design", "bins", NULL}, IN(value_bins)},
 	{{"value_harmonics", "2", "harmonic order K of the phase signals, "
-	    "whole number 1..4"}, SET_INT, 1, 4, 0, {NULL}},
+	    "whole number 1..4"}, SET_INT, 1, 4, 0, {NULL},
+	    IN(value_harmonics)},
 	{{"value_phase_weight", "1", "weight of the phase information in a "
-	    "run's value, 0..100"}, SET_REAL, 0, 100, 0, {NULL}},
+	    "run's value, 0..100"}, SET_REAL, 0, 100, 0, {NULL},
+	    IN(value_phase_weight)},
 	{{"value_orientation_weight", "1", "weight of the orientation "
 	    "information in a run's value, 0..100 (both 0: normal points)"},
-	    SET_REAL, 0, 100, 0, {NULL}},
+	    SET_REAL, 0, 100, 0, {NULL}, IN(value_orientation_weight)},
 	{{"plan_run_min_s", "600", "shortest run, seconds, whole number "
-	    "60..14400"}, SET_INT, 60, 14400, 0, {NULL}},
+	    "60..14400"}, SET_INT, 60, 14400, 0, {NULL}, IN(plan_run_min_s)},
 	{{"plan_run_max_s", "1800", "longest run, seconds, whole number "
 	    "60..14400 (not under plan_run_min_s)"}, SET_INT, 60, 14400, 0,
-	    {NULL}},
+	    {NULL}, IN(plan_run_max_s)},
 	{{"plan_switch_s", "120", "time to switch targets, seconds, whole "
-	    "number 0..3600"}, SET_INT, 0, 3600, 0, {NULL}},
+	    "number 0..3600"}, SET_INT, 0, 3600, 0, {NULL}, IN(plan_switch_s)},
 	{{"plan_calibration_s", "300", "length of a calibration run, "
-	    "seconds, whole number 60..3600"}, SET_INT, 60, 3600, 0, {NULL}},
+	    "seconds, whole number 60..3600"}, SET_INT, 60, 3600, 0, {NULL},
+	    IN(plan_calibration_s)},
 	{{"plan_calibration_every_s", "0", "longest ranging after a "
 	    "calibration, seconds, 0 (no calibrations) or plan_run_max_s.."
-	    "86400"}, SET_INT, 0, 86400, 0, {NULL}},
+	    "86400"}, SET_INT, 0, 86400, 0, {NULL},
+	    IN(plan_calibration_every_s)},
 };
 
 #define NSETTINGS (sizeof settings_table / sizeof settings_table[0])
@@ -968,8 +981,10 @@ setting_valid(const struct setting_def *d, const char *v, double *num)
 		return 0;
 	if (d->kind == SET_WORD) {
 		for (int i = 0; d->words[i] != NULL; i++)
-			if (strcmp(v, d->words[i]) == 0)
+			if (strcmp(v, d->words[i]) == 0) {
+				*num = i;
 				return 1;
+			}
 		return 0;
 	}
 	/* Plain digits (and one '.' for reals): what the SQL CHECK accepts. */
@@ -1060,34 +1075,12 @@ store_settings_get(struct store *s, struct store_settings *out, char *errbuf,
 			    "setting '%s' holds '%s', which "
 			    "is not valid", d->info.key, v);
 		}
-		if (strcmp(d->info.key, "coverage_bins") == 0)
-			out->coverage_bins = (int)num;
-		else if (strcmp(d->info.key, "coverage_alpha") == 0)
-			out->coverage_alpha = num;
-		else if (strcmp(d->info.key, "coverage_k") == 0)
-			out->coverage_k = num;
-		else if (strcmp(d->info.key, "coverage_scope") == 0)
-			out->coverage_per_target = strcmp(v, "per_target") == 0;
-		else if (strcmp(d->info.key, "plan_days") == 0)
-			out->plan_days = (int)num;
-		else if (strcmp(d->info.key, "value_model") == 0)
-			out->value_bins = strcmp(v, "bins") == 0;
-		else if (strcmp(d->info.key, "value_harmonics") == 0)
-			out->value_harmonics = (int)num;
-		else if (strcmp(d->info.key, "value_phase_weight") == 0)
-			out->value_phase_weight = num;
-		else if (strcmp(d->info.key, "value_orientation_weight") == 0)
-			out->value_orientation_weight = num;
-		else if (strcmp(d->info.key, "plan_run_min_s") == 0)
-			out->plan_run_min_s = (int)num;
-		else if (strcmp(d->info.key, "plan_run_max_s") == 0)
-			out->plan_run_max_s = (int)num;
-		else if (strcmp(d->info.key, "plan_switch_s") == 0)
-			out->plan_switch_s = (int)num;
-		else if (strcmp(d->info.key, "plan_calibration_s") == 0)
-			out->plan_calibration_s = (int)num;
-		else if (strcmp(d->info.key, "plan_calibration_every_s") == 0)
-			out->plan_calibration_every_s = (int)num;
+		if (d->at == 0)
+			continue;
+		if (d->kind == SET_REAL)
+			*(double *)(void *)((char *)out + d->at - 1) = num;
+		else
+			*(int *)(void *)((char *)out + d->at - 1) = (int)num;
 	}
 	return ERRCODE_OK;
 }
