@@ -1,6 +1,7 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* test_render.c: ephemeris and phase JSON carry the documented fields,
-   text tables render, and every allocation failure is reported cleanly. */
+   text tables render, text is wrapped and escaped, and every allocation
+   failure is reported cleanly. */
 #include <string.h>
 
 #include <erfam.h>
@@ -10,6 +11,9 @@
 #include "formats/render_json.h"
 #include "formats/render_ephem.h"
 #include "formats/render_phases.h"
+#include "formats/render_cov.h"
+#include "formats/render_plan.h"
+#include "formats/render_text.h"
 #include "core/tzone.h"
 
 /* An invented station and two invented targets (test data only). */
@@ -318,6 +322,39 @@ test_render_allocation_failures(void **state)
 	run_under_faults(phases_json, &p);
 }
 
+/* The escapes of XML 1.0 (section 2.4, the five predefined entities; a
+   control character other than tab, LF and CR is not a Char, 2.2) and of
+   an iCalendar TEXT value (RFC 5545, 3.3.11; a content line is folded at
+   75 octets, 3.1); words wrapped at 79 columns. */
+static void
+test_render_text_escape_and_wrap(void **state)
+{
+	struct mbuf b;
+
+	(void)state;
+	mbuf_init(&b);
+	render_cov_xml_escape(&b, "a<b & \"c\" 'd'\x01\t\n\r\xc3\xa9");
+	assert_string_equal(b.data,
+	    "a&lt;b &amp; &quot;c&quot; &apos;d&apos;?\t\n\r\xc3\xa9");
+	mbuf_free(&b);
+	mbuf_init(&b);
+	render_ics_prop_text(&b, "SUMMARY", "a;b,c\\d\ne\rf\x01");
+	assert_string_equal(b.data, "SUMMARY:a\\;b\\,c\\\\d\\nef\x01\r\n");
+	mbuf_free(&b);
+	mbuf_init(&b);
+	render_text_wrap(&b, "Why: ", NULL, "one  two");
+	assert_string_equal(b.data, "Why: one two\n");
+	mbuf_free(&b);
+	mbuf_init(&b);
+	/* 9 words of 9 letters: 5 + 7 x 10 - 1 = 74 columns, the eighth
+	   would end at 84. */
+	render_text_wrap(&b, "Lead ", "  ", "aaaaaaaaa bbbbbbbbb ccccccccc "
+	    "ddddddddd eeeeeeeee fffffffff ggggggggg hhhhhhhhh iiiiiiiii");
+	assert_string_equal(b.data, "Lead aaaaaaaaa bbbbbbbbb ccccccccc "
+	    "ddddddddd eeeeeeeee fffffffff ggggggggg\n  hhhhhhhhh iiiiiiiii\n");
+	mbuf_free(&b);
+}
+
 int
 main(void)
 {
@@ -325,6 +362,7 @@ main(void)
 		cmocka_unit_test(test_render_ephem_json_has_every_field),
 		cmocka_unit_test(test_render_phases_json_parses),
 		cmocka_unit_test(test_render_text_tables),
+		cmocka_unit_test(test_render_text_escape_and_wrap),
 		cmocka_unit_test(test_render_allocation_failures),
 	};
 

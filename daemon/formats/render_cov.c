@@ -11,6 +11,7 @@
 #include "formats/render_time.h"
 #include "formats/render_cov.h"
 #include "formats/render_site.h"
+#include "formats/render_text.h"
 #include "core/tscale.h"
 
 /* --- shared bits --- */
@@ -81,6 +82,21 @@ jcounts(const struct coverage_counts *c, int nbins, long min_count)
 	bad |= json_object_set_new(m, "chi_square_reliable",
 	    json_boolean(x->chi2_reliable));
 	return render_json_checked(o, bad);
+}
+
+/* Append to arr the counts c (jcounts) with key set to value (a new
+   reference, taken): 0, or non-zero when it could not be built. */
+static int
+jcounts_add(json_t *arr, const struct coverage_counts *c,
+    const struct coverage_spec *s, const char *key, json_t *value)
+{
+	json_t *o = jcounts(c, s->nbins, s->min_count);
+
+	if (o == NULL || json_array_append_new(arr, o) != 0) {
+		json_decref(value);
+		return -1;
+	}
+	return json_object_set_new(o, key, value);
 }
 
 static json_t *
@@ -186,22 +202,14 @@ render_cov_json(const struct render_cov *c, struct mbuf *out)
 	    jcounts(&r->pooled, s->nbins, s->min_count));
 	arr = json_array();
 	bad |= json_object_set_new(root, "targets", arr);
-	for (size_t i = 0; i < r->ntargets && arr != NULL && !bad; i++) {
-		o = jcounts(&r->targets[i].c, s->nbins, s->min_count);
-		bad |= json_array_append_new(arr, o);
-		if (o != NULL)
-			bad |= json_object_set_new(o, "id",
-			    json_string(r->targets[i].id));
-	}
+	for (size_t i = 0; i < r->ntargets && arr != NULL && !bad; i++)
+		bad |= jcounts_add(arr, &r->targets[i].c, s, "id",
+		    json_string(r->targets[i].id));
 	arr = json_array();
 	bad |= json_object_set_new(root, "years", arr);
-	for (size_t i = 0; i < r->nyears && arr != NULL && !bad; i++) {
-		o = jcounts(&r->years[i].c, s->nbins, s->min_count);
-		bad |= json_array_append_new(arr, o);
-		if (o != NULL)
-			bad |= json_object_set_new(o, "year",
-			    json_integer(r->years[i].year));
-	}
+	for (size_t i = 0; i < r->nyears && arr != NULL && !bad; i++)
+		bad |= jcounts_add(arr, &r->years[i].c, s, "year",
+		    json_integer(r->years[i].year));
 	bad |= json_object_set_new(root, "fill",
 	    c->fill != NULL ? jfill(r, c->fill) : json_null());
 	bad |= json_object_set_new(root, "fill_note",
@@ -426,35 +434,17 @@ render_cov_text(const struct render_cov *c, struct mbuf *out)
 
 /* --- SVG --- */
 
+/* XML 1.0's five entities; tab, newline and CR as they are (every other
+   control character is not allowed in XML 1.0 and becomes "?"). */
+static const char *const xml_escapes[RENDER_TEXT_ASCII] = {
+	['&'] = "&amp;", ['<'] = "&lt;", ['>'] = "&gt;", ['"'] = "&quot;",
+	['\''] = "&apos;", ['\t'] = "\t", ['\n'] = "\n", ['\r'] = "\r",
+};
+
 void
 render_cov_xml_escape(struct mbuf *out, const char *s)
 {
-	for (; *s; s++) {
-		switch (*s) {
-		case '&':
-			mbuf_puts(out, "&amp;");
-			break;
-		case '<':
-			mbuf_puts(out, "&lt;");
-			break;
-		case '>':
-			mbuf_puts(out, "&gt;");
-			break;
-		case '"':
-			mbuf_puts(out, "&quot;");
-			break;
-		case '\'':
-			mbuf_puts(out, "&apos;");
-			break;
-		default:
-			/* Control characters are not allowed in XML 1.0. */
-			if ((unsigned char)*s < 0x20 && *s != '\t' &&
-			    *s != '\n' && *s != '\r')
-				mbuf_puts(out, "?");
-			else
-				mbuf_add(out, s, 1);
-		}
-	}
+	render_text_escape(out, s, xml_escapes, "?");
 }
 
 /*

@@ -15,6 +15,7 @@
 #include "formats/render_plan.h"
 #include "formats/render_time.h"
 #include "formats/render_site.h"
+#include "formats/render_text.h"
 
 #define R2D (ERFA_DR2D)
 
@@ -329,31 +330,11 @@ render_ics_line(struct mbuf *b, const char *s)
 	mbuf_puts(b, "\r\n");
 }
 
-/* Append text escaped as an iCalendar TEXT value (3.3.11). */
-static void
-ics_text(struct mbuf *b, const char *s)
-{
-	for (const char *c = s; *c; c++) {
-		switch (*c) {
-		case '\\':
-			mbuf_puts(b, "\\\\");
-			break;
-		case ';':
-			mbuf_puts(b, "\\;");
-			break;
-		case ',':
-			mbuf_puts(b, "\\,");
-			break;
-		case '\n':
-			mbuf_puts(b, "\\n");
-			break;
-		case '\r':
-			break;
-		default:
-			mbuf_add(b, c, 1);
-		}
-	}
-}
+/* An iCalendar TEXT value's escapes (3.3.11); a CR is dropped. */
+static const char *const ics_escapes[RENDER_TEXT_ASCII] = {
+	['\\'] = "\\\\", [';'] = "\\;", [','] = "\\,", ['\n'] = "\\n",
+	['\r'] = "",
+};
 
 /* A property "NAME:" with an escaped TEXT value, folded. */
 void
@@ -364,7 +345,7 @@ render_ics_prop_text(struct mbuf *out, const char *name, const char *value)
 	mbuf_init(&t);
 	mbuf_puts(&t, name);
 	mbuf_puts(&t, ":");
-	ics_text(&t, value);
+	render_text_escape(&t, value, ics_escapes, NULL);
 	if (mbuf_status(&t) != ERRCODE_OK || t.data == NULL)
 		out->failed = 1;
 	else
@@ -557,34 +538,6 @@ render_windows_text(const struct render_plan *p, struct mbuf *out)
 	if (p->time_zone != NULL)
 		mbuf_printf(out, "Local times: %s.\n", p->time_zone->name);
 	return mbuf_status(out);
-}
-
-void
-render_text_wrap(struct mbuf *b, const char *lead, const char *indent,
-    const char *text)
-{
-	size_t col = strlen(lead);
-	size_t ind = indent != NULL ? strlen(indent) : col;
-	const char *p = text;
-
-	mbuf_puts(b, lead);
-	while (*p) {
-		size_t n = strcspn(p, " ");
-
-		if (col > ind && col + 1 + n > 79) {
-			mbuf_printf(b, "\n%*s", (int)ind, "");
-			col = ind;
-		} else if (p != text) {
-			mbuf_puts(b, " ");
-			col++;
-		}
-		mbuf_add(b, p, n);
-		col += n;
-		p += n;
-		while (*p == ' ')
-			p++;
-	}
-	mbuf_puts(b, "\n");
 }
 
 /* Best open window at instant t (lowest rank), or NULL. */

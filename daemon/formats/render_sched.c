@@ -15,6 +15,7 @@
 #include "formats/render_cov.h"
 #include "formats/render_sched.h"
 #include "formats/render_site.h"
+#include "formats/render_text.h"
 
 static void
 iso(double mjd, char *buf, size_t len)

@@ -81,12 +81,6 @@ void render_ics_event_begin(struct mbuf *out, const char *uid,
 void render_ics_reasons_desc(struct mbuf *out, struct mbuf *d,
     const char (*reasons)[PLAN_REASON_LEN], size_t n);
 
-/* Text wrapped at 79 columns: lead, the words of text, and each further
-   line indented by as many spaces as indent holds (NULL: as lead); a
-   newline at the end. */
-void render_text_wrap(struct mbuf *b, const char *lead, const char *indent,
-    const char *text);
-
 /* Local "MM-DD", "HH:MM" and zone abbreviation of a UTC MJD from the
    zone table tz (UTC when tz is NULL or does not cover it); day >= 8,
    hm >= 8, zone >= 8. */
