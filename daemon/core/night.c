@@ -105,7 +105,7 @@ struct work {
 	size_t *phase_of;
 	double *npr;
 	double *prec;		/* nt x nslots: precision weight (jitter set) */
-	double *dd, *ww;	/* held angles and weights */
+	struct logstats built;	/* the log's, when the query has none */
 	long *counts;		/* (nt + 1) x nbins */
 	struct window_node *nodes;
 	struct geom_target *bodies;
@@ -129,8 +129,7 @@ work_free(struct work *w)
 	mem_free(w->phase_of);
 	mem_free(w->npr);
 	mem_free(w->prec);
-	mem_free(w->dd);
-	mem_free(w->ww);
+	logstats_free(&w->built);
 	mem_free(w->counts);
 	mem_free(w->nodes);
 	mem_free(w->bodies);
@@ -243,8 +242,18 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 		    "shorter than one %.0f s slot", g);
 	q.target = NULL;
 	q.limit = 0;
+	/* The log's statistics, built once for plan_run and the value. */
+	if (q.stats == NULL) {
+		if ((rc = logstats_build(&w.built, &q.station,
+		    q.settings.nbins, q.attempts, q.nattempts, q.nps,
+		    q.nnps)) != ERRCODE_OK)
+			return text_err(rc, errbuf, errlen, "log: %s",
+			    rc == ERRCODE_BAD_ARG ? "zenith_tau or coverage_bins "
+			    "out of range" : errcode_str(rc));
+		q.stats = &w.built;
+	}
 	if ((rc = plan_run(&q, &pr, errbuf, errlen)) != ERRCODE_OK)
-		return rc;
+		goto out;
 	nt = pr.nmodels;
 	if (nt > 64) {
 		rc = text_err(ERRCODE_TOO_LARGE, errbuf, errlen, "targets: more "
@@ -268,15 +277,13 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 	w.phase_of = mem_calloc(nt + 1, sizeof(size_t));
 	w.npr = mem_calloc(nt + 1, sizeof(double));
 	w.prec = mem_calloc(nt * nslots + 1, sizeof(double));
-	w.dd = mem_calloc(q.nnps + q.nattempts + 1, sizeof(double));
-	w.ww = mem_calloc(q.nnps + q.nattempts + 1, sizeof(double));
 	w.counts = mem_calloc((nt + 1) * nb, sizeof(long));
 	w.bodies = mem_calloc(nt + 1, sizeof(struct geom_target));
 	nn = window_track_nodes((q.to_mjd - q.from_mjd) + 1e-3);
 	w.nodes = mem_calloc(nn, sizeof(struct window_node));
 	if (!w.avail || !w.clear || !w.ret || !w.h || !w.syn || !w.binw ||
 	    !w.el || !w.moon_el || !w.sun_el || !w.sun_sep || !w.lit ||
-	    !w.ph || !w.phase_of || !w.npr || !w.prec || !w.dd || !w.ww || !w.counts ||
+	    !w.ph || !w.phase_of || !w.npr || !w.prec || !w.counts ||
 	    !w.bodies || !w.nodes) {
 		rc = ERRCODE_NOMEM;
 		goto out;
@@ -401,59 +408,41 @@ night_plan(const struct plan_query *q0, const struct night_settings *ns,
 
 	/* Information held on the phase: normal points and the log's. */
 	{
-		size_t np = 0, npools = per_target ? nt : 1;
-		double snp = 0.0, sret = 0.0, npr;
+		size_t npools = per_target ? nt : 1;
+		const struct logstats_entry *pool = &q.stats->e[0];
+		double npr;
 
-		for (size_t pool = 0; pool < npools; pool++) {
-			np = 0;
-			for (size_t i = 0; i < q.nnps; i++)
-				if (!per_target || strcmp(q.nps[i].target,
-				    pr.models[pool].id) == 0) {
-					w.dd[np] = q.nps[i].synodic_deg *
-					    ERFA_DD2R;
-					w.ww[np++] = 1.0;
-				}
-			for (size_t i = 0; i < q.nattempts; i++)
-				if (q.attempts[i].normal_points > 0 &&
-				    (!per_target || strcmp(q.attempts[i].target,
-				    pr.models[pool].id) == 0)) {
-					w.dd[np] = q.attempts[i].synodic_deg *
-					    ERFA_DD2R;
-					w.ww[np++] = (double)
-					    q.attempts[i].normal_points;
-				}
-			rc = value_phase_build(&w.ph[pool], ns->value.harmonics,
-			    ns->value.phase_ridge, w.dd, w.ww, np);
+		for (size_t k = 0; k < npools; k++) {
+			const struct logstats_entry *e = per_target ?
+			    logstats_find(q.stats, pr.models[k].id) : pool;
+			struct value_moments m;
+
+			memset(&m, 0, sizeof m);
+			if (e != NULL)
+				value_moments_sum(&e->ph_np, &e->ph_att, &m);
+			rc = value_phase_from_moments(&w.ph[k],
+			    ns->value.harmonics, ns->value.phase_ridge, &m);
 			if (rc != ERRCODE_OK)
 				goto out;
 		}
 		for (size_t j = 0; j < nt; j++)
 			w.phase_of[j] = per_target ? j : 0;
-		for (size_t i = 0; i < q.nattempts; i++)
-			if (q.attempts[i].returns > 0) {
-				snp += (double)q.attempts[i].normal_points;
-				sret += (double)q.attempts[i].returns;
-			}
-		npr = value_np_per_return(snp, sret);
+		npr = value_np_per_return((double)pool->ret_nps,
+		    (double)pool->ret_returns);
 		for (size_t j = 0; j < nt; j++)
 			w.npr[j] = npr;
 		sp.nphase = npools;
 	}
 
 	/* The coverage weight W of each slot (value_model bins). */
-	for (size_t i = 0; i < q.nnps; i++)
-		for (size_t j = 0; j <= nt; j++)
-			if (j == nt || strcmp(q.nps[i].target,
-			    pr.models[j].id) == 0)
-				score_bin_add(w.counts + j * nb, (int)nb,
-				    q.nps[i].synodic_deg, 1);
-	for (size_t i = 0; i < q.nattempts; i++)
-		for (size_t j = 0; j <= nt; j++)
-			if (j == nt || strcmp(q.attempts[i].target,
-			    pr.models[j].id) == 0)
-				score_bin_add(w.counts + j * nb, (int)nb,
-				    q.attempts[i].synodic_deg,
-				    q.attempts[i].normal_points);
+	memcpy(w.counts + nt * nb, pr.pooled, nb * sizeof(long));
+	for (size_t j = 0; j < nt; j++) {
+		const struct logstats_entry *e = logstats_find(q.stats,
+		    pr.models[j].id);
+
+		if (e != NULL)
+			memcpy(w.counts + j * nb, e->counts, nb * sizeof(long));
+	}
 	for (size_t j = 0; j < nt; j++) {
 		const long *c = w.counts + (per_target ? j : nt) * nb;
 		double mean = score_bin_mean(c, (int)nb);

@@ -244,31 +244,47 @@ explain(struct plan_window *w, const struct plan_target_model *m,
  * the Moon's centre).  yield[nt] in the order of tg.
  */
 static enum errcode
-fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
-    struct score_yield *yield, struct score_model *model)
+fit_all(const struct plan_query *q, const struct logstats *ls,
+    const struct site_target *tg, size_t nt, struct score_yield *yield,
+    struct score_model *model)
 {
 	struct site_target *act = NULL;
 	struct score_yield *ay = NULL;
+	struct score_sums *u = NULL;
+	const struct logstats_entry *e;
 	size_t na = 0;
 	enum errcode rc;
 
 	for (size_t i = 0; i < q->ntargets; i++)
 		na += q->targets[i].active ? 1 : 0;
-	if (na == 0)
-		return score_fit(&q->settings, &q->station, tg, nt,
-		    q->attempts, q->nattempts, yield, model);
-	act = mem_calloc(na, sizeof act[0]);
-	ay = mem_calloc(na, sizeof ay[0]);
-	if (act == NULL || ay == NULL) {
+	act = mem_calloc(na + nt, sizeof act[0]);
+	ay = mem_calloc(na + nt, sizeof ay[0]);
+	u = mem_calloc(na + nt, sizeof u[0]);
+	if (act == NULL || ay == NULL || u == NULL) {
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	na = 0;
-	for (size_t i = 0; i < q->ntargets; i++)
-		if (q->targets[i].active)
-			act[na++] = q->targets[i];
-	rc = score_fit(&q->settings, &q->station, act, na,
-	    q->attempts, q->nattempts, ay, model);
+	if (na == 0) {
+		memcpy(act, tg, nt * sizeof act[0]);
+		na = nt;
+	} else {
+		na = 0;
+		for (size_t i = 0; i < q->ntargets; i++)
+			if (q->targets[i].active)
+				act[na++] = q->targets[i];
+	}
+	/* The sums of each fitted target: the first of a repeated id, as a
+	   search of the attempts' target would find. */
+	for (size_t i = 0; i < na; i++) {
+		size_t k = 0;
+
+		while (k < i && strcmp(act[k].id, act[i].id) != 0)
+			k++;
+		if (k == i && (e = logstats_find(ls, act[i].id)) != NULL)
+			u[i] = e->y;
+	}
+	rc = score_fit_sums(&q->settings, &q->station, act, na, u,
+	    ls->e[0].attempts, ay, model);
 	if (rc != ERRCODE_OK)
 		goto out;
 	for (size_t j = 0; j < nt; j++) {
@@ -285,6 +301,7 @@ fit_all(const struct plan_query *q, const struct site_target *tg, size_t nt,
 out:
 	mem_free(act);
 	mem_free(ay);
+	mem_free(u);
 	return rc;
 }
 
@@ -331,9 +348,12 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	size_t nt = 0, nn, cap, nw = 0, nbo = 0, keep;
 	double span;
 	int nb = q->settings.nbins;
+	struct logstats built;
+	const struct logstats *ls = q->stats;
 	enum errcode rc;
 
 	memset(out, 0, sizeof *out);
+	memset(&built, 0, sizeof built);
 	if (score_settings_check(&q->settings, &field) != ERRCODE_OK)
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
 		    "setting %s is out of range", field);
@@ -460,25 +480,31 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		bo[nbo++].end = s1;
 	}
 
-	/* Coverage counts: normal points and the log's normal points. */
-	for (size_t i = 0; i < q->nnps; i++) {
-		const struct site_normal_point *p = &q->nps[i];
-
-		score_bin_add(counts + nt * (size_t)nb, nb, p->synodic_deg, 1);
-		for (size_t j = 0; j < nt; j++)
-			if (strcmp(p->target, tg[j].id) == 0)
-				score_bin_add(counts + j * (size_t)nb, nb,
-				    p->synodic_deg, 1);
+	/* The log's statistics: given, or built from the arrays. */
+	if (ls == NULL) {
+		if ((rc = logstats_build(&built, st, nb, q->attempts,
+		    q->nattempts, q->nps, q->nnps)) != ERRCODE_OK) {
+			(void)text_err(rc, errbuf, errlen, "log: %s",
+			    errcode_str(rc));
+			goto out;
+		}
+		ls = &built;
+	} else if (!logstats_current(ls, st, nb)) {
+		rc = text_err(ERRCODE_BAD_ARG, errbuf, errlen, "log "
+		    "statistics: taken under another zenith tau, seeing or "
+		    "number of bins than the query's");
+		goto out;
 	}
-	for (size_t i = 0; i < q->nattempts; i++) {
-		const struct site_attempt *p = &q->attempts[i];
 
-		score_bin_add(counts + nt * (size_t)nb, nb, p->synodic_deg,
-		    p->normal_points);
-		for (size_t j = 0; j < nt; j++)
-			if (strcmp(p->target, tg[j].id) == 0)
-				score_bin_add(counts + j * (size_t)nb, nb,
-				    p->synodic_deg, p->normal_points);
+	/* Coverage counts: normal points and the log's normal points. */
+	memcpy(counts + nt * (size_t)nb, ls->e[0].counts,
+	    (size_t)nb * sizeof counts[0]);
+	for (size_t j = 0; j < nt; j++) {
+		const struct logstats_entry *e = logstats_find(ls, tg[j].id);
+
+		if (e != NULL)
+			memcpy(counts + j * (size_t)nb, e->counts,
+			    (size_t)nb * sizeof counts[0]);
 	}
 	memcpy(out->pooled, counts + nt * (size_t)nb,
 	    (size_t)nb * sizeof counts[0]);
@@ -486,7 +512,7 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 	/* Yield model, fitted over every active target whatever --target
 	   selects: the pooled base rate and sunlit factor (the priors of
 	   each target) must not depend on which windows are listed. */
-	rc = fit_all(q, tg, nt, yield, &out->model);
+	rc = fit_all(q, ls, tg, nt, yield, &out->model);
 	if (rc != ERRCODE_OK) {
 		if (rc == ERRCODE_BAD_ARG)
 			text_err(rc, errbuf, errlen, "%s: a target strength is "
@@ -595,6 +621,7 @@ out:
 	mem_free(bo);
 	mem_free(win);
 	mem_free(sw);
+	logstats_free(&built);
 	if (rc != ERRCODE_OK)
 		plan_result_free(out);
 	return rc;

@@ -8,6 +8,7 @@
 #include <erfam.h>
 
 #include "core/link.h"
+#include "core/mem.h"
 #include "core/score.h"
 
 void
@@ -95,10 +96,61 @@ score_link_factor(const struct site_station *st, double seeing_arcsec,
 	    LINK_R0);
 }
 
+int
+score_sums_add(struct score_sums *u, const struct link_station *ls, double tau,
+    const struct site_attempt *a)
+{
+	double e;
+
+	if (!usable(a))
+		return 0;
+	e = (double)a->shots *
+	    score_transmission(tau, a->target_el_deg * ERFA_DD2R) *
+	    link_rate_factor(ls, a->seeing_arcsec, a->range_km > 0.0 ?
+	    a->range_km * 1e3 : LINK_R0);
+	if (a->sun_el_target_deg > 0.0) {
+		u->lit_returns += a->returns;
+		u->lit_exposure += e;
+	} else {
+		u->dark_returns += a->returns;
+		u->dark_exposure += e;
+	}
+	u->used++;
+	return 1;
+}
+
 enum errcode
 score_fit(const struct score_settings *s, const struct site_station *st,
     const struct site_target *targets, size_t nt,
     const struct site_attempt *att, size_t na, struct score_yield *yield,
+    struct score_model *model)
+{
+	struct score_sums *u = mem_calloc(nt + 1, sizeof u[0]);
+	struct link_station ls;
+	enum errcode rc;
+
+	if (u == NULL)
+		return ERRCODE_NOMEM;
+	site_station_link(st, &ls);
+	for (size_t i = 0; i < na; i++) {
+		size_t j;
+
+		for (j = 0; j < nt; j++)
+			if (strcmp(targets[j].id, att[i].target) == 0)
+				break;
+		if (j < nt)
+			(void)score_sums_add(&u[j], &ls, st->zenith_tau,
+			    &att[i]);
+	}
+	rc = score_fit_sums(s, st, targets, nt, u, (long)na, yield, model);
+	mem_free(u);
+	return rc;
+}
+
+enum errcode
+score_fit_sums(const struct score_settings *s, const struct site_station *st,
+    const struct site_target *targets, size_t nt,
+    const struct score_sums *sums, long na, struct score_yield *yield,
     struct score_model *model)
 {
 	const double w = s->prior_weight;
@@ -119,33 +171,14 @@ score_fit(const struct score_settings *s, const struct site_station *st,
 		site_target_link(&targets[j], &lt);
 		yield[j].link_rate = targets[j].strength *
 		    link_photoelectrons(&ls, &lt, LINK_R0, 1.0);
+		yield[j].dark_returns = (double)sums[j].dark_returns;
+		yield[j].dark_exposure = sums[j].dark_exposure;
+		yield[j].lit_returns = (double)sums[j].lit_returns;
+		yield[j].lit_exposure = sums[j].lit_exposure;
+		yield[j].attempts = sums[j].used;
+		model->attempts_used += sums[j].used;
 	}
-	for (size_t i = 0; i < na; i++) {
-		const struct site_attempt *a = &att[i];
-		size_t j;
-		double e;
-
-		for (j = 0; j < nt; j++)
-			if (strcmp(targets[j].id, a->target) == 0)
-				break;
-		if (j == nt || !usable(a)) {
-			model->attempts_skipped++;
-			continue;
-		}
-		e = (double)a->shots *
-		    score_transmission(tau, a->target_el_deg * ERFA_DD2R) *
-		    link_rate_factor(&ls, a->seeing_arcsec, a->range_km > 0.0 ?
-		    a->range_km * 1e3 : LINK_R0);
-		if (a->sun_el_target_deg > 0.0) {
-			yield[j].lit_returns += (double)a->returns;
-			yield[j].lit_exposure += e;
-		} else {
-			yield[j].dark_returns += (double)a->returns;
-			yield[j].dark_exposure += e;
-		}
-		yield[j].attempts++;
-		model->attempts_used++;
-	}
+	model->attempts_skipped = na - model->attempts_used;
 	for (size_t j = 0; j < nt; j++) {
 		rd += yield[j].dark_returns;
 		xd += yield[j].link_rate * yield[j].dark_exposure;

@@ -156,32 +156,96 @@ value_phase_features(double d_rad, int k, double *f)
 	}
 }
 
-enum errcode
-value_phase_build(struct value_phase *p, int k, double ridge,
-    const double *d_rad, const double *w, size_t n)
+void
+value_moments_add(struct value_moments *m, double d_rad, double w)
 {
-	double m[VALUE_PDIM_MAX * VALUE_PDIM_MAX], f[VALUE_PDIM_MAX];
+	if (!isfinite(d_rad) || !(w > 0) || !isfinite(w))
+		return;
+	m->w += w;
+	for (int n = 1; n <= VALUE_MOMENTS; n++) {
+		m->c[n - 1] += w * cos(n * d_rad);
+		m->s[n - 1] += w * sin(n * d_rad);
+	}
+}
+
+void
+value_moments_sum(const struct value_moments *a, const struct value_moments *b,
+    struct value_moments *out)
+{
+	out->w = a->w + b->w;
+	for (int n = 0; n < VALUE_MOMENTS; n++) {
+		out->c[n] = a->c[n] + b->c[n];
+		out->s[n] = a->s[n] + b->s[n];
+	}
+}
+
+/* sum w cos nD and sum w sin nD for any integer n (|n| <= 2K). */
+static double
+mom_c(const struct value_moments *m, int n)
+{
+	n = n < 0 ? -n : n;
+	return n == 0 ? m->w : m->c[n - 1];
+}
+
+static double
+mom_s(const struct value_moments *m, int n)
+{
+	if (n == 0)
+		return 0.0;
+	return n < 0 ? -m->s[-n - 1] : m->s[n - 1];
+}
+
+/* sum w f_r f_c, f_0 = 1, f_(2a-1) = cos aD, f_(2a) = sin aD. */
+static double
+mom_entry(const struct value_moments *m, int r, int c)
+{
+	int a = (r + 1) / 2, b = (c + 1) / 2;
+	int ca = r == 0 || r % 2 == 1, cb = c == 0 || c % 2 == 1;
+
+	if (r == 0 && c == 0)
+		return m->w;
+	if (r == 0)
+		return cb ? mom_c(m, b) : mom_s(m, b);
+	if (c == 0)
+		return ca ? mom_c(m, a) : mom_s(m, a);
+	if (ca && cb)		/* cos a cos b */
+		return 0.5 * (mom_c(m, a - b) + mom_c(m, a + b));
+	if (!ca && !cb)		/* sin a sin b */
+		return 0.5 * (mom_c(m, a - b) - mom_c(m, a + b));
+	if (ca)			/* cos a sin b */
+		return 0.5 * (mom_s(m, a + b) - mom_s(m, a - b));
+	return 0.5 * (mom_s(m, a + b) + mom_s(m, a - b));	/* sin a cos b */
+}
+
+enum errcode
+value_phase_from_moments(struct value_phase *p, int k, double ridge,
+    const struct value_moments *mo)
+{
+	double m[VALUE_PDIM_MAX * VALUE_PDIM_MAX];
 	int dim = 2 * k + 1;
 
 	if (k < 1 || k > VALUE_K_MAX || !(ridge > 0) || !isfinite(ridge))
 		return ERRCODE_BAD_ARG;
 	memset(p, 0, sizeof *p);
-	memset(m, 0, sizeof m);
 	p->k = k;
 	p->dim = dim;
-	for (int i = 0; i < dim; i++)
-		m[i * dim + i] = ridge;
-	for (size_t i = 0; i < n; i++) {
-		double wi = w != NULL ? w[i] : 1.0;
-
-		if (!isfinite(d_rad[i]) || !(wi > 0) || !isfinite(wi))
-			continue;
-		value_phase_features(d_rad[i], k, f);
-		for (int r = 0; r < dim; r++)
-			for (int c = 0; c < dim; c++)
-				m[r * dim + c] += wi * f[r] * f[c];
-	}
+	for (int r = 0; r < dim; r++)
+		for (int c = 0; c < dim; c++)
+			m[r * dim + c] = mom_entry(mo, r, c) +
+			    (r == c ? ridge : 0.0);
 	return spd_inverse(m, p->minv, dim);
+}
+
+enum errcode
+value_phase_build(struct value_phase *p, int k, double ridge,
+    const double *d_rad, const double *w, size_t n)
+{
+	struct value_moments m;
+
+	memset(&m, 0, sizeof m);
+	for (size_t i = 0; i < n; i++)
+		value_moments_add(&m, d_rad[i], w != NULL ? w[i] : 1.0);
+	return value_phase_from_moments(p, k, ridge, &m);
 }
 
 double

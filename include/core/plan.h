@@ -9,6 +9,7 @@
 #include "core/eclipse.h"
 #include "core/errcode.h"
 #include "core/geom.h"
+#include "core/logstats.h"
 #include "core/mem.h"
 #include "core/score.h"
 #include "core/site.h"
@@ -39,6 +40,10 @@ struct plan_query {
 	size_t nattempts;
 	const struct site_normal_point *nps;	/* coverage counts */
 	size_t nnps;
+	/* The log as statistics (core/logstats.h), taken under station's
+	   tau and seeing and settings.nbins; when NULL they are built from
+	   attempts and nps (the same sums), else those are not read. */
+	const struct logstats *stats;
 	struct geom_eop eop;		/* constant over the span, used when
 					   no EOP row covers its middle */
 	const struct site_eop_row *eop_rows;	/* MJD-sorted, or NULL */

@@ -8,6 +8,7 @@
 
 #include "core/errcode.h"
 #include "core/geom.h"
+#include "core/link.h"
 #include "core/site.h"
 #include "core/window.h"
 
@@ -104,6 +105,37 @@ struct score_model {
 };
 
 /*
+ * The sums score_fit reads from the log for one target: its sufficient
+ * statistics, the same whichever way the log is read (core/logstats.h
+ * keeps them per target as the log grows).
+ */
+struct score_sums {
+	long used;			/* usable attempts */
+	long dark_returns, lit_returns;
+	double dark_exposure, lit_exposure;	/* E of score_fit note 1 */
+};
+
+/*
+ * Add one attempt to u when it is usable (score_fit note 1), with its
+ * exposure under tau and the typical seeing of ls.
+ * Returned (function value): 1 when added, 0 when skipped.
+ */
+int score_sums_add(struct score_sums *u, const struct link_station *ls,
+    double tau, const struct site_attempt *a);
+
+/*
+ * score_fit from the sums: sums[nt] of the targets, in their order (the
+ * exposures taken under st's tau and typical seeing), and na the
+ * attempts of the log, used or not.
+ * Called:
+ *   link_photoelectrons, site_station_link, site_target_link
+ */
+enum errcode score_fit_sums(const struct score_settings *s,
+    const struct site_station *st, const struct site_target *targets,
+    size_t nt, const struct score_sums *sums, long na,
+    struct score_yield *yield, struct score_model *model);
+
+/*
  * Learn r_j and f_j for each target from the log.
  *
  * Given:
@@ -139,8 +171,7 @@ struct score_model {
  *      (the link equation as it stands); as exposure grows the estimate
  *      tends to the observed one.
  * Called:
- *   score_transmission, link_photoelectrons, link_rate_factor,
- *   site_station_link, site_target_link
+ *   score_sums_add, score_fit_sums, site_station_link
  */
 enum errcode score_fit(const struct score_settings *s,
     const struct site_station *st, const struct site_target *targets,

@@ -102,14 +102,43 @@ struct value_phase {
  * Returned (function value):
  *   ERRCODE_OK; ERRCODE_BAD_ARG for k or ridge out of range
  * Notes:
- *   M is summed, then inverted by Cholesky factorisation (Golub & Van
+ *   M is summed through the moments (value_phase_from_moments), then
+ *   inverted by Cholesky factorisation (Golub & Van
  *   Loan, Matrix Computations, 4th ed., 2013, 4.2); with lambda > 0 it is
  *   positive definite.
  * Called:
- *   value_phase_features
+ *   value_moments_add, value_phase_from_moments
  */
 enum errcode value_phase_build(struct value_phase *p, int k, double ridge,
     const double *d_rad, const double *w, size_t n);
+
+/*
+ * The phase moments of weighted synodic angles, from which M is exact for
+ * any order K <= VALUE_K_MAX: the products of f(D) f(D)^T are harmonics
+ * of D up to 2K (cos a cos b = (cos (a-b) + cos (a+b)) / 2 and the like),
+ * so M needs only sum w, sum w cos nD and sum w sin nD for n <= 2K.
+ * A log keeps them as it grows (core/logstats.h).
+ */
+#define VALUE_MOMENTS (2 * VALUE_K_MAX)
+struct value_moments {
+	double w;			/* sum w */
+	double c[VALUE_MOMENTS];	/* c[n - 1] = sum w cos nD */
+	double s[VALUE_MOMENTS];	/* s[n - 1] = sum w sin nD */
+};
+
+/* Add a point of weight w at D (rad); NaN D or w <= 0 is left out. */
+void value_moments_add(struct value_moments *m, double d_rad, double w);
+
+/* out = a + b, term by term (out may be a or b). */
+void value_moments_sum(const struct value_moments *a,
+    const struct value_moments *b, struct value_moments *out);
+
+/*
+ * M = ridge I + sum w f f^T from the moments, inverted: the one rule of
+ * value_phase_build.  k, ridge and the value as value_phase_build's.
+ */
+enum errcode value_phase_from_moments(struct value_phase *p, int k,
+    double ridge, const struct value_moments *m);
 
 /* f(D)^T M^-1 f(D) >= 0, the leverage of a point at D. */
 double value_phase_leverage(const struct value_phase *p, double d_rad);
