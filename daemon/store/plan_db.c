@@ -21,8 +21,7 @@ plan_db_free(struct plan_db *d)
 		return;
 	mem_free(d->targets);
 	mem_free(d->blackouts);
-	mem_free(d->attempts);
-	mem_free(d->nps);
+	logstats_free(&d->stats);
 	mem_free(d->eop);
 	plan_db_init(d);
 }
@@ -47,7 +46,6 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
     char *errbuf, size_t errlen)
 {
 	struct store_settings set;
-	struct store_query all;
 	enum errcode rc;
 
 	rc = store_station_get(s, &q->station, errbuf, errlen);
@@ -63,17 +61,14 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
 	q->settings.alpha = set.coverage_alpha;
 	q->settings.k = set.coverage_k;
 	q->settings.per_target = set.coverage_per_target;
-	store_query_init(&all);
 	rc = store_targets_list(s, 1, &d->targets, &d->ntargets, errbuf,
 	    errlen);
 	if (rc == ERRCODE_OK)
 		rc = store_blackouts_list(s, NAN, NAN, &d->blackouts,
 		    &d->nblackouts, errbuf, errlen);
 	if (rc == ERRCODE_OK)
-		rc = store_attempts_list(s, &all, &d->attempts, &d->nattempts,
-		    errbuf, errlen);
-	if (rc == ERRCODE_OK)
-		rc = store_nps_list(s, &all, &d->nps, &d->nnps, errbuf, errlen);
+		rc = store_logstats_get(s, &q->station, set.coverage_bins,
+		    &d->stats, &d->stale, errbuf, errlen);
 	if (rc == ERRCODE_OK)
 		rc = store_eop_load(s, &d->eop, &d->neop, errbuf, errlen);
 	if (rc != ERRCODE_OK)
@@ -82,10 +77,11 @@ plan_db_fill(struct store *s, struct plan_query *q, struct plan_db *d,
 	q->ntargets = d->ntargets;
 	q->blackouts = d->blackouts;
 	q->nblackouts = d->nblackouts;
-	q->attempts = d->attempts;
-	q->nattempts = d->nattempts;
-	q->nps = d->nps;
-	q->nnps = d->nnps;
+	q->attempts = NULL;
+	q->nattempts = 0;
+	q->nps = NULL;
+	q->nnps = 0;
+	q->stats = &d->stats;
 	q->eop_rows = d->eop;
 	q->neop = d->neop;
 out:

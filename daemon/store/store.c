@@ -735,6 +735,11 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 			goto out;
 		}
 	}
+	/* Writers bring stale log statistics up to date (a file just
+	   migrated, or written without them). */
+	if (!(flags & (STORE_OPEN_READONLY | STORE_OPEN_NO_MIGRATE)) &&
+	    (e = store_logstats_sync(s, NULL, errbuf, errlen)) != ERRCODE_OK)
+		goto out;
 	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
 		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "%s: the database has schema version %d, "
@@ -765,6 +770,7 @@ store_close(struct store *s)
 		return;
 	for (int i = 0; i < ST__COUNT; i++)
 		sqlite3_finalize(s->stmt[i]);
+	store_stats_discard(s);
 	if (s->in_tx)
 		(void)sqlite3_exec(s->db, "ROLLBACK", NULL, NULL, NULL);
 	sqlite3_close(s->db);
@@ -876,7 +882,9 @@ store_commit(struct store *s, char *errbuf, size_t errlen)
 		return text_err(ERRCODE_DB, errbuf, errlen,
 		    "no transaction is open");
 	}
-	e = exec_sql(s, "COMMIT", "committing", errbuf, errlen);
+	/* The log's statistics in the same transaction. */
+	if ((e = store_stats_flush(s, NULL, errbuf, errlen)) == ERRCODE_OK)
+		e = exec_sql(s, "COMMIT", "committing", errbuf, errlen);
 	if (e != ERRCODE_OK)
 		store_rollback(s);
 	s->in_tx = 0;
@@ -888,6 +896,7 @@ store_rollback(struct store *s)
 {
 	if (s == NULL)
 		return;
+	store_stats_discard(s);
 	if (!sqlite3_get_autocommit(s->db))
 		(void)sqlite3_exec(s->db, "ROLLBACK", NULL, NULL, NULL);
 	s->in_tx = 0;
@@ -1053,7 +1062,11 @@ store_setting_set(struct store *s, const char *key, const char *value,
 		return e;
 	store_bind_text(st, 1, key);
 	store_bind_text(st, 2, value);
-	return store_step_done(s, st, what, errbuf, errlen);
+	if ((e = store_step_done(s, st, what, errbuf, errlen)))
+		return e;
+	/* The log's statistics count normal points per coverage bin. */
+	return strcmp(key, "coverage_bins") == 0 ?
+	    store_logstats_sync(s, NULL, errbuf, errlen) : ERRCODE_OK;
 }
 
 enum errcode

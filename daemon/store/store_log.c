@@ -141,6 +141,7 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	struct site_station station;
 	double rate = NAN;
 	enum errcode e;
+	int own = 0;
 
 	snprintf(what, sizeof what, "attempt on '%s'", a->target);
 	if ((e = store_canon(&a->start_mjd, STORE_TIME_NDP, t0, sizeof t0, what,
@@ -159,6 +160,12 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	a->suspect = attempt_suspect(a, rate, NULL, 0);
 	if ((e = store_stmt_get(s, ST_ATTEMPT_ADD, &st, errbuf, errlen)))
 		return e;
+	/* The record and the log's statistics in one transaction. */
+	if (!s->in_tx) {
+		if ((e = store_begin(s, errbuf, errlen)))
+			return e;
+		own = 1;
+	}
 	store_bind_text(st, 1, a->target);
 	store_bind_text(st, 2, t0);
 	sqlite3_bind_double(st, 3, a->start_mjd);
@@ -186,10 +193,15 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 		(void)text_err(ERRCODE_OK, errbuf, errlen,
 		    "%s: target '%s' already has an attempt "
 		    "starting at %s", what, a->target, t0);
-	if (e != ERRCODE_OK)
-		return e;
-	a->id = (long)sqlite3_last_insert_rowid(s->db);
-	return ERRCODE_OK;
+	if (e == ERRCODE_OK) {
+		a->id = (long)sqlite3_last_insert_rowid(s->db);
+		store_stats_note_attempt(s, a);
+	}
+	if (own && e == ERRCODE_OK)
+		e = store_commit(s, errbuf, errlen);
+	else if (own)
+		store_rollback(s);
+	return e;
 }
 
 enum errcode
@@ -285,6 +297,7 @@ store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
 	sqlite3_stmt *st = NULL;
 	char t0[40], what[SITE_ID_LEN + SITE_CODE_LEN + 80];
 	enum errcode e;
+	int own = 0;
 
 	if (inserted != NULL)
 		*inserted = 0;
@@ -297,6 +310,12 @@ store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
 	    t0);
 	if ((e = store_stmt_get(s, ST_NP_ADD, &st, errbuf, errlen)))
 		return e;
+	/* The record and the log's statistics in one transaction. */
+	if (!s->in_tx) {
+		if ((e = store_begin(s, errbuf, errlen)))
+			return e;
+		own = 1;
+	}
 	store_bind_text(st, 1, np->target);
 	store_bind_text(st, 2, np->station_code);
 	store_bind_text(st, 3, t0);
@@ -308,14 +327,18 @@ store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
 	store_bind_real_or_null(st, 9, np->mean_elong_deg);
 	store_bind_real_or_null(st, 10, np->target_el_deg);
 	store_bind_real_or_null(st, 11, np->sun_el_target_deg);
-	if ((e = store_step_done(s, st, what, errbuf, errlen)))
-		return e;
-	if (sqlite3_changes(s->db) > 0) {
+	if ((e = store_step_done(s, st, what, errbuf, errlen)) == ERRCODE_OK &&
+	    sqlite3_changes(s->db) > 0) {
 		np->id = (long)sqlite3_last_insert_rowid(s->db);
 		if (inserted != NULL)
 			*inserted = 1;
+		store_stats_note_np(s, np);
 	}
-	return ERRCODE_OK;
+	if (own && e == ERRCODE_OK)
+		e = store_commit(s, errbuf, errlen);
+	else if (own)
+		store_rollback(s);
+	return e;
 }
 
 enum errcode

@@ -109,9 +109,10 @@ struct night_result {
  * Called:
  *   plan_run, plan_station_site, window_track_init, window_track_instant,
  *   window_track_synodic, geom_target_from_selen, geom_target_view,
- *   score_transmission, score_rate, score_bin_of, score_bin_add,
- *   score_bin_mean, score_coverage_weight, value_phase_build,
- *   value_orient_vector, value_np_per_return, sched_solve, eraAnp, eraRxp
+ *   score_transmission, score_rate, score_bin_of, score_bin_mean,
+ *   score_coverage_weight, logstats_build, logstats_find,
+ *   value_moments_sum, value_phase_from_moments, value_orient_vector,
+ *   value_np_per_return, sched_solve, eraAnp, eraRxp
  */
 enum errcode night_plan(const struct plan_query *q,
     const struct night_settings *s, enum sched_method method,

@@ -6,6 +6,7 @@
 #include <stddef.h>
 
 #include "core/errcode.h"
+#include "core/logstats.h"
 #include "core/plan.h"
 #include "core/site.h"
 
@@ -13,10 +14,11 @@
 struct plan_db {
 	struct site_target *targets;
 	struct site_blackout *blackouts;
-	struct site_attempt *attempts;
-	struct site_normal_point *nps;
+	struct logstats stats;		/* the log, as statistics */
+	int stale;			/* 1: computed from the records (the
+					   stored statistics were stale) */
 	struct site_eop_row *eop;
-	size_t ntargets, nblackouts, nattempts, nnps, neop;
+	size_t ntargets, nblackouts, neop;
 };
 
 void plan_db_init(struct plan_db *d);
@@ -26,8 +28,9 @@ void plan_db_free(struct plan_db *d);
 
 /*
  * Open path read-only and fill q's station, settings, targets, blackouts,
- * attempts, normal points and Earth-orientation rows (q->targets and the other arrays then point
- * into d).  The rest of q (span, target, limit) is left to the caller.
+ * the log's statistics (q->stats; store_logstats_get: O(targets x bins)
+ * when current) and Earth-orientation rows (q->targets and the others
+ * then point into d).  The rest of q (span, target, limit) is left to the caller.
  * Returned (function value): ERRCODE_OK, ERRCODE_NOT_FOUND (no file, or
  * no station in it), ERRCODE_DB, ERRCODE_NOMEM; errbuf says which.
  */

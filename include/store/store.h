@@ -33,7 +33,7 @@
  * processes may share one file (WAL, busy timeout STORE_BUSY_MS).
  */
 
-#define STORE_SCHEMA_VERSION 6	/* PRAGMA user_version of a current file */
+#define STORE_SCHEMA_VERSION 7	/* PRAGMA user_version of a current file */
 #define STORE_BUSY_MS 10000	/* wait this long for a lock, then fail */
 #define STORE_TIME_NDP 3	/* decimals of seconds of stored times */
 #define STORE_NP_TIME_NDP 6	/* ... of normal-point epochs */
@@ -276,6 +276,37 @@ enum errcode store_setting_set(struct store *s, const char *key,
 /* Current value of one setting as text (default if never set); buf >= 32. */
 enum errcode store_setting_get(struct store *s, const char *key, char *buf,
     size_t len, char *errbuf, size_t errlen);
+
+/* --- the log's statistics (core/logstats.h; DEVELOPERS.md "Log
+   statistics") --- */
+
+struct logstats;
+
+/*
+ * The statistics of the log taken under station st and nbins bins: the
+ * stored ones when current, else computed from the records (*stale = 1;
+ * the same sums, in O(records)).  Free out with logstats_free.
+ * Returned (function value): ERRCODE_OK, ERRCODE_DB, ERRCODE_NOMEM,
+ * ERRCODE_BAD_ARG (tau or nbins out of range).
+ */
+enum errcode store_logstats_get(struct store *s, const struct site_station *st,
+    int nbins, struct logstats *out, int *stale, char *errbuf,
+    size_t errlen);
+
+/*
+ * Rebuild the stored statistics when they are stale (the log written
+ * without them, another zenith tau, seeing or coverage_bins, another
+ * rule, a file just migrated), in the open transaction or one of its
+ * own; *rebuilt (may be NULL) says whether.  Writers' store_open, station
+ * and coverage_bins changes and every commit call it.
+ */
+enum errcode store_logstats_sync(struct store *s, int *rebuilt, char *errbuf,
+    size_t errlen);
+
+/* The log's change generation: bumped by every write of an attempt or a
+   normal point (whoever writes), never lowered. */
+enum errcode store_log_generation(struct store *s, long long *gen,
+    char *errbuf, size_t errlen);
 
 struct store_setting_info {
 	const char *key;

@@ -47,7 +47,28 @@ struct store {
 	sqlite3 *db;
 	int in_tx;			/* store_begin was called */
 	sqlite3_stmt *stmt[ST__COUNT];	/* prepared on first use */
+	/* The log's statistics with the records of the open transaction
+	   (store_stats.c): pend_state 0 none noted yet, 1 pend holds them,
+	   -1 the stored ones were not current (the commit rebuilds). */
+	struct logstats *pend;
+	int pend_state;
+	long long pend_gen0;		/* log_gen before the first */
+	long long pend_n;		/* records noted */
 };
+
+/*
+ * The log's statistics and the writes of a transaction (store_stats.c):
+ * note each record written (after its insert), flush before COMMIT (the
+ * records' sums written once, then a rebuild if the statistics are still
+ * stale: *rebuilt, may be NULL), discard on ROLLBACK.
+ */
+struct site_attempt;
+struct site_normal_point;
+void store_stats_note_attempt(struct store *s, const struct site_attempt *a);
+void store_stats_note_np(struct store *s, const struct site_normal_point *p);
+enum errcode store_stats_flush(struct store *s, int *rebuilt, char *errbuf,
+    size_t errlen);
+void store_stats_discard(struct store *s);
 
 /* Fill one element from the current row. */
 typedef void (*store_row_fn)(sqlite3_stmt *st, void *dst);
