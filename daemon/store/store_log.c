@@ -81,6 +81,26 @@ count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
 }
 
 /* --- attempts ------------------------------------------------------------- */
+/* A record and the log's statistics in one transaction: the caller's,
+   or one of their own (*own = 1) that own_end commits when e is
+   ERRCODE_OK and rolls back otherwise. */
+static enum errcode
+own_begin(struct store *s, int *own, char *errbuf, size_t errlen)
+{
+	*own = !s->in_tx;
+	return *own ? store_begin(s, errbuf, errlen) : ERRCODE_OK;
+}
+
+static enum errcode
+own_end(struct store *s, int own, enum errcode e, char *errbuf, size_t errlen)
+{
+	if (own && e == ERRCODE_OK)
+		return store_commit(s, errbuf, errlen);
+	if (own)
+		store_rollback(s);
+	return e;
+}
+
 
 static void
 row_attempt(sqlite3_stmt *st, void *dst)
@@ -160,12 +180,8 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	a->suspect = attempt_suspect(a, rate, NULL, 0);
 	if ((e = store_stmt_get(s, ST_ATTEMPT_ADD, &st, errbuf, errlen)))
 		return e;
-	/* The record and the log's statistics in one transaction. */
-	if (!s->in_tx) {
-		if ((e = store_begin(s, errbuf, errlen)))
-			return e;
-		own = 1;
-	}
+	if ((e = own_begin(s, &own, errbuf, errlen)))
+		return e;
 	store_bind_text(st, 1, a->target);
 	store_bind_text(st, 2, t0);
 	sqlite3_bind_double(st, 3, a->start_mjd);
@@ -197,11 +213,7 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 		a->id = (long)sqlite3_last_insert_rowid(s->db);
 		store_stats_note_attempt(s, a);
 	}
-	if (own && e == ERRCODE_OK)
-		e = store_commit(s, errbuf, errlen);
-	else if (own)
-		store_rollback(s);
-	return e;
+	return own_end(s, own, e, errbuf, errlen);
 }
 
 enum errcode
@@ -310,12 +322,8 @@ store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
 	    t0);
 	if ((e = store_stmt_get(s, ST_NP_ADD, &st, errbuf, errlen)))
 		return e;
-	/* The record and the log's statistics in one transaction. */
-	if (!s->in_tx) {
-		if ((e = store_begin(s, errbuf, errlen)))
-			return e;
-		own = 1;
-	}
+	if ((e = own_begin(s, &own, errbuf, errlen)))
+		return e;
 	store_bind_text(st, 1, np->target);
 	store_bind_text(st, 2, np->station_code);
 	store_bind_text(st, 3, t0);
@@ -334,11 +342,7 @@ store_np_add(struct store *s, struct site_normal_point *np, int *inserted,
 			*inserted = 1;
 		store_stats_note_np(s, np);
 	}
-	if (own && e == ERRCODE_OK)
-		e = store_commit(s, errbuf, errlen);
-	else if (own)
-		store_rollback(s);
-	return e;
+	return own_end(s, own, e, errbuf, errlen);
 }
 
 enum errcode
