@@ -380,7 +380,7 @@ static const struct route routes[] = {
 	    api_h_targets, 0, CACHE_NONE},
 	{{"GET", "/api/v1/now", "at",
 	    "Moon, Sun and each active target at an instant (default now)"},
-	    api_h_now, 0, CACHE_SITE},
+	    api_h_now, 1, CACHE_SITE},
 	{{"GET", "/api/v1/phases", PHQUERY_PARAMS,
 	    "new moon, quarters and full moon in a span"}, api_h_phases, 1,
 	    CACHE_SKY},
@@ -486,6 +486,7 @@ api_free(struct api_ctx *ctx)
 	if (ctx == NULL)
 		return;
 	api_site_free(&ctx->site);
+	api_now_site_put(ctx->now_site);
 	api_cache_free(ctx->cache);
 	mbuf_free(&ctx->plan_windows);
 	mbuf_free(&ctx->plan_coverage);
@@ -509,13 +510,17 @@ api_set_store(struct api_ctx *ctx, struct store *db)
 void
 api_set_site(struct api_ctx *ctx, struct api_site *site)
 {
+	struct api_now_site *now = api_now_site_make(site), *old_now;
 	struct api_site old;
 
 	pthread_mutex_lock(&ctx->lock);
 	old = ctx->site;
 	ctx->site = *site;
+	old_now = ctx->now_site;
+	ctx->now_site = now;
 	ctx->replan = 1;
 	pthread_mutex_unlock(&ctx->lock);
+	api_now_site_put(old_now);
 	/* After the swap: an answer computed from the old site before it
 	   carries the old generation and is not served again. */
 	atomic_fetch_add(&ctx->gen_site, 1);

@@ -129,73 +129,121 @@ api_h_targets(struct api_ctx *ctx, const struct api_request *req,
 	api_ok_or_error(resp, rc, 200, "application/json");
 }
 
+struct api_now_site *
+api_now_site_make(const struct api_site *s)
+{
+	struct api_now_site *n = mem_calloc(1, sizeof *n);
+	size_t k = 0;
+
+	if (n == NULL)
+		return NULL;
+	atomic_init(&n->refs, 1);
+	n->station = s->station;
+	n->site_ok = derive_site(&s->station, &n->site) == ERRCODE_OK;
+	n->targets = mem_calloc(s->ntargets + 1, sizeof *n->targets);
+	n->gt = mem_calloc(s->ntargets + 1, sizeof *n->gt);
+	n->eop = mem_calloc(s->neop + 1, sizeof *n->eop);
+	if (n->targets == NULL || n->gt == NULL || n->eop == NULL) {
+		api_now_site_put(n);
+		return NULL;
+	}
+	for (size_t i = 0; i < s->ntargets; i++) {
+		const struct site_target *t = &s->targets[i];
+
+		if (!t->active || geom_target_from_selen(t->lat_deg * ERFA_DD2R,
+		    t->lon_deg * ERFA_DD2R, t->height_m, &n->gt[k]) !=
+		    ERRCODE_OK)
+			continue;
+		n->targets[k++] = *t;
+	}
+	n->ntargets = k;
+	if (s->neop > 0)
+		memcpy(n->eop, s->eop, s->neop * sizeof *s->eop);
+	n->neop = s->neop;
+	/* The table's last day, as "ephem --db" reports it. */
+	if (s->neop == 0 || tscale_format_utc(ERFA_DJM0,
+	    s->eop[s->neop - 1].mjd, 0, n->eop_last, sizeof n->eop_last))
+		n->eop_last[0] = '\0';
+	n->eop_last[10] = '\0';
+	return n;
+}
+
+void
+api_now_site_put(struct api_now_site *n)
+{
+	if (n == NULL || atomic_fetch_sub(&n->refs, 1) != 1)
+		return;
+	mem_free(n->targets);
+	mem_free(n->gt);
+	mem_free(n->eop);
+	mem_free(n);
+}
+
+/* GET /api/v1/now: as "ephem --db --json", from the site's snapshot
+   without holding the context's lock while it computes. */
 void
 api_h_now(struct api_ctx *ctx, const struct api_request *req,
     struct api_response *resp)
 {
-	const struct site_station *st = &ctx->site.station;
+	struct api_now_site *ns;
 	struct render_target_row *rows = NULL;
-	struct geom_site site;
 	struct geom_eop eop = {0.0, 0.0, 0.0};
-	struct geom_instant *g = NULL;
+	struct geom_instant g;
 	struct render_ephem rep;
 	enum eop_source src;
 	double u1 = req->now1, u2 = req->now2;
-	char last[40];
-	size_t n = 0;
 	enum errcode rc;
 
-	if (!api_site_loaded(ctx, resp))
+	pthread_mutex_lock(&ctx->lock);
+	ns = ctx->now_site;
+	if (ns != NULL)
+		atomic_fetch_add(&ns->refs, 1);
+	else if (api_site_loaded(ctx, resp))
+		api_error(resp, ERRCODE_NOMEM, NULL, NULL);
+	pthread_mutex_unlock(&ctx->lock);
+	if (ns == NULL)
 		return;
+	if (ns->station.name[0] == '\0') {
+		api_error(resp, ERRCODE_CONFIG, NULL,
+		    "the daemon has no station loaded");
+		goto done;
+	}
 	if (api_param(req, "at") && api_param_time(req, "at", &u1, &u2, resp))
-		return;
-	if (derive_site(st, &site) != ERRCODE_OK) {
+		goto done;
+	if (!ns->site_ok) {
 		api_error(resp, ERRCODE_CONFIG, NULL,
 		    "the station's position is out of range");
-		return;
+		goto done;
 	}
-	src = eop_lookup_rows(ctx->site.eop, ctx->site.neop,
-	    (u1 - TEXT_MJD0) + u2, &eop);
-	/* The table's last day, as "ephem --db" reports it. */
-	if (ctx->site.neop == 0 || tscale_format_utc(ERFA_DJM0,
-	    ctx->site.eop[ctx->site.neop - 1].mjd, 0, last, sizeof last))
-		last[0] = '\0';
-	last[10] = '\0';
-	g = mem_alloc(sizeof *g);
-	rows = mem_calloc(ctx->site.ntargets + 1, sizeof *rows);
-	if (g == NULL || rows == NULL) {
+	src = eop_lookup_rows(ns->eop, ns->neop, (u1 - TEXT_MJD0) + u2, &eop);
+	rows = mem_calloc(ns->ntargets + 1, sizeof *rows);
+	if (rows == NULL) {
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	rc = geom_instant_at(&site, &eop, u1, u2, GEOM_PREC_FULL, g);
+	rc = geom_instant_at(&ns->site, &eop, u1, u2, GEOM_PREC_FULL, &g);
 	if (rc != ERRCODE_OK) {
 		api_error(resp, rc, "at",
 		    "at: the instant cannot be converted");
 		goto done;
 	}
-	for (size_t i = 0; i < ctx->site.ntargets; i++) {
-		const struct site_target *t = &ctx->site.targets[i];
-		struct geom_target gt;
-
-		if (!t->active || geom_target_from_selen(t->lat_deg * ERFA_DD2R,
-		    t->lon_deg * ERFA_DD2R, t->height_m, &gt) != ERRCODE_OK)
-			continue;
-		rows[n].id = t->id;
-		geom_target_view(g, &gt, &rows[n].view);
-		array_of_target(g, &gt, t, &rows[n].tilt, &rows[n].spread_ps);
-		n++;
+	for (size_t i = 0; i < ns->ntargets; i++) {
+		rows[i].id = ns->targets[i].id;
+		geom_target_view(&g, &ns->gt[i], &rows[i].view);
+		array_of_target(&g, &ns->gt[i], &ns->targets[i],
+		    &rows[i].tilt, &rows[i].spread_ps);
 	}
 	memset(&rep, 0, sizeof rep);
-	rep.g = g;
+	rep.g = &g;
 	rep.targets = rows;
-	rep.ntargets = n;
+	rep.ntargets = ns->ntargets;
 	rep.dut1_source = eop_source_name(src);
-	rep.eop_last_utc = last[0] ? last : NULL;
-	rep.station_name = st->name;
+	rep.eop_last_utc = ns->eop_last[0] ? ns->eop_last : NULL;
+	rep.station_name = ns->station.name;
 	rc = render_ephem_json(&rep, &resp->body);
 out:
 	api_ok_or_error(resp, rc, 200, "application/json");
 done:
 	mem_free(rows);
-	mem_free(g);
+	api_now_site_put(ns);
 }

@@ -22,6 +22,32 @@
 #define ATTEMPTS_LIMIT_MAX 1000
 #define ATTEMPT_MAX_DAYS 1.0	/* longest attempt accepted, days */
 
+/*
+ * What GET /now reads, made once per site (api_set_site) so that /now
+ * needs no lock while it computes: the station and its geometry, the
+ * active targets with their body-fixed positions, the EOP table.
+ * Shared by the requests using it (refs) and freed by the last one
+ * (api_now_site_put).
+ */
+struct api_now_site {
+	atomic_int refs;
+	struct site_station station;
+	int site_ok;			/* derive_site succeeded */
+	struct geom_site site;		/* derive_site of station */
+	struct site_target *targets;	/* owned: the active targets whose
+					   position converts, in site order */
+	struct geom_target *gt;		/* owned: their positions */
+	size_t ntargets;
+	struct site_eop_row *eop;	/* owned copy */
+	size_t neop;
+	char eop_last[32];		/* the table's last day, "" none */
+};
+
+/* Make the /now snapshot of s (copied), refs 1; NULL when out of
+   memory.  Give it back with api_now_site_put (accepts NULL). */
+struct api_now_site *api_now_site_make(const struct api_site *s);
+void api_now_site_put(struct api_now_site *n);
+
 /* The daemon's state: made by api_new, freed by api_free; the store is
    borrowed (the daemon closes it). */
 struct api_ctx {
@@ -33,6 +59,9 @@ struct api_ctx {
 	int db_read_only;		/* api_config.db_read_only */
 	double plan_days, refresh_s, start_posix;
 	struct api_site site;
+	struct api_now_site *now_site;	/* /now's snapshot of site (lock to
+					   take a reference), NULL if it could
+					   not be made */
 	struct store *db;		/* borrowed */
 	/* the plan cache: GET windows and coverage without parameters */
 	int planned;			/* a plan has been computed */
