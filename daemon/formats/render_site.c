@@ -49,11 +49,27 @@ wrapper(const char *key, json_t **arr)
 	return root;
 }
 
+/* {"key": [item(rec) for each of the n records of size bytes at recs]}
+   into out; item gives a new reference, NULL when out of memory. */
+static enum errcode
+list_json(const char *key, const void *recs, size_t n, size_t size,
+    json_t *(*item)(const void *rec), struct mbuf *out)
+{
+	json_t *arr, *root = wrapper(key, &arr);
+	int failed = root == NULL;
+
+	for (size_t i = 0; i < n && !failed; i++)
+		failed = json_array_append_new(arr,
+		    item((const char *)recs + i * size)) != 0;
+	return finish(root, failed, out);
+}
+
 /* --- attempts ------------------------------------------------------------- */
 
 static json_t *
-attempt_obj(const struct site_attempt *a)
+attempt_obj(const void *rec)
 {
+	const struct site_attempt *a = rec;
 	json_t *o = json_pack("{s:I, s:s, s:o, s:o, s:o, s:I, s:I, s:I, s:s, "
 	    "s:s, s:o, s:s, s:o, s:o, s:o, s:o}",
 	    "id", (json_int_t)a->id,
@@ -89,12 +105,7 @@ enum errcode
 render_site_attempts_json(const struct site_attempt *a, size_t n,
     struct mbuf *out)
 {
-	json_t *arr, *root = wrapper("attempts", &arr);
-	int failed = root == NULL;
-
-	for (size_t i = 0; i < n && !failed; i++)
-		failed = json_array_append_new(arr, attempt_obj(&a[i])) != 0;
-	return finish(root, failed, out);
+	return list_json("attempts", a, n, sizeof *a, attempt_obj, out);
 }
 
 enum errcode
@@ -323,38 +334,38 @@ render_site_station_text(const struct site_station *st, struct mbuf *out)
 
 /* --- targets -------------------------------------------------------------- */
 
+static json_t *
+target_obj(const void *rec)
+{
+	const struct site_target *t = rec;
+	struct link_target lt;
+	double nlat, nlon, ext;
+
+	site_target_link(t, &lt);
+	site_target_array(t, &nlat, &nlon, &ext);
+	return json_pack("{s:s, s:s, s:s, s:o, s:o, s:o, s:o, s:b, s:b, s:I, "
+	    "s:o, s:o, s:o, s:o}",
+	    "id", t->id,
+	    "name", t->name,
+	    "alias", t->alias,
+	    "lat_deg", render_json_num(t->lat_deg, 6),
+	    "lon_deg", render_json_num(t->lon_deg, 6),
+	    "height_m", render_json_num(t->height_m, 2),
+	    "strength", render_json_num(t->strength, 4),
+	    "dark_only", t->dark_only,
+	    "active", t->active,
+	    "cube_count", (json_int_t)lt.cube_count,
+	    "cube_aperture_mm", render_json_num(lt.cube_aperture_m * 1e3, 2),
+	    "normal_lat_deg", render_json_num(nlat, 4),
+	    "normal_lon_deg", render_json_num(nlon, 4),
+	    "extent_m", render_json_num(ext, 3));
+}
+
 enum errcode
 render_site_targets_json(const struct site_target *t, size_t n,
     struct mbuf *out)
 {
-	json_t *arr, *root = wrapper("targets", &arr);
-	int failed = root == NULL;
-
-	for (size_t i = 0; i < n && !failed; i++) {
-		struct link_target lt;
-		double nlat, nlon, ext;
-
-		site_target_link(&t[i], &lt);
-		site_target_array(&t[i], &nlat, &nlon, &ext);
-		failed = json_array_append_new(arr, json_pack("{s:s, s:s, s:s, "
-		    "s:o, s:o, s:o, s:o, s:b, s:b, s:I, s:o, s:o, s:o, s:o}",
-		    "id", t[i].id,
-		    "name", t[i].name,
-		    "alias", t[i].alias,
-		    "lat_deg", render_json_num(t[i].lat_deg, 6),
-		    "lon_deg", render_json_num(t[i].lon_deg, 6),
-		    "height_m", render_json_num(t[i].height_m, 2),
-		    "strength", render_json_num(t[i].strength, 4),
-		    "dark_only", t[i].dark_only,
-		    "active", t[i].active,
-		    "cube_count", (json_int_t)lt.cube_count,
-		    "cube_aperture_mm", render_json_num(lt.cube_aperture_m * 1e3,
-		    2),
-		    "normal_lat_deg", render_json_num(nlat, 4),
-		    "normal_lon_deg", render_json_num(nlon, 4),
-		    "extent_m", render_json_num(ext, 3))) != 0;
-	}
-	return finish(root, failed, out);
+	return list_json("targets", t, n, sizeof *t, target_obj, out);
 }
 
 enum errcode
@@ -375,20 +386,22 @@ render_site_targets_text(const struct site_target *t, size_t n,
 
 /* --- blackouts ------------------------------------------------------------ */
 
+static json_t *
+blackout_obj(const void *rec)
+{
+	const struct site_blackout *b = rec;
+
+	return json_pack("{s:I, s:o, s:o, s:s}", "id", (json_int_t)b->id,
+	    "start_utc", render_json_mjd(b->start_mjd, 3),
+	    "end_utc", render_json_mjd(b->end_mjd, 3),
+	    "reason", b->reason);
+}
+
 enum errcode
 render_site_blackouts_json(const struct site_blackout *b, size_t n,
     struct mbuf *out)
 {
-	json_t *arr, *root = wrapper("blackouts", &arr);
-	int failed = root == NULL;
-
-	for (size_t i = 0; i < n && !failed; i++)
-		failed = json_array_append_new(arr, json_pack("{s:I, s:o, s:o, "
-		    "s:s}", "id", (json_int_t)b[i].id,
-		    "start_utc", render_json_mjd(b[i].start_mjd, 3),
-		    "end_utc", render_json_mjd(b[i].end_mjd, 3),
-		    "reason", b[i].reason)) != 0;
-	return finish(root, failed, out);
+	return list_json("blackouts", b, n, sizeof *b, blackout_obj, out);
 }
 
 enum errcode
