@@ -16,9 +16,11 @@
 #include "formats/render_text.h"
 #include "core/tzone.h"
 
-/* An invented station and two invented targets (test data only). */
+/* An invented station and two invented targets (test data only), and e
+   showing them at g (the rest of e zero). */
 static void
-make_ephem(struct geom_instant *g, struct render_target_row rows[2])
+make_ephem(struct geom_instant *g, struct render_target_row rows[2],
+    struct render_ephem *e)
 {
 	struct geom_site site;
 	struct geom_eop eop = {0.1234, 0.0, 0.0};
@@ -39,6 +41,10 @@ make_ephem(struct geom_instant *g, struct render_target_row rows[2])
 	    31.0 * ERFA_DD2R, -1500.0, &t), ERRCODE_OK);
 	rows[1].id = "T-BETA";
 	geom_target_view(g, &t, &rows[1].view);
+	memset(e, 0, sizeof *e);
+	e->g = g;
+	e->targets = rows;
+	e->ntargets = 2;
 }
 
 static void
@@ -81,11 +87,7 @@ test_render_ephem_json_has_every_field(void **state)
 	json_error_t jerr;
 
 	(void)state;
-	make_ephem(&g, rows);
-	memset(&e, 0, sizeof e);
-	e.g = &g;
-	e.targets = rows;
-	e.ntargets = 2;
+	make_ephem(&g, rows, &e);
 	e.dut1_source = "option";
 	mbuf_init(&b);
 	assert_int_equal(render_ephem_json(&e, &b), ERRCODE_OK);
@@ -220,11 +222,7 @@ test_render_text_tables(void **state)
 	struct mbuf b;
 
 	(void)state;
-	make_ephem(&g, rows);
-	memset(&e, 0, sizeof e);
-	e.g = &g;
-	e.targets = rows;
-	e.ntargets = 2;
+	make_ephem(&g, rows, &e);
 	tzone_utc(&utc);
 	e.time_zone = &utc;
 	mbuf_init(&b);
@@ -301,11 +299,7 @@ test_render_allocation_failures(void **state)
 	struct geom_phase_event ev[2];
 
 	(void)state;
-	make_ephem(&g, rows);
-	memset(&e, 0, sizeof e);
-	e.g = &g;
-	e.targets = rows;
-	e.ntargets = 2;
+	make_ephem(&g, rows, &e);
 	run_under_faults(ephem_json, &e);
 	run_under_faults(ephem_text, &e);
 	memset(&p, 0, sizeof p);

@@ -281,6 +281,23 @@ test_render_cov_empty_and_bin_limits(void **state)
 	free(r);
 }
 
+/* Fill dates over MJD 61440..61500 in one bin: target alpha in it from
+   61450.25 to 61450.5, score 2.5 (invented). */
+static void
+fill_one(struct coverage_fill *fill, int bin)
+{
+	memset(fill, 0, sizeof *fill);
+	fill->from_mjd = 61440.0;
+	fill->to_mjd = 61500.0;
+	fill->nbins = 1;
+	fill->bins[0].bin = bin;
+	fill->bins[0].ndates = 1;
+	snprintf(fill->bins[0].dates[0].target, SITE_ID_LEN, "alpha");
+	fill->bins[0].dates[0].in_bin_start_mjd = 61450.25;
+	fill->bins[0].dates[0].in_bin_end_mjd = 61450.5;
+	fill->bins[0].dates[0].score = 2.5;
+}
+
 static void
 test_render_cov_json_fields(void **state)
 {
@@ -292,18 +309,9 @@ test_render_cov_json_fields(void **state)
 	struct mbuf b;
 
 	(void)state;
-	memset(&fill, 0, sizeof fill);
-	fill.from_mjd = 61440.0;
-	fill.to_mjd = 61500.0;
-	fill.nbins = 1;
-	fill.bins[0].bin = 5;
-	fill.bins[0].ndates = 1;
-	snprintf(fill.bins[0].dates[0].target, SITE_ID_LEN, "alpha");
-	fill.bins[0].dates[0].in_bin_start_mjd = 61450.25;
-	fill.bins[0].dates[0].in_bin_end_mjd = 61450.5;
+	fill_one(&fill, 5);
 	fill.bins[0].dates[0].window_start_mjd = 61450.2;
 	fill.bins[0].dates[0].window_end_mjd = 61450.5;
-	fill.bins[0].dates[0].score = 2.5;
 	mbuf_init(&b);
 	assert_int_equal(render_cov_json(&c, &b), ERRCODE_OK);
 	root = json_loads(b.data, 0, &jerr);
@@ -407,16 +415,8 @@ test_render_cov_text_table(void **state)
 
 	/* Fill dates with UTC and the station's local time; a span across
 	   midnight UTC keeps both dates. */
-	memset(&fill, 0, sizeof fill);
-	fill.from_mjd = 61440.0;
-	fill.to_mjd = 61500.0;
-	fill.nbins = 1;
-	fill.bins[0].bin = 6;
+	fill_one(&fill, 6);
 	fill.bins[0].ndates = 2;
-	snprintf(fill.bins[0].dates[0].target, SITE_ID_LEN, "alpha");
-	fill.bins[0].dates[0].in_bin_start_mjd = 61450.25;
-	fill.bins[0].dates[0].in_bin_end_mjd = 61450.5;
-	fill.bins[0].dates[0].score = 2.5;
 	snprintf(fill.bins[0].dates[1].target, SITE_ID_LEN, "gamma");
 	fill.bins[0].dates[1].in_bin_start_mjd = 61451.875;
 	fill.bins[0].dates[1].in_bin_end_mjd = 61452.125;
