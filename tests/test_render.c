@@ -181,13 +181,7 @@ test_render_phases_json_parses(void **state)
 	/* a 31-day month holds 4 or 5 principal phases (mean spacing
 	   29.53 / 4 = 7.38 d, common practice) */
 	assert_true(n >= 4 && n <= 5);
-	memset(&p, 0, sizeof p);
-	p.from1 = u1;
-	p.from2 = u2;
-	p.to1 = v1;
-	p.to2 = v2;
-	p.ev = ev;
-	p.n = n;
+	render_phases_init(&p, u1, u2, v1, v2, ev, n);
 	mbuf_init(&b);
 	assert_int_equal(render_phases_json(&p, &b), ERRCODE_OK);
 	root = json_loads(b.data, 0, NULL);
@@ -302,17 +296,13 @@ test_render_allocation_failures(void **state)
 	make_ephem(&g, rows, &e);
 	run_under_faults(ephem_json, &e);
 	run_under_faults(ephem_text, &e);
-	memset(&p, 0, sizeof p);
 	ev[0].kind = GEOM_PHASE_NEW;
 	ev[0].tt1 = 2461400.5;
 	ev[0].tt2 = 0.25;
 	ev[1].kind = GEOM_PHASE_FULL;
 	ev[1].tt1 = 2461400.5;
 	ev[1].tt2 = 15.0;
-	p.from1 = p.to1 = 2461400.5;
-	p.to2 = 20.0;
-	p.ev = ev;
-	p.n = 2;
+	render_phases_init(&p, 2461400.5, 0.0, 2461400.5, 20.0, ev, 2);
 	run_under_faults(phases_json, &p);
 }
 

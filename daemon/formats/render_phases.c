@@ -20,6 +20,14 @@ set(json_t *obj, const char *key, json_t *val)
 	return json_object_set_new(obj, key, val);
 }
 
+void
+render_phases_init(struct render_phases *p, double from1, double from2,
+    double to1, double to2, const struct geom_phase_event *ev, size_t n)
+{
+	*p = (struct render_phases){ .from1 = from1, .from2 = from2,
+	    .to1 = to1, .to2 = to2, .ev = ev, .n = n };
+}
+
 enum errcode
 render_phases_json(const struct render_phases *p, struct mbuf *out)
 {

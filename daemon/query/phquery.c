@@ -66,13 +66,7 @@ phquery_run(struct phquery_params *p, enum phquery_format fmt,
 		text_err(rc, errbuf, errlen, "phase search: %s",
 		    errcode_str(rc));
 	} else {
-		memset(&rp, 0, sizeof rp);
-		rp.from1 = TEXT_MJD0;
-		rp.from2 = from;
-		rp.to1 = TEXT_MJD0;
-		rp.to2 = to;
-		rp.ev = ev;
-		rp.n = n;
+		render_phases_init(&rp, TEXT_MJD0, from, TEXT_MJD0, to, ev, n);
 		if (time_zone != NULL && qzone_load(time_zone, from, to,
 		    &zone) == ERRCODE_OK)
 			rp.time_zone = &zone;

@@ -21,6 +21,11 @@ struct render_phases {
 				   (qzone_load), or NULL */
 };
 
+/* Set p to the UTC span from1 + from2 to to1 + to2 (two-part JDs) and
+   its n events ev (borrowed), with no time zone. */
+void render_phases_init(struct render_phases *p, double from1, double from2,
+    double to1, double to2, const struct geom_phase_event *ev, size_t n);
+
 enum errcode render_phases_json(const struct render_phases *p,
     struct mbuf *out);
 enum errcode render_phases_text(const struct render_phases *p,
