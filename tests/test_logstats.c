@@ -2,7 +2,8 @@
 /* test_logstats.c: the log's statistics: the phase matrix from moments
    against its definition, and the store's statistics against those built
    from the records after adds, a bulk transaction, setting and station
-   changes, and writes that bypass them (stale, then rebuilt). */
+   changes, and writes that bypass them (stale, then rebuilt); the store's
+   walks of the log against its lists. */
 #include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
@@ -114,6 +115,64 @@ cmp_np_id(const void *pa, const void *pb)
 	return (a->id > b->id) - (a->id < b->id);
 }
 
+/* A walk of the log: the ids seen, in order; stops with
+   ERRCODE_TOO_LARGE after stop_after records (0: never). */
+struct walk {
+	long ids[NA + NNP + 8];
+	size_t n, stop_after;
+};
+
+static enum errcode
+walk_attempt(void *ctx, const struct site_attempt *a)
+{
+	struct walk *w = ctx;
+
+	w->ids[w->n++] = a->id;
+	return w->stop_after > 0 && w->n == w->stop_after ?
+	    ERRCODE_TOO_LARGE : ERRCODE_OK;
+}
+
+static enum errcode
+walk_np(void *ctx, const struct site_normal_point *p)
+{
+	struct walk *w = ctx;
+
+	w->ids[w->n++] = p->id;
+	return ERRCODE_OK;
+}
+
+/* store_attempts_each and store_nps_each hand over the rows of the
+   lists, in their order, and stop at the walker's first error. */
+static void
+expect_walks(struct store *s, const struct site_attempt *att, size_t na,
+    const struct site_normal_point *nps, size_t nnp)
+{
+	struct store_query all;
+	struct walk w;
+	char err[256];
+
+	store_query_init(&all);
+	memset(&w, 0, sizeof w);
+	assert_int_equal(store_attempts_each(s, &all, walk_attempt, &w, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(w.n, na);
+	for (size_t i = 0; i < na; i++)
+		assert_int_equal(w.ids[i], att[i].id);
+	memset(&w, 0, sizeof w);
+	assert_int_equal(store_nps_each(s, &all, walk_np, &w, err,
+	    sizeof err), ERRCODE_OK);
+	assert_int_equal(w.n, nnp);
+	for (size_t i = 0; i < nnp; i++)
+		assert_int_equal(w.ids[i], nps[i].id);
+	if (na > 2) {
+		memset(&w, 0, sizeof w);
+		w.stop_after = 2;
+		assert_int_equal(store_attempts_each(s, &all, walk_attempt, &w,
+		    err, sizeof err), ERRCODE_TOO_LARGE);
+		assert_int_equal(w.n, 2);
+	}
+}
+
 /*
  * The statistics of the records as listed, built in row order (the rule
  * of core/logstats.h), must equal got field by field, bit for bit.
@@ -136,6 +195,7 @@ expect_records(struct store *s, const struct logstats *got)
 	    sizeof err), ERRCODE_OK);
 	assert_int_equal(store_nps_list(s, &all, &nps, &nnp, err, sizeof err),
 	    ERRCODE_OK);
+	expect_walks(s, att, na, nps, nnp);
 	qsort(att, na, sizeof att[0], cmp_id);
 	qsort(nps, nnp, sizeof nps[0], cmp_np_id);
 	assert_int_equal(logstats_build(&want, &st, got->nbins, att, na, nps,

@@ -457,55 +457,61 @@ add_record(const struct coverage_spec *s, const struct rec *r,
 }
 
 enum errcode
-coverage_compute(const struct coverage_spec *spec,
-    const struct coverage_input *in, struct coverage_result *out)
+coverage_begin(const struct coverage_spec *spec, struct coverage_result *out)
 {
-	enum errcode rc;
-	struct rec r;
-
 	if (coverage_spec_check(spec, NULL, 0) != ERRCODE_OK)
 		return ERRCODE_BAD_ARG;
 	memset(out, 0, sizeof *out);
 	out->spec = *spec;
 	out->bin_width_deg = 360.0 / spec->nbins;
+	return ERRCODE_OK;
+}
 
-	if (spec->source == COVERAGE_SOURCE_NORMAL_POINTS) {
-		for (size_t i = 0; i < in->nnp; i++) {
-			const struct site_normal_point *p = &in->np[i];
+enum errcode
+coverage_add_np(const struct coverage_spec *spec,
+    const struct site_normal_point *p, struct coverage_result *out)
+{
+	struct rec r;
 
-			r.target = p->target;
-			r.station = p->station_code;
-			r.epoch_mjd = p->epoch_mjd;
-			r.synodic_deg = p->synodic_deg;
-			r.weight = 1;
-			if ((rc = add_record(spec, &r, out)) != ERRCODE_OK)
-				return rc;
-		}
+	if (spec->source != COVERAGE_SOURCE_NORMAL_POINTS)
+		return ERRCODE_OK;
+	r.target = p->target;
+	r.station = p->station_code;
+	r.epoch_mjd = p->epoch_mjd;
+	r.synodic_deg = p->synodic_deg;
+	r.weight = 1;
+	return add_record(spec, &r, out);
+}
+
+enum errcode
+coverage_add_attempt(const struct coverage_spec *spec,
+    const struct site_attempt *a, struct coverage_result *out)
+{
+	struct rec r;
+
+	r.target = a->target;
+	r.station = spec->own_station;
+	r.epoch_mjd = 0.5 * (a->start_mjd + a->end_mjd);
+	r.synodic_deg = a->synodic_deg;
+	r.weight = spec->source == COVERAGE_SOURCE_ATTEMPTS ? 1 :
+	    a->normal_points;
+	if (spec->station[0] != '\0' && spec->own_station[0] == '\0')
+		return ERRCODE_OK;
+	/* A suspect attempt (target below the horizon, far fewer shots
+	   than the rate allows) most likely has a wrong time or count, so
+	   its phase is not to be trusted: left out and counted, as the
+	   yield model leaves it out. */
+	if (a->suspect != 0) {
+		if (passes(spec, &r))
+			out->suspect++;
+		return ERRCODE_OK;
 	}
-	for (size_t i = 0; i < in->natt; i++) {
-		const struct site_attempt *a = &in->att[i];
+	return add_record(spec, &r, out);
+}
 
-		r.target = a->target;
-		r.station = spec->own_station;
-		r.epoch_mjd = 0.5 * (a->start_mjd + a->end_mjd);
-		r.synodic_deg = a->synodic_deg;
-		r.weight = spec->source == COVERAGE_SOURCE_ATTEMPTS ? 1 :
-		    a->normal_points;
-		if (spec->station[0] != '\0' && spec->own_station[0] == '\0')
-			continue;
-		/* A suspect attempt (target below the horizon, far fewer
-		   shots than the rate allows) most likely has a wrong time
-		   or count, so its phase is not to be trusted: left out and
-		   counted, as the yield model leaves it out. */
-		if (a->suspect != 0) {
-			if (passes(spec, &r))
-				out->suspect++;
-			continue;
-		}
-		if ((rc = add_record(spec, &r, out)) != ERRCODE_OK)
-			return rc;
-	}
-
+void
+coverage_end(const struct coverage_spec *spec, struct coverage_result *out)
+{
 	coverage_metrics_of(out->pooled.n, spec->nbins, spec->min_count,
 	    &out->pooled.m);
 	for (size_t i = 0; i < out->ntargets; i++)
@@ -514,6 +520,24 @@ coverage_compute(const struct coverage_spec *spec,
 	for (size_t i = 0; i < out->nyears; i++)
 		coverage_metrics_of(out->years[i].c.n, spec->nbins,
 		    spec->min_count, &out->years[i].c.m);
+}
+
+enum errcode
+coverage_compute(const struct coverage_spec *spec,
+    const struct coverage_input *in, struct coverage_result *out)
+{
+	enum errcode rc;
+
+	if ((rc = coverage_begin(spec, out)) != ERRCODE_OK)
+		return rc;
+	for (size_t i = 0; i < in->nnp; i++)
+		if ((rc = coverage_add_np(spec, &in->np[i], out)) != ERRCODE_OK)
+			return rc;
+	for (size_t i = 0; i < in->natt; i++)
+		if ((rc = coverage_add_attempt(spec, &in->att[i], out)) !=
+		    ERRCODE_OK)
+			return rc;
+	coverage_end(spec, out);
 	return ERRCODE_OK;
 }
 

@@ -202,6 +202,28 @@ out:
 	return rc;
 }
 
+/* The audit fed one record at a time from the store. */
+struct audit_walk {
+	const struct coverage_spec *spec;
+	struct coverage_result *res;
+};
+
+static enum errcode
+audit_np(void *ctx, const struct site_normal_point *p)
+{
+	struct audit_walk *w = ctx;
+
+	return coverage_add_np(w->spec, p, w->res);
+}
+
+static enum errcode
+audit_attempt(void *ctx, const struct site_attempt *a)
+{
+	struct audit_walk *w = ctx;
+
+	return coverage_add_attempt(w->spec, a, w->res);
+}
+
 enum errcode
 covquery_run(struct store *db, struct covquery_params *p,
     enum covquery_format fmt, struct mbuf *out, char *errbuf,
@@ -210,18 +232,15 @@ covquery_run(struct store *db, struct covquery_params *p,
 	struct coverage_result *res = NULL;
 	struct coverage_fill *fill = NULL;
 	struct coverage_spec spec = p->spec;
-	struct site_normal_point *np = NULL;
-	struct site_attempt *att = NULL;
+	struct audit_walk w;
 	struct site_station st;
 	struct site_target tg;
 	struct store_query q;
-	struct coverage_input in;
 	struct render_cov rc;
 	static const double st_zone_epoch = 51544.5;	/* J2000, when no now */
 	struct tzone zone;
 	int have_station;
 	enum errcode rc_;
-	size_t nnp = 0, natt = 0;
 
 	if ((rc_ = covquery_params_check(p, errbuf, errlen)) != ERRCODE_OK)
 		return rc_;
@@ -253,36 +272,34 @@ covquery_run(struct store *db, struct covquery_params *p,
 			return rc_;
 	}
 
+	/* The records are streamed into the audit, never held: a log of
+	   any length costs the same memory. */
+	if ((res = mem_alloc(sizeof *res)) == NULL) {
+		rc_ = ERRCODE_NOMEM;
+		goto out;
+	}
+	if ((rc_ = coverage_begin(&spec, res)) != ERRCODE_OK)
+		goto out;
+	w.spec = &spec;
+	w.res = res;
 	store_query_init(&q);
 	q.since_mjd = spec.since_mjd;
 	q.until_mjd = spec.until_mjd;
 	q.target = spec.target[0] ? spec.target : NULL;
 	q.station_code = spec.station[0] ? spec.station : NULL;
-	if (spec.source == COVERAGE_SOURCE_NORMAL_POINTS &&
-	    (rc_ = store_nps_list(db, &q, &np, &nnp, errbuf, errlen)))
-		goto out;
+	if (spec.source == COVERAGE_SOURCE_NORMAL_POINTS)
+		rc_ = store_nps_each(db, &q, audit_np, &w, errbuf, errlen);
 	/* The store selects attempts by start; the audit counts them at
 	   their mid-time, so look one day further back (attempts are
 	   shorter) and let the core apply the exact bound. */
 	q.station_code = NULL;
 	if (!isnan(q.since_mjd))
 		q.since_mjd -= 1.0;
-	if (spec.station[0] == '\0' || strcmp(spec.station,
-	    spec.own_station) == 0) {
-		if ((rc_ = store_attempts_list(db, &q, &att, &natt, errbuf,
-		    errlen)))
-			goto out;
-	}
-
-	if ((res = mem_alloc(sizeof *res)) == NULL) {
-		rc_ = ERRCODE_NOMEM;
-		goto out;
-	}
-	in.np = np;
-	in.nnp = nnp;
-	in.att = att;
-	in.natt = natt;
-	if ((rc_ = coverage_compute(&spec, &in, res)) != ERRCODE_OK) {
+	if (rc_ == ERRCODE_OK && (spec.station[0] == '\0' ||
+	    strcmp(spec.station, spec.own_station) == 0))
+		rc_ = store_attempts_each(db, &q, audit_attempt, &w, errbuf,
+		    errlen);
+	if (rc_ != ERRCODE_OK) {
 		if (rc_ == ERRCODE_TOO_LARGE)
 			text_err(rc_, errbuf, errlen, "more than %d targets or "
 			    "%d years match: narrow the query with %s, %s or %s",
@@ -292,6 +309,7 @@ covquery_run(struct store *db, struct covquery_params *p,
 			    qparam_name(p->style, "until").s);
 		goto out;
 	}
+	coverage_end(&spec, res);
 
 	memset(&rc, 0, sizeof rc);
 	rc.r = res;
@@ -336,7 +354,5 @@ covquery_run(struct store *db, struct covquery_params *p,
 out:
 	mem_free(fill);
 	mem_free(res);
-	mem_free(np);
-	mem_free(att);
 	return rc_;
 }

@@ -58,6 +58,34 @@ list_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
 	return store_collect(s, st, size, row, out, n, what, errbuf, errlen);
 }
 
+/* Each row of statement id under q, read by row into the zeroed rec
+   (size bytes), handed to fn; stops at fn's first error. */
+static enum errcode
+each_row(struct store *s, enum store_stmt_id id, const struct store_query *q,
+    int with_station, void *rec, size_t size, store_row_fn row,
+    enum errcode (*fn)(void *ctx, const void *rec), void *ctx,
+    const char *what, char *errbuf, size_t errlen)
+{
+	sqlite3_stmt *st = NULL;
+	enum errcode e;
+	int rc;
+
+	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+		return e;
+	bind_query(st, q, with_station);
+	while ((rc = sqlite3_step(st)) == SQLITE_ROW) {
+		memset(rec, 0, size);
+		row(st, rec);
+		if ((e = fn(ctx, rec)) != ERRCODE_OK)
+			break;
+	}
+	if (e == ERRCODE_OK && rc != SQLITE_DONE)
+		e = store_db_error(s, sqlite3_extended_errcode(s->db), what,
+		    errbuf, errlen);
+	store_stmt_done(st);
+	return e;
+}
+
 static enum errcode
 count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
     int with_station, size_t *n, const char *what, char *errbuf,
@@ -274,6 +302,30 @@ store_attempts_list(struct store *s, const struct store_query *q,
 	    (void **)out, n, "attempts", errbuf, errlen);
 }
 
+struct attempt_walk {
+	store_attempt_fn fn;
+	void *ctx;
+};
+
+static enum errcode
+attempt_step(void *ctx, const void *rec)
+{
+	const struct attempt_walk *w = ctx;
+
+	return w->fn(w->ctx, rec);
+}
+
+enum errcode
+store_attempts_each(struct store *s, const struct store_query *q,
+    store_attempt_fn fn, void *ctx, char *errbuf, size_t errlen)
+{
+	struct attempt_walk w = {fn, ctx};
+	struct site_attempt a;
+
+	return each_row(s, ST_ATTEMPTS_LIST, q, 0, &a, sizeof a, row_attempt,
+	    attempt_step, &w, "attempts", errbuf, errlen);
+}
+
 enum errcode
 store_attempts_count(struct store *s, const struct store_query *q, size_t *n,
     char *errbuf, size_t errlen)
@@ -351,6 +403,30 @@ store_nps_list(struct store *s, const struct store_query *q,
 {
 	return list_rows(s, ST_NPS_LIST, q, 1, sizeof **out, row_np,
 	    (void **)out, n, "normal points", errbuf, errlen);
+}
+
+struct np_walk {
+	store_np_fn fn;
+	void *ctx;
+};
+
+static enum errcode
+np_step(void *ctx, const void *rec)
+{
+	const struct np_walk *w = ctx;
+
+	return w->fn(w->ctx, rec);
+}
+
+enum errcode
+store_nps_each(struct store *s, const struct store_query *q, store_np_fn fn,
+    void *ctx, char *errbuf, size_t errlen)
+{
+	struct np_walk w = {fn, ctx};
+	struct site_normal_point p;
+
+	return each_row(s, ST_NPS_LIST, q, 1, &p, sizeof p, row_np, np_step,
+	    &w, "normal points", errbuf, errlen);
 }
 
 enum errcode

@@ -235,6 +235,23 @@ int coverage_bin_of(double deg, int nbins);
 enum errcode coverage_compute(const struct coverage_spec *spec,
     const struct coverage_input *in, struct coverage_result *out);
 
+/*
+ * coverage_compute one record at a time, for a caller that streams the
+ * records (the daemon's audit of a long log holds none of them):
+ * coverage_begin (ERRCODE_BAD_ARG for a bad spec), then each normal point
+ * and attempt (ERRCODE_TOO_LARGE as coverage_compute), then coverage_end
+ * for the metrics.  The same counts as coverage_compute over the same
+ * records.
+ */
+enum errcode coverage_begin(const struct coverage_spec *spec,
+    struct coverage_result *out);
+enum errcode coverage_add_np(const struct coverage_spec *spec,
+    const struct site_normal_point *p, struct coverage_result *out);
+enum errcode coverage_add_attempt(const struct coverage_spec *spec,
+    const struct site_attempt *a, struct coverage_result *out);
+void coverage_end(const struct coverage_spec *spec,
+    struct coverage_result *out);
+
 /* --- what would fill the gaps --- */
 
 /* A planned observing window of one target (from the window planner). */

@@ -193,6 +193,19 @@ enum errcode store_attempt_log(struct store *s, struct site_attempt *a,
     char *errbuf, size_t errlen);
 enum errcode store_attempt_get(struct store *s, long id,
     struct site_attempt *out, char *errbuf, size_t errlen);
+/*
+ * Each matching attempt (normal point), in the order of the list, handed
+ * to fn, which may not keep the record; the first error fn returns stops
+ * the walk and is returned.  Memory O(1) whatever the log's length.
+ */
+typedef enum errcode (*store_attempt_fn)(void *ctx,
+    const struct site_attempt *a);
+enum errcode store_attempts_each(struct store *s, const struct store_query *q,
+    store_attempt_fn fn, void *ctx, char *errbuf, size_t errlen);
+typedef enum errcode (*store_np_fn)(void *ctx,
+    const struct site_normal_point *p);
+enum errcode store_nps_each(struct store *s, const struct store_query *q,
+    store_np_fn fn, void *ctx, char *errbuf, size_t errlen);
 /* Matching attempts into a new array; free *out with mem_free. */
 enum errcode store_attempts_list(struct store *s, const struct store_query *q,
     struct site_attempt **out, size_t *n, char *errbuf, size_t errlen);
