@@ -40,6 +40,18 @@ bind_query(sqlite3_stmt *st, const struct store_query *q, int with_station)
 		store_bind_text_or_null(st, 6, q->station_code);
 }
 
+/* Statement id with the filters of q bound. */
+static enum errcode
+query_stmt(struct store *s, enum store_stmt_id id, const struct store_query *q,
+    int with_station, sqlite3_stmt **st, char *errbuf, size_t errlen)
+{
+	enum errcode e;
+
+	if ((e = store_stmt_get(s, id, st, errbuf, errlen)) == ERRCODE_OK)
+		bind_query(*st, q, with_station);
+	return e;
+}
+
 /* The rows of statement id under the filters of q, each read by row into
    a new array of n records of size bytes (free with mem_free). */
 static enum errcode
@@ -52,31 +64,36 @@ list_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
 
 	*out = NULL;
 	*n = 0;
-	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+	if ((e = query_stmt(s, id, q, with_station, &st, errbuf, errlen)))
 		return e;
-	bind_query(st, q, with_station);
 	return store_collect(s, st, size, row, out, n, what, errbuf, errlen);
 }
 
+/* A walker of attempts or of normal points. */
+struct walk {
+	store_attempt_fn att;
+	store_np_fn np;
+	void *ctx;
+};
+
 /* Each row of statement id under q, read by row into the zeroed rec
-   (size bytes), handed to fn; stops at fn's first error. */
+   (size bytes), handed to the walker; stops at its first error. */
 static enum errcode
 each_row(struct store *s, enum store_stmt_id id, const struct store_query *q,
     int with_station, void *rec, size_t size, store_row_fn row,
-    enum errcode (*fn)(void *ctx, const void *rec), void *ctx,
-    const char *what, char *errbuf, size_t errlen)
+    const struct walk *w, const char *what, char *errbuf, size_t errlen)
 {
 	sqlite3_stmt *st = NULL;
 	enum errcode e;
 	int rc;
 
-	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+	if ((e = query_stmt(s, id, q, with_station, &st, errbuf, errlen)))
 		return e;
-	bind_query(st, q, with_station);
 	while ((rc = sqlite3_step(st)) == SQLITE_ROW) {
 		memset(rec, 0, size);
 		row(st, rec);
-		if ((e = fn(ctx, rec)) != ERRCODE_OK)
+		e = w->att != NULL ? w->att(w->ctx, rec) : w->np(w->ctx, rec);
+		if (e != ERRCODE_OK)
 			break;
 	}
 	if (e == ERRCODE_OK && rc != SQLITE_DONE)
@@ -96,9 +113,8 @@ count_rows(struct store *s, enum store_stmt_id id, const struct store_query *q,
 	int rc;
 
 	*n = 0;
-	if ((e = store_stmt_get(s, id, &st, errbuf, errlen)))
+	if ((e = query_stmt(s, id, q, with_station, &st, errbuf, errlen)))
 		return e;
-	bind_query(st, q, with_station);
 	if ((rc = sqlite3_step(st)) == SQLITE_ROW)
 		*n = (size_t)sqlite3_column_int64(st, 0);
 	else
@@ -302,28 +318,15 @@ store_attempts_list(struct store *s, const struct store_query *q,
 	    (void **)out, n, "attempts", errbuf, errlen);
 }
 
-struct attempt_walk {
-	store_attempt_fn fn;
-	void *ctx;
-};
-
-static enum errcode
-attempt_step(void *ctx, const void *rec)
-{
-	const struct attempt_walk *w = ctx;
-
-	return w->fn(w->ctx, rec);
-}
-
 enum errcode
 store_attempts_each(struct store *s, const struct store_query *q,
     store_attempt_fn fn, void *ctx, char *errbuf, size_t errlen)
 {
-	struct attempt_walk w = {fn, ctx};
+	struct walk w = {fn, NULL, ctx};
 	struct site_attempt a;
 
 	return each_row(s, ST_ATTEMPTS_LIST, q, 0, &a, sizeof a, row_attempt,
-	    attempt_step, &w, "attempts", errbuf, errlen);
+	    &w, "attempts", errbuf, errlen);
 }
 
 enum errcode
@@ -405,28 +408,15 @@ store_nps_list(struct store *s, const struct store_query *q,
 	    (void **)out, n, "normal points", errbuf, errlen);
 }
 
-struct np_walk {
-	store_np_fn fn;
-	void *ctx;
-};
-
-static enum errcode
-np_step(void *ctx, const void *rec)
-{
-	const struct np_walk *w = ctx;
-
-	return w->fn(w->ctx, rec);
-}
-
 enum errcode
 store_nps_each(struct store *s, const struct store_query *q, store_np_fn fn,
     void *ctx, char *errbuf, size_t errlen)
 {
-	struct np_walk w = {fn, ctx};
+	struct walk w = {NULL, fn, ctx};
 	struct site_normal_point p;
 
-	return each_row(s, ST_NPS_LIST, q, 1, &p, sizeof p, row_np, np_step,
-	    &w, "normal points", errbuf, errlen);
+	return each_row(s, ST_NPS_LIST, q, 1, &p, sizeof p, row_np, &w,
+	    "normal points", errbuf, errlen);
 }
 
 enum errcode
