@@ -349,24 +349,24 @@ cli_emit(struct mbuf *b)
 }
 
 int
-cli_query_params(const struct cli_args *a, const char *const *names,
-    size_t n, cli_param_fn set, void *params, const char *prefix)
+cli_query_next(const struct cli_args *a, const char *names, size_t *pos,
+    char *name, size_t len, const char **value)
 {
-	char name[64], err[256];
+	char opt[64];
 
-	for (size_t i = 0; i < n; i++) {
-		const char *v = cli_text(a, names[i], NULL);
+	while (names[*pos] != '\0') {
+		size_t n = strcspn(names + *pos, ",");
 
-		if (v == NULL)
-			continue;
-		snprintf(name, sizeof name, "%s", names[i]);
-		for (char *c = name; *c; c++)
-			if (*c == '-')
-				*c = '_';
-		if (set(params, name, v, err, sizeof err) != ERRCODE_OK)
-			return cli_usage_error("%s%s", prefix, err);
+		snprintf(name, len, "%.*s", (int)n, names + *pos);
+		snprintf(opt, sizeof opt, "%.*s", (int)n, names + *pos);
+		*pos += n + (names[*pos + n] == ',');
+		for (char *c = opt; *c; c++)
+			if (*c == '_')
+				*c = '-';
+		if ((*value = cli_text(a, opt, NULL)) != NULL)
+			return 1;
 	}
-	return CLI_EXIT_OK;
+	return 0;
 }
 
 int

@@ -32,17 +32,9 @@ write_file(const char *path, struct mbuf *b)
 }
 
 /* The options that are parameters of the shared query, by the names of
-   covquery_param_set ('-' there is '_'). */
-static const char *const query_params[] = {"source", "since", "until",
-    "target", "station", "axis", "bins", "min-count", "horizon", "theme"};
-
-/* covquery_param_set with the query's parameters as void *. */
-static enum errcode
-set_param(void *params, const char *name, const char *value, char *errbuf,
-    size_t errlen)
-{
-	return covquery_param_set(params, name, value, errbuf, errlen);
-}
+   covquery_param_set, in the order they are checked. */
+#define QUERY_PARAMS "source,since,until,target,station,axis,bins," \
+	"min_count,horizon,theme"
 
 int
 cmd_coverage(const struct cli_args *a)
@@ -55,7 +47,9 @@ cmd_coverage(const struct cli_args *a)
 	struct covquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[256];
+	char err[256], name[32];
+	const char *v;
+	size_t pos = 0;
 	double u1, u2;
 	int st;
 	enum errcode rc;
@@ -65,9 +59,9 @@ cmd_coverage(const struct cli_args *a)
 		    "chart's palette)");
 	covquery_params_init(&p);
 	p.style = QPARAM_OPTION;
-	if ((st = cli_query_params(a, query_params, sizeof query_params /
-	    sizeof query_params[0], set_param, &p, "")) != CLI_EXIT_OK)
-		return st;
+	while (cli_query_next(a, QUERY_PARAMS, &pos, name, sizeof name, &v))
+		if (covquery_param_set(&p, name, v, err, sizeof err))
+			return cli_usage_error("%s", err);
 	if (covquery_params_check(&p, err, sizeof err) != ERRCODE_OK)
 		return cli_usage_error("%s", err);
 	if (p.spec.axis == COVERAGE_AXIS_HOUR_ANGLE && p.spec.station[0] == '\0')

@@ -10,32 +10,25 @@
 #include "query/phquery.h"
 #include "query/qzone.h"
 
-/* phquery_param_set with the query's parameters as void *. */
-static enum errcode
-set_param(void *params, const char *name, const char *value, char *errbuf,
-    size_t errlen)
-{
-	return phquery_param_set(params, name, value, errbuf, errlen);
-}
-
 int
 cmd_phases(const struct cli_args *a)
 {
-	static const char *const query_params[] = {"from", "to", "days"};
 	int json = cli_given(a, "json"), st;
 	struct phquery_params pq;
 	struct mbuf out;
 	struct cli_store cs;
 	const char *tz = cli_text(a, "tz", NULL), *db = cli_text(a, "db", NULL);
-	char zone[sizeof cs.station.time_zone], err[256];
+	char zone[sizeof cs.station.time_zone], err[256], name[32];
+	const char *v;
+	size_t pos = 0;
 	double now1, now2;
 	enum errcode rc;
 
 	cli_now(&now1, &now2);
 	phquery_params_init(&pq, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	if ((st = cli_query_params(a, query_params, sizeof query_params /
-	    sizeof query_params[0], set_param, &pq, "")) != CLI_EXIT_OK)
-		return st;
+	while (cli_query_next(a, PHQUERY_PARAMS, &pos, name, sizeof name, &v))
+		if (phquery_param_set(&pq, name, v, err, sizeof err))
+			return cli_usage_error("%s", err);
 	if (db != NULL) {
 		if ((st = cli_store_open(&cs, db, STORE_OPEN_READONLY)) ||
 		    (st = cli_store_load(&cs))) {

@@ -12,16 +12,8 @@
 #include "store/store.h"
 
 /* The options that are parameters of the shared query (planquery's
-   names). */
-static const char *const query_params[] = {"at", "from", "to", "method"};
-
-/* planquery_param_set with the query's parameters as void *. */
-static enum errcode
-set_param(void *params, const char *name, const char *value, char *errbuf,
-    size_t errlen)
-{
-	return planquery_param_set(params, name, value, errbuf, errlen);
-}
+   names), in the order they are checked. */
+#define QUERY_PARAMS "at,from,to,method"
 
 int
 cmd_plan(const struct cli_args *a)
@@ -33,7 +25,9 @@ cmd_plan(const struct cli_args *a)
 	struct planquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[300];
+	char err[300], name[32];
+	const char *v;
+	size_t pos = 0;
 	double u1, u2;
 	int st;
 	enum errcode rc;
@@ -41,9 +35,9 @@ cmd_plan(const struct cli_args *a)
 	planquery_params_init(&p);
 	cli_now(&u1, &u2);
 	p.at_mjd = (u1 - TEXT_MJD0) + u2;
-	if ((st = cli_query_params(a, query_params, sizeof query_params /
-	    sizeof query_params[0], set_param, &p, "--")) != CLI_EXIT_OK)
-		return st;
+	while (cli_query_next(a, QUERY_PARAMS, &pos, name, sizeof name, &v))
+		if (planquery_param_set(&p, name, v, err, sizeof err))
+			return cli_usage_error("--%s", err);
 	if ((st = cli_query_db(db_path, &db)) != CLI_EXIT_OK)
 		return st;
 	mbuf_init(&out);

@@ -33,20 +33,6 @@ cmd_windows_more(FILE *f)
 
 enum out_kind { OUT_TEXT, OUT_JSON, OUT_CSV, OUT_ICS };
 
-/* The query's parameters among the options (winquery_param_set). */
-static const char *const query_params[] = {
-	"from", "to", "days", "target", "limit", "min-el", "max-sun-el",
-	"min-sun-sep",
-};
-
-/* winquery_param_set with the query's parameters as void *. */
-static enum errcode
-set_param(void *params, const char *name, const char *value, char *errbuf,
-    size_t errlen)
-{
-	return winquery_param_set(params, name, value, errbuf, errlen);
-}
-
 int
 cmd_windows(const struct cli_args *a)
 {
@@ -59,14 +45,17 @@ cmd_windows(const struct cli_args *a)
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
+	char name[32], err[256];
+	const char *v;
+	size_t pos = 0;
 
 	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
 	cli_now(&now1, &now2);
 	winquery_params_init(&wp, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	if ((st = cli_query_params(a, query_params, sizeof query_params /
-	    sizeof query_params[0], set_param, &wp, "")) != CLI_EXIT_OK)
-		return st;
+	while (cli_query_next(a, WINQUERY_PARAMS, &pos, name, sizeof name, &v))
+		if (winquery_param_set(&wp, name, v, err, sizeof err))
+			return cli_usage_error("%s", err);
 
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);
 	if (st != CLI_EXIT_OK)

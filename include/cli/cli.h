@@ -206,19 +206,21 @@ void cli_now(double *utc1, double *utc2);
 enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
     double *utc2);
 
-/* A query's parameter setter (covquery_param_set and its kin, through a
-   wrapper taking the query's parameters as params). */
-typedef enum errcode (*cli_param_fn)(void *params, const char *name,
-    const char *value, char *errbuf, size_t errlen);
-
 /*
- * Set the parameters of a query from the n options of a named in names
- * that were given, through set, with '-' in an option's name as '_' (the
- * query's spelling).  The first value refused prints prefix and the
- * query's sentence and gives CLI_EXIT_USAGE; else CLI_EXIT_OK.
+ * The options of a that are parameters of a query, for its param_set
+ * (covquery_param_set and its kin): names is the comma-separated list of
+ * the parameters as the query spells them ("from,to,min_el", its
+ * *_PARAMS), each an option of the command with '_' as '-' (--min-el).
+ * From *pos (0 at the start; advanced here) finds the next one given:
+ * 1 with its query name in name (len bytes) and its value in *value;
+ * 0 when none is left.  Usage:
+ *
+ *	while (cli_query_next(a, WINQUERY_PARAMS, &pos, name, sizeof name, &v))
+ *		if (winquery_param_set(&p, name, v, err, sizeof err))
+ *			return cli_usage_error("%s", err);
  */
-int cli_query_params(const struct cli_args *a, const char *const *names,
-    size_t n, cli_param_fn set, void *params, const char *prefix);
+int cli_query_next(const struct cli_args *a, const char *names, size_t *pos,
+    char *name, size_t len, const char **value);
 
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
