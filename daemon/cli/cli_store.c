@@ -303,8 +303,8 @@ on_sigint(int sig)
 	interrupted = 1;
 }
 
-void
-cli_store_interrupt_begin(void)
+static void
+interrupt_begin(void)
 {
 	struct sigaction sa;
 
@@ -317,17 +317,41 @@ cli_store_interrupt_begin(void)
 	(void)sigaction(SIGINT, &sa, &old_int);
 }
 
-int
-cli_store_interrupted(void)
-{
-	return interrupted != 0;
-}
-
-void
-cli_store_interrupt_end(void)
+static void
+interrupt_end(void)
 {
 	if (int_depth > 0 && --int_depth == 0)
 		(void)sigaction(SIGINT, &old_int, NULL);
+}
+
+int
+cli_store_begin(struct cli_store *c)
+{
+	char err[512];
+
+	if (store_begin(c->s, err, sizeof err) != ERRCODE_OK)
+		return cli_fail("%s: %s", c->path, err);
+	interrupt_begin();
+	return CLI_EXIT_OK;
+}
+
+int
+cli_store_end(struct cli_store *c, int st, const char *what,
+    const char *lost)
+{
+	char err[512];
+
+	if (st == CLI_EXIT_OK && interrupted)
+		st = CLI_EXIT_INTERRUPTED;
+	if (st == CLI_EXIT_OK && store_commit(c->s, err, sizeof err) !=
+	    ERRCODE_OK)
+		st = cli_fail("%s: %s", c->path, err);
+	if (st != CLI_EXIT_OK)
+		store_rollback(c->s);
+	if (st == CLI_EXIT_INTERRUPTED)
+		(void)cli_fail("%s: interrupted; %s", what, lost);
+	interrupt_end();
+	return st;
 }
 
 /* Per-target tallies of a CRD file (its summary). */
@@ -654,22 +678,10 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 	if ((rc = cli_store_read_file(file, CLI_STORE_MAX_FILE, &buf, &len, err,
 	    sizeof err)))
 		return cli_store_fail(rc, "%s", err);
-	if ((rc = store_begin(c->s, err, sizeof err))) {
-		mem_free(buf);
-		return cli_fail("%s: %s", c->path, err);
-	}
-	cli_store_interrupt_begin();
-	st = run_job(c, file, len, kind, buf, n, 0);
-	if (st == CLI_EXIT_OK && cli_store_interrupted())
-		st = CLI_EXIT_INTERRUPTED;
-	if (st == CLI_EXIT_OK && (rc = store_commit(c->s, err, sizeof err)))
-		st = cli_fail("%s: %s", c->path, err);
-	if (st != CLI_EXIT_OK)
-		store_rollback(c->s);
-	if (st == CLI_EXIT_INTERRUPTED)
-		(void)cli_fail("%s: interrupted; nothing of it was stored (the "
-		    "import is one transaction)", file);
-	cli_store_interrupt_end();
+	if ((st = cli_store_begin(c)) == CLI_EXIT_OK)
+		st = cli_store_end(c, run_job(c, file, len, kind, buf, n, 0),
+		    file, "nothing of it was stored (the import is one "
+		    "transaction)");
 	mem_free(buf);
 	return st;
 }

@@ -134,17 +134,15 @@ read_site_file(const char *path, char **buf, size_t *len)
 static int
 load_site(struct cli_store *c, const char *dir, const char *name)
 {
-	char path[4096], *buf = NULL, *crd[INIT_MAX_CRD], err[512];
+	char path[4096], *buf = NULL, *crd[INIT_MAX_CRD];
 	size_t len = 0, ncrd = 0, nps = 0, npp = 0;
 	struct cli_store_counts tn, an, en, nn;
 	int st, c04 = 0;
-	enum errcode rc;
 
 	memset(&tn, 0, sizeof tn);
 	an = en = tn;
-	if ((rc = store_begin(c->s, err, sizeof err)))
-		return cli_fail("%s: %s", c->path, err);
-	cli_store_interrupt_begin();
+	if ((st = cli_store_begin(c)) != CLI_EXIT_OK)
+		return st;
 	snprintf(path, sizeof path, "%s/station.ini", dir);
 	if ((st = read_site_file(path, &buf, &len)) ||
 	    (st = cli_store_import_station(c, path, buf, len)) ||
@@ -190,25 +188,15 @@ load_site(struct cli_store *c, const char *dir, const char *name)
 		mem_free(buf);
 		buf = NULL;
 	}
-	if (cli_store_interrupted()) {
-		st = CLI_EXIT_INTERRUPTED;
-		goto out;
-	}
-	if ((rc = store_commit(c->s, err, sizeof err))) {
-		st = cli_fail("%s: %s", c->path, err);
-		goto out;
-	}
-	printf("%s: station %s (%s), %zu targets, %zu EOP days, %zu attempts, "
-	    "%zu normal points from %zu CRD file%s (%zu repeated)\n", name,
-	    c->station.code, c->station.name, tn.added, en.added, an.added,
-	    nps, ncrd, ncrd == 1 ? "" : "s", npp);
 out:
-	if (st != CLI_EXIT_OK)
-		store_rollback(c->s);
-	if (st == CLI_EXIT_INTERRUPTED)
-		(void)cli_fail("%s: interrupted; nothing was stored (no "
-		    "database was made)", name);
-	cli_store_interrupt_end();
+	st = cli_store_end(c, st, name, "nothing was stored (no database "
+	    "was made)");
+	if (st == CLI_EXIT_OK)
+		printf("%s: station %s (%s), %zu targets, %zu EOP days, %zu "
+		    "attempts, %zu normal points from %zu CRD file%s (%zu "
+		    "repeated)\n", name, c->station.code, c->station.name,
+		    tn.added, en.added, an.added, nps, ncrd, ncrd == 1 ? "" :
+		    "s", npp);
 	for (size_t i = 0; i < ncrd; i++)
 		mem_free(crd[i]);
 	mem_free(buf);

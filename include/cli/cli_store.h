@@ -147,14 +147,17 @@ int cli_store_import_file(struct cli_store *c, const char *file, int kind,
     struct cli_store_counts *n);
 
 /*
- * While a transaction of imports runs (begin ... end, nestable), SIGINT
- * only sets a flag: the importers above stop at the next record and give
- * CLI_EXIT_INTERRUPTED (nothing printed), and the caller rolls back.
- * cli_store_interrupted() says whether it came.
+ * A transaction of imports: cli_store_begin opens it (a CLI status);
+ * until cli_store_end, SIGINT only sets a flag: the importers above stop
+ * at the next record and give CLI_EXIT_INTERRUPTED (nothing printed).
+ * cli_store_end takes the status st of the work done inside: CLI_EXIT_OK
+ * (and no SIGINT came) commits, anything else rolls back, and an
+ * interruption is said as "moonrange: error: WHAT: interrupted; LOST".
+ * Returns the final status.
  */
-void cli_store_interrupt_begin(void);
-int cli_store_interrupted(void);
-void cli_store_interrupt_end(void);
+int cli_store_begin(struct cli_store *c);
+int cli_store_end(struct cli_store *c, int st, const char *what,
+    const char *lost);
 
 /* The loaded target whose alias is name, else whose id is name. */
 const struct site_target *cli_store_target_by_alias(const struct cli_store *c,
