@@ -11,6 +11,7 @@
 #include <time.h>
 
 #include "cli/cli.h"
+#include "cli/cli_store.h"
 #include "core/text.h"
 #include "core/tscale.h"
 
@@ -82,7 +83,8 @@ run_command(const struct cli_command *c, const char *path, int argc,
 	}
 	if ((st = cli_args_parse(c, path, argc, argv, &a)) >= 0)
 		return st;
-	st = c->run(&a);
+	st = c->job != NULL ? cli_store_run(&a, c->db_flags, c->job, NULL) :
+	    c->run(&a);
 	cli_args_free(&a);
 	return st;
 }

@@ -7,6 +7,7 @@
 #include "cli/cli.h"
 #include "cli/cmd_run.h"
 #include "query/eclquery.h"
+#include "store/store.h"
 
 /* --- rows several tables share --------------------------------------------
  * What differs between the commands (the help, the group of options that
@@ -491,7 +492,8 @@ const struct cli_command cli_commands[] = {
 		{.name = "list",
 		    .summary = "the targets (--all: retired ones too)",
 		    .about = "The active targets, or with --all every target.",
-		    .options = target_list_opts, .run = cmd_target_list},
+		    .options = target_list_opts, .job = cmd_target_list,
+		    .db_flags = STORE_OPEN_READONLY},
 		CMD_END}},
 	{.name = "blackout",
 	    .summary = "spans without ranging: add, list, remove",
@@ -507,7 +509,9 @@ const struct cli_command cli_commands[] = {
 		    "all)",
 		    .about = "The blackouts overlapping --since..--until "
 		    "(default: all).",
-		    .options = blackout_list_opts, .run = cmd_blackout_list},
+		    .options = blackout_list_opts,
+		    .job = cmd_blackout_list,
+		    .db_flags = STORE_OPEN_READONLY},
 		{.name = "remove", .summary = "remove a blackout by its id",
 		    .about = "Remove a blackout by the id 'blackout list' "
 		    "shows.",
@@ -523,12 +527,13 @@ const struct cli_command cli_commands[] = {
 		{.name = "list", .summary = "every setting and its value",
 		    .about = "Every setting with its value (the default until "
 		    "set).",
-		    .options = db_opts, .run = cmd_setting_list},
+		    .options = db_opts, .job = cmd_setting_list,
+		    .db_flags = STORE_OPEN_READONLY},
 		{.name = "set", .summary = "change one setting",
 		    .about = "Change one setting; the value is checked per "
 		    "key.",
 		    .options = db_opts, .operands = "KEY VALUE", .nmin = 2,
-		    .nmax = 2, .run = cmd_setting_set,
+		    .nmax = 2, .job = cmd_setting_set,
 		    .more = cmd_setting_more},
 		CMD_END}},
 	{.name = "log",

@@ -41,8 +41,8 @@ cmd_blackout_add(const struct cli_args *a)
 	return cli_store_run(a, 0, add_job, &b);
 }
 
-static enum errcode
-list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+enum errcode
+cmd_blackout_list(struct cli_store *c, const struct cli_args *a, void *ctx,
     struct mbuf *out, char *err, size_t errlen)
 {
 	struct site_blackout *list = NULL;
@@ -57,12 +57,6 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	    render_site_blackouts_text(list, n, out);
 	mem_free(list);
 	return rc;
-}
-
-int
-cmd_blackout_list(const struct cli_args *a)
-{
-	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }
 
 static enum errcode

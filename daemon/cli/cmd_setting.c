@@ -22,8 +22,8 @@ cmd_setting_more(FILE *f)
 	}
 }
 
-static enum errcode
-list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+enum errcode
+cmd_setting_list(struct cli_store *c, const struct cli_args *a, void *ctx,
     struct mbuf *out, char *err, size_t errlen)
 {
 	const struct store_setting_info *k;
@@ -41,23 +41,11 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	return ERRCODE_OK;
 }
 
-int
-cmd_setting_list(const struct cli_args *a)
-{
-	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
-}
-
-static enum errcode
-set_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+enum errcode
+cmd_setting_set(struct cli_store *c, const struct cli_args *a, void *ctx,
     struct mbuf *out, char *err, size_t errlen)
 {
 	(void)ctx;
 	(void)out;
 	return store_setting_set(c->s, a->ops[0], a->ops[1], err, errlen);
-}
-
-int
-cmd_setting_set(const struct cli_args *a)
-{
-	return cli_store_run(a, 0, set_job, NULL);
 }

@@ -141,8 +141,8 @@ cmd_target_change(const struct cli_args *a)
 	return st;
 }
 
-static enum errcode
-list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
+enum errcode
+cmd_target_list(struct cli_store *c, const struct cli_args *a, void *ctx,
     struct mbuf *out, char *err, size_t errlen)
 {
 	struct site_target *list = NULL;
@@ -157,10 +157,4 @@ list_job(struct cli_store *c, const struct cli_args *a, void *ctx,
 	    render_site_targets_text(list, n, out);
 	mem_free(list);
 	return rc;
-}
-
-int
-cmd_target_list(const struct cli_args *a)
-{
-	return cli_store_run(a, STORE_OPEN_READONLY, list_job, NULL);
 }

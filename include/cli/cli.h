@@ -60,6 +60,17 @@ struct cli_option {
 #define CLI_ONE_OPERAND(what) .operands = (what), .nmin = 1, .nmax = 1
 
 struct cli_args;
+struct cli_store;
+
+/*
+ * What a command does on its open --db (cli_store.h), with the ctx given
+ * to cli_store_run (what the command checked before opening it, or NULL):
+ * write what it prints into out (caller-owned), or return an error code
+ * with a sentence in err (an empty err: the code's own text is printed).
+ */
+typedef enum errcode (*cli_store_job)(struct cli_store *c,
+    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
+    size_t errlen);
 
 struct cli_command {
 	const char *name;
@@ -70,6 +81,10 @@ struct cli_command {
 	int nmin, nmax;		/* operands allowed (nmax -1: no limit) */
 	unsigned one_of;	/* bit g: one option of group g is required */
 	int (*run)(const struct cli_args *a);	/* NULL when actions */
+	/* Or, instead of run, a job on the database: the table runs it
+	   through cli_store_run with db_flags (of store_open) and no ctx. */
+	cli_store_job job;
+	int db_flags;
 	int mode;	/* a->cmd->mode: which variant of a shared run */
 	const struct cli_command *actions;	/* ended by a NULL name */
 	void (*more)(FILE *f);	/* help printed after the options, or NULL */

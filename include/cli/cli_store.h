@@ -53,17 +53,6 @@ int cli_store_load(struct cli_store *c);
 void cli_store_close(struct cli_store *c);
 
 /*
- * What a command does on the open database, with the ctx given to
- * cli_store_run (what the command checked before opening it, or NULL):
- * write what it prints into out (caller-owned), or return an error code with a sentence in err (an
- * empty err: the code's own text is printed).
- */
-struct cli_args;
-typedef enum errcode (*cli_store_job)(struct cli_store *c,
-    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
-    size_t errlen);
-
-/*
  * The shape of a command on the database: open its --db with flags (of
  * store_open), run job, print its output, close.  A failed job prints
  * "moonrange: error: WHERE: sentence", WHERE being the database for a

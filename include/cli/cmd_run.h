@@ -13,8 +13,10 @@
  * A run function gets the arguments the table has parsed and checked
  * (cli_args.c) and returns the exit status, having printed its output or
  * one error line.  Where one function serves two actions, a->cmd->mode
- * says which (the table's .mode).  The *_more functions print the help
- * that follows the options (.more).
+ * says which (the table's .mode).  A job (cli_store_job: target list,
+ * blackout list, setting list and set) works on the database the table
+ * has opened, ctx NULL.  The *_more functions print the help that
+ * follows the options (.more).
  */
 int cmd_ephem(const struct cli_args *a);
 int cmd_phases(const struct cli_args *a);
@@ -32,12 +34,18 @@ void cmd_station_more(FILE *f);
 int cmd_target_add(const struct cli_args *a);
 /* target set; target retire (mode 1). */
 int cmd_target_change(const struct cli_args *a);
-int cmd_target_list(const struct cli_args *a);
+enum errcode cmd_target_list(struct cli_store *c, const struct cli_args *a,
+    void *ctx, struct mbuf *out, char *err, size_t errlen);
 int cmd_blackout_add(const struct cli_args *a);
-int cmd_blackout_list(const struct cli_args *a);
+enum errcode cmd_blackout_list(struct cli_store *c,
+    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
+    size_t errlen);
 int cmd_blackout_remove(const struct cli_args *a);
-int cmd_setting_list(const struct cli_args *a);
-int cmd_setting_set(const struct cli_args *a);
+enum errcode cmd_setting_list(struct cli_store *c,
+    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
+    size_t errlen);
+enum errcode cmd_setting_set(struct cli_store *c, const struct cli_args *a,
+    void *ctx, struct mbuf *out, char *err, size_t errlen);
 void cmd_setting_more(FILE *f);
 int cmd_log_add(const struct cli_args *a);
 /* log list; log export (mode 1). */
