@@ -372,6 +372,24 @@ cli_query_next(const struct cli_args *a, const char *names, size_t *pos,
 }
 
 int
+cli_finish(enum errcode rc, struct mbuf *b, const char *fmt, ...)
+{
+	va_list ap;
+	int st;
+
+	if (rc == ERRCODE_OK) {
+		st = cli_emit(b);
+	} else {
+		va_start(ap, fmt);
+		cli_vmessage("error", fmt, ap);
+		va_end(ap);
+		st = cli_status_of(rc);
+	}
+	mbuf_free(b);
+	return st;
+}
+
+int
 cli_emit_rendered(enum errcode rc, struct mbuf *b)
 {
 	if (rc != ERRCODE_OK)

@@ -77,14 +77,14 @@ cmd_coverage(const struct cli_args *a)
 	err[0] = '\0';
 	rc = covquery_run(db, &p, fmt, &out, err, sizeof err);
 	store_close(db);
-	if (rc != ERRCODE_OK) {
+	if (rc == ERRCODE_OK && svg_path != NULL) {
+		st = write_file(svg_path, &out);
 		mbuf_free(&out);
-		if (cli_status_of(rc) == CLI_EXIT_USAGE)
-			return err[0] ? cli_usage_error("%s", err) :
-			    cli_usage_error("coverage: %s", errcode_str(rc));
-		return cli_fail("coverage: %s", err[0] ? err : errcode_str(rc));
+		return st;
 	}
-	st = svg_path != NULL ? write_file(svg_path, &out) : cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	/* The query's sentence names the parameter; "coverage:" says
+	   where anything else comes from. */
+	return cli_finish(rc, &out, "%s%s", err[0] && cli_status_of(rc) ==
+	    CLI_EXIT_USAGE ? "" : "coverage: ", err[0] ? err :
+	    errcode_str(rc));
 }

@@ -46,12 +46,5 @@ cmd_phases(const struct cli_args *a)
 	mbuf_init(&out);
 	rc = phquery_run(&pq, json ? PHQUERY_JSON : PHQUERY_TEXT, tz, &out, err,
 	    sizeof err);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		return cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s", err) : cli_fail("%s", err);
-	}
-	st = cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	return cli_finish(rc, &out, "%s", err);
 }

@@ -44,15 +44,10 @@ cmd_plan(const struct cli_args *a)
 	err[0] = '\0';
 	rc = planquery_run(db, &p, fmt, &out, err, sizeof err);
 	store_close(db);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		if (cli_status_of(rc) == CLI_EXIT_USAGE)
-			return cli_usage_error("%s%s", strncmp(err, "from", 4) &&
-			    strncmp(err, "to", 2) ? "" : "--", err[0] ? err :
-			    errcode_str(rc));
-		return cli_fail("plan: %s", err[0] ? err : errcode_str(rc));
-	}
-	st = cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	/* Bad input names its parameter (from and to as options); a
+	   failure says it comes from the plan. */
+	return cli_finish(rc, &out, "%s%s", cli_status_of(rc) !=
+	    CLI_EXIT_USAGE ? "plan: " : strncmp(err, "from", 4) &&
+	    strncmp(err, "to", 2) ? "" : "--", err[0] ? err :
+	    errcode_str(rc));
 }

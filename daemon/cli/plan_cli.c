@@ -55,7 +55,6 @@ plan_cli_run(struct winquery_params *p, struct plan_query *q,
 	struct mbuf out;
 	char err[256];
 	enum errcode rc;
-	int st;
 
 	mbuf_init(&out);
 	rc = winquery_apply(p, q, err, sizeof err);
@@ -66,14 +65,6 @@ plan_cli_run(struct winquery_params *p, struct plan_query *q,
 		rc = winquery_render(p, q, rp, fn, &out, NULL, err,
 		    sizeof err);
 	plan_db_free(hold);
-	if (rc != ERRCODE_OK) {
-		mbuf_free(&out);
-		if (rc == ERRCODE_NOMEM)
-			return cli_fail("%s", errcode_str(rc));
-		return cli_status_of(rc) == CLI_EXIT_USAGE ?
-		    cli_usage_error("%s", err) : cli_fail("%s", err);
-	}
-	st = cli_emit(&out);
-	mbuf_free(&out);
-	return st;
+	return cli_finish(rc, &out, "%s", rc == ERRCODE_NOMEM ?
+	    errcode_str(rc) : err);
 }

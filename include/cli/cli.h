@@ -244,4 +244,10 @@ int cli_emit(struct mbuf *b);
    its error (nothing on stdout) and gives CLI_EXIT_FAIL. */
 int cli_emit_rendered(enum errcode rc, struct mbuf *b);
 
+/* The end of a command that ran a query into b with status rc: b printed
+   (cli_emit) on success; else nothing on stdout, the error line made of
+   fmt and the exit status of rc (cli_status_of).  Frees b. */
+int cli_finish(enum errcode rc, struct mbuf *b, const char *fmt, ...)
+    MEM_PRINTFLIKE(3, 4);
+
 #endif
