@@ -476,19 +476,19 @@ const struct cli_command cli_commands[] = {
 		    .about = "Add a target.  ID: 1-32 letters, digits, '_', "
 		    "'-' or '.'.",
 		    .options = target_add_opts, CLI_ONE_OPERAND("ID"),
-		    .run = cmd_target_add},
+		    .run = cmd_target_write, .mode = 2},
 		{.name = "set", .summary = "change fields of a target",
 		    .about = "Change the given fields of a target; the others "
 		    "stay.",
 		    .options = target_set_opts, CLI_ONE_OPERAND("ID"),
-		    .run = cmd_target_change},
+		    .run = cmd_target_write},
 		{.name = "retire",
 		    .summary = "stop planning a target (it stays in the log)",
 		    .about = "Retire a target: it stays in the log and in "
 		    "coverage audits but is no longer planned ('target set ID "
 		    "--active yes' brings it back).",
 		    .options = db_opts, CLI_ONE_OPERAND("ID"),
-		    .run = cmd_target_change, .mode = 1},
+		    .run = cmd_target_write, .mode = 1},
 		{.name = "list",
 		    .summary = "the targets (--all: retired ones too)",
 		    .about = "The active targets, or with --all every target.",

@@ -51,10 +51,19 @@ apply(struct site_target *t, const struct target_edit *e)
 	return CLI_EXIT_OK;
 }
 
-/* The fields the options of a touched. */
+/* The fields the options of a touched, for target set (mode 0), retire
+   (mode 1, which only retires) and add (mode 2). */
 static void
-edit_of(const struct cli_args *a, struct target_edit *e, int set)
+edit_of(const struct cli_args *a, struct target_edit *e, int mode)
 {
+	/* retire has only --db: ask for no other option (the table asserts
+	   that an option read is one of the command's) */
+	struct target_edit retire = {NULL, NULL, NAN, NAN, NAN, NAN, -1, 0};
+
+	if (mode == 1) {
+		*e = retire;
+		return;
+	}
 	e->name = cli_text(a, "name", NULL);
 	e->alias = cli_text(a, "alias", NULL);
 	e->lat = cli_real(a, "lat", NAN);
@@ -62,7 +71,7 @@ edit_of(const struct cli_args *a, struct target_edit *e, int set)
 	e->height = cli_real(a, "height", NAN);
 	e->strength = cli_real(a, "strength", NAN);
 	e->dark_only = (int)cli_whole(a, "dark-only", -1);
-	e->active = set ? (int)cli_whole(a, "active", -1) : -1;
+	e->active = mode == 0 ? (int)cli_whole(a, "active", -1) : -1;
 }
 
 /* The operand ID, checked. */
@@ -76,67 +85,37 @@ check_id(const struct cli_args *a)
 }
 
 int
-cmd_target_add(const struct cli_args *a)
+cmd_target_write(const struct cli_args *a)
 {
+	int mode = a->cmd->mode, add = mode == 2;
 	struct target_edit e;
 	struct site_target t;
 	struct cli_store c;
 	char err[512];
 	int st;
-	enum errcode rc;
+	enum errcode rc = ERRCODE_OK;
 
 	if ((st = check_id(a)) != CLI_EXIT_OK)
 		return st;
-	edit_of(a, &e, 0);
+	edit_of(a, &e, mode);
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
 		return st;
-	site_target_init(&t);
-	strcpy(t.id, a->ops[0]);
-	if ((st = apply(&t, &e)) == CLI_EXIT_OK) {
-		if ((rc = store_target_add(c.s, &t, err, sizeof err)))
-			st = cli_store_fail(rc, "target add: %s", err);
-		else
-			printf("target %s added\n", t.id);
-	}
-	cli_store_close(&c);
-	return st;
-}
-
-/* target set, and target retire (mode 1). */
-int
-cmd_target_change(const struct cli_args *a)
-{
-	int retire = a->cmd->mode;
-	struct target_edit e;
-	struct site_target t;
-	struct cli_store c;
-	char err[512];
-	int st;
-	enum errcode rc;
-
-	if ((st = check_id(a)) != CLI_EXIT_OK)
-		return st;
-	if (retire) {
-		/* retire has only --db: ask for no other option (the table
-		   asserts that an option read is one of the command's) */
-		struct target_edit none = {NULL, NULL, NAN, NAN, NAN, NAN, -1,
-		    0};
-
-		e = none;
+	if (add) {
+		site_target_init(&t);
+		strcpy(t.id, a->ops[0]);
 	} else {
-		edit_of(a, &e, 1);
+		rc = store_target_get(c.s, a->ops[0], &t, err, sizeof err);
 	}
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
-		return st;
-	if ((rc = store_target_get(c.s, a->ops[0], &t, err, sizeof err)))
+	if (rc != ERRCODE_OK)
 		st = cli_store_fail(rc, "%s: %s", a->path, err);
 	else if ((st = apply(&t, &e)) != CLI_EXIT_OK)
 		;
-	else if ((rc = store_target_update(c.s, &t, err, sizeof err)))
+	else if ((rc = add ? store_target_add(c.s, &t, err, sizeof err) :
+	    store_target_update(c.s, &t, err, sizeof err)))
 		st = cli_store_fail(rc, "%s: %s", a->path, err);
 	else
-		printf("target %s %s\n", t.id, retire ? "retired" :
-		    "updated");
+		printf("target %s %s\n", t.id, add ? "added" : mode == 1 ?
+		    "retired" : "updated");
 	cli_store_close(&c);
 	return st;
 }

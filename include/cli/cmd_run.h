@@ -31,9 +31,8 @@ void cmd_init_more(FILE *f);
 /* station show; station set (mode 1). */
 int cmd_station(const struct cli_args *a);
 void cmd_station_more(FILE *f);
-int cmd_target_add(const struct cli_args *a);
-/* target set; target retire (mode 1). */
-int cmd_target_change(const struct cli_args *a);
+/* target set; target retire (mode 1); target add (mode 2). */
+int cmd_target_write(const struct cli_args *a);
 enum errcode cmd_target_list(struct cli_store *c, const struct cli_args *a,
     void *ctx, struct mbuf *out, char *err, size_t errlen);
 int cmd_blackout_add(const struct cli_args *a);
