@@ -351,21 +351,22 @@ cli_emit(struct mbuf *b)
 }
 
 int
-cli_query_next(const struct cli_args *a, const char *names, size_t *pos,
-    char *name, size_t len, const char **value)
+cli_query_next(const struct cli_args *a, const char *names,
+    struct cli_qparam *q)
 {
-	char opt[64];
+	char opt[sizeof q->name];
 
-	while (names[*pos] != '\0') {
-		size_t n = strcspn(names + *pos, ",");
+	while (names[q->pos] != '\0') {
+		size_t n = strcspn(names + q->pos, ",");
 
-		snprintf(name, len, "%.*s", (int)n, names + *pos);
-		snprintf(opt, sizeof opt, "%.*s", (int)n, names + *pos);
-		*pos += n + (names[*pos + n] == ',');
+		snprintf(q->name, sizeof q->name, "%.*s", (int)n,
+		    names + q->pos);
+		q->pos += n + (names[q->pos + n] == ',');
+		memcpy(opt, q->name, sizeof opt);
 		for (char *c = opt; *c; c++)
 			if (*c == '_')
 				*c = '-';
-		if ((*value = cli_text(a, opt, NULL)) != NULL)
+		if ((q->value = cli_text(a, opt, NULL)) != NULL)
 			return 1;
 	}
 	return 0;

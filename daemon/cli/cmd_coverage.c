@@ -47,9 +47,8 @@ cmd_coverage(const struct cli_args *a)
 	struct covquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[256], name[32];
-	const char *v;
-	size_t pos = 0;
+	char err[256];
+	struct cli_qparam q = {0};
 	double u1, u2;
 	int st;
 	enum errcode rc;
@@ -59,8 +58,8 @@ cmd_coverage(const struct cli_args *a)
 		    "chart's palette)");
 	covquery_params_init(&p);
 	p.style = QPARAM_OPTION;
-	while (cli_query_next(a, QUERY_PARAMS, &pos, name, sizeof name, &v))
-		if (covquery_param_set(&p, name, v, err, sizeof err))
+	while (cli_query_next(a, QUERY_PARAMS, &q))
+		if (covquery_param_set(&p, q.name, q.value, err, sizeof err))
 			return cli_usage_error("%s", err);
 	if (covquery_params_check(&p, err, sizeof err) != ERRCODE_OK)
 		return cli_usage_error("%s", err);

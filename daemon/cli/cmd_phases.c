@@ -18,16 +18,15 @@ cmd_phases(const struct cli_args *a)
 	struct mbuf out;
 	struct cli_store cs;
 	const char *tz = cli_text(a, "tz", NULL), *db = cli_text(a, "db", NULL);
-	char zone[sizeof cs.station.time_zone], err[256], name[32];
-	const char *v;
-	size_t pos = 0;
+	char zone[sizeof cs.station.time_zone], err[256];
+	struct cli_qparam q = {0};
 	double now1, now2;
 	enum errcode rc;
 
 	cli_now(&now1, &now2);
 	phquery_params_init(&pq, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	while (cli_query_next(a, PHQUERY_PARAMS, &pos, name, sizeof name, &v))
-		if (phquery_param_set(&pq, name, v, err, sizeof err))
+	while (cli_query_next(a, PHQUERY_PARAMS, &q))
+		if (phquery_param_set(&pq, q.name, q.value, err, sizeof err))
 			return cli_usage_error("%s", err);
 	if (db != NULL) {
 		if ((st = cli_store_open(&cs, db, STORE_OPEN_READONLY)) ||

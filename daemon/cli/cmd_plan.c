@@ -25,9 +25,8 @@ cmd_plan(const struct cli_args *a)
 	struct planquery_params p;
 	struct store *db = NULL;
 	struct mbuf out;
-	char err[300], name[32];
-	const char *v;
-	size_t pos = 0;
+	char err[300];
+	struct cli_qparam q = {0};
 	double u1, u2;
 	int st;
 	enum errcode rc;
@@ -35,8 +34,8 @@ cmd_plan(const struct cli_args *a)
 	planquery_params_init(&p);
 	cli_now(&u1, &u2);
 	p.at_mjd = (u1 - TEXT_MJD0) + u2;
-	while (cli_query_next(a, QUERY_PARAMS, &pos, name, sizeof name, &v))
-		if (planquery_param_set(&p, name, v, err, sizeof err))
+	while (cli_query_next(a, QUERY_PARAMS, &q))
+		if (planquery_param_set(&p, q.name, q.value, err, sizeof err))
 			return cli_usage_error("--%s", err);
 	if ((st = cli_query_db(db_path, &db)) != CLI_EXIT_OK)
 		return st;

@@ -45,16 +45,15 @@ cmd_windows(const struct cli_args *a)
 	struct plan_query q;
 	struct plan_db hold;
 	struct render_plan rp;
-	char name[32], err[256];
-	const char *v;
-	size_t pos = 0;
+	char err[256];
+	struct cli_qparam qp = {0};
 
 	if ((st = plan_cli_site(a, &o)) != CLI_EXIT_OK)
 		return st;
 	cli_now(&now1, &now2);
 	winquery_params_init(&wp, QPARAM_OPTION, (now1 - TEXT_MJD0) + now2);
-	while (cli_query_next(a, WINQUERY_PARAMS, &pos, name, sizeof name, &v))
-		if (winquery_param_set(&wp, name, v, err, sizeof err))
+	while (cli_query_next(a, WINQUERY_PARAMS, &qp))
+		if (winquery_param_set(&wp, qp.name, qp.value, err, sizeof err))
 			return cli_usage_error("%s", err);
 
 	st = plan_cli_load(o.db, o.lat, o.lon, o.h, &q, &hold);

@@ -226,16 +226,23 @@ enum errcode cli_parse_time(const char *opt, const char *s, double *utc1,
  * (covquery_param_set and its kin): names is the comma-separated list of
  * the parameters as the query spells them ("from,to,min_el", its
  * *_PARAMS), each an option of the command with '_' as '-' (--min-el).
- * From *pos (0 at the start; advanced here) finds the next one given:
- * 1 with its query name in name (len bytes) and its value in *value;
- * 0 when none is left.  Usage:
+ * From q (zeroed at the start; advanced here) finds the next one given:
+ * 1 with its query name in q->name and its value in q->value; 0 when
+ * none is left.  Usage:
  *
- *	while (cli_query_next(a, WINQUERY_PARAMS, &pos, name, sizeof name, &v))
- *		if (winquery_param_set(&p, name, v, err, sizeof err))
+ *	struct cli_qparam q = {0};
+ *
+ *	while (cli_query_next(a, WINQUERY_PARAMS, &q))
+ *		if (winquery_param_set(&p, q.name, q.value, err, sizeof err))
  *			return cli_usage_error("%s", err);
  */
-int cli_query_next(const struct cli_args *a, const char *names, size_t *pos,
-    char *name, size_t len, const char **value);
+struct cli_qparam {
+	size_t pos;		/* in names, where the search goes on */
+	char name[32];		/* the parameter, as the query spells it */
+	const char *value;	/* the option's value */
+};
+int cli_query_next(const struct cli_args *a, const char *names,
+    struct cli_qparam *q);
 
 /* Write a buffer to stdout; CLI_EXIT_OK or CLI_EXIT_FAIL. */
 int cli_emit(struct mbuf *b);
