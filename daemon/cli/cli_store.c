@@ -87,7 +87,7 @@ cli_query_db(const char *path, struct store **db)
 }
 
 int
-cli_store_run(const struct cli_args *a, int flags, cli_store_job job,
+cli_store_run(const struct cli_args *a, int flags, cli_store_job *job,
     void *ctx)
 {
 	struct cli_store c;

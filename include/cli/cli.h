@@ -68,9 +68,16 @@ struct cli_store;
  * write what it prints into out (caller-owned), or return an error code
  * with a sentence in err (an empty err: the code's own text is printed).
  */
-typedef enum errcode (*cli_store_job)(struct cli_store *c,
+typedef enum errcode cli_store_job(struct cli_store *c,
     const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
     size_t errlen);
+
+/* A command's run function: the arguments parsed and checked, it
+   returns the exit status having printed its output or one error line. */
+typedef int cli_run_fn(const struct cli_args *a);
+
+/* Help a command prints after its options (made at run time). */
+typedef void cli_more_fn(FILE *f);
 
 struct cli_command {
 	const char *name;
@@ -80,14 +87,14 @@ struct cli_command {
 	const char *operands;	/* in the usage line: "ID", "FILE..." */
 	int nmin, nmax;		/* operands allowed (nmax -1: no limit) */
 	unsigned one_of;	/* bit g: one option of group g is required */
-	int (*run)(const struct cli_args *a);	/* NULL when actions */
+	cli_run_fn *run;	/* NULL when actions */
 	/* Or, instead of run, a job on the database: the table runs it
 	   through cli_store_run with db_flags (of store_open) and no ctx. */
-	cli_store_job job;
+	cli_store_job *job;
 	int db_flags;
 	int mode;	/* a->cmd->mode: which variant of a shared run */
 	const struct cli_command *actions;	/* ended by a NULL name */
-	void (*more)(FILE *f);	/* help printed after the options, or NULL */
+	cli_more_fn *more;	/* help printed after the options, or NULL */
 };
 
 /* The parsed command line of one (sub)command, for its run function. */

@@ -59,7 +59,7 @@ void cli_store_close(struct cli_store *c);
  * read-only open and the command ("blackout add") otherwise, and gives
  * the exit status of its code; nothing goes to stdout then.
  */
-int cli_store_run(const struct cli_args *a, int flags, cli_store_job job,
+int cli_store_run(const struct cli_args *a, int flags, cli_store_job *job,
     void *ctx);
 
 /* The loaded target with this id, or NULL. */

@@ -10,54 +10,24 @@
 #include "cli/cli.h"
 
 /*
- * A run function gets the arguments the table has parsed and checked
- * (cli_args.c) and returns the exit status, having printed its output or
- * one error line.  Where one function serves two actions, a->cmd->mode
- * says which (the table's .mode).  A job (cli_store_job: target list,
- * blackout list, setting list and set) works on the database the table
- * has opened, ctx NULL.  The *_more functions print the help that
- * follows the options (.more).
+ * Each has the type the table's field wants (cli/cli.h), in the order of
+ * the table.  A cli_run_fn gets the arguments the table has parsed and
+ * checked (cli_args.c) and returns the exit status, having printed its
+ * output or one error line; where one function serves several actions,
+ * a->cmd->mode (the table's .mode) says which: station show and set (1),
+ * target set, retire (1) and add (2), log list and export (1), eop status
+ * and import (1).  A cli_store_job works on the database the table has
+ * opened (ctx NULL).  A cli_more_fn prints the help that follows the
+ * options (.more).
  */
-int cmd_ephem(const struct cli_args *a);
-int cmd_phases(const struct cli_args *a);
-int cmd_eclipses(const struct cli_args *a);
-int cmd_windows(const struct cli_args *a);
-void cmd_windows_more(FILE *f);
-int cmd_tonight(const struct cli_args *a);
-int cmd_plan(const struct cli_args *a);
-int cmd_coverage(const struct cli_args *a);
-int cmd_init(const struct cli_args *a);
-void cmd_init_more(FILE *f);
-/* station show; station set (mode 1). */
-int cmd_station(const struct cli_args *a);
-void cmd_station_more(FILE *f);
-/* target set; target retire (mode 1); target add (mode 2). */
-int cmd_target_write(const struct cli_args *a);
-enum errcode cmd_target_list(struct cli_store *c, const struct cli_args *a,
-    void *ctx, struct mbuf *out, char *err, size_t errlen);
-int cmd_blackout_add(const struct cli_args *a);
-enum errcode cmd_blackout_list(struct cli_store *c,
-    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
-    size_t errlen);
-int cmd_blackout_remove(const struct cli_args *a);
-enum errcode cmd_setting_list(struct cli_store *c,
-    const struct cli_args *a, void *ctx, struct mbuf *out, char *err,
-    size_t errlen);
-enum errcode cmd_setting_set(struct cli_store *c, const struct cli_args *a,
-    void *ctx, struct mbuf *out, char *err, size_t errlen);
-void cmd_setting_more(FILE *f);
-int cmd_log_add(const struct cli_args *a);
-/* log list; log export (mode 1). */
-int cmd_log_list(const struct cli_args *a);
-int cmd_log_import(const struct cli_args *a);
-void cmd_log_import_more(FILE *f);
-int cmd_np_import(const struct cli_args *a);
-int cmd_np_count(const struct cli_args *a);
-/* eop status; eop import (mode 1). */
-int cmd_eop(const struct cli_args *a);
-int cmd_serve(const struct cli_args *a);
-void cmd_serve_more(FILE *f);
-int cmd_demo(const struct cli_args *a);
-int cmd_bench(const struct cli_args *a);
+cli_run_fn cmd_ephem, cmd_phases, cmd_eclipses, cmd_windows, cmd_tonight,
+    cmd_plan, cmd_coverage, cmd_init, cmd_station, cmd_target_write,
+    cmd_blackout_add, cmd_blackout_remove, cmd_log_add, cmd_log_list,
+    cmd_log_import, cmd_np_import, cmd_np_count, cmd_eop, cmd_serve,
+    cmd_demo, cmd_bench;
+cli_store_job cmd_target_list, cmd_blackout_list, cmd_setting_list,
+    cmd_setting_set;
+cli_more_fn cmd_windows_more, cmd_init_more, cmd_station_more,
+    cmd_setting_more, cmd_log_import_more, cmd_serve_more;
 
 #endif
