@@ -45,6 +45,15 @@ cli_store_fail(enum errcode rc, const char *fmt, ...)
 	return cli_status_of(rc);
 }
 
+void
+cli_store_query(const struct cli_args *a, struct store_query *q)
+{
+	store_query_init(q);
+	q->since_mjd = cli_real(a, "since", NAN);
+	q->until_mjd = cli_real(a, "until", NAN);
+	q->target = cli_text(a, "target", NULL);
+}
+
 int
 cli_store_load(struct cli_store *c)
 {

@@ -209,8 +209,7 @@ cmd_ephem(const struct cli_args *a)
 	mbuf_init(&out);
 	rc = json ? render_ephem_json(&rep, &out) : render_ephem_text(&rep,
 	    &out);
-	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
-	    cli_emit(&out);
+	st = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
 	cli_store_close(&cs);
 	return st;

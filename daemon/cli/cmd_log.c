@@ -126,10 +126,7 @@ cmd_log_list(const struct cli_args *a)
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
 	    STORE_OPEN_READONLY)) != CLI_EXIT_OK)
 		return st;
-	store_query_init(&q);
-	q.since_mjd = cli_real(a, "since", NAN);
-	q.until_mjd = cli_real(a, "until", NAN);
-	q.target = cli_text(a, "target", NULL);
+	cli_store_query(a, &q);
 	q.limit = (size_t)limit;
 	q.newest_first = limit > 0 || !oldest;
 	if ((rc = store_attempts_list(c.s, &q, &rows, &n, err, sizeof err)) ||
@@ -159,8 +156,7 @@ cmd_log_list(const struct cli_args *a)
 		    rows[n - 1].start_mjd : rows[0].start_mjd,
 		    rows[n - 1].start_mjd < rows[0].start_mjd ? rows[0].start_mjd :
 		    rows[n - 1].start_mjd, &zone) : NULL, &out);
-	st = rc != ERRCODE_OK ? cli_fail("%s", errcode_str(rc)) :
-	    cli_emit(&out);
+	st = cli_emit_rendered(rc, &out);
 	mbuf_free(&out);
 out:
 	mem_free(rows);

@@ -1,6 +1,5 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* cmd_np.c: "moonrange np", normal points: import CRD files, list them. */
-#include <math.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -17,10 +16,7 @@ cmd_np_count(const struct cli_args *a)
 	size_t count = 0;
 	int st;
 
-	store_query_init(&q);
-	q.since_mjd = cli_real(a, "since", NAN);
-	q.until_mjd = cli_real(a, "until", NAN);
-	q.target = cli_text(a, "target", NULL);
+	cli_store_query(a, &q);
 	q.station_code = cli_text(a, "station", NULL);
 	if ((st = cli_store_open(&c, cli_text(a, "db", NULL),
 	    STORE_OPEN_READONLY)))

@@ -7,6 +7,7 @@
 #include <stddef.h>
 #include <stdio.h>
 
+#include "cli/cli.h"
 #include "core/derive.h"
 #include "core/eop.h"
 #include "core/geom.h"
@@ -45,6 +46,10 @@ int cli_store_fail(enum errcode rc, const char *fmt, ...)
    with store_close), else the status after "--db: no database 'PATH'"
    (usage) or "--db 'PATH': why". */
 int cli_query_db(const char *path, struct store **db);
+
+/* store_query_init, then the selection of the options --since, --until
+   and --target of a (the log's and the normal points' lists). */
+void cli_store_query(const struct cli_args *a, struct store_query *q);
 
 /* Load station, targets and EOP table (the station must exist). */
 int cli_store_load(struct cli_store *c);

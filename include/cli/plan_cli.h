@@ -18,7 +18,9 @@
 int plan_cli_load(const char *db, double lat, double lon, double h,
     struct plan_query *q, struct plan_db *hold);
 
-/* What those options gave. */
+/* What the options windows and tonight share gave: --db or --station
+   (group 1 of their rows, one required), --tz, and --limit (text:
+   winquery_param_set checks it, as for the API). */
 struct plan_cli_opts {
 	const char *db;			/* NULL: not given */
 	const char *tz;			/* NULL: not given */
