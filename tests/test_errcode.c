@@ -24,6 +24,27 @@ test_errcode_every_code_has_own_text(void **state)
 	}
 }
 
+/* The split of errcode.h's list: the program's failures, and the
+   caller's (what the CLI's exit status 1 or 2 follows). */
+static void
+test_errcode_internal_split(void **state)
+{
+	static const enum errcode internal[] = {ERRCODE_NOMEM, ERRCODE_DB,
+	    ERRCODE_IO, ERRCODE_NO_CONVERGE, ERRCODE__LAST};
+	static const enum errcode input[] = {ERRCODE_OK, ERRCODE_BAD_ARG,
+	    ERRCODE_BAD_TIME, ERRCODE_CONFIG, ERRCODE_NOT_FOUND,
+	    ERRCODE_EXISTS, ERRCODE_AUTH, ERRCODE_TOO_LARGE,
+	    ERRCODE_UNSUPPORTED, ERRCODE_METHOD};
+
+	(void)state;
+	for (size_t i = 0; i < sizeof internal / sizeof internal[0]; i++)
+		assert_int_equal(errcode_is_internal(internal[i]), 1);
+	for (size_t i = 0; i < sizeof input / sizeof input[0]; i++)
+		assert_int_equal(errcode_is_internal(input[i]), 0);
+	assert_int_equal((sizeof internal + sizeof input) /
+	    sizeof internal[0], ERRCODE__LAST + 1);
+}
+
 static void
 test_errcode_ok_is_zero(void **state)
 {
@@ -37,6 +58,7 @@ main(void)
 {
 	const struct CMUnitTest tests[] = {
 		cmocka_unit_test(test_errcode_every_code_has_own_text),
+		cmocka_unit_test(test_errcode_internal_split),
 		cmocka_unit_test(test_errcode_ok_is_zero),
 	};
 

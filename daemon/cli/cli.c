@@ -214,27 +214,9 @@ cli_warn(const char *fmt, ...)
 int
 cli_status_of(enum errcode rc)
 {
-	switch (rc) {
-	case ERRCODE_OK:
+	if (rc == ERRCODE_OK)
 		return CLI_EXIT_OK;
-	case ERRCODE_BAD_ARG:
-	case ERRCODE_BAD_TIME:
-	case ERRCODE_CONFIG:
-	case ERRCODE_NOT_FOUND:
-	case ERRCODE_EXISTS:
-	case ERRCODE_TOO_LARGE:
-	case ERRCODE_UNSUPPORTED:
-	case ERRCODE_AUTH:
-	case ERRCODE_METHOD:
-		return CLI_EXIT_USAGE;
-	case ERRCODE_NOMEM:
-	case ERRCODE_DB:
-	case ERRCODE_IO:
-	case ERRCODE_NO_CONVERGE:
-	case ERRCODE__LAST:
-		break;
-	}
-	return CLI_EXIT_FAIL;
+	return errcode_is_internal(rc) ? CLI_EXIT_FAIL : CLI_EXIT_USAGE;
 }
 
 enum errcode

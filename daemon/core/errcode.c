@@ -1,5 +1,6 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
-/* errcode.c: messages and names for the status codes in errcode.h. */
+/* errcode.c: messages, names and the internal/input split of the status
+   codes in errcode.h. */
 #include "core/errcode.h"
 
 const char *
@@ -76,4 +77,29 @@ errcode_name(enum errcode code)
 		break;
 	}
 	return "unknown";
+}
+
+int
+errcode_is_internal(enum errcode code)
+{
+	switch (code) {
+	case ERRCODE_OK:
+	case ERRCODE_BAD_ARG:
+	case ERRCODE_BAD_TIME:
+	case ERRCODE_CONFIG:
+	case ERRCODE_NOT_FOUND:
+	case ERRCODE_EXISTS:
+	case ERRCODE_AUTH:
+	case ERRCODE_TOO_LARGE:
+	case ERRCODE_UNSUPPORTED:
+	case ERRCODE_METHOD:
+		return 0;
+	case ERRCODE_NOMEM:
+	case ERRCODE_DB:
+	case ERRCODE_IO:
+	case ERRCODE_NO_CONVERGE:
+	case ERRCODE__LAST:
+		break;
+	}
+	return 1;
 }

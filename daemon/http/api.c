@@ -79,34 +79,23 @@ api_response_free(struct api_response *r)
 unsigned
 api_http_status(enum errcode rc)
 {
-	switch (rc) {
-	case ERRCODE_OK:
-		return 200;
-	case ERRCODE_BAD_ARG:
-	case ERRCODE_BAD_TIME:
-		return 400;
-	case ERRCODE_AUTH:
-		return 401;
-	case ERRCODE_NOT_FOUND:
-		return 404;
-	case ERRCODE_METHOD:
-		return 405;
-	case ERRCODE_EXISTS:
-		return 409;
-	case ERRCODE_TOO_LARGE:
-		return 413;
-	case ERRCODE_UNSUPPORTED:
-		return 415;
-	case ERRCODE_CONFIG:		/* the daemon has no usable site */
-		return 503;
-	case ERRCODE_NOMEM:
-	case ERRCODE_DB:
-	case ERRCODE_IO:
-	case ERRCODE_NO_CONVERGE:
-	case ERRCODE__LAST:
-		break;
-	}
-	return 500;
+	/* The status of each code that is not internal (errcode.h says
+	   which are); the internal ones are the server's, 500. */
+	static const unsigned status[ERRCODE__LAST] = {
+		[ERRCODE_OK] = 200,
+		[ERRCODE_BAD_ARG] = 400, [ERRCODE_BAD_TIME] = 400,
+		[ERRCODE_AUTH] = 401,
+		[ERRCODE_NOT_FOUND] = 404,
+		[ERRCODE_METHOD] = 405,
+		[ERRCODE_EXISTS] = 409,
+		[ERRCODE_TOO_LARGE] = 413,
+		[ERRCODE_UNSUPPORTED] = 415,
+		[ERRCODE_CONFIG] = 503,	/* the daemon has no usable site */
+	};
+
+	if (errcode_is_internal(rc) || status[rc] == 0)
+		return 500;
+	return status[rc];
 }
 
 void

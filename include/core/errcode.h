@@ -34,4 +34,10 @@ const char *errcode_str(enum errcode code);
 /* Stable machine name for a code ("bad_arg"), used in JSON error bodies. */
 const char *errcode_name(enum errcode code);
 
+/* 1 when a failure is the program's or its system's (memory, database,
+   I/O, a search that did not converge, an unknown code), 0 when it is
+   about what the caller gave (and for ERRCODE_OK): the one split behind
+   the command line's exit status 1 or 2 and the API's 500 or 4xx. */
+int errcode_is_internal(enum errcode code);
+
 #endif
