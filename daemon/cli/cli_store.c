@@ -696,6 +696,34 @@ cli_store_import_file(struct cli_store *c, const char *file, int kind,
 }
 
 int
+cli_store_import_ops(const struct cli_args *a, int kind,
+    void (*said)(const char *file, const struct cli_store_counts *n))
+{
+	struct cli_store c;
+	struct cli_store_counts n;
+	int st;
+
+	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
+		return st;
+	if ((st = cli_store_load(&c)) != CLI_EXIT_OK)
+		goto out;
+	for (int i = 0; i < a->nops; i++) {
+		int fst = cli_store_import_file(&c, a->ops[i], kind, &n);
+
+		if (fst == CLI_EXIT_OK)
+			said(a->ops[i], &n);
+		else if (st == CLI_EXIT_OK || fst == CLI_EXIT_FAIL ||
+		    fst == CLI_EXIT_INTERRUPTED)
+			st = fst;
+		if (fst == CLI_EXIT_INTERRUPTED)
+			break;		/* the files before it are stored */
+	}
+out:
+	cli_store_close(&c);
+	return st;
+}
+
+int
 cli_store_check_zone(const struct site_station *st, const char *where)
 {
 	if (st->time_zone[0] != '\0' && !qzone_known(st->time_zone))

@@ -166,22 +166,19 @@ out:
 
 /* --- import --------------------------------------------------------------- */
 
+/* What the attempts file gave. */
+static void
+said(const char *file, const struct cli_store_counts *n)
+{
+	printf("%s: %zu attempt%s read, %zu added, %zu already present "
+	    "(skipped)\n", file, n->read, n->read == 1 ? "" : "s", n->added,
+	    n->present);
+}
+
 int
 cmd_log_import(const struct cli_args *a)
 {
-	struct cli_store c;
-	struct cli_store_counts n;
-	const char *file = a->ops[0];
-	int st;
-
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)) ==
-	    CLI_EXIT_OK && (st = cli_store_load(&c)) == CLI_EXIT_OK &&
-	    (st = cli_store_import_file(&c, file, 'a', &n)) == CLI_EXIT_OK)
-		printf("%s: %zu attempt%s read, %zu added, %zu already "
-		    "present (skipped)\n", file, n.read,
-		    n.read == 1 ? "" : "s", n.added, n.present);
-	cli_store_close(&c);
-	return st;
+	return cli_store_import_ops(a, 'a', said);
 }
 
 /* The columns of an import file, for --help. */

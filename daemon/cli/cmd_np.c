@@ -29,33 +29,17 @@ cmd_np_count(const struct cli_args *a)
 	return st;
 }
 
+/* What a CRD file gave. */
+static void
+said(const char *file, const struct cli_store_counts *n)
+{
+	printf("%s: %zu normal point%s read, %zu added, %zu already present, "
+	    "%zu records of unused types skipped\n", file, n->read,
+	    n->read == 1 ? "" : "s", n->added, n->present, n->unused);
+}
+
 int
 cmd_np_import(const struct cli_args *a)
 {
-	struct cli_store c;
-	struct cli_store_counts n;
-	int st;
-
-	if ((st = cli_store_open(&c, cli_text(a, "db", NULL), 0)))
-		return st;
-	if ((st = cli_store_load(&c)) != CLI_EXIT_OK)
-		goto out;
-	/* One transaction per file: a bad file leaves the others stored. */
-	for (int i = 0; i < a->nops; i++) {
-		int fst = cli_store_import_file(&c, a->ops[i], 'n', &n);
-
-		if (fst == CLI_EXIT_OK)
-			printf("%s: %zu normal point%s read, %zu added, %zu "
-			    "already present, %zu records of unused types "
-			    "skipped\n", a->ops[i], n.read, n.read == 1 ? "" :
-			    "s", n.added, n.present, n.unused);
-		else if (st == CLI_EXIT_OK || fst == CLI_EXIT_FAIL ||
-		    fst == CLI_EXIT_INTERRUPTED)
-			st = fst;
-		if (fst == CLI_EXIT_INTERRUPTED)
-			break;		/* the files before it are stored */
-	}
-out:
-	cli_store_close(&c);
-	return st;
+	return cli_store_import_ops(a, 'n', said);
 }

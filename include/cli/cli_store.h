@@ -141,6 +141,17 @@ int cli_store_import_file(struct cli_store *c, const char *file, int kind,
     struct cli_store_counts *n);
 
 /*
+ * The import commands (log import, np import): open a's --db for
+ * writing, load it and import each operand with cli_store_import_file
+ * (kind as there), in its own transaction, so that a bad file leaves the
+ * others stored; said prints what a file that went in gave.  A failure
+ * of the database, or an interruption (which stops at that file), wins
+ * over bad input in the exit status.
+ */
+int cli_store_import_ops(const struct cli_args *a, int kind,
+    void (*said)(const char *file, const struct cli_store_counts *n));
+
+/*
  * A transaction of imports: cli_store_begin opens it (a CLI status);
  * until cli_store_end, SIGINT only sets a flag: the importers above stop
  * at the next record and give CLI_EXIT_INTERRUPTED (nothing printed).
