@@ -558,8 +558,8 @@ const struct cli_command cli_commands[] = {
 		    "newest 20 unless --limit N or --all says otherwise.  The "
 		    "table shows the start in the station's time zone, the "
 		    "target, outcome, returns, normal points, operator and "
-		    "notes (cut to fit 80 columns); --csv and --json hold every "
-		    "field.  --since is inclusive, --until exclusive.",
+		    "notes (cut to fit 80 columns); --csv and --json hold "
+		    "every field.  --since is inclusive, --until exclusive.",
 		    .options = log_list_opts, .run = cmd_log_list},
 		{.name = "import",
 		    .summary = "attempts from a CSV file, all or nothing",
