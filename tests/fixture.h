@@ -1,7 +1,8 @@
 /* SPDX-License-Identifier: BSD-3-Clause */
 /* fixture.h: fixtures shared by the cmocka programs: a scratch directory
    for a group of tests (made by its setup, removed by its teardown), the
-   invented station of the store and derive tests, and ISO UTC to MJD. */
+   invented station of the store and derive tests, and ISO UTC to an MJD
+   or an instant. */
 #ifndef MOONRANGE_TESTS_FIXTURE_H
 #define MOONRANGE_TESTS_FIXTURE_H
 
@@ -75,6 +76,17 @@ fixture_mjd(const char *iso)
 
 	assert_int_equal(tscale_parse_utc(iso, &u1, &u2, NULL, 0), ERRCODE_OK);
 	return (u1 - TEXT_MJD0) + u2;
+}
+
+/* The instant of ISO 8601 UTC text (UT1 = UTC); the test fails when it
+   does not parse or convert. */
+static inline void
+fixture_instant(const char *iso, struct tscale_instant *t)
+{
+	double u1, u2;
+
+	assert_int_equal(tscale_parse_utc(iso, &u1, &u2, NULL, 0), ERRCODE_OK);
+	assert_int_equal(tscale_from_utc(u1, u2, 0.0, t), ERRCODE_OK);
 }
 
 /* An invented station (the demo ridge's place and weather), every member

@@ -8,6 +8,7 @@
 #include <jansson.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "query/covquery.h"
 #include "core/mem.h"
 #include "formats/render_json.h"
@@ -288,24 +289,18 @@ test_covquery_fill_dates_from_the_planner(void **state)
 		assert_int_equal(json_integer_value(json_object_get(b, "count")),
 		    0);
 		json_array_foreach(json_object_get(b, "dates"), k, d) {
-			double u1, u2, mjd, deg, ws, we;
+			double mjd, deg, ws, we;
 
-			assert_int_equal(tscale_parse_utc(json_string_value(
-			    json_object_get(d, "in_bin_start_utc")), &u1, &u2,
-			    NULL, 0), ERRCODE_OK);
-			mjd = (u1 - 2400000.5) + u2;
+			mjd = fixture_mjd(json_string_value(json_object_get(d,
+			    "in_bin_start_utc")));
 			assert_int_equal(coverage_axis_value(
 			    COVERAGE_AXIS_SYNODIC, NULL, mjd, &deg), ERRCODE_OK);
 			assert_int_equal(coverage_bin_of(deg, 12), bin);
 			assert_true(mjd >= 61440.0 && mjd < 61470.0);
-			assert_int_equal(tscale_parse_utc(json_string_value(
-			    json_object_get(d, "window_start_utc")), &u1, &u2,
-			    NULL, 0), ERRCODE_OK);
-			ws = (u1 - 2400000.5) + u2;
-			assert_int_equal(tscale_parse_utc(json_string_value(
-			    json_object_get(d, "window_end_utc")), &u1, &u2,
-			    NULL, 0), ERRCODE_OK);
-			we = (u1 - 2400000.5) + u2;
+			ws = fixture_mjd(json_string_value(json_object_get(d,
+			    "window_start_utc")));
+			we = fixture_mjd(json_string_value(json_object_get(d,
+			    "window_end_utc")));
 			/* Inside the window (times printed to the second). */
 			assert_true(mjd >= ws - 1.0 / 86400 &&
 			    mjd <= we + 1.0 / 86400);

@@ -10,6 +10,7 @@
 #include <erfam.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/eclipse.h"
 #include "core/geom.h"
 #include "core/tscale.h"
@@ -22,11 +23,9 @@
 static void
 tt_of(const char *utc, double *tt1, double *tt2)
 {
-	double u1, u2;
 	struct tscale_instant t;
 
-	assert_int_equal(tscale_parse_utc(utc, &u1, &u2, NULL, 0), ERRCODE_OK);
-	assert_int_equal(tscale_from_utc(u1, u2, 0.0, &t), ERRCODE_OK);
+	fixture_instant(utc, &t);
 	*tt1 = t.tt1;
 	*tt2 = t.tt2;
 }

@@ -8,6 +8,7 @@
 #include <jansson.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "formats/render_json.h"
 #include "formats/render_ephem.h"
 #include "formats/render_phases.h"
@@ -164,24 +165,19 @@ test_render_phases_json_parses(void **state)
 	struct geom_phase_event ev[8];
 	struct render_phases p;
 	struct tscale_instant a, z;
-	double u1, u2, v1, v2;
 	size_t n;
 	struct mbuf b;
 	json_t *root, *arr;
 
 	(void)state;
-	assert_int_equal(tscale_parse_utc("2027-01-01T00:00:00Z", &u1, &u2,
-	    NULL, 0), ERRCODE_OK);
-	assert_int_equal(tscale_parse_utc("2027-02-01T00:00:00Z", &v1, &v2,
-	    NULL, 0), ERRCODE_OK);
-	assert_int_equal(tscale_from_utc(u1, u2, 0, &a), ERRCODE_OK);
-	assert_int_equal(tscale_from_utc(v1, v2, 0, &z), ERRCODE_OK);
+	fixture_instant("2027-01-01T00:00:00Z", &a);
+	fixture_instant("2027-02-01T00:00:00Z", &z);
 	assert_int_equal(geom_phases_find(a.tt1, a.tt2, z.tt1, z.tt2, ev, 8,
 	    &n), ERRCODE_OK);
 	/* a 31-day month holds 4 or 5 principal phases (mean spacing
 	   29.53 / 4 = 7.38 d, common practice) */
 	assert_true(n >= 4 && n <= 5);
-	render_phases_init(&p, u1, u2, v1, v2, ev, n);
+	render_phases_init(&p, a.utc1, a.utc2, z.utc1, z.utc2, ev, n);
 	mbuf_init(&b);
 	assert_int_equal(render_phases_json(&p, &b), ERRCODE_OK);
 	root = json_loads(b.data, 0, NULL);
@@ -195,6 +191,7 @@ test_render_phases_json_parses(void **state)
 		json_t *o = json_array_get(arr, i);
 		const char *k = json_string_value(json_object_get(o, "kind"));
 		const char *u = json_string_value(json_object_get(o, "utc"));
+		double u1, u2;
 
 		assert_non_null(k);
 		assert_non_null(u);

@@ -12,6 +12,7 @@
 
 #include "rng.h"
 #include "check.h"
+#include "fixture.h"
 #include "core/link.h"
 #include "core/score.h"
 
@@ -366,16 +367,13 @@ struct month {
 static void
 month_open(struct month *m)
 {
-	double u1, u2;
 	struct tscale_instant t;
 	struct geom_phase_event ev[8];
 	size_t nn = window_track_nodes(30.0), n = 0;
 
 	assert_int_equal(geom_site_init(&m->site, 38.9712 * D2R,
 	    -114.3098 * D2R, 2950.0, NULL), ERRCODE_OK);
-	assert_int_equal(tscale_parse_utc("2027-03-01T00:00:00Z", &u1, &u2,
-	    NULL, 0), ERRCODE_OK);
-	assert_int_equal(tscale_from_utc(u1, u2, 0.0, &t), ERRCODE_OK);
+	fixture_instant("2027-03-01T00:00:00Z", &t);
 	m->nodes = calloc(nn, sizeof m->nodes[0]);
 	assert_non_null(m->nodes);
 	assert_int_equal(window_track_init(&m->tr, &m->site, NULL, t.tt1,

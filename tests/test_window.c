@@ -14,6 +14,7 @@
 #include <libnova/transform.h>
 
 #include "check.h"
+#include "fixture.h"
 #include "core/window.h"
 
 #define D2R ERFA_DD2R
@@ -47,14 +48,12 @@ static void
 fixture_open(struct fixture *fx, double lat_deg, double lon_deg, double h,
     const char *utc, double span)
 {
-	double u1, u2;
 	struct tscale_instant t;
 	size_t nn = window_track_nodes(span);
 
 	assert_int_equal(geom_site_init(&fx->site, lat_deg * D2R,
 	    lon_deg * D2R, h, NULL), ERRCODE_OK);
-	assert_int_equal(tscale_parse_utc(utc, &u1, &u2, NULL, 0), ERRCODE_OK);
-	assert_int_equal(tscale_from_utc(u1, u2, 0.0, &t), ERRCODE_OK);
+	fixture_instant(utc, &t);
 	fx->nodes = calloc(nn, sizeof fx->nodes[0]);
 	assert_non_null(fx->nodes);
 	assert_int_equal(window_track_init(&fx->tr, &fx->site, NULL, t.tt1,
