@@ -349,8 +349,7 @@ import_crd(const char *buf, size_t len, import_np_fn fn, void *ctx,
 	char *tok[CRD_MAX_TOKENS];
 	enum errcode rc;
 
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+	if ((rc = import_begin(buf, len, rep)) != ERRCODE_OK)
 		return rc;
 	memset(&s, 0, sizeof s);
 	s.end_mjd = NAN;

@@ -80,7 +80,7 @@ csv_begin_field(struct csv *c)
 	return 0;
 }
 
-/* Fields hold no NUL (import_check_text), so the terminator ends each one. */
+/* Fields hold no NUL (import_begin), so the terminator ends each one. */
 static int
 csv_end_field(struct csv *c)
 {
@@ -295,8 +295,7 @@ csv_run(const char *buf, size_t len, const struct csv_column *cols,
 	enum errcode rc;
 	int r;
 
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+	if ((rc = import_begin(buf, len, rep)) != ERRCODE_OK)
 		return rc;
 	memset(&t, 0, sizeof t);
 	t.cols = cols;
@@ -346,6 +345,18 @@ static const struct csv_column target_cols[TC__N] = {
 	{ "normal_lon_deg", 0 }, { "extent_m", 0 },
 };
 
+/* Column j of the record trimmed into v (size len): 1 when it fitted, 0
+   when the cell is too long for v (v then holds its start). */
+static int
+cell(const struct csv *c, const struct csv_table *t, size_t j, char *v,
+    size_t len)
+{
+	const char *raw = csv_get(c, t, j);
+
+	import_trim(raw, v, len);
+	return strlen(raw) < len;
+}
+
 /* A number column in [lo, hi], or dflt when empty and allowed. */
 static int
 row_real(const struct csv *c, const struct csv_table *t, size_t j,
@@ -353,9 +364,8 @@ row_real(const struct csv *c, const struct csv_table *t, size_t j,
     double *out)
 {
 	char v[64];
-	const char *raw = csv_get(c, t, j);
+	int fits = cell(c, t, j, v, sizeof v);
 
-	import_trim(raw, v, sizeof v);
 	if (v[0] == '\0') {
 		if (t->cols[j].required) {
 			import_err(rep, c->rec_line, t->cols[j].name,
@@ -365,8 +375,7 @@ row_real(const struct csv *c, const struct csv_table *t, size_t j,
 		*out = dflt;	/* NaN for "not given" */
 		return 0;
 	}
-	if (strlen(raw) >= sizeof v ||
-	    text_parse_real(v, -HUGE_VAL, HUGE_VAL, out) != 0) {
+	if (!fits || text_parse_real(v, -HUGE_VAL, HUGE_VAL, out) != 0) {
 		import_err(rep, c->rec_line, t->cols[j].name, "'%.40s' is not "
 		    "a number", v);
 		return -1;
@@ -406,14 +415,13 @@ row_bool(const struct csv *c, const struct csv_table *t, size_t j, int dflt,
     struct import_report *rep, int *out)
 {
 	char v[16];
-	const char *raw = csv_get(c, t, j);
+	int fits = cell(c, t, j, v, sizeof v);
 
-	import_trim(raw, v, sizeof v);
 	if (v[0] == '\0') {
 		*out = dflt;
 		return 0;
 	}
-	if (strlen(raw) >= sizeof v || text_parse_bool(v, out) != 0) {
+	if (!fits || text_parse_bool(v, out) != 0) {
 		import_err(rep, c->rec_line, t->cols[j].name, "'%.15s' is not "
 		    "0/1, true/false or yes/no", v);
 		return -1;
@@ -426,14 +434,13 @@ row_ident(const struct csv *c, const struct csv_table *t, size_t j,
     char *dst, size_t cap, int allow_empty, struct import_report *rep)
 {
 	char v[SITE_NAME_LEN];
-	const char *raw = csv_get(c, t, j);
+	int fits = cell(c, t, j, v, sizeof v);
 
-	import_trim(raw, v, sizeof v);
 	if (v[0] == '\0' && allow_empty) {
 		dst[0] = '\0';
 		return 0;
 	}
-	if (strlen(raw) >= sizeof v || !import_valid_ident(v, cap - 1, 1)) {
+	if (!fits || !import_valid_ident(v, cap - 1, 1)) {
 		import_err(rep, c->rec_line, t->cols[j].name, "'%.40s' is not "
 		    "1-%zu letters, digits, '_', '-' or '.'", v, cap - 1);
 		return -1;
@@ -514,10 +521,8 @@ row_time(const struct csv *c, const struct csv_table *t, size_t j,
     struct import_report *rep, double *mjd)
 {
 	char v[64], err[160];
-	const char *raw = csv_get(c, t, j);
 
-	import_trim(raw, v, sizeof v);
-	if (strlen(raw) >= sizeof v) {
+	if (!cell(c, t, j, v, sizeof v)) {
 		import_err(rep, c->rec_line, t->cols[j].name, "too long for a "
 		    "UTC time");
 		return -1;
@@ -534,10 +539,8 @@ row_count(const struct csv *c, const struct csv_table *t, size_t j,
     struct import_report *rep, long *out)
 {
 	char v[32];
-	const char *raw = csv_get(c, t, j);
 
-	import_trim(raw, v, sizeof v);
-	if (strlen(raw) >= sizeof v) {
+	if (!cell(c, t, j, v, sizeof v)) {
 		import_err(rep, c->rec_line, t->cols[j].name, "too long for a "
 		    "count");
 		return -1;

@@ -280,8 +280,7 @@ eop_import_lines(const char *buf, size_t len, eop_line_fn parse,
 	double prev = NAN;
 	enum errcode rc;
 
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+	if ((rc = import_begin(buf, len, rep)) != ERRCODE_OK)
 		return rc;
 	it.p = buf + import_bom_len(buf, len);
 	it.end = buf + len;
@@ -364,8 +363,7 @@ import_eop(const char *buf, size_t len, import_eop_fn fn, void *ctx,
 {
 	enum errcode rc;
 
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+	if ((rc = import_begin(buf, len, rep)) != ERRCODE_OK)
 		return rc;
 	switch (import_eop_detect(buf, len)) {
 	case IMPORT_EOP_FINALS:

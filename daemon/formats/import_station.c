@@ -476,8 +476,7 @@ import_station_ini(const char *buf, size_t len, struct site_station *st,
 	enum errcode rc;
 	int r;
 
-	import_report_init(rep);
-	if ((rc = import_check_text(buf, len, rep)) != ERRCODE_OK)
+	if ((rc = import_begin(buf, len, rep)) != ERRCODE_OK)
 		return rc;
 	memset(&s, 0, sizeof s);
 	s.p = buf + import_bom_len(buf, len);

@@ -91,11 +91,12 @@ import_status(const struct import_report *rep)
 /* ------------------------------------------------------------------ */
 
 enum errcode
-import_check_text(const char *buf, size_t len, struct import_report *rep)
+import_begin(const char *buf, size_t len, struct import_report *rep)
 {
 	const unsigned char *p = (const unsigned char *)buf;
 	size_t line = 1, col = 1, n;
 
+	import_report_init(rep);
 	if (buf == NULL && len > 0)
 		return ERRCODE_BAD_ARG;
 	for (size_t i = 0; i < len; i += n, col++) {

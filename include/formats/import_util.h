@@ -32,11 +32,12 @@ struct import_lines {
 enum errcode import_status(const struct import_report *rep);
 
 /*
- * The whole buffer must be text: no NUL byte, valid UTF-8.  On failure
+ * The start of every parse: rep emptied (import_report_init), and the
+ * whole buffer checked to be text: no NUL byte, valid UTF-8.  On failure
  * one error names the line and column and ERRCODE_IO is returned; no
  * record has been handed on.
  */
-enum errcode import_check_text(const char *buf, size_t len,
+enum errcode import_begin(const char *buf, size_t len,
     struct import_report *rep);
 
 /* Skip a UTF-8 byte-order mark. */
