@@ -857,6 +857,17 @@ store_integrity_check(struct store *s, char *errbuf, size_t errlen)
 
 /* --- transactions --------------------------------------------------------- */
 
+/* Set the page cache (PRAGMA cache_size: negative, KiB); the default of
+   SQLite (-2000) outside transactions. */
+static void
+tx_cache(struct store *s, int kib)
+{
+	char sql[48];
+
+	snprintf(sql, sizeof sql, "PRAGMA cache_size = %d", kib);
+	(void)sqlite3_exec(s->db, sql, NULL, NULL, NULL);
+}
+
 enum errcode
 store_begin(struct store *s, char *errbuf, size_t errlen)
 {
@@ -868,8 +879,11 @@ store_begin(struct store *s, char *errbuf, size_t errlen)
 	}
 	e = exec_sql(s, "BEGIN IMMEDIATE", "starting a transaction", errbuf,
 	    errlen);
-	if (e == ERRCODE_OK)
+	if (e == ERRCODE_OK) {
 		s->in_tx = 1;
+		s->tx_rate_known = 0;
+		tx_cache(s, -STORE_TX_CACHE_KIB);
+	}
 	return e;
 }
 
@@ -888,6 +902,8 @@ store_commit(struct store *s, char *errbuf, size_t errlen)
 	if (e != ERRCODE_OK)
 		store_rollback(s);
 	s->in_tx = 0;
+	s->tx_rate_known = 0;
+	tx_cache(s, -2000);
 	return e;
 }
 
@@ -899,7 +915,10 @@ store_rollback(struct store *s)
 	store_stats_discard(s);
 	if (!sqlite3_get_autocommit(s->db))
 		(void)sqlite3_exec(s->db, "ROLLBACK", NULL, NULL, NULL);
+	if (s->in_tx)
+		tx_cache(s, -2000);
 	s->in_tx = 0;
+	s->tx_rate_known = 0;
 }
 
 /* --- settings ------------------------------------------------------------- */

@@ -217,8 +217,14 @@ store_attempt_add(struct store *s, struct site_attempt *a, char *errbuf,
 	snprintf(what, sizeof what, "attempt on '%s' at %s", a->target, t0);
 	/* The one validation of an attempt (core/attempt.h), whatever the
 	   way in; the schema's CHECKs mirror what a column can hold. */
-	if (store_station_get(s, &station, NULL, 0) == ERRCODE_OK)
-		rate = station.fire_rate_hz;
+	if (s->in_tx && s->tx_rate_known) {
+		rate = s->tx_rate;
+	} else {
+		if (store_station_get(s, &station, NULL, 0) == ERRCODE_OK)
+			rate = station.fire_rate_hz;
+		s->tx_rate = rate;
+		s->tx_rate_known = s->in_tx;
+	}
 	if ((e = check_attempt(a, rate, what, errbuf, errlen)))
 		return e;
 	a->suspect = attempt_suspect(a, rate, NULL, 0);

@@ -110,6 +110,7 @@ store_station_put(struct store *s, const struct site_station *o,
 	bind_positive(st, 20, o->detector_qe);
 	bind_positive(st, 21, o->seeing_arcsec);
 	bind_positive(st, 22, o->jitter_ps);
+	s->tx_rate_known = 0;
 	if ((e = store_step_done(s, st, "station", errbuf, errlen)))
 		return e;
 	/* The log's exposures depend on zenith_tau and seeing_arcsec. */

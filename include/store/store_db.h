@@ -54,7 +54,17 @@ struct store {
 	int pend_state;
 	long long pend_gen0;		/* log_gen before the first */
 	long long pend_n;		/* records noted */
+	/* The station's fire rate, read once per transaction for the rules
+	   of its attempts (store_station_put forgets it). */
+	int tx_rate_known;
+	double tx_rate;
 };
+
+/* Page cache of a connection inside a transaction, KiB: an import of
+   200,000 attempts spills pages to the WAL again and again with
+   SQLite's default 2 MiB (twice the system time); back to the default at
+   its end. */
+#define STORE_TX_CACHE_KIB 32768
 
 /*
  * The log's statistics and the writes of a transaction (store_stats.c):
