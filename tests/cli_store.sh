@@ -48,7 +48,7 @@ NNP=$(q "$DB" 'SELECT count(*) FROM normal_points')
 check "normal points loaded" "[ '$NNP' -gt 0 ]"
 check "EOP rows loaded" "[ \"\$(q '$DB' 'SELECT count(*) FROM eop')\" -gt 100 ]"
 check "WAL journal" "[ \"\$(q '$DB' 'PRAGMA journal_mode')\" = wal ]"
-check "schema version 7" "[ \"\$(q '$DB' 'PRAGMA user_version')\" = 7 ]"
+check "schema version 8" "[ \"\$(q '$DB' 'PRAGMA user_version')\" = 8 ]"
 check "every table STRICT" "[ \"\$(q '$DB' \"SELECT count(*) FROM pragma_table_list WHERE schema = 'main' AND name NOT LIKE 'sqlite%' AND strict = 0\")\" = 0 ]"
 check "derived angles in range" "[ \"\$(q '$DB' 'SELECT count(*) FROM attempts WHERE synodic_deg < 0 OR synodic_deg >= 360 OR abs(target_el_deg) > 90')\" = 0 ]"
 expect_fail "init refuses to overwrite" 2 "already exists" "$M" init --db "$DB" --site "$SITE"

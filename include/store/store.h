@@ -33,7 +33,7 @@
  * processes may share one file (WAL, busy timeout STORE_BUSY_MS).
  */
 
-#define STORE_SCHEMA_VERSION 7	/* PRAGMA user_version of a current file */
+#define STORE_SCHEMA_VERSION 8	/* PRAGMA user_version of a current file */
 #define STORE_BUSY_MS 10000	/* wait this long for a lock, then fail */
 #define STORE_TIME_NDP 3	/* decimals of seconds of stored times */
 #define STORE_NP_TIME_NDP 6	/* ... of normal-point epochs */
