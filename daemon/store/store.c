@@ -217,6 +217,7 @@ static const char *const stmt_sql[ST__COUNT] = {
 	[ST_SETTING_GET] = "SELECT value FROM settings WHERE key = ?1",
 	[ST_SETTING_SET] = "INSERT INTO settings (key, value) VALUES (?1, ?2) "
 	    "ON CONFLICT (key) DO UPDATE SET value = excluded.value",
+	[ST_DATA_VERSION] = "PRAGMA data_version",
 };
 
 /* --- errors --------------------------------------------------------------- */
@@ -493,10 +494,16 @@ store_schema_version(struct store *s)
 int
 store_data_version(struct store *s)
 {
+	sqlite3_stmt *st;
 	int v = -1;
 
-	if (s == NULL || pragma_int(s, "PRAGMA data_version", &v) != SQLITE_OK)
+	/* Prepared once: the daemon asks on every cached request. */
+	if (s == NULL || store_stmt_get(s, ST_DATA_VERSION, &st, NULL, 0) !=
+	    ERRCODE_OK)
 		return -1;
+	if (sqlite3_step(st) == SQLITE_ROW)
+		v = sqlite3_column_int(st, 0);
+	store_stmt_done(st);
 	return v;
 }
 

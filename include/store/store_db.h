@@ -38,6 +38,7 @@ enum store_stmt_id {
 	ST_EOP_AROUND,
 	ST_SETTING_GET,
 	ST_SETTING_SET,
+	ST_DATA_VERSION,
 	ST__COUNT
 };
 
