@@ -28,6 +28,14 @@ target(struct site_target *t, double lat, double lon)
 	t->active = 1;
 }
 
+/* The fixture station and one target at selenographic lat, lon (deg). */
+static void
+site(struct site_station *st, struct site_target *t, double lat, double lon)
+{
+	fixture_station(st);
+	target(t, lat, lon);
+}
+
 /* TT - UTC in days for 2027-2028: 32.184 s + 37 leap seconds (TAI-UTC =
    37 s since 2017-01-01, IERS Bulletin C). */
 #define TT_UTC_D ((32.184 + 37.0) / 86400.0)
@@ -41,8 +49,7 @@ test_derive_synodic_matches_libnova(void **state)
 	int above = 0;
 
 	(void)state;
-	fixture_station(&st);
-	target(&t, 0.0, 0.0);
+	site(&st, &t, 0.0, 0.0);
 	/* 40 instants, 17.3 days apart from 2027-01-01 (MJD 61406): all
 	   phases, both halves of the sky. */
 	for (int i = 0; i < 40; i++) {
@@ -95,8 +102,7 @@ test_derive_elevation_matches_astropy(void **state)
 	struct derive_angles d;
 
 	(void)state;
-	fixture_station(&st);
-	target(&t, 0.0, 0.0);
+	site(&st, &t, 0.0, 0.0);
 	for (size_t i = 0; i < sizeof astropy_moon_el /
 	    sizeof astropy_moon_el[0]; i++) {
 		assert_int_equal(derive_at(&st, &t, NULL,
@@ -119,8 +125,7 @@ test_derive_sun_at_target_follows_phase(void **state)
 	size_t n = 0;
 
 	(void)state;
-	fixture_station(&st);
-	target(&t, 0.0, 0.0);
+	site(&st, &t, 0.0, 0.0);
 	/* Phases of 2027 January (TT JD 2461406.5 .. +30). */
 	assert_int_equal(geom_phases_find(2461406.5, 0.0, 2461406.5, 30.0, ev,
 	    8, &n), ERRCODE_OK);
@@ -181,8 +186,7 @@ test_derive_mean_elongation_is_meeus_d(void **state)
 	    T * T * T / 545868.0 - T * T * T * T / 113065000.0;
 
 	(void)state;
-	fixture_station(&st);
-	target(&t, 10.0, -20.0);
+	site(&st, &t, 10.0, -20.0);
 	assert_int_equal(derive_at(&st, &t, NULL, mjd, &d), ERRCODE_OK);
 	D = fmod(D, 360.0);
 	check_near(d.mean_elong_deg, D, 0.001, "deg", "mean elongation D");
@@ -264,14 +268,12 @@ test_derive_rejects_bad_input(void **state)
 	struct derive_angles d;
 
 	(void)state;
-	fixture_station(&st);
-	target(&t, 0.0, 0.0);
+	site(&st, &t, 0.0, 0.0);
 	assert_int_equal(derive_at(&st, &t, NULL, NAN, &d), ERRCODE_BAD_TIME);
 	st.lat_deg = 91.0;
 	assert_int_equal(derive_at(&st, &t, NULL, 61406.0, &d),
 	    ERRCODE_BAD_ARG);
-	fixture_station(&st);
-	target(&t, 95.0, 0.0);
+	site(&st, &t, 95.0, 0.0);
 	assert_int_equal(derive_at(&st, &t, NULL, 61406.0, &d),
 	    ERRCODE_BAD_ARG);
 }
