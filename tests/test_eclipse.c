@@ -2,6 +2,7 @@
 /* test_eclipse.c: lunar eclipses and the reflectors' shadow state against
    published predictions and an independent library (astronomy-engine,
    tests/ref, run with node when present). */
+#include <math.h>
 #include <stdio.h>
 #include <stdlib.h>
 #include <string.h>
@@ -12,6 +13,7 @@
 #include "check.h"
 #include "fixture.h"
 #include "core/eclipse.h"
+#include "core/fastpath.h"
 #include "core/geom.h"
 #include "core/tscale.h"
 #include "core/window.h"
@@ -526,6 +528,89 @@ test_eclipse_window_across_totality(void **state)
 	    (w[0].end - w[0].start) * 1440.0, (w[0].start - off_u1) * 1440.0);
 }
 
+/* Seconds between two TT JDs in two parts. */
+static double
+sec_between(double a1, double a2, double b1, double b2)
+{
+	return ((b1 - a1) + (b2 - a2)) * ERFA_DAYSEC;
+}
+
+/*
+ * The search on a fitted track against eclipse_find on the direct chain
+ * (the project's reference path: eraMoon98 and eraEpv00 at every step)
+ * over 2025-2030 and over 12 two-year spans drawn from 1900-2100: the
+ * same eclipses, kinds and contacts, every instant within 0.03 s
+ * (eclipse_find's tolerances are 0.01 s and 1e-7 d) and magnitudes
+ * within 1e-6.
+ */
+static void
+test_eclipse_track_matches_direct(void **state)
+{
+	double worst = 0.0;
+	size_t total = 0;
+
+	(void)state;
+	srand(13);
+	for (int k = 0; k < 13; k++) {
+		struct eclipse_event ev[MAXE], ef[MAXE];
+		struct geom_site site;
+		struct fast_track ft;
+		struct fast_seg *seg;
+		double a1 = 2460676.5, a2 = 0.5, span = 2191.0, m =
+		    ECLIPSE_TRACK_MARGIN;
+		size_t n = 0, nf = 0, ns;
+
+		if (k > 0) {	/* a random start in 1900-2098 (JD) */
+			a2 = 2415020.5 + (double)rand() / RAND_MAX * 72000.0 -
+			    a1;
+			span = 731.0;
+		}
+		ns = fast_track_segments(-m, span + m);
+		seg = calloc(ns, sizeof *seg);
+		assert_non_null(seg);
+		assert_int_equal(geom_site_init(&site, 0.5, 0.1, 100.0, NULL),
+		    ERRCODE_OK);
+		assert_int_equal(fast_track_init(&ft, &site, NULL, a1, a2, -m,
+		    span + m, seg, ns), ERRCODE_OK);
+		assert_int_equal(eclipse_find(a1, a2, a1, a2 + span, ev, MAXE,
+		    &n), ERRCODE_OK);
+		assert_int_equal(eclipse_find_track(&ft, 0.0, span, ef, MAXE,
+		    &nf), ERRCODE_OK);
+		assert_int_equal(nf, n);
+		for (size_t i = 0; i < n; i++) {
+			double d = sec_between(ev[i].greatest_tt1,
+			    ev[i].greatest_tt2, ef[i].greatest_tt1,
+			    ef[i].greatest_tt2);
+
+			assert_int_equal(ef[i].kind, ev[i].kind);
+			assert_true(fabs(d) < 0.03);
+			worst = fmax(worst, fabs(d));
+			assert_true(fabs(ef[i].umbral_mag - ev[i].umbral_mag) <
+			    1e-6);
+			assert_true(fabs(ef[i].penumbral_mag -
+			    ev[i].penumbral_mag) < 1e-6);
+			assert_true(fabs(ef[i].gamma - ev[i].gamma) < 1e-6);
+			for (int c = 0; c < ECLIPSE_NCONTACTS; c++) {
+				assert_int_equal(ef[i].has[c], ev[i].has[c]);
+				if (!ev[i].has[c])
+					continue;
+				d = sec_between(ev[i].contact_tt1[c],
+				    ev[i].contact_tt2[c], ef[i].contact_tt1[c],
+				    ef[i].contact_tt2[c]);
+				assert_true(fabs(d) < 0.03);
+				worst = fmax(worst, fabs(d));
+			}
+		}
+		total += n;
+		/* A span the track does not cover with the margin. */
+		assert_int_equal(eclipse_find_track(&ft, -m, span, ef, MAXE,
+		    &nf), ERRCODE_BAD_ARG);
+		free(seg);
+	}
+	print_message("%zu eclipses: fitted search within %.4f s of the "
+	    "direct one\n", total, worst);
+}
+
 static void
 test_eclipse_names_and_bad_span(void **state)
 {
@@ -559,6 +644,7 @@ main(void)
 		cmocka_unit_test(test_eclipse_targets_at_mid_totality),
 		cmocka_unit_test(test_eclipse_penumbra_fraction),
 		cmocka_unit_test(test_eclipse_window_across_totality),
+		cmocka_unit_test(test_eclipse_track_matches_direct),
 		cmocka_unit_test(test_eclipse_names_and_bad_span),
 	};
 

@@ -8,6 +8,7 @@
 #include <erfam.h>
 
 #include "core/eclipse.h"
+#include "core/fastpath.h"
 #include "core/geom.h"
 
 /* The Earth's effective radius for its shadow (Danjon), m. */
@@ -194,31 +195,40 @@ contact_fn(void *ctx, double tt2)
 	return g.sigma - contact_limit(&g, goal->which);
 }
 
-/* Least sigma in [a, b] (TT days, second part) by golden section. */
+/* Least of f over [a, b] by golden section to tol; the middle of the
+   last bracket. */
 static double
-least_sigma(double tt1, double a, double b)
+golden_min(geom_root_fn f, void *ctx, double a, double b, double tol)
 {
 	const double r = 0.618033988749894848;
-	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
 	double x1 = b - r * (b - a), x2 = a + r * (b - a);
-	double f1 = contact_fn(&goal, x1), f2 = contact_fn(&goal, x2);
+	double f1 = f(ctx, x1), f2 = f(ctx, x2);
 
-	while (b - a > 0.01 / ERFA_DAYSEC) {
+	while (b - a > tol) {
 		if (f1 < f2) {
 			b = x2;
 			x2 = x1;
 			f2 = f1;
 			x1 = b - r * (b - a);
-			f1 = contact_fn(&goal, x1);
+			f1 = f(ctx, x1);
 		} else {
 			a = x1;
 			x1 = x2;
 			f1 = f2;
 			x2 = a + r * (b - a);
-			f2 = contact_fn(&goal, x2);
+			f2 = f(ctx, x2);
 		}
 	}
 	return 0.5 * (a + b);
+}
+
+/* Least sigma in [a, b] (TT days, second part) by golden section. */
+static double
+least_sigma(double tt1, double a, double b)
+{
+	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
+
+	return golden_min(contact_fn, &goal, a, b, 0.01 / ERFA_DAYSEC);
 }
 
 /* Sign of the Moon's ecliptic latitude relative to the anti-solar point. */
@@ -237,13 +247,65 @@ north_sign(double tt1, double tt2)
 	return (bm + bs) >= 0.0 ? 1.0 : -1.0;
 }
 
+/* The event of greatest eclipse at tt1 + t0, g the shadow there:
+   magnitudes, gamma and kind; no contact yet. */
+static void
+event_at(double tt1, double t0, const struct eclipse_geo *g,
+    struct eclipse_event *ev)
+{
+	double rm = ECLIPSE_EARTH_A / sin(g->moon_sd) * ECLIPSE_MOON_K;
+
+	memset(ev, 0, sizeof *ev);
+	ev->greatest_tt1 = tt1;
+	ev->greatest_tt2 = t0;
+	ev->umbral_mag = g->umbral_mag;
+	ev->penumbral_mag = g->penumbral_mag;
+	ev->gamma = north_sign(tt1, t0) * rm * sin(g->sigma) / ECLIPSE_EARTH_A;
+	ev->kind = g->umbral_mag >= 1.0 ? ECLIPSE_TOTAL :
+	    (g->umbral_mag > 0.0 ? ECLIPSE_PARTIAL : ECLIPSE_PENUMBRAL);
+}
+
+/* 1 when contact c lies before greatest eclipse (P1, U1, U2). */
+static int
+contact_before(int c)
+{
+	return c < ECLIPSE_U3;
+}
+
+/*
+ * Contact goal->which in [a, b], on its side of greatest eclipse (the
+ * greatest-eclipse end of the bracket inside the limit, the other end
+ * outside): *has 0 when the greatest-eclipse end is not inside (the
+ * contact does not occur), else 1 and its time in *root.
+ */
+static enum errcode
+contact_in(struct contact_goal *goal, double a, double b, int *has,
+    double *root)
+{
+	int before = contact_before(goal->which);
+	double fa = contact_fn(goal, a), fb = contact_fn(goal, b);
+	enum errcode rc;
+
+	*has = 0;
+	if (!isfinite(fa) || !isfinite(fb))
+		return ERRCODE_BAD_TIME;
+	if (!((before ? fb : fa) < 0.0))
+		return ERRCODE_OK;
+	if (!((before ? fa : fb) > 0.0))
+		return ERRCODE_NO_CONVERGE;
+	rc = geom_root_illinois(contact_fn, goal, a, fa, b, fb, 1e-7, 100,
+	    root);
+	*has = rc == ERRCODE_OK;
+	return rc;
+}
+
 /* Examine the full moon at tt1 + tt2; *found 1 when it is eclipsed. */
 static enum errcode
 examine(double tt1, double full2, struct eclipse_event *ev, int *found)
 {
 	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
 	struct eclipse_geo g;
-	double t0, rm;
+	double t0;
 	enum errcode rc;
 
 	*found = 0;
@@ -264,40 +326,32 @@ examine(double tt1, double full2, struct eclipse_event *ev, int *found)
 		return rc;
 	if (!(g.penumbral_mag > 0.0))
 		return ERRCODE_OK;
-	memset(ev, 0, sizeof *ev);
-	ev->greatest_tt1 = tt1;
-	ev->greatest_tt2 = t0;
-	ev->umbral_mag = g.umbral_mag;
-	ev->penumbral_mag = g.penumbral_mag;
-	rm = ECLIPSE_EARTH_A / sin(g.moon_sd) * ECLIPSE_MOON_K;
-	ev->gamma = north_sign(tt1, t0) * rm * sin(g.sigma) / ECLIPSE_EARTH_A;
-	ev->kind = g.umbral_mag >= 1.0 ? ECLIPSE_TOTAL :
-	    (g.umbral_mag > 0.0 ? ECLIPSE_PARTIAL : ECLIPSE_PENUMBRAL);
+	event_at(tt1, t0, &g, ev);
 	for (int c = 0; c < ECLIPSE_NCONTACTS; c++) {
-		int before = c < ECLIPSE_U3 ? 1 : 0;
-		double a = before ? t0 - 0.3 : t0, b = before ? t0 : t0 + 0.3;
-		double fa, fb, root;
+		int before = contact_before(c);
 
 		goal.which = (enum eclipse_contact)c;
-		fa = contact_fn(&goal, a);
-		fb = contact_fn(&goal, b);
-		if (!isfinite(fa) || !isfinite(fb))
-			return ERRCODE_BAD_TIME;
-		/* It occurs when sigma at greatest is inside the limit. */
-		if (!((before ? fb : fa) < 0.0))
-			continue;
-		if (!((before ? fa : fb) > 0.0))
-			return ERRCODE_NO_CONVERGE;
-		rc = geom_root_illinois(contact_fn, &goal, a, fa, b, fb, 1e-7, 100,
-		    &root);
+		rc = contact_in(&goal, before ? t0 - 0.3 : t0,
+		    before ? t0 : t0 + 0.3, &ev->has[c], &ev->contact_tt2[c]);
 		if (rc != ERRCODE_OK)
 			return rc;
-		ev->has[c] = 1;
-		ev->contact_tt1[c] = tt1;
-		ev->contact_tt2[c] = root;
+		ev->contact_tt1[c] = ev->has[c] ? tt1 : 0.0;
 	}
 	*found = 1;
 	return ERRCODE_OK;
+}
+
+/* Append ev to out (room cap, *count so far); past cap, only count it
+   and set *rc to ERRCODE_TOO_LARGE. */
+static void
+keep(const struct eclipse_event *ev, struct eclipse_event *out, size_t cap,
+    size_t *count, enum errcode *rc)
+{
+	if (*count < cap)
+		out[*count] = *ev;
+	else
+		*rc = ERRCODE_TOO_LARGE;
+	(*count)++;
 }
 
 enum errcode
@@ -336,14 +390,191 @@ eclipse_find(double from1, double from2, double to1, double to2,
 			if (!found)
 				continue;
 			off = (ev.greatest_tt1 - from1) + (ev.greatest_tt2 - from2);
-			if (off < 0.0 || off >= span)
-				continue;
-			if (count < cap)
-				out[count] = ev;
-			else
-				rc = ERRCODE_TOO_LARGE;
-			count++;
+			if (off >= 0.0 && off < span)
+				keep(&ev, out, cap, &count, &rc);
 		}
+	}
+	*n = count;
+	return rc;
+}
+
+/* --- the search on a fitted track --- */
+
+/* sigma less a limit on the fitted bodies, of the TT offset t. */
+struct fit_goal {
+	const struct fast_track *ft;
+	enum eclipse_contact which;	/* ECLIPSE_NCONTACTS: sigma alone */
+};
+
+static double
+fit_fn(void *ctx, double t)
+{
+	const struct fit_goal *goal = ctx;
+	double sun[3], moon[3];
+	struct eclipse_geo g;
+
+	fast_bodies_seen(goal->ft, t, sun, moon);
+	eclipse_geo_at(sun, moon, &g);
+	return g.sigma - contact_limit(&g, goal->which);
+}
+
+/* The synodic angle on the track less an angle, of the offset t. */
+struct syn_goal {
+	const struct fast_track *ft;
+	double ang;
+};
+
+static double
+syn_fn(void *ctx, double t)
+{
+	const struct syn_goal *goal = ctx;
+
+	return fast_synodic(goal->ft, t) - goal->ang;
+}
+
+/*
+ * Least sigma of the direct chain near tt1 + tt2 (within a second or
+ * so): the vertex of the parabola through sigma^2 at tt2 and +-2 s (the
+ * relative motion is straight to ~1e-5 over seconds, so sigma^2 is a
+ * parabola in time to far better than 1 ms).  Returns 0, or -1 when the
+ * vertex is not inside the three points.
+ */
+static int
+direct_vertex(double tt1, double tt2, double *t0)
+{
+	const double h = 2.0 / ERFA_DAYSEC;
+	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
+	double fm = contact_fn(&goal, tt2 - h), f0 = contact_fn(&goal, tt2);
+	double fp = contact_fn(&goal, tt2 + h), den, dt;
+
+	fm *= fm;
+	f0 *= f0;
+	fp *= fp;
+	den = fp - 2.0 * f0 + fm;
+	if (!(den > 0.0))
+		return -1;
+	dt = 0.5 * h * (fm - fp) / den;
+	if (!(fabs(dt) < h))
+		return -1;
+	*t0 = tt2 + dt;
+	return 0;
+}
+
+/*
+ * One full moon at offset tf on the track: as examine, with the search on
+ * the fit and the last step on the direct chain.  lo, hi: the offsets
+ * the fit covers.
+ */
+static enum errcode
+examine_fit(const struct fast_track *ft, double tf, double lo, double hi,
+    struct eclipse_event *ev, int *found)
+{
+	struct fit_goal fg = {ft, ECLIPSE_NCONTACTS};
+	struct contact_goal goal = {ft->base1, ECLIPSE_NCONTACTS};
+	const double b2 = ft->base2, near = 1.0 / ERFA_DAYSEC;
+	struct eclipse_geo g;
+	double sun[3], moon[3], tg, t0;
+	enum errcode rc;
+
+	*found = 0;
+	/* The screen of examine on the fitted bodies (within 0.01"). */
+	fast_bodies_seen(ft, tf, sun, moon);
+	eclipse_geo_at(sun, moon, &g);
+	if (0.95 * g.sigma > g.penumbra + g.moon_sd + 0.002)
+		return ERRCODE_OK;
+	tg = golden_min(fit_fn, &fg, fmax(lo, tf - 0.3), fmin(hi, tf + 0.3),
+	    0.05 / ERFA_DAYSEC);
+	if (direct_vertex(ft->base1, b2 + tg, &t0) != 0)
+		t0 = least_sigma(ft->base1, b2 + tf - 0.3, b2 + tf + 0.3);
+	rc = eclipse_geo_tt(ft->base1, t0, &g);
+	if (rc != ERRCODE_OK)
+		return rc;
+	if (!(g.penumbral_mag > 0.0))
+		return ERRCODE_OK;
+	event_at(ft->base1, t0, &g, ev);
+	for (int c = 0; c < ECLIPSE_NCONTACTS; c++) {
+		int before = contact_before(c), has = 0;
+		double a, b, r;
+
+		goal.which = fg.which = (enum eclipse_contact)c;
+		if (!(g.sigma - contact_limit(&g, goal.which) < 0.0))
+			continue;	/* it does not occur */
+		/* On the fit to 0.05 s, then a bracket of +-1 s of it on the
+		   direct chain; the whole side when that fails. */
+		a = before ? fmax(lo, t0 - b2 - 0.3) : t0 - b2;
+		b = before ? t0 - b2 : fmin(hi, t0 - b2 + 0.3);
+		{
+			double fa = fit_fn(&fg, a), fb = fit_fn(&fg, b);
+
+			if ((fa > 0.0) != (fb > 0.0) &&
+			    geom_root_illinois(fit_fn, &fg, a, fa, b, fb,
+			    0.05 / ERFA_DAYSEC, 100, &r) == ERRCODE_OK) {
+				a = fmax(a, r - near);
+				b = fmin(b, r + near);
+				rc = contact_in(&goal, b2 + a, b2 + b, &has,
+				    &ev->contact_tt2[c]);
+				if (rc != ERRCODE_OK && rc != ERRCODE_NO_CONVERGE)
+					return rc;
+			}
+		}
+		if (!has) {
+			rc = contact_in(&goal, before ? t0 - 0.3 : t0,
+			    before ? t0 : t0 + 0.3, &has, &ev->contact_tt2[c]);
+			if (rc != ERRCODE_OK)
+				return rc;
+		}
+		ev->has[c] = has;
+		ev->contact_tt1[c] = has ? ft->base1 : 0.0;
+	}
+	*found = 1;
+	return ERRCODE_OK;
+}
+
+enum errcode
+eclipse_find_track(const struct fast_track *ft, double from, double to,
+    struct eclipse_event *out, size_t cap, size_t *n)
+{
+	const double pi = ERFA_DPI, step = 1.0;
+	double lo, hi, a, b, sa, sb;
+	size_t count = 0;
+	enum errcode rc = ERRCODE_OK;
+
+	*n = 0;
+	fast_track_range(ft, &lo, &hi);
+	if (!isfinite(from) || !isfinite(to) || !(to >= from) ||
+	    from - ECLIPSE_TRACK_MARGIN < lo || to + ECLIPSE_TRACK_MARGIN > hi)
+		return ERRCODE_BAD_ARG;
+	/* Full moons (the unwrapped synodic angle at pi + 2 k pi) in steps
+	   of a day over [from, to] widened by the margin. */
+	a = from - ECLIPSE_TRACK_MARGIN;
+	sa = fast_synodic(ft, a);
+	while (a < to + ECLIPSE_TRACK_MARGIN) {
+		b = fmin(a + step, to + ECLIPSE_TRACK_MARGIN);
+		sb = fast_synodic(ft, b);
+		for (double k = floor((sa - pi) / (2.0 * pi)) + 1.0;
+		    pi + 2.0 * pi * k <= sb; k++) {
+			struct syn_goal sg = {ft, pi + 2.0 * pi * k};
+			struct eclipse_event ev;
+			double tf, off;
+			int found;
+			enum errcode r2;
+
+			if (geom_root_illinois(syn_fn, &sg, a, sa - sg.ang, b,
+			    sb - sg.ang, 1.0 / ERFA_DAYSEC, 100, &tf) !=
+			    ERRCODE_OK)
+				return ERRCODE_NO_CONVERGE;
+			r2 = examine_fit(ft, tf, lo, hi, &ev, &found);
+			if (r2 != ERRCODE_OK)
+				return r2;
+			if (!found)
+				continue;
+			off = (ev.greatest_tt1 - ft->base1) +
+			    (ev.greatest_tt2 - ft->base2);
+			if (off >= from && off < to)
+				keep(&ev, out, cap, &count, &rc);
+		}
+		a = b;
+		sa = sb;
 	}
 	*n = count;
 	return rc;

@@ -640,6 +640,24 @@ fast_target_el(const struct fast_track *ft, const struct fast_frame *f,
 	return fast_elevation(ft, topo);
 }
 
+void
+fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
+    double moon[3])
+{
+	double x, v[3], tau;
+	const struct fast_seg *s = locate(ft, &t, &x);
+	const double dxdt = 2.0 / (ft->len * ERFA_DAYSEC);
+
+	for (int i = 0; i < 3; i++) {
+		moon[i] = cheb(s->moon[i], FAST_MOON_NC, x);
+		v[i] = cheb(s->dmoon[i], FAST_VEL_NC, x) * dxdt;
+	}
+	tau = vnorm(moon) / GEOM_C;
+	for (int i = 0; i < 3; i++)
+		moon[i] -= tau * v[i];
+	sun_apparent(s, x, sun);
+}
+
 /* Synodic angle (unwrapped) at x in s, from the fitted bodies. */
 static double
 seg_synodic(const struct fast_seg *s, double x, double dxdt)
@@ -707,4 +725,11 @@ fast_instant(const struct fast_track *ft, double t, struct geom_instant *out)
 	ti.utc1 = ti.ut11;
 	ti.utc2 = ti.ut12 - ft->eop.dut1 / ERFA_DAYSEC;
 	geom_instant_make(&ft->site, &ti, &b, &e, out);
+}
+
+void
+fast_track_range(const struct fast_track *ft, double *lo, double *hi)
+{
+	*lo = ft->t0;
+	*hi = ft->t0 + (double)ft->n * ft->len;
 }

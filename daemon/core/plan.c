@@ -584,11 +584,12 @@ plan_run(const struct plan_query *q, struct plan_result *out, char *errbuf,
 		rc = ERRCODE_NOMEM;
 		goto out;
 	}
-	/* Lunar eclipses of the span (with a day of margin): the windows
-	   that overlap one say so first. */
-	if (eclipse_find(tr.base1, tr.base2 - 1.0, tr.base1,
-	    tr.base2 + span + 1.0, out->ecl, PLAN_MAX_ECLIPSES, &out->necl) !=
-	    ERRCODE_OK)
+	/* Lunar eclipses of the span, searched on the track: the windows
+	   that overlap one say so first.  P1..P4 lie within 0.14 d of
+	   greatest eclipse, so 0.2 d of margin holds every eclipse that
+	   can overlap the span. */
+	if (eclipse_find_track(&tr.ft, -0.2, span + 0.2, out->ecl,
+	    PLAN_MAX_ECLIPSES, &out->necl) != ERRCODE_OK)
 		out->necl = 0;
 	for (size_t i = 0; i < keep; i++) {
 		struct plan_window *pw = &out->w[i];

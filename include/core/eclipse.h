@@ -178,6 +178,57 @@ struct eclipse_event {
 enum errcode eclipse_find(double from1, double from2, double to1,
     double to2, struct eclipse_event *out, size_t cap, size_t *n);
 
+struct fast_track;
+
+/* Offsets a fitted track must cover beyond the span searched, days: a
+   passage's least sigma lies within 0.02 d of its full moon and its
+   contacts within 0.14 d of greatest eclipse. */
+#define ECLIPSE_TRACK_MARGIN 0.3
+
+/*
+ * Every lunar eclipse whose greatest eclipse falls in [from, to), TT
+ * offsets on a fitted track (core/fastpath.h): eclipse_find's answer for
+ * the same span, with the search done on the fit.
+ *
+ * Given:
+ *   ft        the track; it must cover [from - ECLIPSE_TRACK_MARGIN,
+ *             to + ECLIPSE_TRACK_MARGIN]
+ *   from, to  TT offsets, days
+ *   cap       room in out
+ * Returned:
+ *   out       eclipses in time order (times as TT JDs in two parts, the
+ *             first part the track's base1)
+ *   n         number found (may exceed cap)
+ * Returned (function value):
+ *   ERRCODE_OK, ERRCODE_BAD_ARG (span reversed, not finite or not
+ *   covered), ERRCODE_TOO_LARGE (more than cap: the first cap written),
+ *   ERRCODE_NO_CONVERGE
+ * Notes:
+ *   1. Full moons are the roots of the fitted synodic angle less
+ *      pi + 2 k pi (bracketed a day at a time, to 1 s); each passes
+ *      eclipse_find's screen on the fitted bodies (within 0.01" of the
+ *      direct chain, against a margin of 0.002 rad).
+ *   2. Greatest eclipse: least sigma on the fit by golden section to
+ *      0.05 s, then on the direct chain (geom_bodies_at) the vertex of
+ *      sigma^2 through that instant and +-2 s (eclipse_find's golden
+ *      section to 0.01 s finds the same least to within it).
+ *      Magnitudes and gamma from the direct chain there, as eclipse_find.
+ *   3. Each contact: the root on the fit to 0.05 s, then on the direct
+ *      chain by regula falsi (Illinois) to 1e-7 d inside +-1 s of it;
+ *      when that bracket does not hold the root, eclipse_find's whole
+ *      bracket of 0.3 d.  So a contact differs from eclipse_find's by
+ *      no more than the two tolerances (< 0.02 s).
+ *   4. About 30 evaluations of the direct chain an eclipse, none for a
+ *      full moon that cannot be eclipsed.
+ * References:
+ *   Meeus (1998), ch. 54; Explanatory Supplement (1992), 8.4.
+ * Called:
+ *   fast_track_range, fast_synodic, fast_bodies_seen, eclipse_geo_at,
+ *   eclipse_geo_tt, geom_root_illinois, eraC2s, eraEcm06, eraRxp
+ */
+enum errcode eclipse_find_track(const struct fast_track *ft, double from,
+    double to, struct eclipse_event *out, size_t cap, size_t *n);
+
 /* The shadow at the Moon's centre at a TT instant (geom_bodies_at and
    eclipse_geo_at, Moon taken back for its light time). */
 enum errcode eclipse_geo_tt(double tt1, double tt2, struct eclipse_geo *out);

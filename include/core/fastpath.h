@@ -191,6 +191,17 @@ double fast_target_el(const struct fast_track *ft,
 double fast_target_topo(const struct fast_frame *f,
     const struct geom_target *t, double topo[3], double radial[3]);
 
+/*
+ * The apparent geocentric Sun and the geocentric Moon taken back by its
+ * light time from the Earth's centre (m, GCRS) at offset t (clamped into
+ * the fitted range): what eclipse_geo_tt reads from the direct chain.
+ */
+void fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
+    double moon[3]);
+
+/* The offsets the track covers: [*lo, *hi]. */
+void fast_track_range(const struct fast_track *ft, double *lo, double *hi);
+
 /* Synodic angle at offset t, rad, unwrapped along the track (as
    geom_synodic_of on the fitted bodies). */
 double fast_synodic(const struct fast_track *ft, double t);
