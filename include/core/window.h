@@ -25,10 +25,13 @@
  * Work is in two steps.  window_track_init fits the Moon, the Sun and
  * the Earth's orientation over the span (core/fastpath.h: Chebyshev
  * series per segment fitted to the same ERFA models); window_track_instant
- * rebuilds any instant from the fit.  window_find samples every
- * constraint on a WINDOW_GRID_DAYS grid through light frames that compute
- * only what the constraint reads, brackets sign changes and extrema, and
- * refines each edge by root finding.
+ * rebuilds any instant from the fit.  window_find follows each elevation
+ * (the targets' and the Sun's) from one meridian transit to the next,
+ * predicting its crossings of the limit from the hour angle and
+ * declination; it samples the other constraints on a WINDOW_GRID_DAYS
+ * grid through light frames that compute only what the constraint reads,
+ * brackets sign changes and extrema, and refines each edge by root
+ * finding.
  *
  * Times inside this module are TT in days since the track's base (the
  * start of the span), so one double holds them to ~1e-11 d.  Nothing
@@ -149,26 +152,40 @@ struct window {
  *   finite), ERRCODE_TOO_LARGE (more than cap windows: the first cap are
  *   written, *n counts all)
  * Notes:
- *   1. Each constraint is sampled every WINDOW_GRID_DAYS (plus one step
- *      of margin at both ends).  A sign change between neighbours is
+ *   1. Elevations (stations below |lat| 80 deg): sin e = sin phi sin d +
+ *      cos phi cos d cos H for the body's hour angle H and declination d
+ *      (ITRS), so e has one maximum near each upper transit and one
+ *      minimum near each lower one and is monotone between them.  Each
+ *      transit is found by secant steps on H; a transit whose elevation
+ *      is near the limit (0.1 deg / (cos phi cos d), about three times
+ *      what d's drift can make the extremum differ from it) is replaced
+ *      by the extremum itself (golden section), so a window of seconds
+ *      at culmination is found; between consecutive points of opposite
+ *      sides the one crossing starts from the hour angle the formula
+ *      gives and is refined by secant steps inside the bracket to
+ *      0.01 s.  About 12 evaluations a day against 72 grid samples.
+ *   2. The separation and lunar darkness (and elevations beyond |lat|
+ *      80 deg) are sampled every WINDOW_GRID_DAYS (plus one step of
+ *      margin at both ends).  A sign change between neighbours is
  *      refined by the Illinois variant of regula falsi to
  *      WINDOW_EDGE_TOL_S.  A sample that is a local extremum of the
  *      wrong sign (a maximum still below the limit, a minimum still above
  *      it) starts a golden-section search over its two neighbouring
  *      cells; when the extremum crosses the limit its two roots are
- *      refined the same way.  So a window a few minutes long at
- *      culmination is found.  Three roots of one constraint inside one
+ *      refined the same way.  Three roots of one constraint inside one
  *      20 min cell are not resolved (none of these functions turns that
  *      fast for a station below |lat| 89 deg).
- *   2. Windows are clipped at the span's ends and at blackouts.
- *   3. Elevations are geometric (airless): refraction raises a target at
+ *   3. Windows are clipped at the span's ends and at blackouts.
+ *   4. Elevations are geometric (airless): refraction raises a target at
  *      20 deg by about 2.6'.
  * References:
  *   Press et al., Numerical Recipes in C, 2nd ed. (1992), 9.2 (false
- *   position) and 10.1 (golden section).
+ *   position) and 10.1 (golden section); J. Meeus, Astronomical
+ *   Algorithms, 2nd ed. (1998), eq. 13.6 (altitude from hour angle and
+ *   declination).
  * Called:
  *   fast_frame_at, fast_elevation, fast_separation, fast_target_el,
- *   geom_root_illinois
+ *   fast_target_topo, geom_root_illinois, eraAnpm
  */
 enum errcode window_find(const struct window_track *tr,
     const struct window_limits *lim, const struct window_target *targets,
