@@ -231,27 +231,28 @@ least_sigma(double tt1, double a, double b)
 	return golden_min(contact_fn, &goal, a, b, 0.01 / ERFA_DAYSEC);
 }
 
-/* Sign of the Moon's ecliptic latitude relative to the anti-solar point. */
+/* Sign of the Moon's ecliptic latitude relative to the anti-solar point,
+   for the Sun and Moon at TT tt1 + tt2. */
 static double
-north_sign(double tt1, double tt2)
+north_sign(double tt1, double tt2, const double sun[3], const double moon[3])
 {
-	double sun[3], moon[3], rm[3][3], em[3], es[3], lm, bm, ls, bs;
+	double rm[3][3], m[3], sn[3], em[3], es[3], lm, bm, ls, bs;
 
-	if (bodies_seen(tt1, tt2, sun, moon) != ERRCODE_OK)
-		return 1.0;
+	memcpy(m, moon, sizeof m);
+	memcpy(sn, sun, sizeof sn);
 	eraEcm06(tt1, tt2, rm);
-	eraRxp(rm, moon, em);
-	eraRxp(rm, sun, es);
+	eraRxp(rm, m, em);
+	eraRxp(rm, sn, es);
 	eraC2s(em, &lm, &bm);
 	eraC2s(es, &ls, &bs);
 	return (bm + bs) >= 0.0 ? 1.0 : -1.0;
 }
 
-/* The event of greatest eclipse at tt1 + t0, g the shadow there:
-   magnitudes, gamma and kind; no contact yet. */
+/* The event of greatest eclipse at tt1 + t0 for the Sun and Moon there,
+   g their shadow: magnitudes, gamma and kind; no contact yet. */
 static void
-event_at(double tt1, double t0, const struct eclipse_geo *g,
-    struct eclipse_event *ev)
+event_at(double tt1, double t0, const double sun[3], const double moon[3],
+    const struct eclipse_geo *g, struct eclipse_event *ev)
 {
 	double rm = ECLIPSE_EARTH_A / sin(g->moon_sd) * ECLIPSE_MOON_K;
 
@@ -260,7 +261,8 @@ event_at(double tt1, double t0, const struct eclipse_geo *g,
 	ev->greatest_tt2 = t0;
 	ev->umbral_mag = g->umbral_mag;
 	ev->penumbral_mag = g->penumbral_mag;
-	ev->gamma = north_sign(tt1, t0) * rm * sin(g->sigma) / ECLIPSE_EARTH_A;
+	ev->gamma = north_sign(tt1, t0, sun, moon) * rm * sin(g->sigma) /
+	    ECLIPSE_EARTH_A;
 	ev->kind = g->umbral_mag >= 1.0 ? ECLIPSE_TOTAL :
 	    (g->umbral_mag > 0.0 ? ECLIPSE_PARTIAL : ECLIPSE_PENUMBRAL);
 }
@@ -273,17 +275,17 @@ contact_before(int c)
 }
 
 /*
- * Contact goal->which in [a, b], on its side of greatest eclipse (the
+ * A contact in [a, b] as the root of f (sigma less the contact's limit),
+ * on its side of greatest eclipse (before: 1 for P1, U1, U2; the
  * greatest-eclipse end of the bracket inside the limit, the other end
  * outside): *has 0 when the greatest-eclipse end is not inside (the
  * contact does not occur), else 1 and its time in *root.
  */
 static enum errcode
-contact_in(struct contact_goal *goal, double a, double b, int *has,
-    double *root)
+contact_in(geom_root_fn f, void *ctx, int before, double a, double b,
+    int *has, double *root)
 {
-	int before = contact_before(goal->which);
-	double fa = contact_fn(goal, a), fb = contact_fn(goal, b);
+	double fa = f(ctx, a), fb = f(ctx, b);
 	enum errcode rc;
 
 	*has = 0;
@@ -293,8 +295,7 @@ contact_in(struct contact_goal *goal, double a, double b, int *has,
 		return ERRCODE_OK;
 	if (!((before ? fa : fb) > 0.0))
 		return ERRCODE_NO_CONVERGE;
-	rc = geom_root_illinois(contact_fn, goal, a, fa, b, fb, 1e-7, 100,
-	    root);
+	rc = geom_root_illinois(f, ctx, a, fa, b, fb, 1e-7, 100, root);
 	*has = rc == ERRCODE_OK;
 	return rc;
 }
@@ -305,7 +306,7 @@ examine(double tt1, double full2, struct eclipse_event *ev, int *found)
 {
 	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
 	struct eclipse_geo g;
-	double t0;
+	double t0, sun[3], moon[3];
 	enum errcode rc;
 
 	*found = 0;
@@ -321,18 +322,20 @@ examine(double tt1, double full2, struct eclipse_event *ev, int *found)
 	if (0.95 * g.sigma > g.penumbra + g.moon_sd + 0.002)
 		return ERRCODE_OK;
 	t0 = least_sigma(tt1, full2 - 0.3, full2 + 0.3);
-	rc = eclipse_geo_tt(tt1, t0, &g);
+	rc = bodies_seen(tt1, t0, sun, moon);
 	if (rc != ERRCODE_OK)
 		return rc;
+	eclipse_geo_at(sun, moon, &g);
 	if (!(g.penumbral_mag > 0.0))
 		return ERRCODE_OK;
-	event_at(tt1, t0, &g, ev);
+	event_at(tt1, t0, sun, moon, &g, ev);
 	for (int c = 0; c < ECLIPSE_NCONTACTS; c++) {
 		int before = contact_before(c);
 
 		goal.which = (enum eclipse_contact)c;
-		rc = contact_in(&goal, before ? t0 - 0.3 : t0,
-		    before ? t0 : t0 + 0.3, &ev->has[c], &ev->contact_tt2[c]);
+		rc = contact_in(contact_fn, &goal, before, before ? t0 - 0.3 :
+		    t0, before ? t0 : t0 + 0.3, &ev->has[c],
+		    &ev->contact_tt2[c]);
 		if (rc != ERRCODE_OK)
 			return rc;
 		ev->contact_tt1[c] = ev->has[c] ? tt1 : 0.0;
@@ -433,20 +436,84 @@ syn_fn(void *ctx, double t)
 }
 
 /*
- * Least sigma of the direct chain near tt1 + tt2 (within a second or
- * so): the vertex of the parabola through sigma^2 at tt2 and +-2 s (the
- * relative motion is straight to ~1e-5 over seconds, so sigma^2 is a
- * parabola in time to far better than 1 ms).  Returns 0, or -1 when the
- * vertex is not inside the three points.
+ * The direct chain near one eclipse, without an eraEpv00 at each step:
+ * the Moon by eraMoon98 at each instant (as bodies_seen), the apparent
+ * Sun of bodies_seen at a centre instant plus the fitted Sun's change
+ * since (the fit's error is smooth: its change over hours is far below
+ * its 0.01" bound, and the Sun moves 0.2 deg in the 5 h of an eclipse).
+ */
+struct near_goal {
+	const struct fast_track *ft;
+	double tt1, tc;			/* the centre, TT tt1 + tc */
+	double sun[3];			/* direct apparent Sun there, m */
+	double fit[3];			/* fitted apparent Sun there, m */
+	enum eclipse_contact which;	/* ECLIPSE_NCONTACTS: sigma alone */
+};
+
+/* The Sun and Moon of the near chain at TT tt1 + tt2. */
+static void
+near_bodies(const struct near_goal *g, double tt2, double sun[3],
+    double moon[3])
+{
+	double pv[2][3], mp[3], mv[3], fs[3], fm[3], tau;
+
+	eraMoon98(g->tt1, tt2, pv);
+	eraSxp(ERFA_DAU, pv[0], mp);
+	eraSxp(ERFA_DAU / ERFA_DAYSEC, pv[1], mv);
+	tau = sqrt(dot3(mp, mp)) / GEOM_C;
+	fast_bodies_seen(g->ft, (g->tt1 - g->ft->base1) + (tt2 -
+	    g->ft->base2), fs, fm);
+	for (int i = 0; i < 3; i++) {
+		moon[i] = mp[i] - tau * mv[i];
+		sun[i] = g->sun[i] + (fs[i] - g->fit[i]);
+	}
+}
+
+static double
+near_fn(void *ctx, double tt2)
+{
+	const struct near_goal *g = ctx;
+	double sun[3], moon[3];
+	struct eclipse_geo geo;
+
+	near_bodies(g, tt2, sun, moon);
+	eclipse_geo_at(sun, moon, &geo);
+	return geo.sigma - contact_limit(&geo, g->which);
+}
+
+/* Centre the near chain at TT tt1 + tc (one evaluation of the direct
+   chain). */
+static enum errcode
+near_init(struct near_goal *g, const struct fast_track *ft, double tt1,
+    double tc)
+{
+	double moon[3];
+
+	g->ft = ft;
+	g->tt1 = tt1;
+	g->tc = tc;
+	g->which = ECLIPSE_NCONTACTS;
+	fast_bodies_seen(ft, (tt1 - ft->base1) + (tc - ft->base2), g->fit,
+	    moon);
+	return bodies_seen(tt1, tc, g->sun, moon);
+}
+
+/*
+ * Least sigma near tt2: the vertex of the parabola through sigma^2 at
+ * tt2 and +-2 s (the relative motion is straight to ~1e-5 over seconds,
+ * so sigma^2 is a parabola in time to far better than 1 ms).  Returns 0,
+ * or -1 when the vertex is not inside the three points.
  */
 static int
-direct_vertex(double tt1, double tt2, double *t0)
+near_vertex(struct near_goal *g, double tt2, double *t0)
 {
 	const double h = 2.0 / ERFA_DAYSEC;
-	struct contact_goal goal = {tt1, ECLIPSE_NCONTACTS};
-	double fm = contact_fn(&goal, tt2 - h), f0 = contact_fn(&goal, tt2);
-	double fp = contact_fn(&goal, tt2 + h), den, dt;
+	double fm, f0, fp, den, dt;
 
+	g->which = ECLIPSE_NCONTACTS;
+	fm = near_fn(g, tt2 - h);
+	f0 = near_fn(g, tt2);
+	fp = near_fn(g, tt2 + h);
 	fm *= fm;
 	f0 *= f0;
 	fp *= fp;
@@ -462,8 +529,8 @@ direct_vertex(double tt1, double tt2, double *t0)
 
 /*
  * One full moon at offset tf on the track: as examine, with the search on
- * the fit and the last step on the direct chain.  lo, hi: the offsets
- * the fit covers.
+ * the fit and the last steps on the near chain (one eraEpv00 for the
+ * eclipse).  lo, hi: the offsets the fit covers.
  */
 static enum errcode
 examine_fit(const struct fast_track *ft, double tf, double lo, double hi,
@@ -471,6 +538,7 @@ examine_fit(const struct fast_track *ft, double tf, double lo, double hi,
 {
 	struct fit_goal fg = {ft, ECLIPSE_NCONTACTS};
 	struct contact_goal goal = {ft->base1, ECLIPSE_NCONTACTS};
+	struct near_goal ng;
 	const double b2 = ft->base2, near = 1.0 / ERFA_DAYSEC;
 	struct eclipse_geo g;
 	double sun[3], moon[3], tg, t0;
@@ -484,23 +552,26 @@ examine_fit(const struct fast_track *ft, double tf, double lo, double hi,
 		return ERRCODE_OK;
 	tg = golden_min(fit_fn, &fg, fmax(lo, tf - 0.3), fmin(hi, tf + 0.3),
 	    0.05 / ERFA_DAYSEC);
-	if (direct_vertex(ft->base1, b2 + tg, &t0) != 0)
-		t0 = least_sigma(ft->base1, b2 + tf - 0.3, b2 + tf + 0.3);
-	rc = eclipse_geo_tt(ft->base1, t0, &g);
+	rc = near_init(&ng, ft, ft->base1, b2 + tg);
 	if (rc != ERRCODE_OK)
 		return rc;
+	if (near_vertex(&ng, b2 + tg, &t0) != 0)
+		t0 = least_sigma(ft->base1, b2 + tf - 0.3, b2 + tf + 0.3);
+	near_bodies(&ng, t0, sun, moon);
+	eclipse_geo_at(sun, moon, &g);
 	if (!(g.penumbral_mag > 0.0))
 		return ERRCODE_OK;
-	event_at(ft->base1, t0, &g, ev);
+	event_at(ft->base1, t0, sun, moon, &g, ev);
 	for (int c = 0; c < ECLIPSE_NCONTACTS; c++) {
 		int before = contact_before(c), has = 0;
 		double a, b, r;
 
-		goal.which = fg.which = (enum eclipse_contact)c;
+		goal.which = fg.which = ng.which = (enum eclipse_contact)c;
 		if (!(g.sigma - contact_limit(&g, goal.which) < 0.0))
 			continue;	/* it does not occur */
 		/* On the fit to 0.05 s, then a bracket of +-1 s of it on the
-		   direct chain; the whole side when that fails. */
+		   near chain; the whole side on the direct chain when that
+		   fails. */
 		a = before ? fmax(lo, t0 - b2 - 0.3) : t0 - b2;
 		b = before ? t0 - b2 : fmin(hi, t0 - b2 + 0.3);
 		{
@@ -511,15 +582,16 @@ examine_fit(const struct fast_track *ft, double tf, double lo, double hi,
 			    0.05 / ERFA_DAYSEC, 100, &r) == ERRCODE_OK) {
 				a = fmax(a, r - near);
 				b = fmin(b, r + near);
-				rc = contact_in(&goal, b2 + a, b2 + b, &has,
-				    &ev->contact_tt2[c]);
+				rc = contact_in(near_fn, &ng, before, b2 + a,
+				    b2 + b, &has, &ev->contact_tt2[c]);
 				if (rc != ERRCODE_OK && rc != ERRCODE_NO_CONVERGE)
 					return rc;
 			}
 		}
 		if (!has) {
-			rc = contact_in(&goal, before ? t0 - 0.3 : t0,
-			    before ? t0 : t0 + 0.3, &has, &ev->contact_tt2[c]);
+			rc = contact_in(contact_fn, &goal, before, before ?
+			    t0 - 0.3 : t0, before ? t0 : t0 + 0.3, &has,
+			    &ev->contact_tt2[c]);
 			if (rc != ERRCODE_OK)
 				return rc;
 		}

@@ -209,22 +209,27 @@ struct fast_track;
  *      eclipse_find's screen on the fitted bodies (within 0.01" of the
  *      direct chain, against a margin of 0.002 rad).
  *   2. Greatest eclipse: least sigma on the fit by golden section to
- *      0.05 s, then on the direct chain (geom_bodies_at) the vertex of
- *      sigma^2 through that instant and +-2 s (eclipse_find's golden
- *      section to 0.01 s finds the same least to within it).
- *      Magnitudes and gamma from the direct chain there, as eclipse_find.
- *   3. Each contact: the root on the fit to 0.05 s, then on the direct
+ *      0.05 s, then the vertex of sigma^2 through that instant and
+ *      +-2 s on the near chain: eraMoon98 at each instant as the direct
+ *      chain, and the Sun of the direct chain (geom_bodies_at) at that
+ *      instant moved by the fitted Sun's change since (the fit's error
+ *      changes by far less than its 0.01" over the hours of an eclipse).
+ *      eclipse_find's golden section to 0.01 s finds the same least to
+ *      within it.  Magnitudes and gamma from the near chain there.
+ *   3. Each contact: the root on the fit to 0.05 s, then on the near
  *      chain by regula falsi (Illinois) to 1e-7 d inside +-1 s of it;
  *      when that bracket does not hold the root, eclipse_find's whole
- *      bracket of 0.3 d.  So a contact differs from eclipse_find's by
- *      no more than the two tolerances (< 0.02 s).
- *   4. About 30 evaluations of the direct chain an eclipse, none for a
- *      full moon that cannot be eclipsed.
+ *      bracket of 0.3 d on the direct chain.  So a contact differs from
+ *      eclipse_find's by no more than the two tolerances (< 0.03 s,
+ *      tested).
+ *   4. One eraEpv00 and about 15 eraMoon98 an eclipse, none for a full
+ *      moon that cannot be eclipsed.
  * References:
  *   Meeus (1998), ch. 54; Explanatory Supplement (1992), 8.4.
  * Called:
  *   fast_track_range, fast_synodic, fast_bodies_seen, eclipse_geo_at,
- *   eclipse_geo_tt, geom_root_illinois, eraC2s, eraEcm06, eraRxp
+ *   geom_bodies_at, geom_root_illinois, eraMoon98, eraSxp, eraC2s,
+ *   eraEcm06, eraRxp
  */
 enum errcode eclipse_find_track(const struct fast_track *ft, double from,
     double to, struct eclipse_event *out, size_t cap, size_t *n);
