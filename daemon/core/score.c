@@ -438,6 +438,64 @@ integrate_part(const struct score_params *p, const struct score_target *t,
 	}
 }
 
+/*
+ * The highest elevation of a target in [lo, hi] near tc (elevation ec,
+ * h the spacing of the quadrature nodes about it): the vertex of the
+ * parabola through the elevations at tc - h, tc, tc + h, then again
+ * about each vertex with the spacing cut to the last move (at least
+ * 0.5 s), until a move under 0.05 s (near its top the elevation is a
+ * parabola in time to ~1e-4 of its curvature per second, so three or four
+ * rounds reach it); golden section over [tc - h, tc + h] to 1 s when a
+ * parabola is not concave.  Returns its time, *e the elevation.
+ */
+static double
+highest(const struct score_params *p, const struct geom_target *body,
+    double lo, double hi, double tc, double ec, double h, double *e)
+{
+	const double r = 0.618033988749894848, tol = 0.05 / ERFA_DAYSEC;
+	double a = fmax(lo, tc - h), b = fmin(hi, tc + h), x1, x2, f1, f2;
+
+	for (int it = 0; it < 12; it++) {
+		double em = target_el(p->tr, body, tc - h, NULL);
+		double ep = target_el(p->tr, body, tc + h, NULL);
+		double den = em - 2.0 * ec + ep, dt, tv;
+
+		if (!(den < 0.0))
+			break;		/* not concave: golden section */
+		dt = 0.5 * h * (em - ep) / den;
+		tv = fmin(hi, fmax(lo, tc + fmax(-2.0 * h, fmin(2.0 * h,
+		    dt))));
+		if (fabs(tv - tc) < tol || tv == lo || tv == hi) {
+			*e = target_el(p->tr, body, tv, NULL);
+			return tv;
+		}
+		h = fmax(fabs(tv - tc), 0.5 / ERFA_DAYSEC);
+		tc = tv;
+		ec = target_el(p->tr, body, tc, NULL);
+	}
+	x1 = b - r * (b - a);
+	x2 = a + r * (b - a);
+	f1 = target_el(p->tr, body, x1, NULL);
+	f2 = target_el(p->tr, body, x2, NULL);
+	while (b - a > 1.0 / ERFA_DAYSEC) {
+		if (f1 < f2) {
+			a = x1;
+			x1 = x2;
+			f1 = f2;
+			x2 = a + r * (b - a);
+			f2 = target_el(p->tr, body, x2, NULL);
+		} else {
+			b = x2;
+			x2 = x1;
+			f2 = f1;
+			x1 = b - r * (b - a);
+			f1 = target_el(p->tr, body, x1, NULL);
+		}
+	}
+	*e = target_el(p->tr, body, 0.5 * (a + b), NULL);
+	return 0.5 * (a + b);
+}
+
 enum errcode
 score_window(const struct score_params *p, const struct score_target *t,
     const struct window *w, struct score_window *out)
@@ -485,45 +543,19 @@ score_window(const struct score_params *p, const struct score_target *t,
 			integrate_part(p, t, a + (b - a) * k / nparts,
 			    a + (b - a) * (k + 1) / nparts, lit, wgt, &u);
 	}
-	/* The highest elevation: golden section around the best node, then
-	   the window's ends. */
+	/* The highest elevation: parabolas about the best node, then the
+	   window's ends. */
 	best_t = u.best_t;
 	best_el = u.best_el;
 	{
 		double ea = target_el(p->tr, t->body, w->start, NULL);
 		double eb = target_el(p->tr, t->body, w->end, NULL);
-		double a = fmax(w->start, best_t - fmax(u.best_h, 60.0 /
-		    ERFA_DAYSEC));
-		double b = fmin(w->end, best_t + fmax(u.best_h, 60.0 /
-		    ERFA_DAYSEC));
-		const double r = 0.618033988749894848;
-		double x1 = b - r * (b - a), x2 = a + r * (b - a);
-		double f1 = target_el(p->tr, t->body, x1, NULL);
-		double f2 = target_el(p->tr, t->body, x2, NULL);
+		double em, tm = highest(p, t->body, w->start, w->end, best_t,
+		    best_el, fmax(u.best_h, 60.0 / ERFA_DAYSEC), &em);
 
-		while (b - a > 1.0 / ERFA_DAYSEC) {
-			if (f1 < f2) {
-				a = x1;
-				x1 = x2;
-				f1 = f2;
-				x2 = a + r * (b - a);
-				f2 = target_el(p->tr, t->body, x2, NULL);
-			} else {
-				b = x2;
-				x2 = x1;
-				f2 = f1;
-				x1 = b - r * (b - a);
-				f1 = target_el(p->tr, t->body, x1, NULL);
-			}
-		}
-		{
-			double tm = 0.5 * (a + b);
-			double em = target_el(p->tr, t->body, tm, NULL);
-
-			if (em > best_el) {
-				best_el = em;
-				best_t = tm;
-			}
+		if (em > best_el) {
+			best_el = em;
+			best_t = tm;
 		}
 		if (ea > best_el) {
 			best_el = ea;
