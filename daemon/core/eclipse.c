@@ -421,20 +421,6 @@ fit_fn(void *ctx, double t)
 	return g.sigma - contact_limit(&g, goal->which);
 }
 
-/* The synodic angle on the track less an angle, of the offset t. */
-struct syn_goal {
-	const struct fast_track *ft;
-	double ang;
-};
-
-static double
-syn_fn(void *ctx, double t)
-{
-	const struct syn_goal *goal = ctx;
-
-	return fast_synodic(goal->ft, t) - goal->ang;
-}
-
 /*
  * The direct chain near one eclipse, without an eraEpv00 at each step:
  * the Moon by eraMoon98 at each instant (as bodies_seen), the apparent
@@ -625,13 +611,13 @@ eclipse_find_track(const struct fast_track *ft, double from, double to,
 		sb = fast_synodic(ft, b);
 		for (double k = floor((sa - pi) / (2.0 * pi)) + 1.0;
 		    pi + 2.0 * pi * k <= sb; k++) {
-			struct syn_goal sg = {ft, pi + 2.0 * pi * k};
+			struct fast_synodic_goal sg = {ft, pi + 2.0 * pi * k};
 			struct eclipse_event ev;
 			double tf, off;
 			int found;
 			enum errcode r2;
 
-			if (geom_root_illinois(syn_fn, &sg, a, sa - sg.ang, b,
+			if (geom_root_illinois(fast_synodic_less, &sg, a, sa - sg.ang, b,
 			    sb - sg.ang, 1.0 / ERFA_DAYSEC, 100, &tf) !=
 			    ERRCODE_OK)
 				return ERRCODE_NO_CONVERGE;

@@ -733,3 +733,11 @@ fast_track_range(const struct fast_track *ft, double *lo, double *hi)
 	*lo = ft->t0;
 	*hi = ft->t0 + (double)ft->n * ft->len;
 }
+
+double
+fast_synodic_less(void *ctx, double t)
+{
+	const struct fast_synodic_goal *g = ctx;
+
+	return fast_synodic(g->ft, t) - g->ang;
+}

@@ -314,21 +314,11 @@ target_el(const struct window_track *tr, const struct geom_target *body,
 	return target_el_range(tr, body, t, dark, NULL);
 }
 
-/* Root-finding goals: the synodic angle less a boundary, and the dark
-   margin of a target. */
+/* Root-finding goal: the dark margin of a target. */
 struct cut_goal {
 	const struct window_track *tr;
 	const struct geom_target *body;
-	double ang;
 };
-
-static double
-synodic_goal(void *ctx, double t)
-{
-	const struct cut_goal *g = ctx;
-
-	return window_track_synodic(g->tr, t) - g->ang;
-}
 
 static double
 dark_goal(void *ctx, double t)
@@ -361,7 +351,7 @@ window_cuts(const struct score_params *p, const struct score_target *t,
 	const double width = ERFA_D2PI / p->s->nbins;
 	const struct geom_target *body = t->body != NULL ? t->body :
 	    &centre_point;
-	struct cut_goal g = {p->tr, body, 0.0};
+	struct cut_goal g = {p->tr, body};
 	double s0 = window_track_synodic(p->tr, w->start);
 	double s1 = window_track_synodic(p->tr, w->end);
 	int n = 0;
@@ -371,11 +361,11 @@ window_cuts(const struct score_params *p, const struct score_target *t,
 	*nbins = 0;
 	for (double b = (floor(s0 / width) + 1.0) * width;
 	    b < s1 && n < SCORE_BINS_MAX + 1; b += width) {
+		struct fast_synodic_goal sg = {&p->tr->ft, b};
 		double r;
 
-		g.ang = b;
-		(void)geom_root_illinois(synodic_goal, &g, w->start, s0 - b,
-		    w->end, s1 - b, CUT_TOL, 100, &r);
+		(void)geom_root_illinois(fast_synodic_less, &sg, w->start,
+		    s0 - b, w->end, s1 - b, CUT_TOL, 100, &r);
 		cuts[n++] = r;
 		(*nbins)++;
 	}

@@ -199,6 +199,14 @@ double fast_target_topo(const struct fast_frame *f,
 void fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
     double moon[3]);
 
+/* The synodic angle on a track less an angle, as a function of the
+   offset for geom_root_illinois (ctx: a struct fast_synodic_goal). */
+struct fast_synodic_goal {
+	const struct fast_track *ft;
+	double ang;			/* rad, on the unwrapped scale */
+};
+double fast_synodic_less(void *ctx, double t);
+
 /* The offsets the track covers: [*lo, *hi]. */
 void fast_track_range(const struct fast_track *ft, double *lo, double *hi);
 

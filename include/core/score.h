@@ -270,8 +270,9 @@ struct score_params {
  *      (test_score compares against it).
  *   2. Elevations and lit states come from the track's light frames
  *      (fast_frame_at): only what the integrand reads is computed.
- *   3. The maximum elevation is refined by golden section to 1 s around
- *      the best node.
+ *   3. The maximum elevation is refined by successive parabolas about
+ *      the best node to 0.05 s (golden section to 1 s when the first is
+ *      not concave).
  *   4. The rate carries (R0/R)^4 at each node, R the target's range
  *      (fast_target_topo); mean_range_factor is its time mean.
  * References:
