@@ -343,19 +343,31 @@ diu_value(const struct ctx *x, const struct diurnal *d, double t,
 }
 
 /* The transit after d's point, at hour angle (d->k + 1) pi: its time;
-   *g, *hu (unwrapped hour angle), *dec there. */
+   *g, *hu (unwrapped hour angle), *dec there.  A transit beyond the
+   fitted range gives the range's end instead (*edge 1): the elevation is
+   monotone from the last extremum up to it just the same. */
 static double
 diu_transit(const struct ctx *x, struct diurnal *d, double *g, double *hu,
-    double *dec)
+    double *dec, int *edge)
 {
 	const double target = (d->k + 1.0) * ERFA_DPI;
-	double t0 = d->p, h0 = d->hp;
+	double t0 = d->p, h0 = d->hp, lo, hi;
 	double t1 = d->p + (target - d->hp) / d->rate, h1 = target;
 
+	fast_track_range(&x->tr->ft, &lo, &hi);
+	*edge = 0;
 	for (int it = 0; it < 16; it++) {
 		double ha, slope;
 
+		if (!(t1 > lo && t1 < hi)) {
+			t1 = t1 > lo ? hi : lo;
+			*edge = 1;
+		}
 		*g = diu_value(x, d, t1, &ha, dec);
+		if (*edge) {
+			*hu = target + eraAnpm(ha - target);
+			return t1;
+		}
 		h1 = target + eraAnpm(ha - target);
 		if (fabs(h1 - target) < DIU_HA_TOL)
 			break;
@@ -424,12 +436,13 @@ diu_root(const struct ctx *x, const struct diurnal *d, double a, double fa,
 static void
 diu_step(const struct ctx *x, struct diurnal *d, int queue)
 {
-	double g, hu, dec, t = diu_transit(x, d, &g, &hu, &dec);
+	int edge;
+	double g, hu, dec, t = diu_transit(x, d, &g, &hu, &dec, &edge);
 	double k = d->k + 1.0, q = x->cphi * cos(dec);
 	int upper = fmod(fabs(k), 2.0) == 0.0;
 	double sg = (upper == (d->sgn > 0.0)) ? 1.0 : -1.0;	/* g max */
 
-	if (fabs(g) < DIU_SLACK / fmax(q, 0.02)) {
+	if (!edge && fabs(g) < DIU_SLACK / fmax(q, 0.02)) {
 		double w = fmin(0.2, DIU_HALF_W / fmax(q, 0.1)), fe;
 		double te = extremum(x, d->c, t - w, t + w, sg, &fe);
 
