@@ -599,21 +599,27 @@ test_coverage_fill_dates_fall_in_their_bin(void **state)
 	/* The split falls at full moon, to the sampling step. */
 	check_near((f->bins[1].dates[0].in_bin_start_mjd - full) * 86400.0,
 	    0.0, COVERAGE_FILL_STEP_S, "s", "entry into bin 6 at full moon");
-	/* Every date's in-bin span lies in its bin (the geometry core). */
+	/* Every date's in-bin span lies in its bin (the geometry core).  The
+	   fill samples the fitted track, within 0.004" of the direct
+	   synodic angle (test_fastpath); the sample 24 steps into the
+	   first window falls on full moon itself (the window starts 2 h
+	   before it), i.e. on a bin boundary to the phase search's 9 ms, so
+	   within 0.01" of a boundary either side is that bin. */
 	for (size_t i = 0; i < f->nbins; i++) {
 		for (size_t k = 0; k < f->bins[i].ndates; k++) {
 			const struct coverage_fill_date *d = &f->bins[i].dates[k];
+			const double e = 0.01 / 3600.0;
 
 			assert_int_equal(coverage_axis_value(
 			    COVERAGE_AXIS_SYNODIC, NULL, d->in_bin_start_mjd,
 			    &deg), ERRCODE_OK);
-			assert_int_equal(coverage_bin_of(deg, 12),
-			    f->bins[i].bin);
+			assert_true(coverage_bin_of(deg, 12) == f->bins[i].bin ||
+			    coverage_bin_of(deg + e, 12) == f->bins[i].bin);
 			assert_int_equal(coverage_axis_value(
 			    COVERAGE_AXIS_SYNODIC, NULL, d->in_bin_end_mjd,
 			    &deg), ERRCODE_OK);
-			assert_int_equal(coverage_bin_of(deg, 12),
-			    f->bins[i].bin);
+			assert_true(coverage_bin_of(deg, 12) == f->bins[i].bin ||
+			    coverage_bin_of(deg - e, 12) == f->bins[i].bin);
 		}
 	}
 

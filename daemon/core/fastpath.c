@@ -241,26 +241,134 @@ struct node_cache {
 	double q[NQ];			/* X, Y, s, EO, ra, dec, W, synodic */
 };
 
+/* The models at a segment boundary (eraEpv00 and eraMoon98). */
+struct bound {
+	double pvh[2][3], pvb[2][3];	/* Earth heliocentric, barycentric */
+	double pvm[2][3];		/* Moon, geocentric */
+};
+
+/*
+ * Two segments that share their Sun: the models at the pair's three
+ * boundaries (b[0], b[1], b[2], at u = -1, 0, 1 on the pair) and the
+ * middle of the one being fitted, at u = um (-0.5 or 0.5).
+ */
+struct sun_pair {
+	const struct bound *b;
+	double um;
+};
+
+/* Moon / (Earth + Moon) mass (IAU 2009 Earth/Moon mass ratio
+   81.30056907, quoted from memory): the Earth-Moon barycentre is the
+   Earth plus this times the geocentric Moon.  The same share of the Moon
+   is added back where it was taken off, so an error of 1e-6 in it moves
+   the fitted Sun by under a metre. */
+#define MOON_EMB (1.0 / (1.0 + 81.30056907))
+
+/*
+ * The Earth (heliocentric position and velocity, barycentric velocity;
+ * au, au/d) at the middle of a segment of a pair, without eraEpv00: the
+ * Earth-Moon barycentre, whose path has no monthly wobble, by a Hermite
+ * fit of the pair's boundaries (over 16 d within 0.0003" of a Kepler
+ * orbit), less MOON_EMB times the Moon there (pvm); the Sun's barycentric
+ * velocity quadratic between the boundaries.
+ */
+static void
+pair_middle(const struct fits *fi, const struct sun_pair *sp, double len,
+    const double pvm[2][3], double pvh[2][3], double pvb[2][3])
+{
+	const double um = sp->um, w[3] = {0.5 * um * (um - 1.0),
+	    1.0 - um * um, 0.5 * um * (um + 1.0)};	/* u = -1, 0, 1 */
+	const struct bound *b = sp->b;
+
+	for (int i = 0; i < 3; i++) {
+		double y[FAST_SUN_NC], c[FAST_SUN_NC], d[FAST_SUN_NC], sb = 0.0;
+
+		for (int j = 0; j < FAST_SUN_NODES; j++) {	/* u = 1, 0, -1 */
+			const struct bound *q = &b[FAST_SUN_NODES - 1 - j];
+
+			y[j] = q->pvh[0][i] + MOON_EMB * q->pvm[0][i];
+			y[FAST_SUN_NODES + j] = (q->pvh[1][i] + MOON_EMB *
+			    q->pvm[1][i]) * len;
+		}
+		fit_apply(fi->sun, FAST_SUN_NC, y, c);
+		cheb_deriv(c, FAST_SUN_NC, d);
+		pvh[0][i] = cheb(c, FAST_SUN_NC, um) - MOON_EMB * pvm[0][i];
+		pvh[1][i] = cheb(d, FAST_SUN_NC, um) / len -
+		    MOON_EMB * pvm[1][i];
+		for (int j = 0; j < 3; j++)
+			sb += w[j] * (b[j].pvb[1][i] - b[j].pvh[1][i]);
+		pvb[0][i] = pvh[0][i];		/* not read */
+		pvb[1][i] = pvh[1][i] + sb;
+	}
+}
+
+/* The models at offset t. */
+static void
+boundary(const struct fast_track *ft, double t, struct bound *b)
+{
+	(void)eraEpv00(ft->base1, ft->base2 + t, b->pvh, b->pvb);
+	eraMoon98(ft->base1, ft->base2 + t, b->pvm);
+}
+
 /* Fit one segment starting at offset a; nc holds the models at a (when
    valid) and receives them at its end; its synodic angle there unwraps
-   this segment's. */
+   this segment's.  sp (or NULL): the segment's pair, which gives the
+   models at both ends and the Sun in the middle. */
 static void
 fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
-    struct fast_seg *s, struct node_cache *nc)
+    struct fast_seg *s, struct node_cache *nc, const struct sun_pair *sp)
 {
 	const double h = 0.5 * ft->len;
 	double ym[3][FAST_MOON_NC], yq[NQ][FAST_ORI_NODES], cq[FAST_ORI_NODES];
 	double ys[3][FAST_SUN_NC], yb[3][FAST_SUN_NODES];
 	double mp[FAST_MOON_NODES][3], mv[FAST_MOON_NODES][3];
+	double pvmid[2][3];
 	const struct node_cache prev = *nc;	/* at a; nc is rewritten */
+	const struct bound *b0 = NULL, *b1 = NULL;	/* start, end */
 
 	s->mid = a + h;
-	/* The Sun first: the synodic angle below reads it. */
+	if (sp != NULL) {
+		b0 = &sp->b[sp->um < 0.0 ? 0 : 1];
+		b1 = b0 + 1;
+	}
+	/* The Moon at every node. */
+	for (int k = 0; k < FAST_MOON_NODES; k++) {
+		double pv[2][3];
+		double t = s->mid + h * lobatto(k, FAST_MOON_NODES);
+
+		if (sp != NULL && (k == 0 || k == FAST_MOON_NODES - 1))
+			memcpy(pv, k == 0 ? b1->pvm : b0->pvm, sizeof pv);
+		else if (k == FAST_MOON_NODES - 1 && prev.valid)
+			memcpy(pv, prev.moon, sizeof pv);
+		else
+			eraMoon98(ft->base1, ft->base2 + t, pv);
+		if (k == (FAST_MOON_NODES - 1) / 2)
+			memcpy(pvmid, pv, sizeof pv);
+		if (k == 0)
+			memcpy(nc->moon, pv, sizeof pv);
+		for (int i = 0; i < 3; i++) {
+			mp[k][i] = pv[0][i] * ERFA_DAU;
+			mv[k][i] = pv[1][i] * ERFA_DAU / ERFA_DAYSEC;
+			ym[i][k] = mp[k][i];
+		}
+	}
+	for (int i = 0; i < 3; i++) {
+		fit_apply(fi->moon, FAST_MOON_NC, ym[i], s->moon[i]);
+		cheb_deriv(s->moon[i], FAST_MOON_NC, s->dmoon[i]);
+	}
+	/* The Sun (before the orientation nodes: the synodic angle reads
+	   it). */
 	for (int j = 0; j < FAST_SUN_NODES; j++) {
 		double pvh[2][3], pvb[2][3];
 		double t = s->mid + h * lobatto(j, FAST_SUN_NODES);
 
-		if (j == FAST_SUN_NODES - 1 && prev.valid) {
+		if (sp != NULL && j != 1) {
+			memcpy(pvh, j == 0 ? b1->pvh : b0->pvh, sizeof pvh);
+			memcpy(pvb, j == 0 ? b1->pvb : b0->pvb, sizeof pvb);
+		} else if (sp != NULL) {
+			pair_middle(fi, sp, ft->len, (const double (*)[3])pvmid,
+			    pvh, pvb);
+		} else if (j == FAST_SUN_NODES - 1 && prev.valid) {
 			memcpy(pvh, prev.pvh, sizeof pvh);
 			memcpy(pvb, prev.pvb, sizeof pvb);
 		} else {
@@ -279,27 +387,6 @@ fit_segment(const struct fast_track *ft, const struct fits *fi, double a,
 	for (int i = 0; i < 3; i++) {
 		fit_apply(fi->sun, FAST_SUN_NC, ys[i], s->sun[i]);
 		fit_apply(fi->beta, FAST_SUN_NODES, yb[i], s->beta[i]);
-	}
-	/* The Moon at every node. */
-	for (int k = 0; k < FAST_MOON_NODES; k++) {
-		double pv[2][3];
-		double t = s->mid + h * lobatto(k, FAST_MOON_NODES);
-
-		if (k == FAST_MOON_NODES - 1 && prev.valid)
-			memcpy(pv, prev.moon, sizeof pv);
-		else
-			eraMoon98(ft->base1, ft->base2 + t, pv);
-		if (k == 0)
-			memcpy(nc->moon, pv, sizeof pv);
-		for (int i = 0; i < 3; i++) {
-			mp[k][i] = pv[0][i] * ERFA_DAU;
-			mv[k][i] = pv[1][i] * ERFA_DAU / ERFA_DAYSEC;
-			ym[i][k] = mp[k][i];
-		}
-	}
-	for (int i = 0; i < 3; i++) {
-		fit_apply(fi->moon, FAST_MOON_NC, ym[i], s->moon[i]);
-		cheb_deriv(s->moon[i], FAST_MOON_NC, s->dmoon[i]);
 	}
 	/* Earth orientation, the Moon's frame and the synodic angle at every
 	   ORI_STRIDE-th Moon node, in time order (x = -1 first) so that the
@@ -368,7 +455,8 @@ fast_track_init(struct fast_track *ft, const struct geom_site *site,
 {
 	struct fits fi;
 	struct node_cache nc;
-	size_t n = fast_track_segments(from, to);
+	struct bound bd[3];
+	size_t n = fast_track_segments(from, to), bk = (size_t)-1;
 	enum errcode rc;
 
 	if (n == 0 || !isfinite(tt1) || !isfinite(tt2))
@@ -395,12 +483,36 @@ fast_track_init(struct fast_track *ft, const struct geom_site *site,
 	    eraSp00(tt1, tt2 + from + 0.5 * (double)n * ft->len), ft->rpom);
 	for (size_t k = 0; k < n; k++) {
 		double a = from + (double)k * ft->len;
+		struct sun_pair sp;
 
 		rc = fit_ut1(ft, a, a + ft->len, &seg[k]);
 		if (rc != ERRCODE_OK)
 			return rc;
 		seg[k].era = eraEra00(tt1, tt2 + a - seg[k].dut[0][0]);
-		fit_segment(ft, &fi, a, &seg[k], &nc);
+		if (n < 2) {
+			fit_segment(ft, &fi, a, &seg[k], &nc, NULL);
+			continue;
+		}
+		/* Pairs of segments (the last pair overlaps the one before
+		   when n is odd); each boundary's models computed once. */
+		{
+			size_t p0 = 2 * (k / 2) < n - 2 ? 2 * (k / 2) : n - 2;
+			int keep = 0;	/* boundaries of the last pair kept */
+
+			if (bk != (size_t)-1 && p0 > bk && p0 <= bk + 2) {
+				keep = (int)(bk + 3 - p0);
+				memmove(bd, bd + (p0 - bk), (size_t)keep *
+				    sizeof bd[0]);
+			}
+			if (p0 != bk)
+				for (int i = keep; i < 3; i++)
+					boundary(ft, from + (double)(p0 +
+					    (size_t)i) * ft->len, &bd[i]);
+			bk = p0;
+			sp.b = bd;
+			sp.um = k == p0 ? -0.5 : 0.5;
+		}
+		fit_segment(ft, &fi, a, &seg[k], &nc, &sp);
 	}
 	return ERRCODE_OK;
 }
