@@ -30,6 +30,20 @@ render_json_checked(json_t *o, int bad)
 	return o;
 }
 
+int
+render_json_list(json_t *o, const char *key, const void *recs, size_t n,
+    size_t size, json_t *(*item)(const void *rec))
+{
+	json_t *arr = json_array();
+	/* json_object_set_new takes arr even when it fails. */
+	int bad = json_object_set_new(o, key, arr) != 0;
+
+	for (size_t i = 0; i < n && !bad; i++)
+		bad = json_array_append_new(arr,
+		    item((const char *)recs + i * size)) != 0;
+	return bad;
+}
+
 /* json_dump_callback sink: append to the mbuf, fail once it has failed. */
 static int
 mbuf_sink(const char *buf, size_t size, void *data)

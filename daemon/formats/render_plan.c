@@ -101,8 +101,9 @@ render_plan_detail_csv(struct mbuf *out, const struct plan_physics *ph,
 }
 
 static json_t *
-window_json(const struct plan_window *w)
+window_json(const void *rec)
 {
+	const struct plan_window *w = rec;
 	const struct score_window *f = &w->f;
 	json_t *o = json_object();
 	int bad;
@@ -222,13 +223,8 @@ render_windows_json(const struct render_plan *p, struct mbuf *out)
 		}
 	}
 	bad |= set(root, "total_windows", json_integer((json_int_t)r->total));
-	arr = json_array();
-	bad |= set(root, "windows", arr);
-	for (size_t i = 0; i < r->n && arr != NULL; i++) {
-		json_t *w = window_json(&r->w[i]);
-
-		bad |= w == NULL || json_array_append_new(arr, w);
-	}
+	bad |= render_json_list(root, "windows", r->w, r->n, sizeof r->w[0],
+	    window_json);
 	return render_json_dump(render_json_checked(root, bad), out);
 }
 

@@ -31,8 +31,9 @@ set(json_t *o, const char *k, json_t *v)
 }
 
 static json_t *
-run_json(const struct night_run *r)
+run_json(const void *rec)
 {
+	const struct night_run *r = rec;
 	json_t *o = json_object();
 	int bad;
 
@@ -63,7 +64,7 @@ render_sched_json(const struct render_sched *p, struct mbuf *out)
 {
 	const struct night_result *r = p->r;
 	const struct night_settings *s = &r->settings;
-	json_t *root = json_object(), *o, *arr;
+	json_t *root = json_object(), *o;
 	int bad = root == NULL;
 	size_t visited = 0;
 
@@ -109,13 +110,8 @@ render_sched_json(const struct render_sched *p, struct mbuf *out)
 		    render_json_num(s->cal_every_s, 0));
 		bad |= set(o, "grid_s", render_json_num(s->grid_s, 0));
 	}
-	arr = json_array();
-	bad |= set(root, "runs", arr);
-	for (size_t i = 0; i < r->nruns && arr != NULL; i++) {
-		json_t *x = run_json(&r->runs[i]);
-
-		bad |= x == NULL || json_array_append_new(arr, x);
-	}
+	bad |= render_json_list(root, "runs", r->runs, r->nruns,
+	    sizeof r->runs[0], run_json);
 	return render_json_dump(render_json_checked(root, bad), out);
 }
 

@@ -28,40 +28,16 @@ finish(json_t *root, int failed, struct mbuf *out)
 	return render_json_dump(render_json_checked(root, failed), out);
 }
 
-/* {"key": [items]}; *arr receives the (borrowed) array. */
-static json_t *
-wrapper(const char *key, json_t **arr)
-{
-	json_t *root = json_object(), *a = json_array();
-
-	*arr = NULL;
-	if (root == NULL || a == NULL) {
-		json_decref(root);
-		json_decref(a);
-		return NULL;
-	}
-	/* json_object_set_new takes a even when it fails. */
-	if (json_object_set_new(root, key, a) != 0) {
-		json_decref(root);
-		return NULL;
-	}
-	*arr = a;
-	return root;
-}
-
 /* {"key": [item(rec) for each of the n records of size bytes at recs]}
-   into out; item gives a new reference, NULL when out of memory. */
+   into out (render_json_list). */
 static enum errcode
 list_json(const char *key, const void *recs, size_t n, size_t size,
     json_t *(*item)(const void *rec), struct mbuf *out)
 {
-	json_t *arr, *root = wrapper(key, &arr);
-	int failed = root == NULL;
+	json_t *root = json_object();
 
-	for (size_t i = 0; i < n && !failed; i++)
-		failed = json_array_append_new(arr,
-		    item((const char *)recs + i * size)) != 0;
-	return finish(root, failed, out);
+	return finish(root, root == NULL ||
+	    render_json_list(root, key, recs, n, size, item), out);
 }
 
 /* --- attempts ------------------------------------------------------------- */

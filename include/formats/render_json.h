@@ -26,6 +26,12 @@ struct json_t *render_json_mjd(double mjd, int ndp);
    failures in one flag.  NULL stays NULL. */
 struct json_t *render_json_checked(struct json_t *o, int bad);
 
+/* Set key on o to the array of item(rec) for each of the n records of
+   size bytes at recs (item gives a new reference, NULL when out of
+   memory): 0, or non-zero when the array could not be built. */
+int render_json_list(struct json_t *o, const char *key, const void *recs,
+    size_t n, size_t size, struct json_t *(*item)(const void *rec));
+
 /*
  * Dump root (consumed: its reference is dropped) with a newline into
  * out.  Serialises straight into the mbuf, not with json_dumps: with
