@@ -743,10 +743,11 @@ store_open(const char *path, int flags, struct store **out, char *errbuf,
 		}
 	}
 	/* Writers bring stale log statistics up to date (a file just
-	   migrated, or written without them). */
-	if (!(flags & (STORE_OPEN_READONLY | STORE_OPEN_NO_MIGRATE)) &&
-	    (e = store_logstats_sync(s, NULL, errbuf, errlen)) != ERRCODE_OK)
-		goto out;
+	   migrated, or written without them).  Not a failure of the open
+	   when they cannot (a file the daemon may only read): readers then
+	   compute them from the records. */
+	if (!(flags & (STORE_OPEN_READONLY | STORE_OPEN_NO_MIGRATE)))
+		(void)store_logstats_sync(s, NULL, NULL, 0);
 	if ((flags & STORE_OPEN_READONLY) && v > STORE_SCHEMA_VERSION) {
 		e = text_err(ERRCODE_DB, errbuf, errlen,
 		    "%s: the database has schema version %d, "
