@@ -321,8 +321,15 @@ K=$T/kill.db
 lib_big_attempts_csv "$T/big.csv" 2027 60000
 "$M" log import --db "$K" "$T/big.csv" >/dev/null 2>"$T/kill.err" & kp=$!
 # Let the import get under way (progress is shown on a terminal only, so
-# there is no line to wait for here), then kill.
-sleep 1
+# there is no line to wait for here): until it has run 0.3 s of CPU (of
+# about 1.2 s; /proc/PID/stat utime + stime in ticks of 10 ms), however
+# loaded the machine, then kill.
+for _ in $(seq 1 200); do
+	[ -r "/proc/$kp/stat" ] || break
+	ticks=$(awk '{print $14 + $15}' "/proc/$kp/stat" 2>/dev/null || echo 0)
+	[ "${ticks:-0}" -ge 30 ] && break
+	sleep 0.05
+done
 if kill -9 "$kp" 2>/dev/null; then
 	wait "$kp" 2>/dev/null
 	KN=$(q "$K" 'SELECT count(*) FROM attempts')
