@@ -337,6 +337,12 @@ if kill -9 "$kp" 2>/dev/null; then
 	check "kill -9 mid-import: integrity_check ok" "[ \"\$(q '$K' 'PRAGMA integrity_check')\" = ok ]"
 	check "after the kill a new import completes" "'$M' log import --db '$K' '$T/big.csv' 2>/dev/null | grep -q '60000 attempts read'"
 	check "... with every row" "[ \"\$(q '$K' 'SELECT count(*) FROM attempts')\" = 60000 ]"
+	# The log's statistics written by the import's transaction: current,
+	# and their counts and returns those of the rows (usable: core/score.c).
+	check "import: log statistics current" "[ \"\$(q '$K' 'SELECT stats_gen = log_gen FROM logstats_meta')\" = 1 ]"
+	check "import: statistics count every attempt" "[ \"\$(q '$K' \"SELECT attempts FROM logstats WHERE target_id = ''\")\" = 60000 ]"
+	check "import: per-target counts as the rows" "[ \"\$(q '$K' \"SELECT count(*) FROM logstats s WHERE target_id <> '' AND attempts <> (SELECT count(*) FROM attempts a WHERE a.target_id = s.target_id)\")\" = 0 ]"
+	check "import: usable returns as the rows" "[ \"\$(q '$K' \"SELECT (SELECT dark_returns + lit_returns FROM logstats WHERE target_id = '') = (SELECT total(returns) FROM attempts WHERE suspect = 0 AND outcome IN ('ranged', 'no_returns') AND shots > 0 AND target_el_deg > 0)\")\" = 1 ]"
 else
 	bad "kill -9: the import ended before it could be killed"
 fi
