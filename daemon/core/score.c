@@ -289,8 +289,9 @@ target_el_range(const struct window_track *tr, const struct geom_target *body,
 	struct fast_frame f;
 	double el;
 
+	/* The centre's range reads the Moon alone: no lunar frame. */
 	fast_frame_at(&tr->ft, t, dark != NULL ? FAST_SUN | FAST_LUNAR :
-	    (body != NULL || range != NULL ? FAST_LUNAR : 0), &f);
+	    (body != NULL ? FAST_LUNAR : 0), &f);
 	if (range != NULL) {
 		double topo[3], radial[3];
 
