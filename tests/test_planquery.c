@@ -33,7 +33,7 @@ plan_json(struct store *db, const char *const *kv, char *text, size_t len)
 	char err[300];
 	json_t *j;
 
-	planquery_params_init(&p);
+	planquery_params_init(&p, QPARAM_QUERY);
 	for (; kv[0] != NULL; kv += 2)
 		assert_int_equal(planquery_param_set(&p, kv[0], kv[1], err,
 		    sizeof err), ERRCODE_OK);
@@ -162,10 +162,11 @@ test_planquery_default_span_and_params(void **state)
 	    "America/Los_Angeles", &to), ERRCODE_OK);
 	check_near(to, fixture_mjd("2027-03-14T19:00:00Z"), 1e-6, "d",
 	    "noon after DST");
-	planquery_params_init(&p);
+	planquery_params_init(&p, QPARAM_QUERY);
 	assert_int_equal(planquery_param_set(&p, "method", "fast", err,
 	    sizeof err), ERRCODE_BAD_ARG);
 	assert_non_null(strstr(err, "method"));
+	assert_string_equal(p.fault, "method");
 	assert_int_equal(planquery_param_set(&p, "from", "2027-13-01", err,
 	    sizeof err), ERRCODE_BAD_ARG);
 	assert_non_null(strstr(err, "from"));
@@ -185,6 +186,22 @@ test_planquery_default_span_and_params(void **state)
 		assert_int_equal(planquery_run(db, &p, PLANQUERY_JSON, &out, err,
 		    sizeof err), ERRCODE_BAD_ARG);
 		assert_non_null(strstr(err, "4 days"));
+		assert_string_equal(p.fault, "to");
+		/* the command line's spelling of the same parameters */
+		planquery_params_init(&p, QPARAM_OPTION);
+		assert_int_equal(planquery_param_set(&p, "method", "fast", err,
+		    sizeof err), ERRCODE_BAD_ARG);
+		assert_string_equal(err, "--method: 'fast' is not best or "
+		    "greedy");
+		assert_int_equal(planquery_param_set(&p, "from",
+		    "2027-03-20T00:00:00Z", err, sizeof err), ERRCODE_OK);
+		assert_int_equal(planquery_param_set(&p, "to",
+		    "2027-03-20T00:00:30Z", err, sizeof err), ERRCODE_OK);
+		assert_int_equal(planquery_run(db, &p, PLANQUERY_JSON, &out, err,
+		    sizeof err), ERRCODE_BAD_ARG);
+		assert_string_equal(err, "--to: the span is shorter than one "
+		    "60 s slot");
+		assert_string_equal(p.fault, "to");
 		mbuf_free(&out);
 	}
 	store_close(db);
@@ -237,7 +254,7 @@ test_planquery_formats(void **state)
 	(void)state;
 	assert_int_equal(store_open(fixture_db, STORE_OPEN_READONLY, &db, err,
 	    sizeof err), ERRCODE_OK);
-	planquery_params_init(&p);
+	planquery_params_init(&p, QPARAM_QUERY);
 	assert_int_equal(planquery_param_set(&p, "at", "2027-03-20T04:00:00Z",
 	    err, sizeof err), ERRCODE_OK);
 	mbuf_init(&out);

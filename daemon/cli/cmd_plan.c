@@ -2,7 +2,6 @@
 /* cmd_plan.c: "moonrange plan", the night's runs: which target to range,
    when, in what order. */
 #include <stdio.h>
-#include <string.h>
 
 #include "cli/cli.h"
 #include "cli/cmd_run.h"
@@ -31,22 +30,20 @@ cmd_plan(const struct cli_args *a)
 	int st;
 	enum errcode rc;
 
-	planquery_params_init(&p);
+	planquery_params_init(&p, QPARAM_OPTION);
 	cli_now(&u1, &u2);
 	p.at_mjd = (u1 - TEXT_MJD0) + u2;
 	while (cli_query_next(a, QUERY_PARAMS, &q))
 		if (planquery_param_set(&p, q.name, q.value, err, sizeof err))
-			return cli_usage_error("--%s", err);
+			return cli_usage_error("%s", err);
 	if ((st = cli_query_db(db_path, &db)) != CLI_EXIT_OK)
 		return st;
 	mbuf_init(&out);
 	err[0] = '\0';
 	rc = planquery_run(db, &p, fmt, &out, err, sizeof err);
 	store_close(db);
-	/* Bad input names its parameter (from and to as options); a
-	   failure says it comes from the plan. */
+	/* Bad input names its parameter as an option; a failure says it
+	   comes from the plan. */
 	return cli_finish(rc, &out, "%s%s", cli_status_of(rc) !=
-	    CLI_EXIT_USAGE ? "plan: " : strncmp(err, "from", 4) &&
-	    strncmp(err, "to", 2) ? "" : "--", err[0] ? err :
-	    errcode_str(rc));
+	    CLI_EXIT_USAGE ? "plan: " : "", err[0] ? err : errcode_str(rc));
 }

@@ -327,15 +327,14 @@ plan_common(struct api_ctx *ctx, const struct api_request *req,
 	pthread_mutex_unlock(&ctx->lock);
 	if (!ok)
 		return;
-	planquery_params_init(&p);
+	planquery_params_init(&p, QPARAM_QUERY);
 	p.at_mjd = (req->now1 - ERFA_DJM0) + req->now2;
 	for (size_t i = 0; i < req->nparams; i++) {
 		err[0] = '\0';
 		rc = planquery_param_set(&p, req->params[i].key,
 		    req->params[i].value, err, sizeof err);
 		if (rc != ERRCODE_OK) {
-			api_error(resp, ERRCODE_BAD_ARG, req->params[i].key,
-			    err[0] ? err : NULL);
+			api_query_error(resp, rc, req->params[i].key, err);
 			return;
 		}
 	}
@@ -343,16 +342,8 @@ plan_common(struct api_ctx *ctx, const struct api_request *req,
 	db = api_read_store(ctx, &locked);
 	rc = planquery_run(db, &p, fmt, &resp->body, err, sizeof err);
 	api_release_store(ctx, db, locked);
-	if (rc == ERRCODE_BAD_ARG) {
-		/* the sentence starts with the parameter at fault */
-		const char *f = strncmp(err, "from", 4) == 0 ? "from" :
-		    strncmp(err, "to", 2) == 0 ? "to" : NULL;
-
-		api_error(resp, rc, f, err[0] ? err : NULL);
-		return;
-	}
 	if (rc != ERRCODE_OK) {
-		api_error(resp, rc, NULL, err[0] ? err : NULL);
+		api_query_error(resp, rc, p.fault, err);
 		return;
 	}
 	api_ok_or_error(resp, rc, 200, ctype);

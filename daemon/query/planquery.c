@@ -2,6 +2,7 @@
 /* planquery.c: the night plan from the store: parameters, span, settings,
    planning and rendering, shared by the CLI and the HTTP API. */
 #include <math.h>
+#include <stdarg.h>
 #include <stdio.h>
 #include <string.h>
 
@@ -15,25 +16,45 @@
 #include "query/qzone.h"
 
 void
-planquery_params_init(struct planquery_params *p)
+planquery_params_init(struct planquery_params *p, enum qparam_style style)
 {
-	memset(p, 0, sizeof *p);
+	memset(p, 0, sizeof *p);	/* fault NULL */
+	p->style = style;
 	p->at_mjd = NAN;
 	p->from_mjd = NAN;
 	p->to_mjd = NAN;
 	p->method = SCHED_BEST;
 }
 
+/* ERRCODE_BAD_ARG with the sentence "NAME: " fmt..., NAME the canonical
+   name (now p->fault) as p->style spells it. */
+static enum errcode bad(struct planquery_params *p, const char *name,
+    char *errbuf, size_t errlen, const char *fmt, ...) MEM_PRINTFLIKE(5, 6);
+
 static enum errcode
-parse_mjd(const char *name, const char *value, double *mjd, char *errbuf,
-    size_t errlen)
+bad(struct planquery_params *p, const char *name, char *errbuf,
+    size_t errlen, const char *fmt, ...)
+{
+	char msg[240];
+	va_list ap;
+
+	va_start(ap, fmt);
+	vsnprintf(msg, sizeof msg, fmt, ap);
+	va_end(ap);
+	p->fault = name;
+	return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: %s",
+	    qparam_name(p->style, name).s, msg);
+}
+
+static enum errcode
+parse_mjd(struct planquery_params *p, const char *name, const char *value,
+    double *mjd, char *errbuf, size_t errlen)
 {
 	char err[160];
 	double u1, u2;
 
-	if (tscale_parse_utc(value, &u1, &u2, err, sizeof err) != ERRCODE_OK) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "%s: %s", name, err);
-	}
+	if (tscale_parse_utc(value, &u1, &u2, err, sizeof err) != ERRCODE_OK)
+		return bad(p, name, errbuf, errlen, "%s", err);
 	*mjd = (u1 - TEXT_MJD0) + u2;
 	return ERRCODE_OK;
 }
@@ -44,19 +65,19 @@ planquery_param_set(struct planquery_params *p, const char *name,
 {
 	if (value == NULL)
 		value = "";
+	p->fault = NULL;
 	if (strcmp(name, "from") == 0)
-		return parse_mjd(name, value, &p->from_mjd, errbuf, errlen);
+		return parse_mjd(p, "from", value, &p->from_mjd, errbuf, errlen);
 	if (strcmp(name, "to") == 0)
-		return parse_mjd(name, value, &p->to_mjd, errbuf, errlen);
+		return parse_mjd(p, "to", value, &p->to_mjd, errbuf, errlen);
 	if (strcmp(name, "at") == 0)
-		return parse_mjd(name, value, &p->at_mjd, errbuf, errlen);
+		return parse_mjd(p, "at", value, &p->at_mjd, errbuf, errlen);
 	if (strcmp(name, "method") == 0) {
 		int m = night_method_parse(value);
 
-		if (m < 0) {
-			return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
-			    "method: '%.40s' is not best or greedy", value);
-		}
+		if (m < 0)
+			return bad(p, "method", errbuf, errlen,
+			    "'%.40s' is not best or greedy", value);
 		p->method = (enum sched_method)m;
 		return ERRCODE_OK;
 	}
@@ -104,31 +125,38 @@ planquery_noon_after(double mjd, const char *tz, double *out)
 }
 
 enum errcode
-planquery_span(const struct planquery_params *p, const char *tz,
+planquery_span(struct planquery_params *p, const char *tz,
     double *from_mjd, double *to_mjd, char *errbuf, size_t errlen)
 {
 	int hf = isfinite(p->from_mjd), ht = isfinite(p->to_mjd);
 
-	if (hf != ht) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
-		    "%s: give from and to together", hf ? "to" : "from");
-	}
+	p->fault = NULL;
+	if (hf != ht)
+		return bad(p, hf ? "to" : "from", errbuf, errlen,
+		    "give from and to together");
 	if (hf) {
-		if (!(p->to_mjd > p->from_mjd)) {
-			return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "to: must be after from");
-		}
-		if (p->to_mjd - p->from_mjd > NIGHT_MAX_DAYS) {
-			return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
-			    "to: a plan spans at most %.0f days",
-			    NIGHT_MAX_DAYS);
-		}
+		struct night_settings ns;
+
+		/* night_plan's own checks of the span, made here so that
+		   the sentence names the parameter as the transport does */
+		night_settings_default(&ns);
+		if (!(p->to_mjd > p->from_mjd))
+			return bad(p, "to", errbuf, errlen,
+			    "must be after from");
+		if (p->to_mjd - p->from_mjd > NIGHT_MAX_DAYS)
+			return bad(p, "to", errbuf, errlen,
+			    "a plan spans at most %.0f days", NIGHT_MAX_DAYS);
+		if ((p->to_mjd - p->from_mjd) * 86400.0 / ns.grid_s +
+		    1e-9 < 1.0)
+			return bad(p, "to", errbuf, errlen,
+			    "the span is shorter than one %.0f s slot",
+			    ns.grid_s);
 		*from_mjd = p->from_mjd;
 		*to_mjd = p->to_mjd;
 		return ERRCODE_OK;
 	}
-	if (!isfinite(p->at_mjd)) {
-		return text_err(ERRCODE_BAD_ARG, errbuf, errlen, "at: no time given");
-	}
+	if (!isfinite(p->at_mjd))
+		return bad(p, "at", errbuf, errlen, "no time given");
 	*from_mjd = p->at_mjd;
 	if (planquery_noon_after(p->at_mjd, tz, to_mjd) != ERRCODE_OK) {
 		return text_err(ERRCODE_BAD_ARG, errbuf, errlen,
@@ -186,7 +214,7 @@ planquery_night(struct store *db, double from_mjd, double to_mjd,
 }
 
 enum errcode
-planquery_run(struct store *db, const struct planquery_params *p,
+planquery_run(struct store *db, struct planquery_params *p,
     enum planquery_format fmt, struct mbuf *out, char *errbuf, size_t errlen)
 {
 	struct tzone zone;
