@@ -752,13 +752,13 @@ fast_target_el(const struct fast_track *ft, const struct fast_frame *f,
 	return fast_elevation(ft, topo);
 }
 
-void
-fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
+/* The geocentric Moon (light time from the geocentre) and apparent Sun
+   at x in s, from the fitted series (dxdt: dx per second). */
+static void
+seg_bodies(const struct fast_seg *s, double x, double dxdt, double sun[3],
     double moon[3])
 {
-	double x, v[3], tau;
-	const struct fast_seg *s = locate(ft, &t, &x);
-	const double dxdt = 2.0 / (ft->len * ERFA_DAYSEC);
+	double v[3], tau;
 
 	for (int i = 0; i < 3; i++) {
 		moon[i] = cheb(s->moon[i], FAST_MOON_NC, x);
@@ -770,20 +770,23 @@ fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
 	sun_apparent(s, x, sun);
 }
 
+void
+fast_bodies_seen(const struct fast_track *ft, double t, double sun[3],
+    double moon[3])
+{
+	double x;
+	const struct fast_seg *s = locate(ft, &t, &x);
+
+	seg_bodies(s, x, 2.0 / (ft->len * ERFA_DAYSEC), sun, moon);
+}
+
 /* Synodic angle (unwrapped) at x in s, from the fitted bodies. */
 static double
 seg_synodic(const struct fast_seg *s, double x, double dxdt)
 {
-	double m[3], v[3], sun[3], em[3], es[3], tau, lm, ls, coarse;
+	double m[3], sun[3], em[3], es[3], lm, ls, coarse;
 
-	for (int i = 0; i < 3; i++) {
-		m[i] = cheb(s->moon[i], FAST_MOON_NC, x);
-		v[i] = cheb(s->dmoon[i], FAST_VEL_NC, x) * dxdt;
-	}
-	tau = vnorm(m) / GEOM_C;
-	for (int i = 0; i < 3; i++)
-		m[i] -= tau * v[i];
-	sun_apparent(s, x, sun);
+	seg_bodies(s, x, dxdt, sun, m);
 	mxv((const double (*)[3])s->ecm, m, em);
 	mxv((const double (*)[3])s->ecm, sun, es);
 	lm = atan2(em[1], em[0]);
